@@ -1,0 +1,7 @@
+/** `haloweave plan` (not built yet). */
+import type { CliIO } from '../io';
+
+export async function run(_argv: string[], io: CliIO): Promise<number> {
+  io.err('haloweave plan: not built yet');
+  return 2;
+}

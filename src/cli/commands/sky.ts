@@ -1,0 +1,7 @@
+/** `haloweave sky` (not built yet). */
+import type { CliIO } from '../io';
+
+export async function run(_argv: string[], io: CliIO): Promise<number> {
+  io.err('haloweave sky: not built yet');
+  return 2;
+}

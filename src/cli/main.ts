@@ -1,0 +1,83 @@
+/** The `haloweave` command line: dispatches to one module per command. */
+import { processIO, type CliIO, type Command } from './io';
+import { InputError } from '../core/result';
+
+interface CommandEntry {
+  usage: string;
+  summary: string;
+  load: () => Promise<{ run: Command }>;
+}
+
+export const COMMANDS: Record<string, CommandEntry> = {
+  plan: {
+    usage: 'haloweave plan PLAN --out DIR',
+    summary: 'solve a plan file: pointings, slits, starlight and sky slits, coverage; write the output folder',
+    load: () => import('./commands/plan'),
+  },
+  check: {
+    usage: 'haloweave check DIR',
+    summary: 're-check an output folder against its instrument profile; non-zero exit on any violation',
+    load: () => import('./commands/check'),
+  },
+  export: {
+    usage: 'haloweave export DIR --format csv|ecsv|votable|fits|json --out FILE',
+    summary: 'write the slit list of an output folder in another table format',
+    load: () => import('./commands/export'),
+  },
+  sky: {
+    usage: 'haloweave sky PLAN --from DATE --to DATE [--max-airmass X] [--json]',
+    summary: "observability of the galaxy from the profile's site, one row a night",
+    load: () => import('./commands/sky'),
+  },
+  demo: {
+    usage: 'haloweave demo --out DIR',
+    summary: 'write the invented example scenario and solve it',
+    load: () => import('./commands/demo'),
+  },
+};
+
+export function helpText(): string {
+  const width = Math.max(...Object.values(COMMANDS).map((c) => c.usage.length));
+  const lines = [
+    'haloweave - plan slit-mask spectroscopy of galaxy halos',
+    '',
+    'Commands:',
+    ...Object.values(COMMANDS).map((c) => `  ${c.usage.padEnd(width)}  ${c.summary}`),
+    '',
+    'Run `haloweave COMMAND --help` for the options of one command.',
+  ];
+  return lines.join('\n');
+}
+
+/** Run the CLI with argv (without node and script); returns the exit status. */
+export async function main(argv: string[], io: CliIO = processIO): Promise<number> {
+  const [name, ...rest] = argv;
+  if (!name || name === '--help' || name === '-h' || name === 'help') {
+    io.out(helpText());
+    return name ? 0 : 1;
+  }
+  if (name === '--version') {
+    io.out('haloweave 0.1.0');
+    return 0;
+  }
+  const entry = COMMANDS[name];
+  if (!entry) {
+    io.err(`haloweave: unknown command "${name}"; the commands are ${Object.keys(COMMANDS).join(', ')} (see haloweave --help)`);
+    return 2;
+  }
+  if (rest.includes('--help') || rest.includes('-h')) {
+    io.out(`usage: ${entry.usage}\n${entry.summary}`);
+    return 0;
+  }
+  try {
+    const mod = await entry.load();
+    return await mod.run(rest, io);
+  } catch (e) {
+    if (e instanceof InputError) {
+      for (const line of e.message.split('\n')) io.err(`haloweave ${name}: ${line}`);
+      return 2;
+    }
+    io.err(`haloweave ${name}: internal error: ${(e as Error).stack ?? e}`);
+    return 70;
+  }
+}

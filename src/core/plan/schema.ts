@@ -1,0 +1,106 @@
+/**
+ * The plan file (`*.plan.json`, format `haloweave.plan/1`), input of a planning run and output
+ * `solved.plan.json`. Interface contract, "Plan file". RA/Dec in degrees or sexagesimal text,
+ * PAs in degrees East of North, Re in arcsec (circularised), velocities km/s, wavelengths Angstrom (air).
+ * Unknown keys are kept so that a plan round-trips through the tool without loss.
+ */
+import { z } from 'zod';
+import { parseDecDeg, parseRaDeg } from '../sky/sexagesimal';
+
+export const PLAN_FORMAT = 'haloweave.plan/1';
+
+const angleText = z.union([z.number(), z.string()]);
+
+/** RA in degrees or text, validated by the sexagesimal parser. */
+const raField = angleText.superRefine((v, ctx) => {
+  const r = parseRaDeg(v);
+  if (!r.ok) ctx.addIssue({ code: 'custom', message: r.error });
+});
+const decField = angleText.superRefine((v, ctx) => {
+  const r = parseDecDeg(v);
+  if (!r.ok) ctx.addIssue({ code: 'custom', message: r.error });
+});
+
+export const galaxySchema = z.looseObject({
+  id: z.string().min(1),
+  ra: raField,
+  dec: decField,
+  reArcsec: z.number().positive('must be greater than 0 (effective radius in arcsec)'),
+  axisRatio: z.number().gt(0, 'must be in (0, 1]').max(1, 'must be in (0, 1]'),
+  paDeg: z.number().min(-360).max(360),
+  distanceMpc: z.number().positive(),
+  vsysKms: z.number().min(-1000).max(30000),
+  sersicN: z.number().min(0.2).max(20),
+  muE: z.number().min(10).max(35),
+});
+
+export const goalsSchema = z.looseObject({
+  masks: z.number().int().min(1).max(50),
+  tracerReachRe: z.number().positive(),
+  starlightReachRe: z.number().min(0),
+  linesA: z.array(z.number().positive()).min(1, 'list at least one rest wavelength in Angstrom'),
+});
+
+export const planMaskSchema = z.looseObject({
+  id: z.string().min(1),
+  raDeg: z.number().min(0).max(360).optional(),
+  decDeg: z.number().min(-90).max(90).optional(),
+  paDeg: z.number().min(-360).max(360).optional(),
+  locked: z.boolean().optional(),
+  /** Hour angle (hours) the mask is designed for; used by the refraction report. */
+  designHourAngleH: z.number().min(-12).max(12).optional(),
+});
+
+export const columnMappingSchema = z.looseObject({
+  id: z.string().optional(),
+  ra: z.string().optional(),
+  dec: z.string().optional(),
+  mag: z.string().optional(),
+  color: z.string().optional(),
+  priority: z.string().optional(),
+  role: z.string().optional(),
+  raUnit: z.enum(['deg', 'hour']).optional(),
+});
+
+/** Per-target edits made in the editor or by hand: a weight that overrides every rule, and forcing in or out. */
+export const targetOverrideSchema = z.looseObject({
+  weight: z.number().min(0).optional(),
+  force: z.enum(['in', 'out']).optional(),
+});
+
+export const planSchema = z.looseObject({
+  format: z.literal(PLAN_FORMAT, { message: `must be "${PLAN_FORMAT}"` }),
+  galaxy: galaxySchema,
+  instrument: z.string().min(1, 'name a profile id or a path to a profile file'),
+  catalog: z.string().min(1, 'give the catalog path, relative to the plan file'),
+  catalogColumns: columnMappingSchema.optional(),
+  goals: goalsSchema,
+  masks: z.array(planMaskSchema).optional(),
+  targetOverrides: z.record(z.string(), targetOverrideSchema).optional(),
+  /** Target weighting rules (solver/weighting). */
+  weighting: z.looseObject({}).optional(),
+  /** Integrated-starlight and sky slit settings (solver/starlight). */
+  starlight: z.looseObject({}).optional(),
+  /** Pointing search settings (solver/pointingSearch). */
+  search: z.looseObject({}).optional(),
+  /** Observing conditions for refraction and exposure (observe/). */
+  observing: z.looseObject({}).optional(),
+});
+
+export type PlanFile = z.infer<typeof planSchema>;
+export type PlanMask = z.infer<typeof planMaskSchema>;
+
+/** The galaxy with its position in decimal degrees (ICRS). */
+export interface GalaxyModel {
+  id: string;
+  raDeg: number;
+  decDeg: number;
+  reArcsec: number;
+  axisRatio: number;
+  /** Major-axis PA, degrees East of North. */
+  paDeg: number;
+  distanceMpc: number;
+  vsysKms: number;
+  sersicN: number;
+  muE: number;
+}

@@ -1,0 +1,57 @@
+/**
+ * Planar frames on the tangent plane, exactly as the interface contract defines them.
+ * Sky frame: xi East, eta North (arcsec). Mask frame at position angle PA (degrees East of North):
+ * x along the dispersion, y along the slits; at PA = 0, y points North and x points East.
+ * Galaxy frame at major-axis PA theta: u along the major axis, v along the minor axis.
+ */
+import { DEG_PER_RAD, RAD_PER_DEG } from './angles';
+
+export interface MaskPointArcsec {
+  xArcsec: number;
+  yArcsec: number;
+}
+
+export interface GalaxyPointArcsec {
+  uArcsec: number;
+  vArcsec: number;
+}
+
+/** Sky (xi East, eta North) to mask frame at paDeg: y = xi sinPA + eta cosPA, x = xi cosPA - eta sinPA (arcsec). */
+export function skyToMaskArcsec(xiArcsec: number, etaArcsec: number, paDeg: number): MaskPointArcsec {
+  const s = Math.sin(paDeg * RAD_PER_DEG), c = Math.cos(paDeg * RAD_PER_DEG);
+  return { xArcsec: xiArcsec * c - etaArcsec * s, yArcsec: xiArcsec * s + etaArcsec * c };
+}
+
+/** Mask frame at paDeg back to sky (xi East, eta North), arcsec; the inverse of skyToMaskArcsec. */
+export function maskToSkyArcsec(xArcsec: number, yArcsec: number, paDeg: number): { xiArcsec: number; etaArcsec: number } {
+  const s = Math.sin(paDeg * RAD_PER_DEG), c = Math.cos(paDeg * RAD_PER_DEG);
+  return { xiArcsec: xArcsec * c + yArcsec * s, etaArcsec: -xArcsec * s + yArcsec * c };
+}
+
+/** Sky (xi East, eta North) to galaxy frame at major-axis PA thetaDeg: u = xi sin + eta cos, v = xi cos - eta sin (arcsec). */
+export function skyToGalaxyArcsec(xiArcsec: number, etaArcsec: number, thetaDeg: number): GalaxyPointArcsec {
+  const s = Math.sin(thetaDeg * RAD_PER_DEG), c = Math.cos(thetaDeg * RAD_PER_DEG);
+  return { uArcsec: xiArcsec * s + etaArcsec * c, vArcsec: xiArcsec * c - etaArcsec * s };
+}
+
+/** Galaxy frame (u major, v minor) back to sky (xi East, eta North), arcsec. */
+export function galaxyToSkyArcsec(uArcsec: number, vArcsec: number, thetaDeg: number): { xiArcsec: number; etaArcsec: number } {
+  const m = maskToSkyArcsec(vArcsec, uArcsec, thetaDeg);
+  return m;
+}
+
+/** Circularised elliptical radius in arcsec: R = sqrt(q u^2 + v^2 / q), q = b/a. */
+export function circularisedRadiusArcsec(uArcsec: number, vArcsec: number, axisRatio: number): number {
+  return Math.sqrt(axisRatio * uArcsec * uArcsec + (vArcsec * vArcsec) / axisRatio);
+}
+
+/** Semi-major-axis elliptical radius in arcsec: a = sqrt(u^2 + (v / q)^2), q = b/a. */
+export function semiMajorRadiusArcsec(uArcsec: number, vArcsec: number, axisRatio: number): number {
+  const w = vArcsec / axisRatio;
+  return Math.sqrt(uArcsec * uArcsec + w * w);
+}
+
+/** Azimuth in degrees from the major axis, phi = atan2(v, u), in (-180, 180]. */
+export function galaxyAzimuthDeg(uArcsec: number, vArcsec: number): number {
+  return Math.atan2(vArcsec, uArcsec) * DEG_PER_RAD;
+}

@@ -1,0 +1,6 @@
+export * from './angles';
+export * from './sexagesimal';
+export * from './separation';
+export * from './tangentPlane';
+export * from './frames';
+export * from './sersic';

@@ -1,0 +1,33 @@
+/** Great-circle separation and position angle between two sky positions (degrees, ICRS). */
+import { DEG_PER_RAD, RAD_PER_DEG, wrap360Deg } from './angles';
+
+/**
+ * Angular separation in degrees between (ra1, dec1) and (ra2, dec2), all in degrees.
+ * Vincenty's special case of the great-circle formula: accurate from micro-arcseconds up to
+ * antipodal points, where the haversine and cosine forms lose precision.
+ */
+export function separationDeg(ra1Deg: number, dec1Deg: number, ra2Deg: number, dec2Deg: number): number {
+  const d1 = dec1Deg * RAD_PER_DEG;
+  const d2 = dec2Deg * RAD_PER_DEG;
+  const dra = (ra2Deg - ra1Deg) * RAD_PER_DEG;
+  const s1 = Math.sin(d1), c1 = Math.cos(d1), s2 = Math.sin(d2), c2 = Math.cos(d2);
+  const sdra = Math.sin(dra), cdra = Math.cos(dra);
+  const a = c2 * sdra;
+  const b = c1 * s2 - s1 * c2 * cdra;
+  const num = Math.hypot(a, b);
+  const den = s1 * s2 + c1 * c2 * cdra;
+  return Math.atan2(num, den) * DEG_PER_RAD;
+}
+
+/**
+ * Position angle in degrees, East of North in [0, 360), of point 2 as seen from point 1.
+ * 0 = point 2 due North of point 1, 90 = due East.
+ */
+export function positionAngleDeg(ra1Deg: number, dec1Deg: number, ra2Deg: number, dec2Deg: number): number {
+  const d1 = dec1Deg * RAD_PER_DEG;
+  const d2 = dec2Deg * RAD_PER_DEG;
+  const dra = (ra2Deg - ra1Deg) * RAD_PER_DEG;
+  const y = Math.sin(dra) * Math.cos(d2);
+  const x = Math.cos(d1) * Math.sin(d2) - Math.sin(d1) * Math.cos(d2) * Math.cos(dra);
+  return wrap360Deg(Math.atan2(y, x) * DEG_PER_RAD);
+}

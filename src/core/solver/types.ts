@@ -1,0 +1,40 @@
+/**
+ * Solver types. Mask frame: x along the dispersion, y along the slits, arcsec, about the mask
+ * centre (gnomonic) at position angle paDeg (East of North).
+ */
+
+export type SlitRole = 'tracer' | 'starlight' | 'sky' | 'alignment';
+
+/** A mask pointing: centre in ICRS degrees and PA in degrees East of North, [0, 360). */
+export interface MaskPointing {
+  id: string;
+  raDeg: number;
+  decDeg: number;
+  paDeg: number;
+  locked: boolean;
+}
+
+/** One slit or alignment box, exactly the columns of slits.csv. */
+export interface Slit {
+  maskId: string;
+  slitId: string;
+  objectId: string;
+  role: SlitRole;
+  raDeg: number;
+  decDeg: number;
+  xArcsec: number;
+  yArcsec: number;
+  lenBelowArcsec: number;
+  lenAboveArcsec: number;
+  widthArcsec: number;
+  tiltDeg: number;
+  priority: number;
+  /** Magnitude of the object, or null for starlight and sky slits. */
+  mag: number | null;
+}
+
+/** The slits chosen for one mask. */
+export interface MaskSolution {
+  mask: MaskPointing;
+  slits: Slit[];
+}
