@@ -1,36 +1,60 @@
 /** Load and validate instrument profiles; every wrong or missing key is reported by its path. */
 import { profileSchema, type InstrumentProfile } from './schema';
 import { InputError, type Problem } from '../result';
-import { polygonSelfIntersects } from '../geometry/polygon';
+import { polygonSelfIntersects, type Corner } from '../geometry/polygon';
 
-/** Turn zod issues into problems named by their dotted key path, e.g. `slits.gapArcsec`. */
+/** Turn zod issues into problems named by their dotted key path, e.g. `slits.gapArcsec`; a missing key says so. */
 export function zodIssuesToProblems(source: string, issues: readonly { path: readonly PropertyKey[]; message: string }[]): Problem[] {
-  return issues.map((i) => ({
-    where: `${source}: ${i.path.length ? i.path.map(String).join('.') : '(top level)'}`,
-    what: i.message,
-  }));
+  return issues.map((i) => {
+    const where = `${source}: ${i.path.length ? i.path.map(String).join('.') : '(top level)'}`;
+    const missing = /^Invalid input: expected (\w+), received undefined$/.exec(i.message);
+    if (missing) return { where, what: `missing (expected ${missing[1]})`, fix: 'add this key' };
+    return { where, what: i.message };
+  });
 }
 
-/** Validate a parsed profile object; throws InputError listing every problem (source names the file). */
+/** Validate a parsed profile object; throws InputError listing every problem at once (source names the file). */
 export function parseProfile(json: unknown, source = 'profile'): InstrumentProfile {
   const r = profileSchema.safeParse(json);
-  if (!r.success) throw new InputError(zodIssuesToProblems(source, r.error.issues));
-  const p = r.data;
-  const problems: Problem[] = [];
-  if (polygonSelfIntersects(p.footprint)) {
-    problems.push({ where: `${source}: footprint`, what: 'the polygon crosses itself', fix: 'list the corners in order around the outline' });
+  const problems: Problem[] = r.success ? [] : zodIssuesToProblems(source, r.error.issues);
+  // The outline check runs on whatever footprint is readable, so it is reported along with schema problems.
+  const footprint = readableFootprint(r.success ? r.data : json);
+  if (footprint && polygonSelfIntersects(footprint)) {
+    problems.push({ where: `${source}: footprint`, what: 'the polygon crosses or touches itself', fix: 'list the corners in order around the outline' });
   }
-  if (problems.length) throw new InputError(problems);
-  return p;
+  if (problems.length || !r.success) throw new InputError(problems);
+  return r.data;
 }
 
-/** Parse profile text (JSON); a syntax error is reported with the file name. */
+/** The footprint as corners when it is an array of at least three [x, y] pairs of finite numbers, else null. */
+function readableFootprint(json: unknown): Corner[] | null {
+  if (typeof json !== 'object' || json === null) return null;
+  const f = (json as { footprint?: unknown }).footprint;
+  if (!Array.isArray(f) || f.length < 3) return null;
+  const ok = f.every((c) => Array.isArray(c) && c.length === 2 && c.every((v) => typeof v === 'number' && Number.isFinite(v)));
+  return ok ? (f as Corner[]) : null;
+}
+
+/** Parse profile text (JSON); a syntax error is reported with the file name, line and column. */
 export function parseProfileText(text: string, source = 'profile'): InstrumentProfile {
   let json: unknown;
   try {
     json = JSON.parse(text);
   } catch (e) {
-    throw new InputError([{ where: source, what: `not valid JSON: ${(e as Error).message}` }]);
+    const message = (e as Error).message;
+    throw new InputError([{ where: `${source}${jsonErrorLocation(text, message)}`, what: `not valid JSON: ${message}`, fix: 'correct the JSON syntax at that place' }]);
   }
   return parseProfile(json, source);
+}
+
+/** ":line:column" (1-based) of a JSON.parse error whose message names a character position, else "". */
+export function jsonErrorLocation(text: string, message: string): string {
+  const m = /position (\d+)/.exec(message);
+  // "Unexpected end of JSON input" names no position: the problem is at the end of the text.
+  const pos = m ? Math.min(Number(m[1]), text.length) : /end of JSON input/.test(message) ? text.length : null;
+  if (pos === null) return '';
+  const before = text.slice(0, pos);
+  const line = before.split('\n').length;
+  const column = pos - (before.lastIndexOf('\n') + 1) + 1;
+  return `:${line}:${column}`;
 }

@@ -53,5 +53,6 @@ export function semiMajorRadiusArcsec(uArcsec: number, vArcsec: number, axisRati
 
 /** Azimuth in degrees from the major axis, phi = atan2(v, u), in (-180, 180]. */
 export function galaxyAzimuthDeg(uArcsec: number, vArcsec: number): number {
-  return Math.atan2(vArcsec, uArcsec) * DEG_PER_RAD;
+  // `+ 0` turns a negative zero v into +0, so a point on the negative major axis gives +180, not -180.
+  return Math.atan2(vArcsec + 0, uArcsec) * DEG_PER_RAD;
 }

@@ -52,9 +52,12 @@ export function regularisedLowerGamma(a: number, x: number): number {
   return 1 - Math.exp(lnPre) * h;
 }
 
-/** Ciotti & Bertin (1999, A&A 352, 447) asymptotic series for b_n: 2n - 1/3 + 4/(405n) + 46/(25515n^2) + ... */
+/**
+ * Ciotti & Bertin (1999, A&A 352, 447) asymptotic series for b_n, its first four terms:
+ * 2n - 1/3 + 4/(405n) + 46/(25515n^2). Good to ~5e-4 at n = 0.5 and ~1e-7 at n = 10; use sersicBn for exact values.
+ */
 export function sersicBnSeries(n: number): number {
-  return 2 * n - 1 / 3 + 4 / (405 * n) + 46 / (25515 * n * n) + 131 / (1148175 * n ** 3) - 2194697 / (30690717750 * n ** 4);
+  return 2 * n - 1 / 3 + 4 / (405 * n) + 46 / (25515 * n * n);
 }
 
 /** Exact b_n for Sérsic index n > 0: the root of P(2n, b) = 1/2, by bracketing bisection polished with Newton. */

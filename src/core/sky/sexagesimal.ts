@@ -2,7 +2,8 @@
  * Sexagesimal text for RA and Dec. Accepted forms: `12:34:56.7`, `12 34 56.7`, `12h34m56.7s`,
  * `-05:06:07.8`, `-05 06 07.8`, `-05d06m07.8s`, `-05°06'07.8"`, `-00 30` (sign kept on a zero
  * leading field), and plain decimal numbers. RA in sexagesimal without unit letters is in hours;
- * RA with `d`/`°` letters is in degrees. Output is always decimal degrees.
+ * RA with `d`/`°` letters is in degrees. Unit letters must mark the fields in order (h or d, then m,
+ * then s); an empty or misplaced field is an error. Output is always decimal degrees.
  */
 import { fail, ok, type Result } from '../result';
 import { wrap360Deg } from './angles';
@@ -15,6 +16,20 @@ interface Fields {
 
 const NUMBER_RE = /^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/;
 
+const FIELD_NAMES = ['first', 'minutes', 'seconds'] as const;
+
+/** Unit letters and the field position (0 = hours/degrees, 1 = minutes, 2 = seconds) each one marks. */
+const SEPARATOR_RE = /(\s*(?:''|[hHdD°mM'′sS"″:])\s*|\s+)/;
+
+function letterPosition(sep: string): { position: number; unit: Fields['unit'] } | null {
+  const s = sep.trim();
+  if (s === '' || s === ':') return null;
+  if (/^[hH]$/.test(s)) return { position: 0, unit: 'hours' };
+  if (/^[dD°]$/.test(s)) return { position: 0, unit: 'degrees' };
+  if (/^[mM'′]$/.test(s)) return { position: 1, unit: 'none' };
+  return { position: 2, unit: 'none' }; // s S " ″ ''
+}
+
 /** Split a sexagesimal text into sign, up to three numeric fields and the unit its letters imply. */
 function splitFields(text: string): Result<Fields> {
   let t = text.trim();
@@ -24,14 +39,30 @@ function splitFields(text: string): Result<Fields> {
     negative = t[0] !== '+';
     t = t.slice(1).trim();
   }
+  // Alternating [field, separator, field, separator, ..., field].
+  const pieces = t.split(SEPARATOR_RE);
+  const parts: string[] = [];
   let unit: Fields['unit'] = 'none';
-  if (/[hH]/.test(t)) unit = 'hours';
-  else if (/[d°D]/.test(t)) unit = 'degrees';
-  const parts = t
-    .replace(/[hHdD°mM'′sS"″:]/g, ' ')
-    .trim()
-    .split(/\s+/)
-    .filter((p) => p !== '');
+  for (let k = 0; k < pieces.length; k += 2) {
+    const p = pieces[k];
+    const sep = pieces[k + 1];
+    const isLast = k + 1 >= pieces.length;
+    if (p === '') {
+      // Only a trailing unit letter may leave an empty piece behind it ("12h", "30s").
+      if (isLast && k > 0 && letterPosition(pieces[k - 1]) !== null) break;
+      return fail(`"${text}": field ${parts.length + 1} is empty; write every field, e.g. 12:00:34 rather than 12::34`);
+    }
+    parts.push(p);
+    if (sep !== undefined) {
+      const mark = letterPosition(sep);
+      if (mark !== null && mark.position !== parts.length - 1) {
+        return fail(
+          `"${text}": "${sep.trim()}" marks the ${mark.position === 0 ? mark.unit : FIELD_NAMES[mark.position]} but follows field ${parts.length} ("${p}"); write the fields in order, e.g. 12h00m34s`,
+        );
+      }
+      if (mark !== null && mark.position === 0) unit = mark.unit;
+    }
+  }
   if (parts.length === 0 || parts.length > 3) {
     return fail(`"${text}" is not an angle: expected 1 to 3 fields such as 12:34:56.7`);
   }
@@ -39,8 +70,8 @@ function splitFields(text: string): Result<Fields> {
   for (const [i, p] of parts.entries()) {
     if (!/^(\d+(\.\d*)?|\.\d+)$/.test(p)) return fail(`"${text}": field ${i + 1} ("${p}") is not a number`);
     const v = Number(p);
-    if (i > 0 && v >= 60) return fail(`"${text}": field ${i + 1} is ${p}, minutes and seconds must be below 60`);
-    if (i < parts.length - 1 && !Number.isInteger(v)) return fail(`"${text}": only the last field may have decimals`);
+    if (i > 0 && v >= 60) return fail(`"${text}": the ${FIELD_NAMES[i]} field is ${p}; ${FIELD_NAMES[i]} must be below 60`);
+    if (i < parts.length - 1 && !Number.isInteger(v)) return fail(`"${text}": field ${i + 1} ("${p}") has decimals; only the last field may have decimals`);
     values.push(v);
   }
   return ok({ negative, values, unit });
