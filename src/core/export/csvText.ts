@@ -2,25 +2,32 @@
  * CSV text shared by every CSV the project writes (slits.csv, masks.csv, reports, exports).
  * RFC 4180 quoting; text cells that a spreadsheet would run as a formula (leading = + - @, tab or CR)
  * are neutralised with a leading apostrophe when `neutraliseFormulas` is set. Numbers are never altered.
+ * The neutralising is reversible: a text that itself starts with an apostrophe gets one more, and
+ * `unneutraliseCell` (used by the readers of the project's own CSV files) removes exactly one.
  */
 import type { Cell } from '../catalog/types';
+import type { OutputTable } from './outputTable';
+import { typedCell } from './typedCell';
 
 export interface CsvWriteOptions {
   neutraliseFormulas?: boolean;
   /** Line end, default "\n". */
   eol?: string;
+  /** Also quote text that starts with `#` (for formats whose readers skip `#` lines, such as ECSV). */
+  quoteCommentStart?: boolean;
 }
 
-const FORMULA_START = /^[=+\-@\t\r]/;
+const FORMULA_START = /^[=+\-@\t\r']/;
 
 /** One CSV cell: numbers as shortest round-trip text, null as empty, text quoted when it holds , " or line ends. */
 export function csvCell(value: Cell | undefined, opts: CsvWriteOptions = {}): string {
   if (value === null || value === undefined) return '';
-  if (typeof value === 'number') return Number.isFinite(value) ? String(value) : '';
+  if (typeof value === 'number') return Number.isFinite(value) ? (Object.is(value, -0) ? '-0' : String(value)) : '';
   if (typeof value === 'boolean') return value ? 'true' : 'false';
   let s = value;
   if (opts.neutraliseFormulas && FORMULA_START.test(s)) s = `'${s}`;
-  return /[",\r\n]/.test(s) || /^\s|\s$/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
+  const quote = /[",\r\n]/.test(s) || /^\s|\s$/.test(s) || (opts.quoteCommentStart === true && s.startsWith('#'));
+  return quote ? `"${s.replace(/"/g, '""')}"` : s;
 }
 
 /** A whole CSV document: header row then data rows. */
@@ -29,4 +36,22 @@ export function toCsv(header: readonly string[], rows: readonly (readonly Cell[]
   const out: string[] = [header.map((h) => csvCell(h, opts)).join(',')];
   for (const r of rows) out.push(r.map((c) => csvCell(c, opts)).join(','));
   return out.join(eol) + eol;
+}
+
+/** Undo `neutraliseFormulas` on one text cell: drop one leading apostrophe if there is one. */
+export function unneutraliseCell(text: string): string {
+  return text.startsWith("'") ? text.slice(1) : text;
+}
+
+/**
+ * An OutputTable as the project's CSV: a header of column names, then the rows; text cells formula-neutralised,
+ * numbers as shortest round-trip text, missing values empty. Units and metadata are not carried (use ECSV for those).
+ */
+export function outputTableToCsv(table: OutputTable): string {
+  const rows = table.rows.map((r, i) => table.columns.map((col, j) => typedCell(table, col, i, r[j])));
+  return toCsv(
+    table.columns.map((c) => c.name),
+    rows,
+    { neutraliseFormulas: true },
+  );
 }

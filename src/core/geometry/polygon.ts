@@ -156,6 +156,8 @@ export function stripFreeYRange(x0: number, x1: number, yRef: number, polygon: r
     let [bx, by] = polygon[(i + 1) % n];
     if (ax > bx) { [ax, bx] = [bx, ax]; [ay, by] = [by, ay]; }
     if (bx < x0 || ax > x1) continue; // edge entirely beside the strip
+    // An edge lying along a side of the strip only touches it (boundary inclusive).
+    if (bx === ax && (ax === x0 || ax === x1)) continue;
     // Clip the edge to the strip and take its y extent there.
     let ya: number, yb: number;
     if (bx === ax) { ya = ay; yb = by; }

@@ -6,6 +6,10 @@
  */
 import { z } from 'zod';
 import { parseDecDeg, parseRaDeg } from '../sky/sexagesimal';
+import { weightingSchema } from '../solver/weighting';
+import { starlightSchema } from '../solver/starlight';
+import { searchSchema } from '../solver/objective';
+import { observingSchema } from '../observe/observingSettings';
 
 export const PLAN_FORMAT = 'haloweave.plan/1';
 
@@ -78,13 +82,13 @@ export const planSchema = z.looseObject({
   masks: z.array(planMaskSchema).optional(),
   targetOverrides: z.record(z.string(), targetOverrideSchema).optional(),
   /** Target weighting rules (solver/weighting). */
-  weighting: z.looseObject({}).optional(),
+  weighting: weightingSchema.optional(),
   /** Integrated-starlight and sky slit settings (solver/starlight). */
-  starlight: z.looseObject({}).optional(),
+  starlight: starlightSchema.optional(),
   /** Pointing search settings (solver/pointingSearch). */
-  search: z.looseObject({}).optional(),
+  search: searchSchema.optional(),
   /** Observing conditions for refraction and exposure (observe/). */
-  observing: z.looseObject({}).optional(),
+  observing: observingSchema.optional(),
 });
 
 export type PlanFile = z.infer<typeof planSchema>;

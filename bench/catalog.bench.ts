@@ -1,0 +1,97 @@
+/**
+ * Catalog reading benchmark: a 1 000 000-row CSV (invented rows, fixed seed) read and validated by the streaming
+ * file reader, and for comparison by the in-memory `readCatalog`, each in a fresh child process whose peak RSS
+ * (process.resourceUsage().maxRSS) is reported. Goals (issue 3): under 5 s and under 1 GB for the streaming read.
+ */
+import { spawnSync } from 'node:child_process';
+import { mkdtempSync, openSync, readFileSync, rmSync, writeSync, closeSync } from 'node:fs';
+import { cpus, loadavg, tmpdir } from 'node:os';
+import { join, resolve } from 'node:path';
+import { performance } from 'node:perf_hooks';
+import { printTable, type BenchRow } from './harness';
+
+const CHILD_FLAG = '--catalog-bench-child';
+const ROWS = 1_000_000;
+
+/** Write an invented catalog of `rows` rows (LCG with a fixed seed), about 60 bytes a row. */
+function writeCatalog(path: string, rows: number): void {
+  let seed = 20261202;
+  const rnd = () => (seed = (Math.imul(seed, 1664525) + 1013904223) >>> 0) / 4294967296;
+  const fd = openSync(path, 'w');
+  writeSync(fd, 'id,ra,dec,mag,color,priority,role\n');
+  let buf: string[] = [];
+  for (let i = 0; i < rows; i++) {
+    const ra = (187.5 + (rnd() - 0.5) * 0.8).toFixed(6);
+    const dec = (-5.2 + (rnd() - 0.5) * 0.8).toFixed(6);
+    const mag = (19 + rnd() * 5).toFixed(3);
+    const color = (0.6 + rnd() * 0.8).toFixed(3);
+    const prio = i % 10 === 0 ? (1 + rnd() * 4).toFixed(2) : '';
+    const role = i % 500 === 0 ? 'alignment' : 'tracer';
+    buf.push(`c${i},${ra},${dec},${mag},${color},${prio},${role}`);
+    if (buf.length === 10000) {
+      writeSync(fd, buf.join('\n') + '\n');
+      buf = [];
+    }
+  }
+  if (buf.length > 0) writeSync(fd, buf.join('\n') + '\n');
+  closeSync(fd);
+}
+
+/** Child mode: read the file one way and print time, peak RSS and counts as JSON. */
+async function child(mode: string, path: string): Promise<void> {
+  const c0 = process.cpuUsage();
+  const t0 = performance.now();
+  let result;
+  if (mode === 'stream') {
+    const { readCatalogFile } = await import('../src/cli/readCatalogFile');
+    result = readCatalogFile(path);
+  } else {
+    const { readCatalog } = await import('../src/core/catalog/read');
+    result = readCatalog(readFileSync(path), path);
+  }
+  const ms = performance.now() - t0;
+  const c = process.cpuUsage(c0);
+  const cpuMs = (c.user + c.system) / 1000;
+  const maxRssMB = process.resourceUsage().maxRSS / 1024;
+  console.log(JSON.stringify({ ms, cpuMs, maxRssMB, rowsRead: result.rowsRead, used: result.targets.length, rejected: result.rejects.length }));
+}
+
+function runChild(mode: string, path: string): { ms: number; cpuMs: number; maxRssMB: number; rowsRead: number; used: number; rejected: number } {
+  const r = spawnSync(process.execPath, [resolve('bin/run-ts.js'), resolve('bench/catalog.bench.ts'), CHILD_FLAG, mode, path], {
+    encoding: 'utf8',
+    maxBuffer: 1 << 20,
+  });
+  if (r.status !== 0) throw new Error(`child ${mode} failed: ${r.stderr}`);
+  const line = r.stdout.trim().split('\n').pop()!;
+  return JSON.parse(line);
+}
+
+export default async function bench(): Promise<void> {
+  const dir = mkdtempSync(join(tmpdir(), 'haloweave-catalog-bench-'));
+  try {
+    const path = join(dir, 'catalog-1m.csv');
+    const g0 = performance.now();
+    writeCatalog(path, ROWS);
+    const genMs = performance.now() - g0;
+    const stream = runChild('stream', path);
+    const memory = runChild('memory', path);
+    if (stream.rowsRead !== ROWS || stream.used !== ROWS) throw new Error(`streaming reader read ${stream.rowsRead} rows, used ${stream.used}`);
+    const rows: BenchRow[] = [
+      { name: 'write 1e6-row CSV (setup)', value: genMs, unit: 'ms' },
+      { name: 'stream read+validate 1e6 rows', value: stream.ms, unit: 'ms', goal: 5000, lowerIsBetter: true },
+      { name: 'stream read+validate CPU time', value: stream.cpuMs, unit: 'ms', note: 'user+system, all threads; steadier than wall time on a shared machine' },
+      { name: 'stream read peak RSS', value: stream.maxRssMB, unit: 'MB', goal: 1024, lowerIsBetter: true, note: 'whole child process' },
+      { name: 'in-memory readCatalog 1e6 rows', value: memory.ms, unit: 'ms', note: 'file read whole' },
+      { name: 'in-memory readCatalog CPU time', value: memory.cpuMs, unit: 'ms' },
+      { name: 'in-memory readCatalog peak RSS', value: memory.maxRssMB, unit: 'MB' },
+      { name: 'rows used (stream)', value: stream.used, unit: 'rows' },
+    ];
+    rows.push({ name: 'machine load average (1 min) at the end', value: loadavg()[0], unit: `on ${cpus().length} cores` });
+    await printTable('catalog: 1 000 000-row CSV, read and validated', rows);
+  } finally {
+    rmSync(dir, { recursive: true, force: true });
+  }
+}
+
+const flag = process.argv.indexOf(CHILD_FLAG);
+if (flag >= 0) await child(process.argv[flag + 1], process.argv[flag + 2]);

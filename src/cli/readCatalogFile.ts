@@ -1,0 +1,86 @@
+/**
+ * Read and validate a catalog file from disk. CSV, TSV and ECSV are streamed: the file is read in chunks and
+ * validated row by row, so only the usable targets stay in memory; VOTable and FITS files are read whole.
+ * The result is the same as `readCatalog` on the whole file's bytes.
+ */
+import { closeSync, openSync, readFileSync, readSync, statSync } from 'node:fs';
+import { InputError } from '../core/result';
+import type { CatalogReadResult, ColumnMapping } from '../core/catalog/types';
+import { assertSupportedContent, detectFormat, textEncodingOf, type TextEncodingName } from '../core/catalog/detect';
+import { delimitedRawTable, sniffCsvDialect, type TextSource } from '../core/catalog/csvReader';
+import { ecsvRawTable } from '../core/catalog/ecsvReader';
+import { readCatalog } from '../core/catalog/read';
+import { validateTable } from '../core/catalog/validate';
+
+const HEAD_BYTES = 1 << 20;
+
+/**
+ * A TextSource over a file, decoded in chunks of `chunkBytes` (UTF-8, or UTF-16 by its BOM); each call reads from the
+ * start. Invalid UTF-8 is an InputError naming the byte offset (never replaced silently).
+ */
+export function fileTextSource(path: string, chunkBytes = 1 << 16, encoding: TextEncodingName = 'utf-8', name = path): TextSource {
+  return (onChunk) => {
+    const fd = openSync(path, 'r');
+    let offset = 0;
+    try {
+      const buf = new Uint8Array(chunkBytes);
+      const decoder = new TextDecoder(encoding, { fatal: true });
+      const decode = (bytes?: Uint8Array) => {
+        try {
+          return bytes ? decoder.decode(bytes, { stream: true }) : decoder.decode();
+        } catch {
+          throw new InputError([{ where: name, what: `is not valid ${encoding.toUpperCase()} text (near byte ${offset})`, fix: 'save the file as UTF-8' }]);
+        }
+      };
+      for (;;) {
+        const n = readSync(fd, buf, 0, chunkBytes, null);
+        if (n === 0) {
+          const tail = decode();
+          if (tail !== '') onChunk(tail);
+          return;
+        }
+        const text = decode(buf.subarray(0, n));
+        offset += n;
+        if (!onChunk(text)) return;
+      }
+    } finally {
+      closeSync(fd);
+    }
+  };
+}
+
+/** The first `n` bytes of a file. */
+function readHead(path: string, n: number): Uint8Array {
+  const fd = openSync(path, 'r');
+  try {
+    const buf = new Uint8Array(n);
+    const got = readSync(fd, buf, 0, n, 0);
+    return buf.subarray(0, got);
+  } finally {
+    closeSync(fd);
+  }
+}
+
+/**
+ * Read and validate the catalog at `path` (format from its content). `opts.source` names the file in the result and
+ * in errors (default: the path). Throws InputError when it cannot be used.
+ */
+export function readCatalogFile(path: string, mapping?: ColumnMapping, opts: { chunkBytes?: number; source?: string } = {}): CatalogReadResult {
+  const name = opts.source ?? path;
+  let isFile = false;
+  try {
+    isFile = statSync(path).isFile();
+  } catch {
+    throw new InputError([{ where: name, what: 'the catalog file does not exist', fix: 'check the catalog path in the plan (it is relative to the plan file)' }]);
+  }
+  if (!isFile) throw new InputError([{ where: name, what: 'is not a file', fix: 'give the path of the catalog file' }]);
+  const headBytes = readHead(path, HEAD_BYTES);
+  assertSupportedContent(headBytes, name);
+  const format = detectFormat(headBytes);
+  if (format === 'fits' || format === 'votable') return readCatalog(new Uint8Array(readFileSync(path)), name, mapping);
+  const encoding = textEncodingOf(headBytes);
+  const head = new TextDecoder(encoding).decode(headBytes);
+  const source = fileTextSource(path, opts.chunkBytes, encoding, name);
+  const table = format === 'ecsv' ? ecsvRawTable(head, source, name) : delimitedRawTable(format, source, sniffCsvDialect(head.slice(0, 65536)));
+  return validateTable(table, name, mapping);
+}

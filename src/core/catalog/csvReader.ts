@@ -1,0 +1,397 @@
+/**
+ * Delimited text (CSV, TSV and the body of ECSV) split into records with their 1-based file line, through
+ * papaparse (text without any quote is split directly, as papaparse's own fast mode does).
+ * Rules: a UTF-8 BOM is dropped; CRLF, LF and CR line ends are accepted; lines starting with `#` before the
+ * header row are comments (skipped, but counted in line numbers); quoted fields may hold delimiters, quotes ("")
+ * and line ends. The parser takes the text in chunks, so a file can be streamed, and gives the same records as
+ * the whole text at once.
+ */
+import Papa from 'papaparse';
+import type { CatalogFormat, ColumnInfo, RawTable, RowReject } from './types';
+
+/** One record of delimited text: its cells, the 1-based file line it starts on, and a parse problem if any. */
+export interface CsvRecord {
+  cells: string[];
+  line: number;
+  /** Set when the record could not be split cleanly (an unterminated quoted field). */
+  error?: string;
+}
+
+export interface CsvDialect {
+  delimiter: string;
+  /** Line end used by the file: "\r\n", "\n" or "\r". */
+  newline: '\r\n' | '\n' | '\r';
+  /**
+   * Space-delimited text where a run of spaces is one delimiter and spaces at either end of a line are ignored
+   * (ECSV with the space delimiter, as astropy reads it; quoted fields keep their spaces).
+   */
+  collapseSpaces?: boolean;
+}
+
+/** Column placeholder for a reject that concerns the whole row rather than one column. */
+export const WHOLE_ROW = '(row)';
+
+const CANDIDATE_DELIMITERS = [',', '\t', ';', '|'] as const;
+
+/** Count of `ch` in `line` outside double-quoted parts. */
+function countOutsideQuotes(line: string, ch: string): number {
+  let n = 0;
+  let quoted = false;
+  for (let i = 0; i < line.length; i++) {
+    const c = line[i];
+    if (c === '"') quoted = !quoted;
+    else if (!quoted && c === ch) n++;
+  }
+  return n;
+}
+
+/**
+ * Guess the dialect from the start of a text: the line end that occurs first, and the delimiter among
+ * comma, tab, semicolon and bar that occurs most often (outside quotes) in the first non-comment line
+ * (ties go to the earlier one in that list; no candidate at all means a one-column comma file).
+ */
+export function sniffCsvDialect(head: string): CsvDialect {
+  const text = stripBom(head);
+  const crlf = text.indexOf('\r\n');
+  const lf = text.indexOf('\n');
+  const cr = text.indexOf('\r');
+  let newline: CsvDialect['newline'] = '\n';
+  if (cr >= 0 && (lf < 0 || cr < lf)) newline = crlf === cr ? '\r\n' : '\r';
+  const lines = text.split(newline);
+  const headerLine = lines.find((l) => l.trim() !== '' && !l.startsWith('#')) ?? '';
+  let best: string = ',';
+  let bestCount = 0;
+  for (const d of CANDIDATE_DELIMITERS) {
+    const n = countOutsideQuotes(headerLine, d);
+    if (n > bestCount) {
+      best = d;
+      bestCount = n;
+    }
+  }
+  return { delimiter: best, newline };
+}
+
+/** The text without a leading UTF-8 byte-order mark. */
+export function stripBom(text: string): string {
+  return text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
+}
+
+/** Number of occurrences of the line end `nl` in text[from, to). */
+function countLineEnds(text: string, nl: string, from: number, to: number): number {
+  const ch = nl === '\r' ? '\r' : '\n';
+  let n = 0;
+  let i = text.indexOf(ch, from);
+  while (i >= 0 && i < to) {
+    n++;
+    i = text.indexOf(ch, i + 1);
+  }
+  return n;
+}
+
+/**
+ * Incremental record splitter: `push` chunks of text in order, then `end`. Records are emitted with the
+ * 1-based file line on which they start. Before the first record, lines starting with `#` (comments, the
+ * ECSV header) and blank lines are skipped but counted; after it every line is data, so an id that starts
+ * with `#` is never taken for a comment.
+ */
+export class CsvRecordSplitter {
+  private carry = '';
+  /** Line ends consumed before `carry` starts. */
+  private linesBefore = 0;
+  private first = true;
+  private inPreamble = true;
+
+  constructor(
+    private readonly dialect: CsvDialect,
+    private readonly emit: (rec: CsvRecord) => void,
+  ) {}
+
+  /** Add a chunk of text; emits every record known to be complete. */
+  push(chunk: string): void {
+    if (this.first) {
+      chunk = stripBom(chunk);
+      this.first = false;
+    }
+    this.carry += chunk;
+    if (this.inPreamble && !this.skipPreamble(false)) return;
+    this.parse(false);
+  }
+
+  /** Signal the end of the text; emits the remaining records. */
+  end(): void {
+    if (this.inPreamble) this.skipPreamble(true);
+    this.parse(true);
+    this.carry = '';
+  }
+
+  /** Drop leading comment and blank lines from `carry`; true once the first data line has begun. */
+  private skipPreamble(final: boolean): boolean {
+    const nl = this.dialect.newline;
+    let pos = 0;
+    for (;;) {
+      const eol = this.carry.indexOf(nl, pos);
+      if (eol < 0 && !final) {
+        // An incomplete line: decide once it is complete, unless it already shows data.
+        const rest = this.carry.slice(pos);
+        if (rest.trim() === '' || rest.startsWith('#')) {
+          this.carry = rest;
+          return false;
+        }
+        break;
+      }
+      const line = this.carry.slice(pos, eol < 0 ? this.carry.length : eol);
+      if (line.trim() !== '' && !line.startsWith('#')) break;
+      if (eol < 0) {
+        pos = this.carry.length;
+        break;
+      }
+      pos = eol + nl.length;
+      this.linesBefore++;
+    }
+    this.carry = this.carry.slice(pos);
+    this.inPreamble = false;
+    return true;
+  }
+
+  private parse(final: boolean): void {
+    if (this.dialect.collapseSpaces) this.carry = collapseSpaceRuns(this.carry, final);
+    const text = this.carry;
+    if (text === '') return;
+    if (text.indexOf('"') < 0) this.parseUnquoted(text, final);
+    else this.parseQuoted(text, final);
+  }
+
+  /** Fast path for text without quotes: every record is one line, so lines follow from the record index. */
+  private parseUnquoted(text: string, final: boolean): void {
+    const nl = this.dialect.newline;
+    let cut: number;
+    if (final) cut = text.length;
+    else {
+      const last = text.lastIndexOf(nl);
+      if (last < 0) return;
+      cut = last + nl.length;
+    }
+    // Text up to `cut` ends with a line end (or is the final remainder): papaparse gives one trailing empty record for it.
+    const endsWithNl = endsWithLineEnd(text, cut, nl);
+    const body = endsWithNl ? text.slice(0, cut - nl.length) : text.slice(0, cut);
+    if (cut > 0 && (body !== '' || endsWithNl)) {
+      // Without quotes a record is a line and a field is the text between delimiters: this is papaparse's own
+      // "fast mode" (split on the line end, then on the delimiter), done here without its per-call overhead.
+      const lines = body.split(nl);
+      const delimiter = this.dialect.delimiter;
+      const base = this.linesBefore + 1;
+      for (let i = 0; i < lines.length; i++) this.emit({ cells: lines[i].split(delimiter), line: base + i });
+      this.linesBefore += lines.length;
+    }
+    this.carry = final ? '' : text.slice(cut);
+  }
+
+  /** General path: records may span lines inside quotes; lines come from papaparse's cursor after each record. */
+  private parseQuoted(text: string, final: boolean): void {
+    const nl = this.dialect.newline;
+    let prevEnd = 0;
+    let linesToPrevEnd = this.linesBefore;
+    let pending: { data: string[]; end: number; error?: string } | null = null;
+    const flush = (row: { data: string[]; end: number; error?: string }) => {
+      const linesToEnd = linesToPrevEnd + countLineEnds(text, nl, prevEnd, row.end);
+      const lastLine = endsWithLineEnd(text, row.end, nl) ? linesToEnd : linesToEnd + 1;
+      let inner = 0;
+      for (const c of row.data) if (c.length > 0) inner += countLineEnds(c, nl, 0, c.length);
+      this.emit({ cells: row.data, line: lastLine - inner, error: row.error });
+      prevEnd = row.end;
+      linesToPrevEnd = linesToEnd;
+    };
+    Papa.parse<string[]>(text, {
+      delimiter: this.dialect.delimiter,
+      newline: nl,
+      quoteChar: '"',
+      escapeChar: '"',
+      skipEmptyLines: false,
+      step: (r) => {
+        // Emit with a delay of one record: without the end of input, the last one may be cut by the chunk boundary.
+        if (pending) flush(pending);
+        const q = r.errors.length > 0 ? r.errors.find((e) => e.type === 'Quotes') : undefined;
+        pending = { data: r.data, end: r.meta.cursor, error: q ? 'quoted field is never closed' : undefined };
+      },
+    });
+    const last = pending as { data: string[]; end: number; error?: string } | null;
+    if (final) {
+      // papaparse reports a final empty record for the text after the last line end: not a line.
+      if (last && !(last.data.length === 1 && last.data[0] === '' && prevEnd >= text.length)) flush(last);
+      this.carry = '';
+      return;
+    }
+    this.carry = text.slice(prevEnd);
+    this.linesBefore = linesToPrevEnd;
+  }
+}
+
+/**
+ * Space runs outside quotes collapsed to one space, and spaces at the start and end of each line removed. `text`
+ * starts at a record boundary. Idempotent, so a remainder can be collapsed again with the next chunk; unless `final`,
+ * a space run at the very end is kept as one space (the line may go on in the next chunk).
+ */
+export function collapseSpaceRuns(text: string, final: boolean): string {
+  let out = '';
+  let from = 0; // start of the slice not yet copied
+  let quoted = false;
+  let lineStart = true;
+  let fieldStart = true;
+  let i = 0;
+  const n = text.length;
+  while (i < n) {
+    const c = text.charCodeAt(i);
+    if (quoted) {
+      if (c === 34) {
+        if (text.charCodeAt(i + 1) === 34) i++;
+        else quoted = false;
+      }
+      i++;
+      continue;
+    }
+    if (c === 32) {
+      let j = i;
+      while (j < n && text.charCodeAt(j) === 32) j++;
+      const next = j < n ? text.charCodeAt(j) : -1;
+      out += text.slice(from, i);
+      const atLineEnd = next === 10 || next === 13 || (next === -1 && final);
+      if (!lineStart && !atLineEnd) {
+        out += ' ';
+        fieldStart = true;
+      }
+      from = i = j;
+      continue;
+    }
+    if (c === 10 || c === 13) {
+      lineStart = true;
+      fieldStart = true;
+    } else {
+      if (c === 34 && fieldStart) quoted = true;
+      lineStart = false;
+      fieldStart = false;
+    }
+    i++;
+  }
+  return from === 0 ? text : out + text.slice(from);
+}
+
+/** True when text[0, end) ends with the line end `nl`. */
+function endsWithLineEnd(text: string, end: number, nl: string): boolean {
+  return end >= nl.length && text.slice(end - nl.length, end) === nl;
+}
+
+/** Split a whole delimited text into records with file lines (dialect sniffed unless given). */
+export function parseCsvRecords(text: string, dialect: CsvDialect = sniffCsvDialect(text.slice(0, 65536))): CsvRecord[] {
+  const out: CsvRecord[] = [];
+  const s = new CsvRecordSplitter(dialect, (r) => out.push(r));
+  s.push(text);
+  s.end();
+  return out;
+}
+
+/** True for a record that holds nothing but blanks (an empty line, or only delimiters and spaces). */
+export function isBlankRecord(cells: readonly string[]): boolean {
+  for (const c of cells) if (c.trim() !== '') return false;
+  return true;
+}
+
+/** Delivers a text in order as chunks; `onChunk` returns false to stop early. */
+export type TextSource = (onChunk: (chunk: string) => boolean) => void;
+
+/** A TextSource over a string held in memory (slices of `chunkChars`). */
+export function stringSource(text: string, chunkChars = 1 << 16): TextSource {
+  return (onChunk) => {
+    for (let i = 0; i < text.length; i += chunkChars) if (!onChunk(text.slice(i, i + chunkChars))) return;
+  };
+}
+
+/** The first record that is not blank (the header row), reading only as far as needed. */
+function readHeaderRecord(source: TextSource, dialect: CsvDialect): CsvRecord | null {
+  let header: CsvRecord | null = null;
+  const s = new CsvRecordSplitter(dialect, (r) => {
+    if (header === null && !isBlankRecord(r.cells)) header = r;
+  });
+  let exhausted = true;
+  source((chunk) => {
+    s.push(chunk);
+    if (header !== null) {
+      exhausted = false;
+      return false;
+    }
+    return true;
+  });
+  if (exhausted && header === null) s.end();
+  return header;
+}
+
+/**
+ * A RawTable over delimited text. The first non-blank record is the header (names trimmed; a trailing empty
+ * name from a trailing delimiter dropped). Later records are rows: blank lines, rows without any value and
+ * rows with the wrong number of fields become structural rejects (a row with one extra empty field, from a
+ * trailing delimiter, is accepted). `declared` columns (ECSV) replace the header's names, which must match them;
+ * a mismatch is added to `problems`.
+ */
+export function delimitedRawTable(
+  format: CatalogFormat,
+  source: TextSource,
+  dialect: CsvDialect,
+  declared?: ColumnInfo[],
+  problems: string[] = [],
+): RawTable {
+  const header = readHeaderRecord(source, dialect);
+  const names = header ? header.cells.map((c) => c.trim()) : [];
+  if (names.length > 1 && names[names.length - 1] === '') names.pop();
+  let columns: ColumnInfo[] = names.map((name) => ({ name }));
+  if (declared) {
+    const declaredNames = declared.map((c) => c.name);
+    if (header && declaredNames.join('\u0000') !== names.join('\u0000')) {
+      problems.push(`line ${header.line}: the header row names the columns ${names.join(', ')} but the ECSV header declares ${declaredNames.join(', ')}`);
+    }
+    columns = declared;
+  }
+  const structuralRejects: RowReject[] = [];
+  const n = columns.length;
+  const headerLine = header?.line ?? 0;
+  return {
+    format,
+    columns,
+    structuralRejects,
+    forEachRow(visit) {
+      if (!header) return;
+      const s = new CsvRecordSplitter(dialect, (rec) => {
+        if (rec.line <= headerLine) return;
+        if (rec.error) {
+          structuralRejects.push({ line: rec.line, column: WHOLE_ROW, reason: `${rec.error}; close it with a double quote (") or remove the stray quote` });
+          return;
+        }
+        if (isBlankRecord(rec.cells)) {
+          structuralRejects.push({ line: rec.line, column: WHOLE_ROW, reason: rec.cells.length === 1 ? 'blank line' : 'row without any value' });
+          return;
+        }
+        let cells = rec.cells;
+        if (cells.length === n + 1 && cells[n].trim() === '') cells = cells.slice(0, n);
+        if (cells.length !== n) {
+          const fewer = cells.length < n;
+          structuralRejects.push({
+            line: rec.line,
+            column: fewer ? columns[cells.length].name : WHOLE_ROW,
+            reason: `wrong field count: ${fewer ? 'missing field, ' : ''}the row has ${cells.length} fields, the header (line ${headerLine}) has ${n}`,
+          });
+          return;
+        }
+        visit(cells, rec.line);
+      });
+      source((chunk) => {
+        s.push(chunk);
+        return true;
+      });
+      s.end();
+    },
+  };
+}
+
+/** A RawTable over a whole CSV/TSV text (format from the sniffed delimiter unless given). */
+export function readCsvTable(text: string, format?: CatalogFormat): RawTable {
+  const dialect = sniffCsvDialect(text.slice(0, 65536));
+  return delimitedRawTable(format ?? (dialect.delimiter === '\t' ? 'tsv' : 'csv'), stringSource(text), dialect);
+}

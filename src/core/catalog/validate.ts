@@ -1,0 +1,255 @@
+/**
+ * Row validation: turns a RawTable into Targets (ICRS degrees) and RowRejects. Every problem of a row is
+ * reported (one reject per problem, so a row may appear more than once); a row with any problem is not used.
+ * `rowsRead` counts every data row the format holds, including blank lines and rows the format could not
+ * split, so rowsRead = targets + distinct rejected lines.
+ */
+import { InputError } from '../result';
+import { parseDecDeg, parseRaDeg } from '../sky/sexagesimal';
+import { resolveColumns, type AngleUnit, type ResolvedColumns } from './columns';
+import type { CatalogReadResult, Cell, ColumnMapping, RawTable, RowReject, Target, TargetRole } from './types';
+
+const NUMBER_TEXT = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
+const MISSING_TEXT = /^(nan|null|none|n\/a|--)$/i;
+
+/** True for `0x..`, `0b..`, `0o..` (which Number() reads as hexadecimal, binary, octal; signed forms give NaN). */
+function hasRadixPrefix(c: string): boolean {
+  if (c.length < 2 || c.charCodeAt(0) !== 48) return false;
+  const k = c.charCodeAt(1) | 32;
+  return k === 120 || k === 98 || k === 111;
+}
+
+/** True for a character that can start a plain decimal number: digit, sign or point (not a blank). */
+function isPlainDecimalStart(code: number): boolean {
+  return (code >= 48 && code <= 57) || code === 45 || code === 43 || code === 46;
+}
+
+/** The text without blanks at either end (no new string when there are none). */
+function trimmed(t: string): string {
+  return t.length > 0 && t.charCodeAt(0) > 32 && t.charCodeAt(t.length - 1) > 32 ? t : t.trim();
+}
+
+/**
+ * Why a cell converter returned NaN: `reason` null means the value is missing, else it says what is wrong.
+ * One object is reused for every cell (the converters run a million times for a large catalog).
+ */
+export interface CellWhy {
+  reason: string | null;
+}
+
+/** Text of a cell as a user would see it ('' for null). */
+export function cellText(c: Cell): string {
+  if (c === null) return '';
+  if (typeof c === 'number') return Number.isNaN(c) ? '' : String(c);
+  if (typeof c === 'boolean') return c ? 'true' : 'false';
+  return c;
+}
+
+/**
+ * A cell as a finite number, or NaN with `why.reason` set (null: missing). Numbers as they are; text as a
+ * plain decimal number; '', NaN and `nan`/`null`/`none`/`n/a`/`--` are missing values.
+ */
+export function cellNumber(c: Cell, why: CellWhy): number {
+  if (typeof c === 'string') {
+    // Fast path: Number() accepts every plain decimal; it also accepts '', blanks and 0x/0b/0o forms, excluded here.
+    const quick = Number(c);
+    if (quick === quick && c.length > 0 && isPlainDecimalStart(c.charCodeAt(0)) && (quick !== 0 || NUMBER_TEXT.test(c)) && !hasRadixPrefix(c)) {
+      if (quick - quick === 0) return quick;
+    }
+    if (NUMBER_TEXT.test(c)) return Number(c);
+    const t = c.trim();
+    if (t !== c && NUMBER_TEXT.test(t)) return Number(t);
+    why.reason = t === '' || MISSING_TEXT.test(t) ? null : `"${t}" is not a number`;
+    return NaN;
+  }
+  if (typeof c === 'number') {
+    if (Number.isFinite(c)) return c;
+    why.reason = Number.isNaN(c) ? null : `${c} is not a finite number`;
+    return NaN;
+  }
+  why.reason = c === null ? null : `${c} is not a number`;
+  return NaN;
+}
+
+/** RA cell to degrees [0, 360), or NaN with `why`: numbers in the column's unit, or sexagesimal text (hours unless d:m:s or d letters). */
+export function cellRaDeg(c: Cell, unit: AngleUnit, why: CellWhy): number {
+  const v = cellNumber(c, why);
+  if (!Number.isNaN(v)) {
+    let deg: number;
+    if (unit.kind === 'number' && unit.name === 'hour') {
+      if (v < 0 || v >= 24) {
+        why.reason = `RA ${v} h is outside [0, 24) h`;
+        return NaN;
+      }
+      deg = v * 15;
+    } else if (unit.kind === 'sexagesimal') deg = unit.name === 'h:m:s' ? v * 15 : v;
+    else {
+      if (unit.name === 'rad' && (v < 0 || v >= 2 * Math.PI)) {
+        why.reason = `RA ${v} rad is outside [0, 2 pi)`;
+        return NaN;
+      }
+      deg = v * unit.factorDeg;
+    }
+    if (deg >= 0 && deg < 360) return deg;
+    const r = parseRaDeg(deg); // tolerates rounding just outside [0, 360) and wraps it
+    if (r.ok) return r.value;
+    why.reason = unit.kind === 'number' && unit.name !== 'deg' ? `RA ${v} ${unit.name} is outside [0, 360) deg` : r.error;
+    return NaN;
+  }
+  if (why.reason === null || typeof c !== 'string') return NaN;
+  // Text that is not a plain number: sexagesimal.
+  let text = c.trim();
+  if (!/\d/.test(text)) return NaN; // keeps "... is not a number"
+  if (unit.kind === 'sexagesimal' && unit.name === 'd:m:s' && !/[hHdD°]/.test(text)) text = text.replace(/^(\d+)[\s:]+/, '$1d');
+  const r = parseRaDeg(text);
+  if (r.ok) return r.value;
+  why.reason = `${r.error}; write RA in degrees, hours or as 12:34:56.7`;
+  return NaN;
+}
+
+/** Dec cell to degrees [-90, 90], or NaN with `why`: numbers in the column's unit, or sexagesimal text (degrees). */
+export function cellDecDeg(c: Cell, unit: AngleUnit, why: CellWhy): number {
+  const v = cellNumber(c, why);
+  if (!Number.isNaN(v)) {
+    const deg = unit.kind === 'number' ? v * unit.factorDeg : v;
+    if (deg >= -90 && deg <= 90) return deg;
+    why.reason = `Dec ${v}${unit.kind === 'number' && unit.name !== 'deg' ? ` ${unit.name}` : ''} is outside [-90, 90] deg`;
+    return NaN;
+  }
+  if (why.reason === null || typeof c !== 'string') return NaN;
+  const text = c.trim();
+  if (!/\d/.test(text)) return NaN;
+  const r = parseDecDeg(text);
+  if (r.ok) return r.value;
+  why.reason = `${r.error}; write Dec in degrees or as -05:06:07.8`;
+  return NaN;
+}
+
+/**
+ * The `extra` of every target when the catalog has no other columns: one shared, frozen empty object
+ * (a million catalog rows need not make a million empty objects). Treat `Target.extra` as read-only.
+ */
+const NO_EXTRA: Record<string, string> = Object.freeze({}) as Record<string, string>;
+
+const ROLES = new Map<string, TargetRole>([
+  ['tracer', 'tracer'],
+  ['alignment', 'alignment'],
+]);
+
+/** Validates rows one at a time against resolved columns; keeps the duplicate-id index. */
+export class RowValidator {
+  readonly targets: Target[] = [];
+  readonly rejects: RowReject[] = [];
+  rowsVisited = 0;
+  private readonly firstLineOfId = new Map<string, number>();
+  private readonly names: string[];
+
+  constructor(
+    private readonly cols: ResolvedColumns,
+    columnNames: readonly string[],
+  ) {
+    this.names = [...columnNames];
+  }
+
+  private readonly why: CellWhy = { reason: null };
+
+  private reject(line: number, field: number, reason: string): void {
+    this.rejects.push({ line, column: this.names[field], reason });
+  }
+
+  /** Reject the cell when a converter returned NaN (reason from `why`). */
+  private check(line: number, field: number, v: number): number {
+    if (Number.isNaN(v)) this.reject(line, field, this.why.reason ?? 'missing value');
+    return v;
+  }
+
+  /** Validate one data row (cells in column order) from file line / row `line`. */
+  visit(cells: Cell[], line: number): void {
+    this.rowsVisited++;
+    const { index, raUnit, decUnit } = this.cols;
+    const why = this.why;
+    const before = this.rejects.length;
+
+    const id = trimmed(cellText(cells[index.id]));
+    if (id === '') this.reject(line, index.id, 'missing value');
+    const raDeg = this.check(line, index.ra, cellRaDeg(cells[index.ra], raUnit, why));
+    const decDeg = this.check(line, index.dec, cellDecDeg(cells[index.dec], decUnit, why));
+    const mag = this.check(line, index.mag, cellNumber(cells[index.mag], why));
+
+    let color: number | null = null;
+    if (index.color >= 0) {
+      const v = cellNumber(cells[index.color], why);
+      if (!Number.isNaN(v)) color = v;
+      else if (why.reason !== null) this.reject(line, index.color, why.reason);
+    }
+    let priority: number | null = null;
+    if (index.priority >= 0) {
+      const v = cellNumber(cells[index.priority], why);
+      if (!Number.isNaN(v)) {
+        if (v > 0) priority = v;
+        else this.reject(line, index.priority, `non-positive priority ${v}; a priority is a positive weight (leave it empty for the default)`);
+      } else if (why.reason !== null) this.reject(line, index.priority, why.reason);
+    }
+    let role: TargetRole = 'tracer';
+    if (index.role >= 0) {
+      const t = cellText(cells[index.role]).trim();
+      if (t !== '') {
+        const r = t === 'tracer' || t === 'alignment' ? t : ROLES.get(t.toLowerCase());
+        if (r) role = r;
+        else this.reject(line, index.role, `unknown role "${t}"; use tracer or alignment (empty means tracer)`);
+      }
+    }
+    if (id !== '') {
+      const first = this.firstLineOfId.get(id);
+      if (first !== undefined) this.reject(line, index.id, `duplicate id "${id}", first used on line ${first}`);
+      else if (this.rejects.length === before) this.firstLineOfId.set(id, line);
+    }
+    if (this.rejects.length !== before) return;
+    const extraIdx = this.cols.extra;
+    let extra = NO_EXTRA;
+    if (extraIdx.length > 0) {
+      extra = {};
+      for (let k = 0; k < extraIdx.length; k++) extra[this.names[extraIdx[k]]] = cellText(cells[extraIdx[k]]);
+    }
+    this.targets.push({ id, raDeg, decDeg, mag, color, priority, role, line, extra });
+  }
+}
+
+/**
+ * Validate a whole RawTable: resolve columns (throws InputError when a required column is missing), check every row,
+ * and merge the format's structural rejects. Rejects are sorted by line.
+ */
+export function validateTable(table: RawTable, source: string, mapping?: ColumnMapping): CatalogReadResult {
+  if (table.columns.length === 0) {
+    throw new InputError([{ where: source, what: 'the catalog is empty (no header row with column names)', fix: 'start the file with a header row such as id,ra,dec,mag' }]);
+  }
+  const cols = resolveColumns(table.columns, mapping, source);
+  const v = new RowValidator(
+    cols,
+    table.columns.map((c) => c.name),
+  );
+  table.forEachRow((cells, line) => v.visit(cells, line));
+  return finishValidation(table, source, cols, v);
+}
+
+/** Assemble the CatalogReadResult once every row has been visited. */
+export function finishValidation(table: RawTable, source: string, cols: ResolvedColumns, v: RowValidator): CatalogReadResult {
+  const structural = table.structuralRejects;
+  const rejects = structural.length > 0 ? [...v.rejects, ...structural] : v.rejects;
+  const structuralLines = new Set(structural.map((r) => r.line)).size;
+  if (structural.length > 0) rejects.sort((a, b) => a.line - b.line);
+  return {
+    format: table.format,
+    source,
+    targets: v.targets,
+    rejects,
+    rowsRead: v.rowsVisited + structuralLines,
+    columns: table.columns,
+    mapping: cols.mapping,
+  };
+}
+
+/** Number of rows that were not used (distinct lines among the rejects). */
+export function rejectedRowCount(result: CatalogReadResult): number {
+  return result.rowsRead - result.targets.length;
+}

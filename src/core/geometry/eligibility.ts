@@ -1,0 +1,60 @@
+/**
+ * Eligibility of a target on a mask (mask frame, arcsec): its minimal slit (centred on the target, minLengthArcsec
+ * long, widthArcsec wide, tilt 0) lies inside the footprint, and for a science slit every required line, redshifted
+ * by the galaxy's systemic velocity, obeys the wavelength rule. Alignment boxes need only fit in the footprint.
+ */
+import type { InstrumentProfile } from '../profile/schema';
+import { polygonBounds, stripFreeYRange, type Corner } from './polygon';
+import { observedWavelengthA, usableXIntervalsArcsec } from './wavelength';
+
+/** Everything needed to test many targets against one profile and one set of lines. */
+export interface EligibilityRules {
+  footprint: readonly Corner[];
+  bounds: { minX: number; maxX: number; minY: number; maxY: number };
+  minLengthArcsec: number;
+  widthArcsec: number;
+  boxSizeArcsec: number;
+  /** Observed (redshifted) required lines, Angstrom. */
+  observedLinesA: number[];
+  /** Mask-x intervals (arcsec) where every observed line is usable. */
+  usableXArcsec: [number, number][];
+}
+
+/** Precompute the rules for a profile, rest-frame lines (Angstrom) and systemic velocity (km/s). */
+export function eligibilityRules(profile: InstrumentProfile, linesRestA: readonly number[], vsysKms: number): EligibilityRules {
+  const observedLinesA = linesRestA.map((l) => observedWavelengthA(l, vsysKms));
+  return {
+    footprint: profile.footprint,
+    bounds: polygonBounds(profile.footprint),
+    minLengthArcsec: profile.slits.minLengthArcsec,
+    widthArcsec: profile.slits.widthArcsec,
+    boxSizeArcsec: profile.alignment.boxSizeArcsec,
+    observedLinesA,
+    usableXArcsec: usableXIntervalsArcsec(profile.detector, observedLinesA),
+  };
+}
+
+/** True when the rectangle of half-width halfW and half-length halfL centred on (x, y) lies in the footprint. */
+export function centredRectFits(rules: EligibilityRules, xArcsec: number, yArcsec: number, halfWArcsec: number, halfLArcsec: number): boolean {
+  const b = rules.bounds;
+  if (!(xArcsec - halfWArcsec >= b.minX && xArcsec + halfWArcsec <= b.maxX && yArcsec - halfLArcsec >= b.minY && yArcsec + halfLArcsec <= b.maxY)) return false;
+  const r = stripFreeYRange(xArcsec - halfWArcsec, xArcsec + halfWArcsec, yArcsec, rules.footprint);
+  return r !== null && r.lo <= yArcsec - halfLArcsec && r.hi >= yArcsec + halfLArcsec;
+}
+
+/** True when every required line of a slit at mask x (arcsec) is usable (wavelength rule). */
+export function wavelengthOk(rules: EligibilityRules, xArcsec: number): boolean {
+  for (const [a, b] of rules.usableXArcsec) if (xArcsec >= a && xArcsec <= b) return true;
+  return false;
+}
+
+/** True when a science target at (x, y) arcsec can have its minimal slit on this mask. */
+export function scienceSlitEligible(rules: EligibilityRules, xArcsec: number, yArcsec: number): boolean {
+  return Number.isFinite(xArcsec) && wavelengthOk(rules, xArcsec) && centredRectFits(rules, xArcsec, yArcsec, rules.widthArcsec / 2, rules.minLengthArcsec / 2);
+}
+
+/** True when an alignment box centred on (x, y) arcsec fits in the footprint. */
+export function alignmentBoxFits(rules: EligibilityRules, xArcsec: number, yArcsec: number): boolean {
+  const h = rules.boxSizeArcsec / 2;
+  return Number.isFinite(xArcsec) && centredRectFits(rules, xArcsec, yArcsec, h, h);
+}

@@ -1,0 +1,100 @@
+/**
+ * Exposure estimates per slit with the CCD equation (Howell, Handbook of CCD Astronomy, 2nd ed. 2006), on the
+ * same model as the integrated-starlight slits (spectro/signalToNoise.ts; solver/starlight.ts settings: throughput,
+ * sky brightness, detector scales, read noise, dark, wavelength). Per Angstrom of spectrum at the setup's wavelength.
+ * Tracers are point sources of their catalog magnitude (taken as AB at that wavelength) seen through the slit
+ * width in Gaussian seeing and extracted over 2 FWHM along the slit; starlight slits take the Sérsic model's
+ * flux-mean surface brightness over the whole slit length. Sky and alignment rows get no estimate.
+ */
+import type { MaskSolution, Slit } from '../solver/types';
+import type { GalaxyModel } from '../plan/schema';
+import { electronsPerAFromMag, electronsPerAFromSurfaceBrightness, exposureForSignalToNoiseS, signalToNoisePerA, type SlitObservation, type SpectroSetup } from '../spectro/signalToNoise';
+import { galaxyOnMask, slitMeanMu } from '../solver/starlight';
+import { sersicBn } from '../sky/sersic';
+import { erf, FWHM_PER_SIGMA, slitTransmission } from './slitLoss';
+
+/** Extraction length along the slit for a point source, in units of the seeing FWHM (common practice 1.5-2.5). */
+export const POINT_EXTRACTION_FWHM = 2;
+
+export interface ExposureModel {
+  setup: SpectroSetup;
+  skyMagPerArcsec2: number;
+  seeingFwhmArcsec: number;
+  exposureTimeS: number;
+  targetSnPerA: number;
+}
+
+export interface SlitExposure {
+  slitId: string;
+  objectId: string;
+  role: 'tracer' | 'starlight';
+  mag: number | null;
+  muMagPerArcsec2: number | null;
+  /** Fraction of a point source's light inside the slit width and the extraction length (tracers). */
+  apertureFraction: number | null;
+  /** S/N per Angstrom reached in exposureTimeS. */
+  snPerA: number;
+  /** Exposure in seconds that reaches targetSnPerA (null when there is no signal to reach it with). */
+  timeForTargetSnS: number | null;
+}
+
+export interface MaskExposureReport {
+  maskId: string;
+  exposureTimeS: number;
+  targetSnPerA: number;
+  wavelengthA: number;
+  slits: SlitExposure[];
+  /** Tracer slits reaching targetSnPerA in exposureTimeS, and the median tracer S/N per A (null without tracers). */
+  tracersReachingTarget: number;
+  medianTracerSnPerA: number | null;
+}
+
+/** Fraction of a Gaussian point source (FWHM) through a slit of widthArcsec and inside an extraction of extractionArcsec along it. */
+export function pointSourceApertureFraction(widthArcsec: number, extractionArcsec: number, seeingFwhmArcsec: number): number {
+  const sigmaRoot2 = (seeingFwhmArcsec / FWHM_PER_SIGMA) * Math.SQRT2;
+  return slitTransmission(0, widthArcsec, seeingFwhmArcsec) * erf(extractionArcsec / 2 / sigmaRoot2);
+}
+
+/** Estimate for one observation: S/N per A in the planned time and the time to the target S/N. */
+function estimate(o: SlitObservation, m: ExposureModel) {
+  const t = exposureForSignalToNoiseS(o, m.setup, m.targetSnPerA);
+  return { snPerA: signalToNoisePerA(o, m.setup, m.exposureTimeS), timeForTargetSnS: Number.isFinite(t) ? t : null };
+}
+
+/** Exposure estimate of a tracer slit (point source of magnitude mag, AB). */
+export function tracerExposure(slit: Pick<Slit, 'slitId' | 'objectId' | 'widthArcsec'>, mag: number, m: ExposureModel): SlitExposure {
+  const extraction = POINT_EXTRACTION_FWHM * m.seeingFwhmArcsec;
+  const fraction = pointSourceApertureFraction(slit.widthArcsec, extraction, m.seeingFwhmArcsec);
+  const o: SlitObservation = {
+    sourceEPerAPerS: electronsPerAFromMag(mag, m.setup, 1, fraction),
+    extractionArcsec: extraction, slitWidthArcsec: slit.widthArcsec, skyMagPerArcsec2: m.skyMagPerArcsec2,
+  };
+  return { slitId: slit.slitId, objectId: slit.objectId, role: 'tracer', mag, muMagPerArcsec2: null, apertureFraction: fraction, ...estimate(o, m) };
+}
+
+/** Exposure estimate of a starlight slit of mean surface brightness mu (AB mag/arcsec^2) over its full length. */
+export function starlightExposure(slit: Pick<Slit, 'slitId' | 'objectId' | 'widthArcsec' | 'lenBelowArcsec' | 'lenAboveArcsec'>, muMagPerArcsec2: number, m: ExposureModel): SlitExposure {
+  const length = slit.lenBelowArcsec + slit.lenAboveArcsec;
+  const o: SlitObservation = {
+    sourceEPerAPerS: electronsPerAFromSurfaceBrightness(muMagPerArcsec2, length * slit.widthArcsec, m.setup, 1),
+    extractionArcsec: length, slitWidthArcsec: slit.widthArcsec, skyMagPerArcsec2: m.skyMagPerArcsec2,
+  };
+  return { slitId: slit.slitId, objectId: slit.objectId, role: 'starlight', mag: null, muMagPerArcsec2, apertureFraction: null, ...estimate(o, m) };
+}
+
+/** Exposure estimates of every tracer and starlight slit of a mask (sky and alignment rows are skipped). */
+export function maskExposureReport(ms: MaskSolution, galaxy: GalaxyModel, m: ExposureModel, bn = sersicBn(galaxy.sersicN)): MaskExposureReport {
+  const g = galaxyOnMask(ms.mask, galaxy, bn);
+  const slits: SlitExposure[] = [];
+  for (const s of ms.slits) {
+    if (s.role === 'tracer' && s.mag !== null) slits.push(tracerExposure(s, s.mag, m));
+    else if (s.role === 'starlight') slits.push(starlightExposure(s, slitMeanMu(g, s.xArcsec, s.yArcsec - s.lenBelowArcsec, s.yArcsec + s.lenAboveArcsec), m));
+  }
+  const tracerSn = slits.filter((s) => s.role === 'tracer').map((s) => s.snPerA).sort((a, b) => a - b);
+  const median = tracerSn.length === 0 ? null : tracerSn.length % 2 ? tracerSn[(tracerSn.length - 1) / 2] : (tracerSn[tracerSn.length / 2 - 1] + tracerSn[tracerSn.length / 2]) / 2;
+  return {
+    maskId: ms.mask.id, exposureTimeS: m.exposureTimeS, targetSnPerA: m.targetSnPerA, wavelengthA: m.setup.wavelengthA, slits,
+    tracersReachingTarget: tracerSn.filter((v) => v >= m.targetSnPerA).length,
+    medianTracerSnPerA: median,
+  };
+}

@@ -1,0 +1,89 @@
+/**
+ * The plan's `observing` section: conditions and choices for the refraction/hour-angle report and the exposure
+ * estimates. Every key is optional; resolveObservingSettings fills the documented defaults (docs/observability.md).
+ * Hour angles in hours (positive West), wavelengths Angstrom (air), seeing FWHM arcsec, times seconds.
+ */
+import { z } from 'zod';
+import type { InstrumentProfile } from '../profile/schema';
+import type { PlanFile } from '../plan/schema';
+import type { RefractionSettings } from './maskRefraction';
+
+const range = (lo: number, hi: number, what: string) =>
+  z
+    .tuple([z.number().min(lo).max(hi), z.number().min(lo).max(hi)])
+    .refine(([a, b]) => a < b, `must be [start, end] with start < end (${what})`);
+
+export const observingSchema = z.looseObject({
+  /** Hour angle (hours) the masks are designed for, unless a mask gives its own designHourAngleH. */
+  designHourAngleH: z.number().min(-12).max(12).optional(),
+  seeingFwhmArcsec: z.number().positive('must be greater than 0 (seeing FWHM in arcsec)').max(10).optional(),
+  /** Largest acceptable light loss of any tracer slit to refraction, relative to a centred image (0..1). */
+  maxLossFraction: z.number().gt(0, 'must be in (0, 1)').lt(1, 'must be in (0, 1)').optional(),
+  /** Effective wavelength of the guider, Angstrom. */
+  guideWavelengthA: z.number().min(3000).max(25000).optional(),
+  /** Science wavelength range [blue, red], Angstrom. */
+  scienceRangeA: range(3000, 25000, 'Angstrom').optional(),
+  /** Planned exposure time per mask, seconds. */
+  exposureTimeS: z.number().positive('must be greater than 0 (seconds)').optional(),
+  /** Signal-to-noise per Angstrom to reach, for the time estimate. */
+  targetSnPerA: z.number().positive('must be greater than 0').optional(),
+  hourAngleRangeH: range(-12, 12, 'hours of hour angle').optional(),
+  hourAngleStepH: z.number().positive('must be greater than 0 (hours)').max(2, 'must be at most 2 hours').optional(),
+  /** Airmass limit for dark hours and for the hour-angle window. */
+  maxAirmass: z.number().min(1, 'must be at least 1').max(10).optional(),
+});
+
+export type ObservingSection = z.infer<typeof observingSchema>;
+
+/** Every observing setting with its value (defaults filled). */
+export interface ObservingSettings extends RefractionSettings {
+  designHourAngleH: number;
+  exposureTimeS: number;
+  targetSnPerA: number;
+}
+
+export const OBSERVING_DEFAULTS = {
+  designHourAngleH: 0,
+  seeingFwhmArcsec: 0.8,
+  maxLossFraction: 0.1,
+  exposureTimeS: 3600,
+  targetSnPerA: 20,
+  hourAngleRangeH: [-4, 4] as [number, number],
+  hourAngleStepH: 0.25,
+  maxAirmass: 2,
+};
+
+/** Wavelength range (Angstrom) the detector records at the mask centre: central +- pixels/2 x dispersion. */
+export function detectorRangeA(profile: InstrumentProfile): [number, number] {
+  const half = (profile.detector.pixels / 2) * profile.detector.dispersionAPerPixel;
+  return [profile.detector.centralWavelengthA - half, profile.detector.centralWavelengthA + half];
+}
+
+/**
+ * The plan's observing settings with defaults: science range = the detector's range at the mask centre,
+ * guide wavelength = the middle of the science range (set the guider's own effective wavelength when known);
+ * exposure time and target S/N fall back to `fallback` (the starlight settings) and then to OBSERVING_DEFAULTS.
+ */
+export function resolveObservingSettings(section: ObservingSection | undefined, profile: InstrumentProfile, fallback: { exposureTimeS?: number; targetSnPerA?: number } = {}): ObservingSettings {
+  const s = section ?? {};
+  const scienceRangeA = (s.scienceRangeA as [number, number] | undefined) ?? detectorRangeA(profile);
+  return {
+    designHourAngleH: s.designHourAngleH ?? OBSERVING_DEFAULTS.designHourAngleH,
+    seeingFwhmArcsec: s.seeingFwhmArcsec ?? OBSERVING_DEFAULTS.seeingFwhmArcsec,
+    maxLossFraction: s.maxLossFraction ?? OBSERVING_DEFAULTS.maxLossFraction,
+    guideWavelengthA: s.guideWavelengthA ?? (scienceRangeA[0] + scienceRangeA[1]) / 2,
+    scienceRangeA,
+    exposureTimeS: s.exposureTimeS ?? fallback.exposureTimeS ?? OBSERVING_DEFAULTS.exposureTimeS,
+    targetSnPerA: s.targetSnPerA ?? fallback.targetSnPerA ?? OBSERVING_DEFAULTS.targetSnPerA,
+    hourAngleRangeH: (s.hourAngleRangeH as [number, number] | undefined) ?? OBSERVING_DEFAULTS.hourAngleRangeH,
+    hourAngleStepH: s.hourAngleStepH ?? OBSERVING_DEFAULTS.hourAngleStepH,
+    maxAirmass: s.maxAirmass ?? OBSERVING_DEFAULTS.maxAirmass,
+  };
+}
+
+/** Design hour angle (hours) of each plan mask: its own designHourAngleH, else the observing default. */
+export function designHourAnglesH(plan: PlanFile, settings: ObservingSettings): Record<string, number> {
+  const out: Record<string, number> = {};
+  for (const m of plan.masks ?? []) out[m.id] = m.designHourAngleH ?? settings.designHourAngleH;
+  return out;
+}

@@ -1,0 +1,139 @@
+/**
+ * The plan's refraction and hour-angle report: one MaskRefractionReport per solved mask, from the masks with
+ * their slits, the profile's site (latitude, pressure, temperature, humidity) and the observing settings.
+ * Pure; the planning pipeline adds it to the solution as `observingReport`.
+ */
+import type { MaskSolution } from '../solver/types';
+import type { GalaxyModel, PlanFile } from '../plan/schema';
+import type { InstrumentProfile } from '../profile/schema';
+import { maskRefractionReport, type MaskRefractionReport } from './maskRefraction';
+import { designHourAnglesH, resolveObservingSettings, type ObservingSection, type ObservingSettings } from './observingSettings';
+import { maskExposureReport, type MaskExposureReport } from './exposure';
+import { starlightSettings, type StarlightRules } from '../solver/starlight';
+
+export interface RefractionReportInput {
+  galaxy: GalaxyModel;
+  masks: MaskSolution[];
+  site: InstrumentProfile['site'];
+  settings: ObservingSettings;
+  /** Per-mask design hour angles (hours); masks not listed use settings.designHourAngleH. */
+  designHourAnglesH?: Record<string, number>;
+}
+
+export interface ObservingReport {
+  galaxyId: string;
+  settings: ObservingSettings;
+  masks: MaskRefractionReport[];
+  /** Per-mask exposure estimates (present when built by observingReportForPlan). */
+  exposures?: MaskExposureReport[];
+}
+
+/** Refraction rows and recommended hour-angle window of every mask (hour angles of each mask centre, hours). */
+export function refractionReport(input: RefractionReportInput): ObservingReport {
+  const air = {
+    pressureHPa: input.site.pressureHPa,
+    temperatureC: input.site.temperatureC,
+    relativeHumidity: input.site.relativeHumidity,
+  };
+  return {
+    galaxyId: input.galaxy.id,
+    settings: input.settings,
+    masks: input.masks.map((m) =>
+      maskRefractionReport({
+        mask: m.mask,
+        slits: m.slits,
+        designHourAngleH: input.designHourAnglesH?.[m.mask.id] ?? input.settings.designHourAngleH,
+        latDeg: input.site.latDeg,
+        air,
+        settings: input.settings,
+      }),
+    ),
+  };
+}
+
+/**
+ * The whole observing report of a solved plan: settings resolved from the plan's `observing` section (exposure
+ * time and target S/N falling back to its `starlight` section), each mask's design hour angle from the plan,
+ * refraction rows and window per mask, and exposure estimates per slit.
+ */
+export function observingReportForPlan(plan: PlanFile, profile: InstrumentProfile, galaxy: GalaxyModel, masks: MaskSolution[]): ObservingReport {
+  const starlight = starlightSettings(plan.starlight as StarlightRules | undefined, profile, plan);
+  const settings = resolveObservingSettings(plan.observing as ObservingSection | undefined, profile, {
+    exposureTimeS: starlight.exposureS,
+  });
+  const report = refractionReport({ galaxy, masks, site: profile.site, settings, designHourAnglesH: designHourAnglesH(plan, settings) });
+  const model = {
+    setup: starlight.setup, skyMagPerArcsec2: starlight.skyMagPerArcsec2, seeingFwhmArcsec: settings.seeingFwhmArcsec,
+    exposureTimeS: settings.exposureTimeS, targetSnPerA: settings.targetSnPerA,
+  };
+  return { ...report, exposures: masks.map((m) => maskExposureReport(m, galaxy, model)) };
+}
+
+const r4 = (v: number) => Math.round(v * 1e4) / 1e4;
+
+/** The report with numbers rounded for files: arcsec and hours to 1e-4, loss fractions to 1e-4, S/N to 0.01. */
+export function compactObservingReport(report: ObservingReport): ObservingReport {
+  return {
+    ...report,
+    masks: report.masks.map((m) => ({
+      ...m,
+      rows: m.rows.map((r) => ({
+        ...r,
+        altitudeDeg: r4(r.altitudeDeg), airmass: r.airmass === null ? null : r4(r.airmass), parallacticAngleDeg: r4(r.parallacticAngleDeg),
+        maxDispersionAcrossArcsec: r.maxDispersionAcrossArcsec === null ? null : r4(r.maxDispersionAcrossArcsec),
+        maxFieldShiftAcrossArcsec: r.maxFieldShiftAcrossArcsec === null ? null : r4(r.maxFieldShiftAcrossArcsec),
+        maxLossFraction: r.maxLossFraction === null ? null : r4(r.maxLossFraction),
+      })),
+    })),
+    exposures: report.exposures?.map((e) => ({
+      ...e,
+      medianTracerSnPerA: e.medianTracerSnPerA === null ? null : Math.round(e.medianTracerSnPerA * 100) / 100,
+      slits: e.slits.map((s) => ({
+        ...s,
+        snPerA: Math.round(s.snPerA * 100) / 100,
+        timeForTargetSnS: s.timeForTargetSnS === null ? null : Math.round(s.timeForTargetSnS),
+        apertureFraction: s.apertureFraction === null ? null : r4(s.apertureFraction),
+        muMagPerArcsec2: s.muMagPerArcsec2 === null ? null : Math.round(s.muMagPerArcsec2 * 1000) / 1000,
+      })),
+    })),
+  };
+}
+
+/**
+ * The solved plan with the observing report: key `observingReport` (compact) and, on every mask, its
+ * `designHourAngleH` and `hourAngleWindowH` ([start, end] hours, or null).
+ */
+export function withObservingReport(plan: PlanFile, report: ObservingReport): PlanFile {
+  const byId = new Map(report.masks.map((m) => [m.maskId, m]));
+  const masks = (plan.masks ?? []).map((m) => {
+    const r = byId.get(m.id);
+    return r ? { ...m, designHourAngleH: r.designHourAngleH, hourAngleWindowH: r.hourAngleWindowH } : m;
+  });
+  return { ...plan, masks, observingReport: compactObservingReport(report) };
+}
+
+const fmtH = (h: number) => `${h >= 0 ? '+' : ''}${h.toFixed(2)} h`;
+
+/** Plain-text lines for the plan report: each mask's design hour angle and recommended window. */
+export function formatRefractionSummary(report: ObservingReport): string[] {
+  const s = report.settings;
+  const lines = [
+    `Differential refraction (seeing ${s.seeingFwhmArcsec}" FWHM, guide ${s.guideWavelengthA.toFixed(0)} A, ` +
+      `science ${s.scienceRangeA[0].toFixed(0)}-${s.scienceRangeA[1].toFixed(0)} A, tracer slits losing < ${(s.maxLossFraction * 100).toFixed(0)} %, airmass <= ${s.maxAirmass}):`,
+  ];
+  for (const m of report.masks) {
+    const w = m.hourAngleWindowH;
+    const where = (w === null ? 'no hour-angle window' : `hour-angle window ${fmtH(w[0])} to ${fmtH(w[1])}`) + (m.windowNote ? ` (${m.windowNote})` : '');
+    lines.push(`  ${m.maskId}: designed for HA ${fmtH(m.designHourAngleH)}; ${where}; ${m.windowSlitCount} tracer slits`);
+  }
+  if (report.exposures?.length) {
+    const e0 = report.exposures[0];
+    lines.push(`Exposure estimate (${(e0.exposureTimeS / 3600).toFixed(2)} h, S/N per A at ${e0.wavelengthA.toFixed(0)} A, target ${e0.targetSnPerA}):`);
+    for (const e of report.exposures) {
+      const n = e.slits.filter((s) => s.role === 'tracer').length;
+      const med = e.medianTracerSnPerA === null ? 'no tracer slits' : `median tracer S/N ${e.medianTracerSnPerA.toFixed(1)}`;
+      lines.push(`  ${e.maskId}: ${med}; ${e.tracersReachingTarget} of ${n} tracers reach the target`);
+    }
+  }
+  return lines;
+}

@@ -1,0 +1,45 @@
+/**
+ * Light of a point source through a slit for Gaussian seeing. The slit is infinitely long (its length is many
+ * FWHM); only its width matters. Offsets are across the slit, arcsec, from the slit's centre line.
+ */
+import { regularisedLowerGamma } from '../sky/sersic';
+
+/** Gaussian sigma for a FWHM: FWHM = 2 sqrt(2 ln 2) sigma. */
+export const FWHM_PER_SIGMA = 2 * Math.sqrt(2 * Math.LN2);
+
+/**
+ * The error function erf(x). For |x| < 3 the positive-term series erf x = (2/sqrt(pi)) e^(-x^2) sum_n (2x^2)^n x / (1.3.5...(2n+1))
+ * (no cancellation, ~1e-16); beyond, erf(x) = P(1/2, x^2) from the regularised lower incomplete gamma function.
+ */
+export function erf(x: number): number {
+  const ax = Math.abs(x);
+  let v: number;
+  if (ax < 3) {
+    const x2 = 2 * ax * ax;
+    let term = ax, sum = ax;
+    for (let n = 1; n < 200; n++) {
+      term *= x2 / (2 * n + 1);
+      sum += term;
+      if (term < sum * 1e-17) break;
+    }
+    v = (2 / Math.sqrt(Math.PI)) * Math.exp(-ax * ax) * sum;
+  } else v = regularisedLowerGamma(0.5, ax * ax);
+  return x < 0 ? -v : v;
+}
+
+/** Fraction (0..1) of a Gaussian image of FWHM seeingFwhmArcsec, centred offsetArcsec from the slit centre line, passing a slit of widthArcsec. */
+export function slitTransmission(offsetArcsec: number, widthArcsec: number, seeingFwhmArcsec: number): number {
+  const s = (seeingFwhmArcsec / FWHM_PER_SIGMA) * Math.SQRT2;
+  const h = widthArcsec / 2;
+  return 0.5 * (erf((h - offsetArcsec) / s) + erf((h + offsetArcsec) / s));
+}
+
+/** Loss (0..1) relative to a centred image, from the transmission of the offset image and of the centred one. */
+export function lossRelativeToCentred(transmission: number, centredTransmission: number): number {
+  return centredTransmission > 0 ? Math.max(0, 1 - transmission / centredTransmission) : 0;
+}
+
+/** Extra fraction of light lost (0..1) by an image offsetArcsec off the slit centre, relative to the same image centred. */
+export function relativeSlitLoss(offsetArcsec: number, widthArcsec: number, seeingFwhmArcsec: number): number {
+  return lossRelativeToCentred(slitTransmission(offsetArcsec, widthArcsec, seeingFwhmArcsec), slitTransmission(0, widthArcsec, seeingFwhmArcsec));
+}

@@ -1,0 +1,206 @@
+/**
+ * The planning pipeline: a pure, synchronous composition of stages (the editor runs it in a Web Worker):
+ * target weighting -> mask placement -> joint allocation (alignment boxes first) -> starlight and sky slits ->
+ * slit lengthening -> coverage. Each stage is a small function of the previous stages' results, so a stage can
+ * be replaced (e.g. the pointing search instead of the default layout) without touching the others.
+ */
+import type { CatalogReadResult, Target } from '../catalog/types';
+import type { InstrumentProfile } from '../profile/schema';
+import type { Problem } from '../result';
+import type { GalaxyModel, PlanFile, PlanMask } from './schema';
+import { galaxyModel } from './validate';
+import { allocationContext, type AllocationContext, type PointingsAllocation } from '../solver/allocateMasks';
+import { lengthenSlits } from '../solver/lengthen';
+import { coverageReport, type CoverageReport } from '../coverage/coverage';
+import type { MaskPointing, MaskSolution } from '../solver/types';
+import { weighTargets, type WeightingResult, type WeightingRules } from '../solver/weighting';
+import { placeStarlightAndSky } from '../solver/starlight';
+import { naiveCrossLayout, searchEnv, searchPointings, starlightTrade, type SearchReport } from '../solver/pointingSearch';
+import { objectiveContext } from '../solver/objective';
+import { observingReportForPlan, withObservingReport, type ObservingReport } from '../observe/refractionReport';
+
+export interface PlanInputs {
+  plan: PlanFile;
+  profile: InstrumentProfile;
+  catalog: CatalogReadResult;
+}
+
+export interface SolveOptions {
+  onProgress?(fraction: number, message: string): void;
+  /** Skip the refraction/hour-angle and exposure report (observe/), e.g. while a mask is being dragged. */
+  skipObservingReport?: boolean;
+}
+
+/** Per-mask figures for reports. */
+export interface MaskStats {
+  maskId: string;
+  /** Tracers whose minimal slit fits and whose lines land on the detector (after the alignment boxes). */
+  eligibleTracers: number;
+  tracerSlits: number;
+  alignmentBoxes: number;
+}
+
+export interface PlanSolution {
+  /** The plan with every mask placed (raDeg, decDeg, paDeg in [0, 360)). */
+  plan: PlanFile;
+  galaxy: GalaxyModel;
+  masks: MaskSolution[];
+  coverage: CoverageReport;
+  warnings: string[];
+  /** Problems that make the plan unusable as it stands (e.g. a mask with too few alignment stars). */
+  problems: Problem[];
+  /** The weighting rules in effect (text), the weights' sources and every target the rules excluded (solver/weighting). */
+  weighting: WeightingResult;
+  /** The pointing search's report: objective of the starting (naive) layout and of the result (solver/pointingSearch). */
+  search: SearchReport;
+  /** Refraction rows and recommended hour-angle window per mask, exposure estimates per slit (observe/refractionReport.ts). */
+  observingReport?: ObservingReport;
+  stats: {
+    masks: MaskStats[];
+    /** Total tracer weight allocated, and the Lagrangian upper bound on the optimum for these pointings. */
+    tracerWeight: number;
+    tracerWeightUpperBound: number;
+  };
+}
+
+/** Default cap on a lengthened slit, as a multiple of the profile's minimal length (plan key allocation.maxSlitLengthArcsec overrides). */
+export const DEFAULT_MAX_LENGTH_FACTOR = 3;
+
+// ---- stage 1: target weighting -------------------------------------------------------------------------
+
+/**
+ * Weight of every target from the plan's weighting rules (solver/weighting.ts; docs/weighting.md): without a
+ * `weighting` section every tracer weighs its catalog priority, or 1; with one, the documented formula, a catalog
+ * priority winning over it. targetOverrides win over both (`weight`; `force: "out"` gives 0). Targets the rules
+ * exclude get 0 (alignment stars too, e.g. inside an exclusion region); kept alignment stars get 1. `force: "in"`
+ * adds the sum of all other weights so the target is taken wherever it fits.
+ */
+export function targetWeights(plan: PlanFile, targets: readonly Target[], warnings: string[], weighting: WeightingResult = weighPlanTargets(plan, targets)): Float64Array {
+  const kept = new Map(weighting.targets.map((t) => [t.id, t]));
+  const w = Float64Array.from(targets, (t) => {
+    const k = kept.get(t.id);
+    return k ? (t.role === 'alignment' ? 1 : k.weight) : 0;
+  });
+  const overrides = plan.targetOverrides ?? {};
+  const index = new Map(targets.map((t, i) => [t.id, i]));
+  let total = 0;
+  for (const v of w) total += v;
+  for (const [id, o] of Object.entries(overrides)) {
+    const i = index.get(id);
+    if (i === undefined) { warnings.push(`targetOverrides: no catalog target with id "${id}"; the override is ignored`); continue; }
+    if (o.force === 'in' && w[i] > 0) w[i] += total;
+  }
+  return w;
+}
+
+/** Stage 1 proper: the weighting rules applied to the catalog (uniform weights when the plan has no `weighting` section). */
+export function weighPlanTargets(plan: PlanFile, targets: readonly Target[]): WeightingResult {
+  const rules = plan.weighting as WeightingRules | undefined;
+  const uniform = { formula: { magSlope: 0, radiusExponent: 0 } };
+  const r = weighTargets(targets, galaxyModel(plan), rules ?? uniform, plan.targetOverrides);
+  if (!rules) r.rulesText = ['no weighting section: every tracer weighs its catalog priority, or 1', ...r.rulesText.filter((l) => !l.startsWith('weight ='))];
+  return r;
+}
+
+// ---- stage 2: mask placement ---------------------------------------------------------------------------
+
+/**
+ * Every mask placed: locked masks kept; the others by the pointing search (solver/pointingSearch.ts), which starts
+ * from the naive cross layout (or the plan's own positions) and never ends worse than it on the objective.
+ * Returns the pointings, the search report, and the full allocation of the result for stage 3 to reuse.
+ */
+export function placeMasks(plan: PlanFile, galaxy: GalaxyModel, profile: InstrumentProfile, ctx: AllocationContext, onProgress?: (fraction: number, message: string) => void): { pointings: MaskPointing[]; search: SearchReport; allocation: PointingsAllocation; withStarlight: MaskSolution[]; starlightWarnings: string[] } {
+  const start = naiveCrossLayout(plan, galaxy, profile);
+  const r = searchPointings(searchEnv(plan, ctx), start, onProgress);
+  return { pointings: r.pointings, search: r.report, allocation: r.allocation, withStarlight: r.masks, starlightWarnings: r.starlightWarnings };
+}
+
+// ---- stage 4: starlight and sky slits --------------------------------------------------------------------
+
+/**
+ * Integrated-starlight and sky slits in the space the tracers leave (solver/starlight.ts), trading tracer slits for
+ * starlight slits only where the search objective gains. (solvePlan takes this stage's result from the pointing
+ * search, which evaluates exactly this on its final pointings.)
+ */
+export function addStarlightAndSky(plan: PlanFile, ctx: AllocationContext, masks: MaskSolution[], warnings: string[]): MaskSolution[] {
+  const objective = objectiveContext(plan.goals, plan.search, Array.from(ctx.tracerIndices, (i) => ctx.weights[i]));
+  const r = placeStarlightAndSky(masks, ctx.galaxy, ctx.profile, plan, starlightTrade(objective));
+  warnings.push(...r.warnings);
+  return r.masks;
+}
+
+// ---- stage 5: lengthening --------------------------------------------------------------------------------
+
+/** Lengthen every slit (boxes stay fixed) into the free space of its mask. */
+export function lengthenMasks(plan: PlanFile, profile: InstrumentProfile, masks: MaskSolution[]): MaskSolution[] {
+  const cap = (plan as { allocation?: { maxSlitLengthArcsec?: unknown } }).allocation?.maxSlitLengthArcsec;
+  const maxLengthArcsec = typeof cap === 'number' && cap > 0 ? cap : DEFAULT_MAX_LENGTH_FACTOR * profile.slits.minLengthArcsec;
+  return masks.map((ms) => {
+    const rows = ms.slits.map((s) => ({ ...s, fixed: s.role === 'alignment' }));
+    const grown = lengthenSlits(rows, { footprint: profile.footprint, gapArcsec: profile.slits.gapArcsec, maxLengthArcsec });
+    return { mask: ms.mask, slits: grown.map(({ fixed: _f, ...s }) => s) };
+  });
+}
+
+// ---- the solved plan file -----------------------------------------------------------------------------------
+
+/** The plan with every mask placed, keeping each mask's other keys. */
+export function solvedPlanFile(plan: PlanFile, pointings: readonly MaskPointing[]): PlanFile {
+  const given = new Map((plan.masks ?? []).map((m) => [m.id, m]));
+  const masks: PlanMask[] = pointings.map((p) => ({ ...(given.get(p.id) ?? {}), id: p.id, raDeg: p.raDeg, decDeg: p.decDeg, paDeg: p.paDeg, locked: p.locked }));
+  return { ...plan, masks };
+}
+
+/** Solve a plan: pure and synchronous; onProgress gets fractions in [0, 1] with a short message. */
+export function solvePlan(inputs: PlanInputs, opts: SolveOptions = {}): PlanSolution {
+  const progress = opts.onProgress ?? (() => {});
+  const { plan, profile, catalog } = inputs;
+  const warnings: string[] = [];
+  const galaxy = galaxyModel(plan);
+
+  progress(0, 'weighting targets');
+  const weighting = weighPlanTargets(plan, catalog.targets);
+  const weights = targetWeights(plan, catalog.targets, warnings, weighting);
+  const ctx = allocationContext(profile, galaxy, plan.goals.linesA, catalog.targets, weights);
+
+  progress(0.1, 'placing masks');
+  const placed = placeMasks(plan, galaxy, profile, ctx, (f, message) => progress(0.1 + 0.6 * f, message));
+  const pointings = placed.pointings;
+
+  const alloc: PointingsAllocation = placed.allocation;
+
+  progress(0.72, 'adding starlight and sky slits');
+  let masks = placed.withStarlight;
+  warnings.push(...placed.starlightWarnings);
+
+  progress(0.8, 'lengthening slits');
+  masks = lengthenMasks(plan, profile, masks);
+
+  progress(0.9, 'measuring coverage');
+  const allSlits = masks.flatMap((m) => m.slits);
+  const coverage = coverageReport(galaxy, plan.goals, allSlits);
+
+  const stats = {
+    masks: alloc.prepared.map((p, m) => ({
+      maskId: p.mask.id,
+      eligibleTracers: p.candidates.objects.length,
+      tracerSlits: alloc.joint.chosen[m].length,
+      alignmentBoxes: p.boxes.length,
+    })),
+    tracerWeight: alloc.joint.objective,
+    tracerWeightUpperBound: alloc.joint.upperBound,
+  };
+  for (const s of stats.masks) if (s.tracerSlits === 0) warnings.push(`mask ${s.maskId}: no tracer slit could be placed (${s.eligibleTracers} eligible tracers)`);
+  for (const [id, o] of Object.entries(plan.targetOverrides ?? {})) {
+    if (o.force === 'in' && !allSlits.some((s) => s.objectId === id)) warnings.push(`target "${id}" is forced in but fits on no mask`);
+  }
+  let solved = solvedPlanFile(plan, pointings);
+  let observingReport: ObservingReport | undefined;
+  if (!opts.skipObservingReport) {
+    progress(0.95, 'refraction and exposure report');
+    observingReport = observingReportForPlan(plan, profile, galaxy, masks);
+    solved = withObservingReport(solved, observingReport);
+  }
+  progress(1, 'done');
+  return { plan: solved, galaxy, masks, coverage, warnings, problems: alloc.problems, weighting, search: placed.search, observingReport, stats };
+}

@@ -1,0 +1,179 @@
+/**
+ * The allocation stage for a set of mask pointings: project the targets into each mask frame, choose the
+ * alignment boxes (masks in order, an alignment star used at most once), find the tracers eligible on each mask
+ * whose minimal slit keeps the gap to every box, allocate tracers jointly over all masks, and build the
+ * minimal slit rows (tilt 0, centred on their targets). Mask frame: x along dispersion, y along slits, arcsec.
+ * The pointing search calls `allocateForPointings` inside its loop.
+ */
+import type { Target } from '../catalog/types';
+import type { GalaxyModel } from '../plan/schema';
+import type { InstrumentProfile } from '../profile/schema';
+import type { Problem } from '../result';
+import { alignmentBoxFits, eligibilityRules, scienceSlitEligible, type EligibilityRules } from '../geometry/eligibility';
+import { chooseAlignmentBoxes, type AlignmentCandidate } from './alignment';
+import { allocateJoint, maskCandidateSet, resolveOneMask, jointObjective, type JointProblem, type JointSolution, type MaskCandidateSet } from './jointAllocation';
+import { maskPointToSkyDeg, projectIndicesToMaskArcsec, unitVectors, type UnitVectors } from './maskTargets';
+import { polygonBounds } from '../geometry/polygon';
+import type { MaskPointing, MaskSolution, Slit } from './types';
+
+/** Everything about the targets and the instrument that does not depend on the pointings. */
+export interface AllocationContext {
+  profile: InstrumentProfile;
+  galaxy: GalaxyModel;
+  targets: readonly Target[];
+  /** Weight of every target (index as in targets); weight 0 means never allocated. */
+  weights: Float64Array;
+  rules: EligibilityRules;
+  raDeg: Float64Array;
+  decDeg: Float64Array;
+  /** Unit vectors of the targets, for fast projection into each mask. */
+  unit: UnitVectors;
+  /** Largest distance (arcsec) of a footprint corner from the mask centre: targets farther away are never on the mask. */
+  footprintRadiusArcsec: number;
+  /** Indices of tracer targets with weight > 0, and of alignment stars inside the profile's magnitude range. */
+  tracerIndices: Int32Array;
+  alignmentIndices: Int32Array;
+}
+
+/** Build the allocation context; linesA are rest wavelengths (Angstrom), redshifted by galaxy.vsysKms. */
+export function allocationContext(profile: InstrumentProfile, galaxy: GalaxyModel, linesA: readonly number[], targets: readonly Target[], weights: Float64Array): AllocationContext {
+  const [bright, faint] = profile.alignment.magRange;
+  const tracers: number[] = [], aligns: number[] = [];
+  targets.forEach((t, i) => {
+    if (t.role === 'alignment') { if (t.mag >= bright && t.mag <= faint) aligns.push(i); }
+    else if (weights[i] > 0) tracers.push(i);
+  });
+  const raDeg = Float64Array.from(targets, (t) => t.raDeg), decDeg = Float64Array.from(targets, (t) => t.decDeg);
+  const b = polygonBounds(profile.footprint);
+  return {
+    profile, galaxy, targets, weights,
+    rules: eligibilityRules(profile, linesA, galaxy.vsysKms),
+    raDeg, decDeg,
+    unit: unitVectors(raDeg, decDeg),
+    footprintRadiusArcsec: Math.hypot(Math.max(-b.minX, b.maxX), Math.max(-b.minY, b.maxY)) + 1,
+    tracerIndices: Int32Array.from(tracers),
+    alignmentIndices: Int32Array.from(aligns),
+  };
+}
+
+/** One mask ready for allocation: its alignment boxes and its tracer candidates (mask-frame positions). */
+export interface PreparedMask {
+  mask: MaskPointing;
+  boxes: AlignmentCandidate[];
+  /** Present when the mask has fewer compatible alignment stars than alignment.minCount. */
+  alignmentShortfall?: { available: number; compatibleMax: number };
+  candidates: MaskCandidateSet;
+  candidateX: Float64Array;
+  candidateY: Float64Array;
+}
+
+/** Prepare one mask: alignment boxes (stars in `usedAlignment` are skipped) and eligible tracer candidates. */
+export function prepareMask(ctx: AllocationContext, mask: MaskPointing, usedAlignment: ReadonlySet<number> = new Set()): PreparedMask {
+  const { profile, rules } = ctx;
+  const L = profile.slits.minLengthArcsec, g = profile.slits.gapArcsec, box = profile.alignment.boxSizeArcsec;
+  const al = ctx.alignmentIndices.filter((i) => !usedAlignment.has(i));
+  const ap = projectIndicesToMaskArcsec(mask, ctx.unit, al, ctx.footprintRadiusArcsec);
+  const alCands: AlignmentCandidate[] = [];
+  for (let k = 0; k < al.length; k++) if (alignmentBoxFits(rules, ap.xArcsec[k], ap.yArcsec[k])) alCands.push({ object: al[k], xArcsec: ap.xArcsec[k], yArcsec: ap.yArcsec[k] });
+  const choice = chooseAlignmentBoxes(alCands, profile.alignment.minCount, box + g);
+  const boxes = choice.chosen;
+  const tp = projectIndicesToMaskArcsec(mask, ctx.unit, ctx.tracerIndices, ctx.footprintRadiusArcsec);
+  const objects: number[] = [], xs: number[] = [], ys: number[] = [];
+  const clearOfBox = L / 2 + box / 2 + g;
+  for (let k = 0; k < ctx.tracerIndices.length; k++) {
+    const x = tp.xArcsec[k], y = tp.yArcsec[k];
+    if (!scienceSlitEligible(rules, x, y)) continue;
+    if (boxes.some((b) => Math.abs(b.yArcsec - y) < clearOfBox)) continue;
+    objects.push(ctx.tracerIndices[k]); xs.push(x); ys.push(y);
+  }
+  return {
+    mask,
+    boxes,
+    alignmentShortfall: choice.ok ? undefined : { available: choice.available, compatibleMax: choice.compatibleMax },
+    candidates: maskCandidateSet(objects, ys.map((y) => y - L / 2), ys.map((y) => y + L / 2 + g)),
+    candidateX: Float64Array.from(xs),
+    candidateY: Float64Array.from(ys),
+  };
+}
+
+/** Prepare every mask in order, so that an alignment star serves one mask only. */
+export function prepareMasks(ctx: AllocationContext, pointings: readonly MaskPointing[]): PreparedMask[] {
+  const used = new Set<number>();
+  return pointings.map((m) => {
+    const p = prepareMask(ctx, m, used);
+    for (const b of p.boxes) used.add(b.object);
+    return p;
+  });
+}
+
+/** The joint problem over prepared masks (weights indexed by target). */
+export function jointProblemOf(ctx: AllocationContext, prepared: readonly PreparedMask[]): JointProblem {
+  return { weights: ctx.weights, masks: prepared.map((p) => p.candidates) };
+}
+
+/** A Problem for a mask with too few alignment stars: names the mask, found vs needed, and how to fix it. */
+export function alignmentProblem(ctx: AllocationContext, p: PreparedMask): Problem | null {
+  if (!p.alignmentShortfall) return null;
+  const { available, compatibleMax } = p.alignmentShortfall;
+  const [b, f] = ctx.profile.alignment.magRange;
+  const need = ctx.profile.alignment.minCount;
+  const clash = compatibleMax < available ? ` (${compatibleMax} with boxes clear of each other along y)` : '';
+  return {
+    where: `mask ${p.mask.id}`,
+    what: `${available} alignment star(s) with mag in [${b}, ${f}] fit on the mask${clash}, but alignment.minCount is ${need}`,
+    fix: 'move or rotate the mask, add alignment stars (role "alignment") to the catalog, or use a profile with a lower alignment.minCount',
+  };
+}
+
+/** Minimal slit rows (tilt 0) of each mask for a joint selection, plus its alignment boxes; ids A01.. and S001.. by y. */
+export function buildMaskSolutions(ctx: AllocationContext, prepared: readonly PreparedMask[], chosen: readonly (readonly number[])[]): MaskSolution[] {
+  const { profile } = ctx;
+  const L = profile.slits.minLengthArcsec, w = profile.slits.widthArcsec, box = profile.alignment.boxSizeArcsec;
+  return prepared.map((p, m) => {
+    const row = (objectIndex: number, role: Slit['role'], x: number, y: number, half: number, width: number, slitId: string): Slit => {
+      const t = ctx.targets[objectIndex];
+      const sky = maskPointToSkyDeg(p.mask, x, y);
+      return {
+        maskId: p.mask.id, slitId, objectId: t.id, role, raDeg: sky.raDeg, decDeg: sky.decDeg, xArcsec: x, yArcsec: y,
+        lenBelowArcsec: half, lenAboveArcsec: half, widthArcsec: width, tiltDeg: 0,
+        priority: role === 'alignment' ? 0 : ctx.weights[objectIndex], mag: t.mag,
+      };
+    };
+    const boxes = [...p.boxes].sort((a, b) => a.yArcsec - b.yArcsec).map((b, i) => row(b.object, 'alignment', b.xArcsec, b.yArcsec, box / 2, box, `A${String(i + 1).padStart(2, '0')}`));
+    const picks = [...chosen[m]].sort((a, b) => p.candidateY[a] - p.candidateY[b]);
+    const slits = picks.map((k, i) => row(p.candidates.objects[k], 'tracer', p.candidateX[k], p.candidateY[k], L / 2, w, `S${String(i + 1).padStart(3, '0')}`));
+    return { mask: p.mask, slits: [...boxes, ...slits] };
+  });
+}
+
+export interface PointingsAllocation {
+  prepared: PreparedMask[];
+  joint: JointSolution;
+  masks: MaskSolution[];
+  problems: Problem[];
+}
+
+/** Full allocation for a set of pointings: alignment boxes, joint tracer allocation, minimal slit rows. */
+export function allocateForPointings(ctx: AllocationContext, pointings: readonly MaskPointing[], opts: { maxIterations?: number } = {}): PointingsAllocation {
+  const prepared = prepareMasks(ctx, pointings);
+  const joint = allocateJoint(jointProblemOf(ctx, prepared), { maxIterations: opts.maxIterations });
+  const problems = prepared.map((p) => alignmentProblem(ctx, p)).filter((p): p is Problem => p !== null);
+  return { prepared, joint, masks: buildMaskSolutions(ctx, prepared, joint.chosen), problems };
+}
+
+/**
+ * Re-solve one mask after it moved (the editor's drag): re-prepare mask m at its new pointing (alignment stars of
+ * the other masks stay theirs) and re-allocate it exactly with the other masks' tracers fixed.
+ */
+export function reallocateOneMask(ctx: AllocationContext, previous: PointingsAllocation, m: number, pointing: MaskPointing): PointingsAllocation {
+  const used = new Set<number>();
+  previous.prepared.forEach((p, i) => { if (i !== m) for (const b of p.boxes) used.add(b.object); });
+  const prepared = previous.prepared.slice();
+  prepared[m] = prepareMask(ctx, pointing, used);
+  const problem = jointProblemOf(ctx, prepared);
+  const start = previous.joint.chosen.map((s, i) => (i === m ? [] : s.slice()));
+  const chosen = resolveOneMask(problem, start, m);
+  const joint: JointSolution = { chosen, objective: jointObjective(problem, chosen), upperBound: Infinity, iterations: 0 };
+  const problems = prepared.map((p) => alignmentProblem(ctx, p)).filter((p): p is Problem => p !== null);
+  return { prepared, joint, masks: buildMaskSolutions(ctx, prepared, chosen), problems };
+}

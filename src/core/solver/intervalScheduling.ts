@@ -1,0 +1,154 @@
+/**
+ * Exact weighted interval scheduling along the mask's y axis (arcsec). Intervals are half-open [start, end):
+ * two intervals are compatible when one ends at or before the other starts. For slits, start = y - minLength/2
+ * and end = y + minLength/2 + gap, which is exactly the contract's gap rule between minimal slits.
+ * Building the index sorts once (O(n log n)); each solve for a new set of weights is O(n).
+ */
+
+/** Intervals sorted by end, with the predecessor count of each: pred[k] = number of sorted intervals ending at or before start of the k-th. */
+export interface IntervalIndex {
+  /** order[k] = original index of the k-th interval by end. */
+  order: Int32Array;
+  pred: Int32Array;
+}
+
+/** Sort intervals by end and find each one's last compatible predecessor (binary search). */
+export function buildIntervalIndex(starts: ArrayLike<number>, ends: ArrayLike<number>): IntervalIndex {
+  const n = starts.length;
+  const order = Int32Array.from({ length: n }, (_, i) => i).sort((a, b) => ends[a] - ends[b] || a - b);
+  const sortedEnds = new Float64Array(n);
+  for (let k = 0; k < n; k++) sortedEnds[k] = ends[order[k]];
+  const pred = new Int32Array(n);
+  for (let k = 0; k < n; k++) {
+    const s = starts[order[k]];
+    // Number of sorted ends <= s (upper bound).
+    let lo = 0, hi = k;
+    while (lo < hi) {
+      const mid = (lo + hi) >> 1;
+      if (sortedEnds[mid] <= s) lo = mid + 1;
+      else hi = mid;
+    }
+    pred[k] = lo;
+  }
+  return { order, pred };
+}
+
+/** Scratch buffers reused across solves of indexes up to a given size (the solver is called many times). */
+let bestBuf = new Float64Array(0);
+
+/**
+ * Maximum-weight set of pairwise compatible intervals for `weights` (by original index; weights <= 0 are never
+ * taken). Returns the chosen original indices in ascending end order and their total weight.
+ */
+export function solveIntervalIndex(index: IntervalIndex, weights: ArrayLike<number>): { chosen: number[]; total: number } {
+  const { order, pred } = index;
+  const n = order.length;
+  if (bestBuf.length < n + 1) bestBuf = new Float64Array(Math.max(n + 1, bestBuf.length * 2));
+  const best = bestBuf; // best[k] = optimum over the first k sorted intervals
+  best[0] = 0;
+  for (let k = 0; k < n; k++) {
+    const w = weights[order[k]];
+    const take = w > 0 ? w + best[pred[k]] : -Infinity;
+    best[k + 1] = take > best[k] ? take : best[k];
+  }
+  const total = best[n];
+  const chosen: number[] = [];
+  let k = n;
+  while (k > 0) {
+    if (best[k] === best[k - 1]) k--;
+    else {
+      chosen.push(order[k - 1]);
+      k = pred[k - 1];
+    }
+  }
+  chosen.reverse();
+  return { chosen, total };
+}
+
+/** One-shot exact weighted interval scheduling over half-open intervals [start, end). */
+export function weightedIntervalScheduling(starts: ArrayLike<number>, ends: ArrayLike<number>, weights: ArrayLike<number>): { chosen: number[]; total: number } {
+  return solveIntervalIndex(buildIntervalIndex(starts, ends), weights);
+}
+
+/** Start-sorted view of an interval set: order by start, and for each, the first start-sorted position starting at or after its end. */
+interface StartView {
+  order: Int32Array;
+  sortedStarts: Float64Array;
+  nextAfterEnd: Int32Array;
+  /** Position of each original interval in the end-sorted order. */
+  endPos: Int32Array;
+  maxLength: number;
+}
+
+const startViews = new WeakMap<IntervalIndex, StartView>();
+
+function lowerBound(a: Float64Array, v: number): number {
+  let lo = 0, hi = a.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if (a[mid] < v) lo = mid + 1;
+    else hi = mid;
+  }
+  return lo;
+}
+
+function startView(index: IntervalIndex, starts: ArrayLike<number>, ends: ArrayLike<number>): StartView {
+  let v = startViews.get(index);
+  if (v) return v;
+  const n = starts.length;
+  const order = Int32Array.from({ length: n }, (_, i) => i).sort((a, b) => starts[a] - starts[b] || a - b);
+  const sortedStarts = new Float64Array(n);
+  for (let k = 0; k < n; k++) sortedStarts[k] = starts[order[k]];
+  const nextAfterEnd = new Int32Array(n);
+  let maxLength = 0;
+  for (let k = 0; k < n; k++) {
+    nextAfterEnd[k] = lowerBound(sortedStarts, ends[order[k]]);
+    maxLength = Math.max(maxLength, ends[order[k]] - starts[order[k]]);
+  }
+  const endPos = new Int32Array(n);
+  for (let k = 0; k < n; k++) endPos[index.order[k]] = k;
+  v = { order, sortedStarts, nextAfterEnd, endPos, maxLength };
+  startViews.set(index, v);
+  return v;
+}
+
+/**
+ * For every interval i, the optimum when i is not allowed (same weights otherwise), in O(n log n + n w) with w the
+ * number of intervals overlapping one: a plan without i either has nothing overlapping i (best before s_i plus best
+ * after e_i) or contains some j overlapping i, whose best containing plan cannot contain i.
+ */
+export function optimumWithoutEach(index: IntervalIndex, starts: ArrayLike<number>, ends: ArrayLike<number>, weights: ArrayLike<number>): Float64Array {
+  const n = starts.length;
+  const sv = startView(index, starts, ends);
+  // F[k]: best over the first k intervals by end. G[k]: best over start-sorted positions >= k.
+  const F = new Float64Array(n + 1);
+  for (let k = 0; k < n; k++) {
+    const w = weights[index.order[k]];
+    const take = w > 0 ? w + F[index.pred[k]] : -Infinity;
+    F[k + 1] = take > F[k] ? take : F[k];
+  }
+  const G = new Float64Array(n + 1);
+  for (let k = n - 1; k >= 0; k--) {
+    const w = weights[sv.order[k]];
+    const take = w > 0 ? w + G[sv.nextAfterEnd[k]] : -Infinity;
+    G[k] = take > G[k + 1] ? take : G[k + 1];
+  }
+  // Per original interval: best before its start, best after its end, best plan containing it.
+  const before = new Float64Array(n), after = new Float64Array(n), containing = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    before[i] = F[index.pred[sv.endPos[i]]];
+    after[i] = G[lowerBound(sv.sortedStarts, ends[i])];
+    containing[i] = weights[i] > 0 ? before[i] + weights[i] + after[i] : -Infinity;
+  }
+  const out = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    let best = before[i] + after[i];
+    // Intervals overlapping i start in (s_i - maxLength, e_i).
+    for (let k = lowerBound(sv.sortedStarts, starts[i] - sv.maxLength); k < n && sv.sortedStarts[k] < ends[i]; k++) {
+      const j = sv.order[k];
+      if (j !== i && ends[j] > starts[i] && containing[j] > best) best = containing[j];
+    }
+    out[i] = best;
+  }
+  return out;
+}

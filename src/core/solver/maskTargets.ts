@@ -1,0 +1,85 @@
+/**
+ * Targets projected into a mask's frame: gnomonic projection about the mask centre (xi East, eta North, arcsec),
+ * then rotated by the mask PA into (x along dispersion, y along slits) exactly as the contract's mask frame.
+ */
+import { skyToMaskArcsec, maskToSkyArcsec } from '../sky/frames';
+import { skyToTangentArcsec, tangentCentre, tangentToSkyDeg } from '../sky/tangentPlane';
+import type { MaskPointing } from './types';
+import { ARCSEC_PER_RAD, RAD_PER_DEG } from '../sky/angles';
+
+/** Mask-frame positions (arcsec) of many sky positions (degrees); NaN where a point has no gnomonic image. */
+export function projectToMaskArcsec(
+  mask: Pick<MaskPointing, 'raDeg' | 'decDeg' | 'paDeg'>,
+  raDeg: ArrayLike<number>,
+  decDeg: ArrayLike<number>,
+): { xArcsec: Float64Array; yArcsec: Float64Array } {
+  const n = raDeg.length;
+  const xArcsec = new Float64Array(n), yArcsec = new Float64Array(n);
+  const centre = tangentCentre(mask.raDeg, mask.decDeg);
+  for (let i = 0; i < n; i++) {
+    const t = skyToTangentArcsec(centre, raDeg[i], decDeg[i]);
+    if (!t) { xArcsec[i] = NaN; yArcsec[i] = NaN; continue; }
+    const m = skyToMaskArcsec(t.xiArcsec, t.etaArcsec, mask.paDeg);
+    xArcsec[i] = m.xArcsec;
+    yArcsec[i] = m.yArcsec;
+  }
+  return { xArcsec, yArcsec };
+}
+
+/** Sky position (degrees, ICRS) of the mask-frame point (x, y) in arcsec: the inverse of projectToMaskArcsec. */
+export function maskPointToSkyDeg(mask: Pick<MaskPointing, 'raDeg' | 'decDeg' | 'paDeg'>, xArcsec: number, yArcsec: number): { raDeg: number; decDeg: number } {
+  const s = maskToSkyArcsec(xArcsec, yArcsec, mask.paDeg);
+  return tangentToSkyDeg(tangentCentre(mask.raDeg, mask.decDeg), s.xiArcsec, s.etaArcsec);
+}
+
+/** Unit vectors (ICRS, x towards RA 0 Dec 0, z towards the North pole) of sky positions in degrees, for fast projection. */
+export interface UnitVectors {
+  x: Float64Array;
+  y: Float64Array;
+  z: Float64Array;
+}
+
+/** Unit vectors of many (ra, dec) in degrees. */
+export function unitVectors(raDeg: ArrayLike<number>, decDeg: ArrayLike<number>): UnitVectors {
+  const n = raDeg.length;
+  const x = new Float64Array(n), y = new Float64Array(n), z = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    const a = raDeg[i] * RAD_PER_DEG, d = decDeg[i] * RAD_PER_DEG;
+    const cd = Math.cos(d);
+    x[i] = cd * Math.cos(a); y[i] = cd * Math.sin(a); z[i] = Math.sin(d);
+  }
+  return { x, y, z };
+}
+
+/**
+ * Mask-frame (x, y) arcsec of the points `indices` of `u`, by the same gnomonic projection as projectToMaskArcsec
+ * written with dot products (cos c = p.centre, xi = p.east / cos c, eta = p.north / cos c): no trigonometry per
+ * point. Points farther than maxRadiusArcsec from the centre (or with no gnomonic image) get NaN.
+ */
+export function projectIndicesToMaskArcsec(
+  mask: Pick<MaskPointing, 'raDeg' | 'decDeg' | 'paDeg'>, u: UnitVectors, indices: ArrayLike<number>, maxRadiusArcsec = Infinity,
+): { xArcsec: Float64Array; yArcsec: Float64Array } {
+  const a0 = mask.raDeg * RAD_PER_DEG, d0 = mask.decDeg * RAD_PER_DEG;
+  const ca = Math.cos(a0), sa = Math.sin(a0), cd = Math.cos(d0), sd = Math.sin(d0);
+  const cx = cd * ca, cy = cd * sa, cz = sd; // centre
+  const ex = -sa, ey = ca; // East (ez = 0)
+  const nx = -sd * ca, ny = -sd * sa, nz = cd; // North
+  const sp = Math.sin(mask.paDeg * RAD_PER_DEG), cp = Math.cos(mask.paDeg * RAD_PER_DEG);
+  const r = maxRadiusArcsec / ARCSEC_PER_RAD;
+  // cos c below which a point is farther than maxRadius on the sky (tan c > r on the plane).
+  const minCos = Number.isFinite(r) ? 1 / Math.sqrt(1 + r * r) : 1e-12;
+  const n = indices.length;
+  const xArcsec = new Float64Array(n), yArcsec = new Float64Array(n);
+  for (let k = 0; k < n; k++) {
+    const i = indices[k];
+    const px = u.x[i], py = u.y[i], pz = u.z[i];
+    const cosC = px * cx + py * cy + pz * cz;
+    if (!(cosC > minCos) || !(cosC > 1e-12)) { xArcsec[k] = NaN; yArcsec[k] = NaN; continue; }
+    const xi = ((px * ex + py * ey) / cosC) * ARCSEC_PER_RAD;
+    const eta = ((px * nx + py * ny + pz * nz) / cosC) * ARCSEC_PER_RAD;
+    // Mask frame (contract): x = xi cos PA - eta sin PA, y = xi sin PA + eta cos PA.
+    xArcsec[k] = xi * cp - eta * sp;
+    yArcsec[k] = xi * sp + eta * cp;
+  }
+  return { xArcsec, yArcsec };
+}

@@ -1,0 +1,376 @@
+/**
+ * Pointing search (docs/search.md): centres and PAs of the unlocked masks that maximise the objective of
+ * solver/objective.ts, with the allocation engine (alignment boxes, exact per-mask interval scheduling, joint
+ * allocation) inside the loop. Locked masks stay and count. Masks may overlap; an object is still used once.
+ *
+ * Method: start from the naive cross layout (or the plan's own positions for placed-but-unlocked masks), evaluated
+ * with the full joint allocation and starlight placement. Then a seeded pattern search: for step sizes halving
+ * level by level, each unlocked mask in turn tries radial, tangential and PA moves plus a few seeded random moves;
+ * a move is evaluated by re-solving that one mask exactly with the others fixed (objects owned by other masks
+ * are unavailable) and re-estimating its starlight slits; the first move that raises the objective is kept.
+ * Masks short of alignment stars count first: a move may never add one, and a move that removes one is kept even
+ * if the objective drops. Finally the best pointings are re-allocated jointly; if that full evaluation does not have
+ * fewer alignment problems, or as few and a higher objective, than the starting layout, the starting layout is
+ * returned, so the search never ends worse than its start.
+ * Speed: target positions are cached in the galaxy's tangent plane (xi East, eta North, arcsec), and each trial
+ * projects exactly only the targets inside the mask's rotated bounding box (plus a margin).
+ */
+import type { GalaxyModel, PlanFile } from '../plan/schema';
+import type { InstrumentProfile } from '../profile/schema';
+import { polygonBounds } from '../geometry/polygon';
+import { ARCSEC_PER_RAD, RAD_PER_DEG, wrap360Deg } from '../sky/angles';
+import { galaxyToSkyArcsec } from '../sky/frames';
+import { skyToTangentArcsec, tangentCentre, tangentToSkyDeg } from '../sky/tangentPlane';
+import { sersicBn } from '../sky/sersic';
+import { galaxyRadiusAndAzimuth } from '../coverage/coverage';
+import { allocateForPointings, type AllocationContext, type PointingsAllocation } from './allocateMasks';
+import { allocateGreedyMaskByMask, improveByBestResponse, resolveOneMask, type JointProblem, type MaskCandidateSet } from './jointAllocation';
+import { wavelengthOk } from '../geometry/eligibility';
+import { footprintRaster, rasterFits } from './footprintRaster';
+import { chooseSlots, freeSlots, galaxyOnMask, placeStarlightAndSky, starlightSettings, type RowSpan, type StarlightRules, type StarlightSettings, type StarlightTrade } from './starlight';
+import { addStarlight, addTracer, emptyTally, mergeTallies, objectiveContext, objectiveValue, type ObjectiveContext, type ObjectiveValue, type SearchRules, type Tally } from './objective';
+import { makeRng } from '../scenario/random';
+import type { MaskPointing, MaskSolution } from './types';
+
+/**
+ * The naive layout: the plan's placed masks kept; the k-th unplaced mask (k = 0, 1, ...) goes in direction
+ * +u, -u, +v, -v (galaxy frame, u major axis) in ring floor(k/4) + 1, its long side along that direction, centred
+ * ring x half the long side from the galaxy centre so the first four masks form a cross from the centre outwards.
+ * A plan of one mask is centred on the galaxy with its long side on the major axis.
+ */
+export function naiveCrossLayout(plan: PlanFile, galaxy: GalaxyModel, profile: InstrumentProfile): MaskPointing[] {
+  const given = plan.masks ?? [];
+  const ids = new Set(given.map((m) => m.id));
+  const all = given.map((m) => ({ ...m }));
+  for (let i = 1; all.length < plan.goals.masks; i++) {
+    const id = `m${i}`;
+    if (!ids.has(id)) { all.push({ id }); ids.add(id); }
+  }
+  const b = polygonBounds(profile.footprint);
+  const longIsY = b.maxY - b.minY >= b.maxX - b.minX;
+  const halfLong = (longIsY ? b.maxY - b.minY : b.maxX - b.minX) / 2;
+  const centre = tangentCentre(galaxy.raDeg, galaxy.decDeg);
+  let k = 0;
+  return all.map((m) => {
+    if (m.raDeg !== undefined && m.decDeg !== undefined) {
+      return { id: m.id, raDeg: wrap360Deg(m.raDeg), decDeg: m.decDeg, paDeg: wrap360Deg(m.paDeg ?? galaxy.paDeg), locked: m.locked ?? false };
+    }
+    let u = 0, v = 0, alongMajor = true;
+    if (plan.goals.masks > 1) {
+      const ring = Math.floor(k / 4) + 1, dir = k % 4;
+      alongMajor = dir < 2;
+      if (alongMajor) u = (dir === 0 ? 1 : -1) * ring * halfLong;
+      else v = (dir === 2 ? 1 : -1) * ring * halfLong;
+      k++;
+    }
+    // Mask +y points at PA; mask +x at PA + 90. Long side along the direction of the offset.
+    const dirPa = alongMajor ? galaxy.paDeg : galaxy.paDeg + 90;
+    const paDeg = wrap360Deg(m.paDeg ?? (longIsY ? dirPa : dirPa - 90));
+    const s = galaxyToSkyArcsec(u, v, galaxy.paDeg);
+    const p = tangentToSkyDeg(centre, s.xiArcsec, s.etaArcsec);
+    return { id: m.id, raDeg: p.raDeg, decDeg: p.decDeg, paDeg, locked: m.locked ?? false };
+  });
+}
+
+/** Objective evaluation shared by the search, the pipeline report and the benchmark. */
+export interface SearchEnv {
+  ctx: AllocationContext;
+  objective: ObjectiveContext;
+  starlight: StarlightSettings;
+  plan: PlanFile;
+  /** R/Re and azimuth (degrees) of every target (index as ctx.targets). */
+  radiusRe: Float64Array;
+  azimuthDeg: Float64Array;
+  /** Galaxy tangent-plane position of every target (arcsec). */
+  xi: Float64Array;
+  eta: Float64Array;
+  bn: number;
+}
+
+/** Build the evaluation environment (cached target positions) for a plan and an allocation context. */
+export function searchEnv(plan: PlanFile, ctx: AllocationContext): SearchEnv {
+  const g = ctx.galaxy, n = ctx.targets.length;
+  const radiusRe = new Float64Array(n), azimuthDeg = new Float64Array(n), xi = new Float64Array(n), eta = new Float64Array(n);
+  const c = tangentCentre(g.raDeg, g.decDeg);
+  for (let i = 0; i < n; i++) {
+    const t = skyToTangentArcsec(c, ctx.raDeg[i], ctx.decDeg[i]);
+    xi[i] = t ? t.xiArcsec : NaN;
+    eta[i] = t ? t.etaArcsec : NaN;
+    const r = galaxyRadiusAndAzimuth(g, ctx.raDeg[i], ctx.decDeg[i]);
+    radiusRe[i] = r.rRe;
+    azimuthDeg[i] = r.phiDeg;
+  }
+  const tracerWeights = Array.from(ctx.tracerIndices, (i) => ctx.weights[i]);
+  return {
+    ctx, plan, radiusRe, azimuthDeg, xi, eta, bn: sersicBn(g.sersicN),
+    objective: objectiveContext(plan.goals, plan.search as SearchRules | undefined, tracerWeights),
+    starlight: starlightSettings(plan.starlight as StarlightRules | undefined, ctx.profile, plan),
+  };
+}
+
+/** Objective of finished masks (tracer rows weighted by their allocation weight; starlight rows by their radius). */
+export function planObjective(env: SearchEnv, masks: readonly MaskSolution[]): ObjectiveValue {
+  const t = emptyTally(env.objective);
+  const g = env.ctx.galaxy;
+  for (const ms of masks) for (const s of ms.slits) {
+    if (s.role !== 'tracer' && s.role !== 'starlight') continue;
+    const r = galaxyRadiusAndAzimuth(g, s.raDeg, s.decDeg);
+    if (s.role === 'tracer') addTracer(t, s.priority, r.rRe, r.phiDeg);
+    else addStarlight(t, r.rRe);
+  }
+  return objectiveValue(env.objective, t);
+}
+
+/** The objective's price of a starlight slit in tracer weight (for the starlight stage's trades). */
+export function starlightTrade(o: ObjectiveContext): StarlightTrade {
+  return { unitWeight: o.unitWeight, aStarlightBin: o.weights.aStarlightBin, aStarlightReach: o.weights.aStarlightReach };
+}
+
+/** Full evaluation of pointings: joint allocation then starlight and sky slits, and the objective of the result. */
+export function evaluatePointings(env: SearchEnv, pointings: readonly MaskPointing[]): { value: ObjectiveValue; masks: MaskSolution[]; allocation: PointingsAllocation; warnings: string[] } {
+  const allocation = allocateForPointings(env.ctx, pointings);
+  const sl = placeStarlightAndSky(allocation.masks, env.ctx.galaxy, env.ctx.profile, env.plan, starlightTrade(env.objective));
+  return { value: planObjective(env, sl.masks), masks: sl.masks, allocation, warnings: sl.warnings };
+}
+
+/** A pointing in the galaxy tangent plane: centre offset (xi East, eta North, arcsec) and PA (degrees East of North). */
+interface PlanePointing { xi: number; eta: number; paDeg: number }
+
+export interface SearchReport {
+  /** Objective of the starting layout and of the returned one (full joint evaluation of both). */
+  startObjective: ObjectiveValue;
+  objective: ObjectiveValue;
+  evaluations: number;
+  acceptedMoves: number;
+  /** true when the search's own best was not better than the start and the start was kept. */
+  keptStart: boolean;
+}
+
+export interface SearchResult {
+  pointings: MaskPointing[];
+  report: SearchReport;
+  /** The full allocation of the returned pointings (before starlight), for the pipeline to reuse. */
+  allocation: PointingsAllocation;
+  /** The returned pointings' masks with starlight and sky slits (before lengthening), and that stage's warnings. */
+  masks: MaskSolution[];
+  starlightWarnings: string[];
+}
+
+/** Unit vectors of every target (for exact gnomonic projection by dot products, no trigonometry per point). */
+function unitVectors(ctx: AllocationContext): Float64Array {
+  const n = ctx.targets.length, v = new Float64Array(3 * n);
+  for (let i = 0; i < n; i++) {
+    const a = ctx.raDeg[i] * RAD_PER_DEG, d = ctx.decDeg[i] * RAD_PER_DEG;
+    v[3 * i] = Math.cos(d) * Math.cos(a);
+    v[3 * i + 1] = Math.cos(d) * Math.sin(a);
+    v[3 * i + 2] = Math.sin(d);
+  }
+  return v;
+}
+
+/**
+ * The candidate set of intervals already sorted by end (equal lengths, sorted by start): the interval index of
+ * solver/intervalScheduling (order by end, pred[k] = number of intervals ending at or before start k) in one pass.
+ */
+function equalLengthCandidateSet(objects: Int32Array, starts: Float64Array, ends: Float64Array): MaskCandidateSet {
+  const n = objects.length;
+  const order = new Int32Array(n), pred = new Int32Array(n);
+  let j = 0;
+  for (let k = 0; k < n; k++) {
+    order[k] = k;
+    while (j < k && ends[j] <= starts[k]) j++;
+    pred[k] = j;
+  }
+  return { objects, starts, ends, index: { order, pred } };
+}
+
+/** The search's fast model of one mask: its tracer candidates (exact projection, raster footprint test), no boxes. */
+interface ProxyMask {
+  set: MaskCandidateSet;
+  y: Float64Array;
+  alignmentAvailable: number;
+}
+
+/**
+ * Search the unlocked masks' pointings (see the module comment). Deterministic for a given plan and `search.seed`.
+ * onProgress receives fractions in [0, 1].
+ */
+export function searchPointings(env: SearchEnv, start: readonly MaskPointing[], onProgress: (fraction: number, message: string) => void = () => {}): SearchResult {
+  const { ctx } = env;
+  const rules = (env.plan.search ?? {}) as SearchRules;
+  const startEval = evaluatePointings(env, start);
+  const free = start.map((p, i) => (p.locked ? -1 : i)).filter((i) => i >= 0);
+  const keep = (evaluations: number, accepted: number): SearchResult => ({
+    pointings: start.slice(), masks: startEval.masks, allocation: startEval.allocation, starlightWarnings: startEval.warnings,
+    report: { startObjective: startEval.value, objective: startEval.value, evaluations, acceptedMoves: accepted, keptStart: true },
+  });
+  if (rules.enabled === false || free.length === 0) return keep(1, 0);
+  const rng = makeRng(rules.seed ?? 1);
+  const levels = rules.levels ?? 3, passes = rules.passes ?? 2, randomTrials = rules.randomTrials ?? 1;
+  const g = ctx.galaxy, profile = ctx.profile;
+  const gc = tangentCentre(g.raDeg, g.decDeg);
+  const b = polygonBounds(profile.footprint);
+  const halfDiag = Math.hypot(Math.max(-b.minX, b.maxX), Math.max(-b.minY, b.maxY));
+  const halfLong = Math.max(b.maxY - b.minY, b.maxX - b.minX) / 2;
+  const L = profile.slits.minLengthArcsec, gap = profile.slits.gapArcsec, box = profile.alignment.boxSizeArcsec;
+  const slitRaster = footprintRaster(profile.footprint, profile.slits.widthArcsec / 2, L / 2);
+  const boxRaster = footprintRaster(profile.footprint, box / 2, box / 2);
+  const uv = unitVectors(ctx);
+  const bufObj = new Int32Array(ctx.tracerIndices.length), bufY = new Float64Array(ctx.tracerIndices.length);
+  if (ctx.tracerIndices.length >= 1048576) throw new RangeError('pointing search: more than 2^20 tracer candidates');
+
+  /** Exact mask-frame (x, y) of target i about centre unit vectors (c, e, n) at PA (sin, cos); null behind the plane. */
+  const proxyMask = (p: MaskPointing): ProxyMask => {
+    const a0 = p.raDeg * RAD_PER_DEG, d0 = p.decDeg * RAD_PER_DEG;
+    const ca = Math.cos(a0), sa = Math.sin(a0), cd = Math.cos(d0), sd = Math.sin(d0);
+    const cx = cd * ca, cy = cd * sa, cz = sd, ex = -sa, ey = ca, nx = -sd * ca, ny = -sd * sa, nz = cd;
+    const sp = Math.sin(p.paDeg * RAD_PER_DEG), cp = Math.cos(p.paDeg * RAD_PER_DEG);
+    // Candidates in y order (so that the interval index's sort by end is a single pass), no allocation per target.
+    let n = 0;
+    for (const i of ctx.tracerIndices) {
+      const px = uv[3 * i], py = uv[3 * i + 1], pz = uv[3 * i + 2];
+      const cosC = px * cx + py * cy + pz * cz;
+      if (cosC < 0.9) continue; // farther than ~25 degrees: never on a mask
+      const xi = ((px * ex + py * ey) / cosC) * ARCSEC_PER_RAD, eta = ((px * nx + py * ny + pz * nz) / cosC) * ARCSEC_PER_RAD;
+      const x = xi * cp - eta * sp, y = xi * sp + eta * cp;
+      if (x < b.minX || x > b.maxX || y < b.minY || y > b.maxY) continue;
+      if (!wavelengthOk(ctx.rules, x) || !rasterFits(slitRaster, x, y)) continue;
+      bufObj[n] = i; bufY[n] = y; n++;
+    }
+    // Sort by y with a native numeric sort of packed keys: y quantised to 1e-4 arcsec (ordering only), index in the low 20 bits.
+    const keys = new Float64Array(n);
+    for (let k = 0; k < n; k++) keys[k] = Math.floor((bufY[k] + 1e4) * 1e4) * 1048576 + k;
+    keys.sort();
+    const objects = new Int32Array(n), y = new Float64Array(n), starts = new Float64Array(n), ends = new Float64Array(n);
+    for (let k = 0; k < n; k++) {
+      const j = keys[k] % 1048576;
+      objects[k] = bufObj[j]; y[k] = bufY[j];
+      starts[k] = y[k] - L / 2; ends[k] = y[k] + L / 2 + gap;
+    }
+    let alignmentAvailable = 0;
+    for (const i of ctx.alignmentIndices) {
+      const px = uv[3 * i], py = uv[3 * i + 1], pz = uv[3 * i + 2];
+      const cosC = px * cx + py * cy + pz * cz;
+      if (cosC < 0.9) continue;
+      const xi = ((px * ex + py * ey) / cosC) * ARCSEC_PER_RAD, eta = ((px * nx + py * ny + pz * nz) / cosC) * ARCSEC_PER_RAD;
+      if (rasterFits(boxRaster, xi * cp - eta * sp, xi * sp + eta * cp)) alignmentAvailable++;
+    }
+    return { set: equalLengthCandidateSet(objects, starts, ends), y, alignmentAvailable };
+  };
+
+  // Current state: plane pointings, proxy masks, joint selection over the proxies, per-mask tallies.
+  const plane: PlanePointing[] = start.map((p) => {
+    const t = skyToTangentArcsec(gc, p.raDeg, p.decDeg)!;
+    return { xi: t.xiArcsec, eta: t.etaArcsec, paDeg: p.paDeg };
+  });
+  const pointings = start.map((p) => ({ ...p }));
+  let proxies = pointings.map(proxyMask);
+  const problemOf = (ps: readonly ProxyMask[]): JointProblem => ({ weights: ctx.weights, masks: ps.map((p) => p.set) });
+  let chosen = improveByBestResponse(problemOf(proxies), allocateGreedyMaskByMask(problemOf(proxies)).chosen, 3);
+  const tallies = proxies.map((p, m) => proxyTally(env, pointings[m], p, chosen[m]));
+  let current = objectiveValue(env.objective, mergeTallies(env.objective, tallies)).total;
+  const minAlign = profile.alignment.minCount;
+  // Masks short of alignment stars (proxy count: one box per star); fewer is always better, then the objective.
+  const short = (p: ProxyMask) => (p.alignmentAvailable < minAlign ? 1 : 0);
+  let shortNow = proxies.reduce((a, p) => a + short(p), 0);
+
+  const toPointing = (m: number, pp: PlanePointing): MaskPointing => {
+    const s = tangentToSkyDeg(gc, pp.xi, pp.eta);
+    return { id: start[m].id, raDeg: s.raDeg, decDeg: s.decDeg, paDeg: wrap360Deg(pp.paDeg), locked: false };
+  };
+
+  let evaluations = 1, accepted = 0;
+  const tryMove = (m: number, pp: PlanePointing): boolean => {
+    evaluations++;
+    const pointing = toPointing(m, pp);
+    const prox = proxyMask(pointing);
+    const shortNext = shortNow - short(proxies[m]) + short(prox);
+    if (shortNext > shortNow) return false;
+    const next = proxies.slice();
+    next[m] = prox;
+    const base = chosen.map((c, i) => (i === m ? [] : c));
+    const nextChosen = resolveOneMask(problemOf(next), base, m);
+    const tally = proxyTally(env, pointing, prox, nextChosen[m]);
+    const nextTallies = tallies.slice();
+    nextTallies[m] = tally;
+    const value = objectiveValue(env.objective, mergeTallies(env.objective, nextTallies)).total;
+    if (shortNext < shortNow || value > current * (1 + 1e-9) + 1e-9) {
+      current = value;
+      shortNow = shortNext;
+      proxies = next;
+      chosen = nextChosen;
+      tallies[m] = tally;
+      plane[m] = pp;
+      pointings[m] = pointing;
+      accepted++;
+      return true;
+    }
+    return false;
+  };
+
+  const totalTrials = Math.max(1, levels * passes * free.length * (6 + randomTrials));
+  let done = 0;
+  const maxCentreArcsec = (env.objective.tracerReachRe * g.reArcsec) / Math.sqrt(g.axisRatio) + halfDiag;
+  for (let level = 0; level < levels; level++) {
+    const step = halfLong * 0.5 * Math.pow(0.5, level);
+    const stepPa = 24 * Math.pow(0.5, level);
+    for (let pass = 0; pass < passes; pass++) {
+      const acceptedBefore = accepted;
+      for (const m of free) {
+        const p = plane[m];
+        const r = Math.hypot(p.xi, p.eta);
+        // Radial unit vector (from the galaxy centre), or the mask's own +y direction at the centre.
+        const ux = r > 1e-6 ? p.xi / r : Math.sin(p.paDeg * RAD_PER_DEG), uy = r > 1e-6 ? p.eta / r : Math.cos(p.paDeg * RAD_PER_DEG);
+        const moves: PlanePointing[] = [
+          { xi: p.xi + step * ux, eta: p.eta + step * uy, paDeg: p.paDeg },
+          { xi: p.xi - step * ux, eta: p.eta - step * uy, paDeg: p.paDeg },
+          { xi: p.xi - step * uy, eta: p.eta + step * ux, paDeg: p.paDeg },
+          { xi: p.xi + step * uy, eta: p.eta - step * ux, paDeg: p.paDeg },
+          { xi: p.xi, eta: p.eta, paDeg: p.paDeg + stepPa },
+          { xi: p.xi, eta: p.eta, paDeg: p.paDeg - stepPa },
+        ];
+        for (let k = 0; k < randomTrials; k++) moves.push({ xi: p.xi + step * rng.uniform(-1, 1), eta: p.eta + step * rng.uniform(-1, 1), paDeg: p.paDeg + stepPa * rng.uniform(-1, 1) });
+        for (const mv of moves) {
+          done++;
+          // Keep the mask over the galaxy's field: its centre within tracerReachRe (semi-major) + half the footprint.
+          if (Math.hypot(mv.xi, mv.eta) > maxCentreArcsec) continue;
+          tryMove(m, mv);
+        }
+        onProgress(Math.min(0.95, done / totalTrials), `pointing search: step level ${level + 1}/${levels}, objective ${current.toFixed(1)}`);
+      }
+      if (accepted === acceptedBefore) { done += (passes - pass - 1) * free.length * (6 + randomTrials); break; }
+    }
+  }
+  if (accepted === 0) return keep(evaluations, 0);
+  const final = evaluatePointings(env, pointings);
+  evaluations++;
+  onProgress(1, 'pointing search done');
+  const fewerProblems = final.allocation.problems.length < startEval.allocation.problems.length;
+  if (fewerProblems || (final.allocation.problems.length === startEval.allocation.problems.length && final.value.total > startEval.value.total)) {
+    return { pointings, masks: final.masks, allocation: final.allocation, starlightWarnings: final.warnings, report: { startObjective: startEval.value, objective: final.value, evaluations, acceptedMoves: accepted, keptStart: false } };
+  }
+  return keep(evaluations, accepted);
+}
+
+/** Tally of one proxy mask with a selection: its tracers, and its starlight slits estimated on the free space. */
+function proxyTally(env: SearchEnv, pointing: MaskPointing, p: ProxyMask, chosenK: readonly number[]): Tally {
+  const t = emptyTally(env.objective);
+  const { ctx } = env;
+  for (const k of chosenK) {
+    const o = p.set.objects[k];
+    addTracer(t, ctx.weights[o], env.radiusRe[o], env.azimuthDeg[o]);
+  }
+  if (env.starlight.reachRe <= 0) return t;
+  const g = ctx.galaxy;
+  const om = galaxyOnMask(pointing, g, env.bn);
+  const b = polygonBounds(ctx.profile.footprint);
+  const halfDiag = Math.hypot(Math.max(-b.minX, b.maxX), Math.max(-b.minY, b.maxY));
+  // No starlight possible when even the nearest footprint point lies beyond the reach (R >= sqrt(q) x distance).
+  if (Math.sqrt(g.axisRatio) * (Math.hypot(om.gxArcsec, om.gyArcsec) - halfDiag) > env.starlight.reachRe * g.reArcsec) return t;
+  const L = ctx.profile.slits.minLengthArcsec;
+  const rows: RowSpan[] = chosenK.map((k) => ({ role: 'tracer' as const, yArcsec: p.y[k], lenBelowArcsec: L / 2, lenAboveArcsec: L / 2, widthArcsec: ctx.profile.slits.widthArcsec, tiltDeg: 0 }));
+  const slots = freeSlots(rows, ctx.rules, ctx.profile.slits.gapArcsec, env.starlight.slitLengthArcsec);
+  const { starlight } = chooseSlots(om, ctx.rules, slots, { ...env.starlight, skyPerMask: 0 }, new Set(), 1, 25);
+  for (const c of starlight) addStarlight(t, c.rRe);
+  return t;
+}

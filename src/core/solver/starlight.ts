@@ -1,0 +1,441 @@
+/**
+ * Integrated-starlight and sky slits, placed in the y-space the tracer slits and alignment boxes leave free
+ * on each mask (mask frame: x along the dispersion, y along the slits, arcsec; tilt 0).
+ *
+ * Free space is measured between the *minimal* spans of the existing rows (a tracer slit's lengthening is
+ * given back), so each new slit keeps the gap rule; neighbours lengthened into that space are trimmed back,
+ * never below minLengthArcsec/2 on either side. Each free stretch is cut into slots of `slitLengthArcsec`
+ * (or the whole stretch when shorter, down to the profile's minimal length). For each slot the slit's x is
+ * chosen on a grid of positions that obey the footprint and the wavelength rule; the galaxy's surface
+ * brightness there comes from the Sérsic model and the S/N per A from the CCD equation (spectro/signalToNoise).
+ * - starlight: S/N >= targetSnPerA and R/Re <= starlightReachRe + reachMarginRe; chosen greedily to fill new (radial bin of
+ *   1 Re, 45-degree sector) cells first, outermost first, up to maxPerMask per mask;
+ * - sky: the galaxy at least skyContrastMag fainter than the sky; the faintest slots, up to skyPerMask per mask.
+ * Both are science slits for the wavelength rule (a sky spectrum must cover the same lines to subtract them).
+ * Object ids: `sl-<mask>-NNN` and `sky-<mask>-NNN`, so each appears once over all masks.
+ * Surface brightness at a mask point uses the galaxy centre projected into the mask frame and a planar
+ * rotation into the galaxy frame (second-order projection differences, below 0.1 arcsec over a mask, are ignored).
+ */
+import { z } from 'zod';
+import type { InstrumentProfile } from '../profile/schema';
+import type { GalaxyModel, PlanFile } from '../plan/schema';
+import type { MaskSolution, Slit } from './types';
+import { centredRectFits, eligibilityRules, wavelengthOk, type EligibilityRules } from '../geometry/eligibility';
+import { skyToMaskArcsec, circularisedRadiusArcsec, galaxyAzimuthDeg } from '../sky/frames';
+import { skyToTangentArcsec, tangentCentre } from '../sky/tangentPlane';
+import { sersicBn, sersicMuMagPerArcsec2 } from '../sky/sersic';
+import { electronsPerAFromSurfaceBrightness, signalToNoisePerA, type SpectroSetup } from '../spectro/signalToNoise';
+import { maskPointToSkyDeg } from './maskTargets';
+import { observedWavelengthA } from '../geometry/wavelength';
+
+/** The plan's `starlight` section (docs/signal-to-noise.md lists every setting and its default). */
+export const starlightSchema = z.looseObject({
+  exposureS: z.number().positive().optional(),
+  throughput: z.number().gt(0).max(1).optional(),
+  skyMagPerArcsec2: z.number().min(10).max(30).optional(),
+  targetSnPerA: z.number().positive().optional(),
+  wavelengthA: z.number().positive().optional(),
+  slitLengthArcsec: z.number().positive().optional(),
+  maxPerMask: z.number().int().min(0).optional(),
+  skyPerMask: z.number().int().min(0).optional(),
+  skyContrastMag: z.number().min(0).optional(),
+  obstructedFraction: z.number().min(0).lt(1).optional(),
+  /** Starlight slits are placed out to starlightReachRe + reachMarginRe (default 0.5), so the goal radius itself is reached. */
+  reachMarginRe: z.number().min(0).optional(),
+  /** false: starlight slits only in the space the tracers leave free (default true: trade where the objective gains). */
+  displaceTracers: z.boolean().optional(),
+  readNoiseE: z.number().min(0).optional(),
+  darkEPerPixelPerS: z.number().min(0).optional(),
+  yArcsecPerPixel: z.number().positive().optional(),
+});
+export type StarlightRules = z.infer<typeof starlightSchema>;
+
+/** Settings after defaults. */
+export interface StarlightSettings {
+  exposureS: number;
+  skyMagPerArcsec2: number;
+  targetSnPerA: number;
+  slitLengthArcsec: number;
+  maxPerMask: number;
+  skyPerMask: number;
+  skyContrastMag: number;
+  /** Goal radius (goals.starlightReachRe; 0 turns starlight off) and the outer limit of placement, in Re. */
+  reachRe: number;
+  maxRe: number;
+  setup: SpectroSetup;
+}
+
+/** Defaults: 2 h, sky 19.6 AB mag/arcsec^2 (dark sky near 8500 A, common practice order of magnitude), S/N 5 per A. */
+export const STARLIGHT_DEFAULTS = { exposureS: 7200, skyMagPerArcsec2: 19.6, targetSnPerA: 5, throughput: 0.15, maxPerMask: 8, skyPerMask: 2, skyContrastMag: 3 } as const;
+
+/** Resolve the plan's starlight settings against the profile (throughput, detector scales, noise) and goals. */
+export function starlightSettings(rules: StarlightRules | undefined, profile: InstrumentProfile, plan: Pick<PlanFile, 'goals' | 'galaxy'>): StarlightSettings {
+  const r = rules ?? {};
+  const lines = plan.goals.linesA.map((l) => observedWavelengthA(l, plan.galaxy.vsysKms));
+  const det = profile.detector;
+  return {
+    exposureS: r.exposureS ?? STARLIGHT_DEFAULTS.exposureS,
+    skyMagPerArcsec2: r.skyMagPerArcsec2 ?? STARLIGHT_DEFAULTS.skyMagPerArcsec2,
+    targetSnPerA: r.targetSnPerA ?? STARLIGHT_DEFAULTS.targetSnPerA,
+    slitLengthArcsec: Math.max(profile.slits.minLengthArcsec, r.slitLengthArcsec ?? Math.max(3 * profile.slits.minLengthArcsec, 12)),
+    maxPerMask: r.maxPerMask ?? STARLIGHT_DEFAULTS.maxPerMask,
+    skyPerMask: r.skyPerMask ?? STARLIGHT_DEFAULTS.skyPerMask,
+    skyContrastMag: r.skyContrastMag ?? STARLIGHT_DEFAULTS.skyContrastMag,
+    reachRe: plan.goals.starlightReachRe,
+    maxRe: plan.goals.starlightReachRe > 0 ? plan.goals.starlightReachRe + (r.reachMarginRe ?? 0.5) : 0,
+    setup: {
+      apertureM: profile.telescope.apertureM,
+      obstructedFraction: r.obstructedFraction ?? 0,
+      throughput: r.throughput ?? profile.telescope.throughput ?? STARLIGHT_DEFAULTS.throughput,
+      dispersionAPerPixel: det.dispersionAPerPixel,
+      yArcsecPerPixel: r.yArcsecPerPixel ?? det.yArcsecPerPixel ?? det.xArcsecPerPixel,
+      readNoiseE: r.readNoiseE ?? det.readNoiseE ?? 3,
+      darkEPerPixelPerS: r.darkEPerPixelPerS ?? det.darkEPerPixelPerS ?? 0.001,
+      wavelengthA: r.wavelengthA ?? lines.reduce((a, b) => a + b, 0) / lines.length,
+    },
+  };
+}
+
+/** A mask's view of the galaxy: its centre in the mask frame and what is needed for R, azimuth and mu. */
+export interface GalaxyOnMask {
+  gxArcsec: number;
+  gyArcsec: number;
+  maskPaDeg: number;
+  galaxy: GalaxyModel;
+  bn: number;
+  /** sin/cos of the mask PA and of the galaxy PA (for the rotation mask frame -> sky -> galaxy frame). */
+  sinMask: number;
+  cosMask: number;
+  sinGal: number;
+  cosGal: number;
+}
+
+/** The galaxy centre in a mask's frame (gnomonic about the mask centre, rotated by the mask PA). */
+export function galaxyOnMask(mask: { raDeg: number; decDeg: number; paDeg: number }, galaxy: GalaxyModel, bn = sersicBn(galaxy.sersicN)): GalaxyOnMask {
+  const t = skyToTangentArcsec(tangentCentre(mask.raDeg, mask.decDeg), galaxy.raDeg, galaxy.decDeg);
+  const m = t ? skyToMaskArcsec(t.xiArcsec, t.etaArcsec, mask.paDeg) : { xArcsec: Infinity, yArcsec: Infinity };
+  const rad = Math.PI / 180;
+  return {
+    gxArcsec: m.xArcsec, gyArcsec: m.yArcsec, maskPaDeg: mask.paDeg, galaxy, bn,
+    sinMask: Math.sin(mask.paDeg * rad), cosMask: Math.cos(mask.paDeg * rad), sinGal: Math.sin(galaxy.paDeg * rad), cosGal: Math.cos(galaxy.paDeg * rad),
+  };
+}
+
+/** Circularised radius (arcsec) and azimuth from the major axis (degrees) of a mask point (x, y) arcsec. */
+export function galaxyRadiusAt(g: GalaxyOnMask, xArcsec: number, yArcsec: number): { rArcsec: number; azimuthDeg: number } {
+  const { u, v } = maskOffsetToGalaxy(g, xArcsec, yArcsec);
+  return { rArcsec: circularisedRadiusArcsec(u, v, g.galaxy.axisRatio), azimuthDeg: galaxyAzimuthDeg(u, v) };
+}
+
+/**
+ * Galaxy frame (u, v) of a mask point: the mask-frame offset from the galaxy centre rotated to the sky
+ * (maskToSkyArcsec: xi = x cosPA + y sinPA, eta = -x sinPA + y cosPA), then to the galaxy frame (skyToGalaxyArcsec).
+ */
+function maskOffsetToGalaxy(g: GalaxyOnMask, xArcsec: number, yArcsec: number): { u: number; v: number } {
+  const dx = xArcsec - g.gxArcsec, dy = yArcsec - g.gyArcsec;
+  const xi = dx * g.cosMask + dy * g.sinMask, eta = -dx * g.sinMask + dy * g.cosMask;
+  return { u: xi * g.sinGal + eta * g.cosGal, v: xi * g.cosGal - eta * g.sinGal };
+}
+
+/** Circularised radius (arcsec) only, for the inner loops. */
+function radiusAt(g: GalaxyOnMask, xArcsec: number, yArcsec: number): number {
+  const { u, v } = maskOffsetToGalaxy(g, xArcsec, yArcsec);
+  return circularisedRadiusArcsec(u, v, g.galaxy.axisRatio);
+}
+
+/** Sérsic surface brightness (mag/arcsec^2) averaged in flux over `samples` points along a slit from y0 to y1 at x. */
+export function slitMeanMu(g: GalaxyOnMask, xArcsec: number, y0Arcsec: number, y1Arcsec: number, samples = 5): number {
+  // Same as fluxMeanSurfaceBrightness over the samples, without building the list.
+  let f = 0;
+  for (let i = 0; i < samples; i++) {
+    const y = samples === 1 ? 0.5 * (y0Arcsec + y1Arcsec) : y0Arcsec + ((i + 0.5) / samples) * (y1Arcsec - y0Arcsec);
+    f += Math.pow(10, -0.4 * sersicMuMagPerArcsec2(radiusAt(g, xArcsec, y), g.galaxy.reArcsec, g.galaxy.sersicN, g.galaxy.muE, g.bn));
+  }
+  return -2.5 * Math.log10(f / samples);
+}
+
+/** S/N per A of the galaxy light through a slit of length `lengthArcsec` with mean surface brightness mu. */
+export function starlightSignalToNoise(muMagPerArcsec2: number, lengthArcsec: number, widthArcsec: number, s: StarlightSettings): number {
+  const perS = electronsPerAFromSurfaceBrightness(muMagPerArcsec2, lengthArcsec * widthArcsec, s.setup, 1);
+  return signalToNoisePerA({ sourceEPerAPerS: perS, extractionArcsec: lengthArcsec, slitWidthArcsec: widthArcsec, skyMagPerArcsec2: s.skyMagPerArcsec2 }, s.setup, s.exposureS);
+}
+
+interface Span { lo: number; hi: number }
+
+/** The fields of a row that fix the y-space it occupies. */
+export type RowSpan = Pick<Slit, 'role' | 'yArcsec' | 'lenBelowArcsec' | 'lenAboveArcsec' | 'widthArcsec' | 'tiltDeg'>;
+
+/** The minimal y-span of an existing row: alignment boxes whole, slits shortened to minLength/2 each side. */
+function coreSpan(slit: RowSpan, minHalf: number): Span {
+  if (slit.role === 'alignment') return { lo: slit.yArcsec - slit.lenBelowArcsec, hi: slit.yArcsec + slit.lenAboveArcsec };
+  const below = slit.role === 'tracer' ? Math.min(slit.lenBelowArcsec, minHalf) : slit.lenBelowArcsec;
+  const above = slit.role === 'tracer' ? Math.min(slit.lenAboveArcsec, minHalf) : slit.lenAboveArcsec;
+  const t = Math.abs(slit.tiltDeg) * Math.PI / 180;
+  const halfW = (slit.widthArcsec / 2) * Math.sin(t);
+  return { lo: slit.yArcsec - below * Math.cos(t) - halfW, hi: slit.yArcsec + above * Math.cos(t) + halfW };
+}
+
+/** One possible new slit: a y slot and the chosen x, with its radius, azimuth and S/N. */
+export interface SlotChoice {
+  y0: number;
+  y1: number;
+  xArcsec: number;
+  rRe: number;
+  azimuthDeg: number;
+  snPerA: number;
+  muMagPerArcsec2: number;
+}
+
+/** Safety margin (arcsec) kept beyond the gap so rounding never brings two rows closer than the gap. */
+const MARGIN = 1e-6;
+
+/** Free y-slots (arcsec) between the minimal spans of a mask's rows, each at most slotLength long and at least minLength. */
+export function freeSlots(slits: readonly RowSpan[], rules: EligibilityRules, gapArcsec: number, slotLengthArcsec: number): Span[] {
+  const minHalf = rules.minLengthArcsec / 2;
+  const cores = slits.map((s) => coreSpan(s, minHalf)).sort((a, b) => a.lo - b.lo);
+  const edges: Span[] = [];
+  let lo = rules.bounds.minY;
+  for (const c of cores) {
+    edges.push({ lo, hi: c.lo - gapArcsec - MARGIN });
+    lo = Math.max(lo, c.hi + gapArcsec + MARGIN);
+  }
+  edges.push({ lo, hi: rules.bounds.maxY });
+  const slots: Span[] = [];
+  for (const e of edges) {
+    const len = e.hi - e.lo;
+    if (len < rules.minLengthArcsec) continue;
+    const n = Math.max(1, Math.floor((len + gapArcsec) / (slotLengthArcsec + gapArcsec)));
+    const each = n === 1 ? Math.min(len, slotLengthArcsec) : slotLengthArcsec;
+    // Centre the n slots in the stretch.
+    const used = n * each + (n - 1) * (gapArcsec + 2 * MARGIN);
+    let y = e.lo + (len - used) / 2;
+    for (let i = 0; i < n; i++) {
+      slots.push({ lo: y, hi: y + each });
+      y += each + gapArcsec + 2 * MARGIN;
+    }
+  }
+  return slots;
+}
+
+/** Candidate x positions (arcsec) for a slot: a grid over the footprint bounds that obey the wavelength rule (fit is checked later). */
+const positionCache = new WeakMap<EligibilityRules, Map<number, number[]>>();
+function slotPositions(rules: EligibilityRules, stepArcsec: number): number[] {
+  let byStep = positionCache.get(rules);
+  if (!byStep) positionCache.set(rules, (byStep = new Map()));
+  const cached = byStep.get(stepArcsec);
+  if (cached) return cached;
+  const hw = rules.widthArcsec / 2;
+  const xs: number[] = [];
+  for (let x = rules.bounds.minX + hw; x <= rules.bounds.maxX - hw; x += stepArcsec) if (wavelengthOk(rules, x)) xs.push(x);
+  byStep.set(stepArcsec, xs);
+  return xs;
+}
+
+/**
+ * Evaluate one slot: the outermost position that still reaches the S/N goal within starlightReachRe (starlight),
+ * and the outermost position where the galaxy is skyContrastMag fainter than the sky (sky). Positions lie on an
+ * x grid of `stepArcsec`; the footprint test (the costly one) is made only for a position that would be chosen.
+ */
+export function evaluateSlot(g: GalaxyOnMask, rules: EligibilityRules, slot: Span, s: StarlightSettings, samples = 3, stepArcsec = 6): { starlight: SlotChoice | null; options: SlotChoice[]; sky: SlotChoice | null } {
+  const xs = slotPositions(rules, stepArcsec);
+  const len = slot.hi - slot.lo, yc = 0.5 * (slot.lo + slot.hi), hw = rules.widthArcsec / 2, half = 0.5 * len;
+  const re = g.galaxy.reArcsec, n = g.galaxy.sersicN;
+  // R >= sqrt(q) x (distance to the galaxy centre) >= sqrt(q) |yc - gy|: slots whose line stays beyond the reach hold no starlight.
+  const lineCanReach = s.reachRe > 0 && Math.sqrt(g.galaxy.axisRatio) * Math.abs(yc - g.gyArcsec) <= s.maxRe * re;
+  const wantSky = s.skyPerMask > 0;
+  const lightOk: SlotChoice[] = [], skyOk: SlotChoice[] = [];
+  for (const x of xs) {
+    const { u, v } = maskOffsetToGalaxy(g, x, yc);
+    const rArcsec = circularisedRadiusArcsec(u, v, g.galaxy.axisRatio), azimuthDeg = galaxyAzimuthDeg(u, v);
+    const rRe = rArcsec / re;
+    const muCentre = sersicMuMagPerArcsec2(rArcsec, re, n, g.galaxy.muE, g.bn);
+    if (lineCanReach && rRe <= s.maxRe) {
+      const mu = samples === 1 ? muCentre : slitMeanMu(g, x, slot.lo, slot.hi, samples);
+      const sn = starlightSignalToNoise(mu, len, rules.widthArcsec, s);
+      if (sn >= s.targetSnPerA) lightOk.push({ y0: slot.lo, y1: slot.hi, xArcsec: x, rRe, azimuthDeg, snPerA: sn, muMagPerArcsec2: mu });
+    }
+    if (wantSky && muCentre >= s.skyMagPerArcsec2 + s.skyContrastMag) skyOk.push({ y0: slot.lo, y1: slot.hi, xArcsec: x, rRe, azimuthDeg, snPerA: 0, muMagPerArcsec2: muCentre });
+  }
+  // Outermost first; the footprint test only until one fits. Starlight: the outermost fitting position of each radial bin.
+  const fits = (c: SlotChoice) => centredRectFits(rules, c.xArcsec, yc, hw, half);
+  const byR = (a: SlotChoice, b: SlotChoice) => b.rRe - a.rRe || a.xArcsec - b.xArcsec;
+  const options: SlotChoice[] = [];
+  const binsDone = new Set<number>();
+  for (const c of lightOk.sort(byR)) {
+    const bin = Math.floor(c.rRe);
+    if (binsDone.has(bin) || !fits(c)) continue;
+    binsDone.add(bin);
+    options.push(c);
+  }
+  return { starlight: options[0] ?? null, options, sky: skyOk.sort(byR).find(fits) ?? null };
+}
+
+/** Coverage cell of a starlight slit: radial bin of 1 Re and 45-degree sector from the major axis. */
+export const starlightCell = (rRe: number, azimuthDeg: number) => `${Math.floor(rRe)}:${Math.floor((((azimuthDeg % 360) + 360) % 360) / 45)}`;
+
+/** New rows chosen for one mask: starlight slits (spread over cells, outermost first) then sky slits (faintest first). */
+export function chooseSlots(g: GalaxyOnMask, rules: EligibilityRules, slots: readonly Span[], s: StarlightSettings, cellsTaken: Set<string>, samples = 3, stepArcsec = 6): { starlight: SlotChoice[]; sky: SlotChoice[] } {
+  const evals = slots.map((slot) => evaluateSlot(g, rules, slot, s, samples, stepArcsec));
+  const used = new Set<number>();
+  const starlight: SlotChoice[] = [];
+  while (starlight.length < s.maxPerMask) {
+    let best = -1, bestScore = -Infinity, bestC: SlotChoice | null = null;
+    evals.forEach((e, i) => {
+      if (used.has(i)) return;
+      for (const o of e.options) {
+        const score = (cellsTaken.has(starlightCell(o.rRe, o.azimuthDeg)) ? 0 : 1000) + o.rRe;
+        if (score > bestScore) { bestScore = score; best = i; bestC = o; }
+      }
+    });
+    if (best < 0 || !bestC) break;
+    used.add(best);
+    const c: SlotChoice = bestC;
+    cellsTaken.add(starlightCell(c.rRe, c.azimuthDeg));
+    starlight.push(c);
+  }
+  const skyOrder = evals.map((e, i) => ({ e, i })).filter(({ e, i }) => e.sky && !used.has(i)).sort((a, b) => b.e.sky!.rRe - a.e.sky!.rRe || a.i - b.i);
+  const sky = skyOrder.slice(0, s.skyPerMask).map(({ e }) => e.sky!);
+  return { starlight, sky };
+}
+
+/** Trim rows lengthened into the new slits' space (never below minLength/2 per side), keeping the gap rule. */
+function trimAround(slits: Slit[], added: readonly SlotChoice[], gapArcsec: number, minHalf: number): Slit[] {
+  return slits.map((sl) => {
+    if (sl.role === 'alignment') return sl;
+    let below = sl.lenBelowArcsec, above = sl.lenAboveArcsec;
+    for (const a of added) {
+      if (a.y0 >= sl.yArcsec) above = Math.min(above, Math.max(minHalf, a.y0 - gapArcsec - MARGIN - sl.yArcsec));
+      else if (a.y1 <= sl.yArcsec) below = Math.min(below, Math.max(minHalf, sl.yArcsec - (a.y1 + gapArcsec + MARGIN)));
+    }
+    return below === sl.lenBelowArcsec && above === sl.lenAboveArcsec ? sl : { ...sl, lenBelowArcsec: below, lenAboveArcsec: above };
+  });
+}
+
+export interface StarlightResult {
+  masks: MaskSolution[];
+  warnings: string[];
+}
+
+/** Rows for chosen slots on one mask, ids `sl-<mask>-NNN` / `sky-<mask>-NNN`; y is the slot centre, symmetric halves. */
+function slotRows(mask: MaskSolution['mask'], choices: readonly SlotChoice[], role: 'starlight' | 'sky', widthArcsec: number): Slit[] {
+  return choices.map((c, i) => {
+    const id = `${role === 'starlight' ? 'sl' : 'sky'}-${mask.id}-${String(i + 1).padStart(3, '0')}`;
+    const y = 0.5 * (c.y0 + c.y1), half = 0.5 * (c.y1 - c.y0);
+    const sky = maskPointToSkyDeg(mask, c.xArcsec, y);
+    return {
+      maskId: mask.id, slitId: id, objectId: id, role, raDeg: sky.raDeg, decDeg: sky.decDeg, xArcsec: c.xArcsec, yArcsec: y,
+      lenBelowArcsec: half, lenAboveArcsec: half, widthArcsec, tiltDeg: 0, priority: 0, mag: null,
+    };
+  });
+}
+
+/**
+ * How the objective values a starlight slit against tracer weight (solver/objective.ts): a starlight slit in a new
+ * radial bin is worth aStarlightBin x unitWeight, and raising the starlight reach by dR is worth
+ * aStarlightReach x unitWeight x dR / starlightReachRe.
+ */
+export interface StarlightTrade {
+  unitWeight: number;
+  aStarlightBin: number;
+  aStarlightReach: number;
+}
+
+/** Per-mask working state of the stage. */
+interface MaskWork {
+  ms: MaskSolution;
+  g: GalaxyOnMask;
+  base: Slit[];
+  starlight: SlotChoice[];
+  sky: SlotChoice[];
+  displaced: Slit[];
+}
+
+/**
+ * Add starlight and sky slits to every mask (see the module comment). `reachRe` 0 turns starlight off (sky slits
+ * are still placed). First every mask gets slits in its free space (masks in order; cells filled by an earlier mask
+ * count as taken, so slits spread over the galaxy). Then, when `trade` is given and `starlight.displaceTracers` is
+ * not false, a mask may give up tracer slits for a starlight slit where that raises the objective: the slit's value
+ * (a new radial bin, more reach; see StarlightTrade) must exceed the summed weight of the tracers it displaces.
+ */
+export function placeStarlightAndSky(masks: readonly MaskSolution[], galaxy: GalaxyModel, profile: InstrumentProfile, plan: Pick<PlanFile, 'goals' | 'galaxy' | 'starlight'>, trade?: StarlightTrade): StarlightResult {
+  const s = starlightSettings(plan.starlight as StarlightRules | undefined, profile, plan);
+  const rules = eligibilityRules(profile, plan.goals.linesA, galaxy.vsysKms);
+  const bn = sersicBn(galaxy.sersicN);
+  const cells = new Set<string>();
+  const warnings: string[] = [];
+  const gap = profile.slits.gapArcsec, minHalf = rules.minLengthArcsec / 2;
+  const work: MaskWork[] = masks.map((ms) => {
+    const g = galaxyOnMask(ms.mask, galaxy, bn);
+    const base = ms.slits.filter((r) => r.role === 'tracer' || r.role === 'alignment');
+    const slots = freeSlots(base, rules, gap, s.slitLengthArcsec);
+    const { starlight, sky } = chooseSlots(g, rules, slots, s, cells);
+    return { ms, g, base, starlight, sky, displaced: [] };
+  });
+  const displace = trade && (plan.starlight as StarlightRules | undefined)?.displaceTracers !== false && s.reachRe > 0 && s.maxPerMask > 0;
+  if (displace) {
+    const bins = new Set<number>();
+    let reach = 0;
+    for (const w of work) for (const c of w.starlight) { bins.add(Math.floor(c.rRe)); reach = Math.max(reach, c.rRe); }
+    for (const w of work) displaceForStarlight(w, rules, s, trade, gap, bins, () => reach, (r) => (reach = Math.max(reach, r)));
+  }
+  const out = work.map((w) => {
+    if (w.sky.length < s.skyPerMask) warnings.push(`mask ${w.ms.mask.id}: ${w.sky.length} of ${s.skyPerMask} sky slits placed (free space where the galaxy is ${s.skyContrastMag} mag fainter than the sky is short)`);
+    if (w.displaced.length) warnings.push(`mask ${w.ms.mask.id}: ${w.displaced.length} tracer slit(s) (weight ${w.displaced.reduce((a, d) => a + d.priority, 0).toFixed(2)}) gave way to starlight slits that raise the objective more (${w.displaced.map((d) => d.objectId).join(', ')})`);
+    const added = [...w.starlight, ...w.sky];
+    const kept = trimAround(w.base, added, gap, minHalf);
+    const starlightRows = [...w.starlight].sort((a, b) => a.y0 - b.y0);
+    const rows = [...kept, ...slotRows(w.ms.mask, starlightRows, 'starlight', rules.widthArcsec), ...slotRows(w.ms.mask, w.sky, 'sky', rules.widthArcsec)];
+    rows.sort((a, b) => a.yArcsec - b.yArcsec);
+    return { ...w.ms, slits: rows };
+  });
+  return { masks: out, warnings };
+}
+
+/** Greedy trade of tracer slits for starlight slits on one mask (see placeStarlightAndSky). */
+function displaceForStarlight(w: MaskWork, rules: EligibilityRules, s: StarlightSettings, trade: StarlightTrade, gap: number, bins: Set<number>, reachNow: () => number, raiseReach: (r: number) => void): void {
+  const minHalf = rules.minLengthArcsec / 2;
+  const re = w.g.galaxy.reArcsec, sq = Math.sqrt(w.g.galaxy.axisRatio);
+  const maxGain = trade.unitWeight * (trade.aStarlightBin + trade.aStarlightReach);
+  // Two window lengths: the full starlight slit, and half of it (enough S/N in the inner parts, fewer tracers displaced).
+  const lengths = [...new Set([s.slitLengthArcsec, Math.max(rules.minLengthArcsec, s.slitLengthArcsec / 2)])];
+  const windows: Span[] = [];
+  for (const L of lengths) {
+    const from = Math.max(rules.bounds.minY, w.g.gyArcsec - (s.maxRe * re) / sq - L), to = Math.min(rules.bounds.maxY - L, w.g.gyArcsec + (s.maxRe * re) / sq);
+    for (let a = from; a <= to; a += L / 3) windows.push({ lo: a, hi: a + L });
+  }
+  // Starlight options of each window (the galaxy model does not change while tracers are traded), computed when first needed.
+  const options = new Map<number, SlotChoice[]>();
+  while (w.starlight.length < s.maxPerMask) {
+    const occupied: { r: Slit | null; span: Span }[] = w.base.map((r) => ({ r, span: coreSpan(r, minHalf) }));
+    for (const c of w.starlight) occupied.push({ r: null, span: { lo: c.y0, hi: c.y1 } });
+    for (const c of w.sky) occupied.push({ r: null, span: { lo: c.y0, hi: c.y1 } });
+    let best: { net: number; c: SlotChoice; blockers: Slit[] } | null = null;
+    const reach = reachNow();
+    for (let k = 0; k < windows.length; k++) {
+      const { lo, hi } = windows[k];
+      const blockers: Slit[] = [];
+      let blocked = false, cost = 0;
+      for (const o of occupied) {
+        if (o.span.hi + gap + MARGIN <= lo || o.span.lo - gap - MARGIN >= hi) continue;
+        if (!o.r || o.r.role !== 'tracer') { blocked = true; break; }
+        blockers.push(o.r);
+        cost += o.r.priority;
+      }
+      if (blocked || !blockers.length || cost >= maxGain) continue;
+      let opts = options.get(k);
+      if (!opts) options.set(k, (opts = evaluateSlot(w.g, rules, windows[k], s, 3, 6).options));
+      for (const c of opts) {
+        const gain = trade.unitWeight * ((bins.has(Math.floor(c.rRe)) ? 0 : trade.aStarlightBin) + (trade.aStarlightReach * Math.max(0, Math.min(c.rRe, s.reachRe) - Math.min(reach, s.reachRe))) / s.reachRe);
+        const net = gain - cost;
+        if (net > 1e-9 && (!best || net > best.net)) best = { net, c, blockers };
+      }
+    }
+    if (!best) return;
+    const gone = new Set(best.blockers);
+    w.base = w.base.filter((r) => !gone.has(r));
+    w.displaced.push(...best.blockers);
+    w.starlight.push(best.c);
+    bins.add(Math.floor(best.c.rRe));
+    raiseReach(best.c.rRe);
+  }
+}

@@ -1,0 +1,183 @@
+/**
+ * The editor window: a tool bar (open, save, export, undo/redo), the sky view in the middle with the
+ * target table under it, and side columns (left: the plan's galaxy, instrument, masks and search;
+ * right: yield, coverage, nights and the catalog row report). Files can be dropped anywhere.
+ */
+import { useEffect, useMemo, useRef, useState } from 'react';
+import type { EditorController } from './controller';
+import { useControllerVersion } from './useController';
+import { SkyView, type MaskPose } from './view/SkyView';
+import { buildCatalogGeometry } from './view/catalogGeometry';
+import { galaxyModel } from '../core/plan/validate';
+import { galaxyRadiusAndAzimuth } from '../core/coverage/coverage';
+import { slitOfObject, slitsByMask, weightsFor } from './derive';
+import { GalaxyPanel } from './panels/GalaxyPanel';
+import { ProfilePanel } from './panels/ProfilePanel';
+import { MasksPanel } from './panels/MasksPanel';
+import { SearchPanel } from './panels/SearchPanel';
+import { YieldPanel } from './panels/YieldPanel';
+import { CoveragePanel } from './panels/CoveragePanel';
+import { TargetTable } from './panels/TargetTable';
+import { RejectReport } from './panels/RejectReport';
+import { ExportMenu } from './panels/ExportMenu';
+import { Notices } from './panels/Notices';
+import { BackdropPanel, useBackdrop } from './panels/BackdropPanel';
+import { downloadFile } from './io/download';
+import { ROLE_STYLE, ROLES } from './view/palette';
+import { RoleMark } from './panels/MasksPanel';
+
+export function App({ controller: c }: { controller: EditorController }) {
+  useControllerVersion(c);
+  const [dragOver, setDragOver] = useState(false);
+  const fileInput = useRef<HTMLInputElement>(null);
+  const backdrop = useBackdrop(c);
+
+  // Keyboard: Ctrl/Cmd+Z undo, Shift+Ctrl/Cmd+Z (or Ctrl+Y) redo, Ctrl/Cmd+S save; not while typing in a field.
+  useEffect(() => {
+    const onKey = (e: KeyboardEvent) => {
+      const el = e.target as HTMLElement;
+      if (el && (el.tagName === 'INPUT' || el.tagName === 'SELECT' || el.tagName === 'TEXTAREA')) return;
+      const mod = e.ctrlKey || e.metaKey;
+      if (!mod) return;
+      const k = e.key.toLowerCase();
+      if (k === 'z' && !e.shiftKey) { e.preventDefault(); c.undo(); }
+      else if ((k === 'z' && e.shiftKey) || k === 'y') { e.preventDefault(); c.redo(); }
+      else if (k === 's') { e.preventDefault(); savePlan(c); }
+    };
+    window.addEventListener('keydown', onKey);
+    return () => window.removeEventListener('keydown', onKey);
+  }, [c]);
+
+  // Warn before leaving with unsaved work (the autosave keeps it anyway).
+  useEffect(() => {
+    const onBefore = (e: BeforeUnloadEvent) => { if (c.store?.dirty) e.preventDefault(); };
+    window.addEventListener('beforeunload', onBefore);
+    return () => window.removeEventListener('beforeunload', onBefore);
+  }, [c]);
+
+  const open = async (files: File[]) => {
+    if (!files.length) return;
+    const { imageFiles } = await c.openFiles(files);
+    if (imageFiles.length) await backdrop.openImage(imageFiles[0]);
+  };
+
+  const store = c.store;
+  const doc = store?.doc;
+  const session = c.session;
+  const galaxy = useMemo(() => (doc ? safeGalaxy(doc.plan) : null), [doc?.plan.galaxy]);
+  const targets = session.catalog?.targets ?? null;
+  const weights = useMemo(() => (doc && targets ? weightsFor(doc.plan, targets) : null), [doc?.plan.targetOverrides, targets]);
+  const geometry = useMemo(() => (galaxy && targets && weights ? buildCatalogGeometry(targets, galaxy.raDeg, galaxy.decDeg, (_t, i) => weights[i]) : null), [galaxy, targets, weights]);
+  const rRe = useMemo(() => {
+    if (!galaxy || !targets) return new Float64Array(0);
+    return Float64Array.from(targets, (t) => galaxyRadiusAndAzimuth(galaxy, t.raDeg, t.decDeg).rRe);
+  }, [galaxy, targets]);
+  const solvedMasks = session.solution?.result.masks ?? [];
+  const slitMap = useMemo(() => slitsByMask(solvedMasks), [solvedMasks]);
+  const slitOf = useMemo(() => slitOfObject(solvedMasks), [solvedMasks]);
+  const onSlit = useMemo(() => {
+    if (!targets) return null;
+    return Uint8Array.from(targets, (t) => { const s = slitOf.get(t.id); return !s ? 0 : s.role === 'alignment' ? 2 : 1; });
+  }, [targets, slitOf]);
+
+  const poses: MaskPose[] = (doc?.plan.masks ?? [])
+    .filter((m) => m.raDeg !== undefined && m.decDeg !== undefined)
+    .map((m) => ({ id: m.id, raDeg: m.raDeg!, decDeg: m.decDeg!, paDeg: m.paDeg ?? 0, locked: !!m.locked }));
+  const slitTotal = solvedMasks.reduce((n, m) => n + m.slits.length, 0);
+
+  return (
+    <div
+      className={`app ${dragOver ? 'drag-over' : ''}`}
+      onDragOver={(e) => { e.preventDefault(); setDragOver(true); }}
+      onDragLeave={(e) => { if (e.currentTarget === e.target) setDragOver(false); }}
+      onDrop={(e) => { e.preventDefault(); setDragOver(false); void open([...(e.dataTransfer?.files ?? [])]); }}
+      data-testid="app"
+    >
+      <header className="toolbar">
+        <div className="brand">Haloweave<span className="brand-sub">halo mask planner</span></div>
+        <input ref={fileInput} type="file" multiple hidden data-testid="open-input"
+          onChange={(e) => { void open([...(e.target.files ?? [])]); e.target.value = ''; }} />
+        <button onClick={() => fileInput.current?.click()} title="Open a plan, catalog (CSV, ECSV, VOTable, FITS), profile or FITS image; or drop files on the window">Open…</button>
+        <button onClick={() => c.openDemo(true)} data-testid="open-demo">Demo</button>
+        <button onClick={() => savePlan(c)} disabled={!store} data-testid="save-plan" title="Save the plan file (Ctrl/Cmd+S)">Save plan</button>
+        <ExportMenu c={c} />
+        <span className="sep" />
+        <button onClick={() => c.undo()} disabled={!store?.canUndo} data-testid="undo" title={store?.canUndo ? `Undo ${store.getState().history.past.at(-1)?.label} (Ctrl/Cmd+Z)` : 'nothing to undo'}>↶ Undo</button>
+        <button onClick={() => c.redo()} disabled={!store?.canRedo} data-testid="redo" title={store?.canRedo ? `Redo ${store.getState().history.future.at(-1)?.label} (Shift+Ctrl/Cmd+Z)` : 'nothing to redo'}>↷ Redo</button>
+        <span className="spacer" />
+        <span className="doc-name" data-testid="doc-name">{session.planName}{store?.dirty ? ' •' : ''}</span>
+        <span className="status small" data-testid="solve-status" data-busy={session.solving ? 'yes' : 'no'} data-current={c.solutionIsCurrent ? 'yes' : 'no'}>
+          {session.solving ? 'solving…' : session.solution ? `${slitTotal} slits` : ''}
+        </span>
+        <span className="status small dim" data-testid="autosave-status">{session.autosavedAt ? `kept in this browser ${new Date(session.autosavedAt).toLocaleTimeString()}` : ''}</span>
+      </header>
+      <Notices c={c} />
+      {!store || !doc || !galaxy ? (
+        <div className="loading">Opening the demo plan…</div>
+      ) : (
+        <div className="columns">
+          <aside className="side left">
+            <GalaxyPanel c={c} galaxy={galaxy} />
+            <ProfilePanel c={c} />
+            <MasksPanel c={c} solved={solvedMasks} />
+            <SearchPanel c={c} />
+            <BackdropPanel c={c} backdrop={backdrop} />
+          </aside>
+          <main className="centre">
+            <div className="sky-wrap">
+              <SkyView
+                galaxy={galaxy}
+                tracerReachRe={doc.plan.goals.tracerReachRe}
+                starlightReachRe={doc.plan.goals.starlightReachRe}
+                profile={doc.profile}
+                masks={poses}
+                slitsByMask={slitMap}
+                catalog={geometry}
+                catalogRevision={0}
+                selected={session.selection}
+                onSlit={onSlit}
+                activeMaskId={session.activeMaskId}
+                backdrop={backdrop.drawable}
+                onPreviewMask={(p) => c.previewMask(p)}
+                onCommitMask={(p, how) => c.commitMask(p, how)}
+                onSelectTargets={(idx, additive) => store.updateSession((s) => {
+                  const next = additive ? new Set(s.selection) : new Set<number>();
+                  for (const i of idx) next.add(i);
+                  return { ...s, selection: next };
+                })}
+                onSelectMask={(id) => store.updateSession((s) => ({ ...s, activeMaskId: id }))}
+              />
+              <div className="legend sky-legend">
+                {ROLES.map((r) => <span key={r}><RoleMark role={r} /> {ROLE_STYLE[r].label}</span>)}
+                <span><i className="dot" /> candidate: size by brightness, shade by weight</span>
+                <span><i className="ring" /> on a slit</span>
+                <span><i className="diamond" /> alignment star</span>
+                <span><i className="cross">×</i> excluded</span>
+              </div>
+            </div>
+            {targets && weights && (
+              <TargetTable c={c} data={{ targets, rRe, weights, slitOf }} />
+            )}
+          </main>
+          <aside className="side right">
+            <YieldPanel c={c} />
+            <CoveragePanel c={c} galaxyPaDeg={galaxy.paDeg} />
+            {session.catalog && <RejectReport key={`${session.catalog.source}:${session.catalog.rowsRead}:${session.catalog.rejects.length}`} catalog={session.catalog} name={session.catalogFile?.name ?? session.catalog.source} />}
+          </aside>
+        </div>
+      )}
+      {dragOver && <div className="drop-hint">Drop a plan, catalog, profile or FITS image</div>}
+    </div>
+  );
+}
+
+function safeGalaxy(plan: Parameters<typeof galaxyModel>[0]) {
+  try { return galaxyModel(plan); } catch { return null; }
+}
+
+/** Save the plan file of the contract (a download named like the opened plan). */
+export function savePlan(c: EditorController): void {
+  if (!c.store) return;
+  downloadFile(c.session.planName.endsWith('.json') ? c.session.planName : `${c.session.planName}.plan.json`, c.planFileText(), 'application/json');
+  c.markSaved();
+}

@@ -1,0 +1,431 @@
+/**
+ * The editor controller: owns the document store, the solver workers and autosave, and turns user
+ * actions (open, drag, edit, search, save) into store commands and solve requests. No React here.
+ */
+import type { CatalogReadResult } from '../core/catalog/types';
+import type { PlanFile, PlanMask } from '../core/plan/schema';
+import { parsePlanText } from '../core/plan/validate';
+import { parseProfileText } from '../core/profile/load';
+import type { InstrumentProfile } from '../core/profile/schema';
+import { InputError, type Problem } from '../core/result';
+import { readCatalog } from '../core/catalog/read';
+import { DocumentStore } from './store/store';
+import type { EditorDoc } from './store/document';
+import { moveMaskCommand, rotateMaskCommand, setMasksCommand, setProfileCommand, type Command } from './store/commands';
+import { emptySession, type LoadedFile, type Notice, type Session } from './session';
+import { SolverClient, type SolveOutcome } from './worker/solverClient';
+import { bundledProfileFor } from './io/profiles';
+import { demoFiles } from './io/demo';
+import { classifyFile } from './io/classify';
+import { readAutosave, writeAutosave, clearAutosave } from './io/autosave';
+import type { MaskPose } from './view/SkyView';
+
+export type Listener = () => void;
+
+/** Problems of an error, or one problem holding its message. */
+function problemsOf(e: unknown, where: string): Problem[] {
+  if (e instanceof InputError) return e.problems;
+  return [{ where, what: e instanceof Error ? e.message : String(e) }];
+}
+
+/** Read a browser File into text (text formats) or bytes (FITS). */
+export async function loadedFileFrom(file: File): Promise<{ file: LoadedFile; bytes: Uint8Array }> {
+  const bytes = new Uint8Array(await file.arrayBuffer());
+  const isFits = new TextDecoder().decode(bytes.subarray(0, 9)) === 'SIMPLE  =';
+  return { file: { name: file.name, content: isFits ? bytes : new TextDecoder().decode(bytes) }, bytes };
+}
+
+export interface ControllerOptions {
+  /** Ask the user a yes/no question (default window.confirm). */
+  confirm?(question: string): boolean;
+  /** Make a solver client (tests may inject one). */
+  makeSolver?(cb: ConstructorParameters<typeof SolverClient>[0]): SolverClient;
+  /** Delay before an autosave write, ms. */
+  autosaveDelayMs?: number;
+}
+
+export class EditorController {
+  store: DocumentStore<Session> | null = null;
+  private listeners = new Set<Listener>();
+  private solver: SolverClient;
+  private searcher: SolverClient;
+  private noticeId = 1;
+  private lastDoc: EditorDoc | null = null;
+  private lastInputs: { profile: InstrumentProfile; catalog: CatalogReadResult } | null = null;
+  /** The request whose 'plan' result should place the masks of a freshly opened plan. */
+  private adoptRequestId = -1;
+  private autosaveTimer: ReturnType<typeof setTimeout> | null = null;
+  private readonly confirm: (q: string) => boolean;
+  private readonly autosaveDelayMs: number;
+  /** The document each sent request was made for (null for drag previews), by request id. */
+  private requestedFor = new Map<number, EditorDoc | null>();
+  /** Worker compute time of recent solves by mode, ms (read by the benchmark). */
+  readonly solveTimes: { mode: string; ms: number }[] = [];
+
+  constructor(opts: ControllerOptions = {}) {
+    this.confirm = opts.confirm ?? ((q) => window.confirm(q));
+    this.autosaveDelayMs = opts.autosaveDelayMs ?? 300;
+    const make = opts.makeSolver ?? ((cb) => new SolverClient(cb));
+    this.solver = make({
+      onResult: (o) => this.onSolved(o),
+      onError: (message, problems, id) => this.onSolveError(message, problems, id),
+      onBusy: (busy) => this.patch({ solving: busy }),
+    });
+    this.searcher = make({
+      onResult: (o) => this.onSearched(o),
+      onError: (message, problems) => {
+        this.patch({ search: null });
+        this.notify('error', `pointing search failed: ${message}`, problems);
+      },
+      onProgress: (fraction, message) => this.patch({ search: { running: true, fraction, message } }),
+    });
+  }
+
+  // ---- subscription (for React) ----
+  subscribe = (fn: Listener): (() => void) => {
+    this.listeners.add(fn);
+    return () => this.listeners.delete(fn);
+  };
+  private version = 0;
+  /** Changes whenever anything shown changes. */
+  getVersion = (): number => this.version;
+  private emit(): void {
+    this.version++;
+    for (const fn of [...this.listeners]) fn();
+  }
+
+  get session(): Session {
+    return this.store?.session ?? emptySession();
+  }
+
+  /** Change session fields; no change (and no re-render) when every given value is already there. */
+  private patch(p: Partial<Session>): void {
+    if (!this.store) return;
+    const cur = this.store.session as unknown as Record<string, unknown>;
+    if (Object.entries(p).every(([k, v]) => cur[k] === v)) return;
+    this.store.updateSession((s) => ({ ...s, ...p }));
+  }
+
+  notify(level: Notice['level'], text: string, problems?: Problem[]): void {
+    const n: Notice = { id: this.noticeId++, level, text, problems };
+    if (!this.store) {
+      console[level === 'error' ? 'error' : 'log'](text, problems ?? '');
+      return;
+    }
+    this.patch({ notices: [...this.session.notices.slice(-4), n] });
+  }
+
+  dismissNotice(id: number): void {
+    this.patch({ notices: this.session.notices.filter((n) => n.id !== id) });
+  }
+
+  // ---- start-up ----
+  /** Restore the autosaved work, or open the demo plan when there is none. */
+  async boot(): Promise<void> {
+    const saved = await readAutosave();
+    if (saved) {
+      try {
+        const catalog = saved.catalogFile ? readCatalog(saved.catalogFile.content, saved.catalogFile.name, saved.plan.catalogColumns) : null;
+        this.install({ plan: saved.plan, profile: saved.profile }, catalog, saved.catalogFile, saved.planName, { dirty: saved.unsaved, place: false });
+        this.patch({ autosavedAt: saved.savedAt });
+        this.notify('info', `restored your work from ${new Date(saved.savedAt).toLocaleString()}`);
+        return;
+      } catch (e) {
+        console.error('autosave could not be restored', e);
+      }
+    }
+    this.openDemo(false);
+  }
+
+  /** Open the built-in demo plan (asks first when there is unsaved work). */
+  openDemo(ask = true): void {
+    if (ask && !this.mayDiscard()) return;
+    const d = demoFiles();
+    this.openPlanText(d.plan, d.catalog, { ask: false });
+  }
+
+  /** Start afresh: forget the autosave and open the demo. */
+  async resetToDemo(): Promise<void> {
+    if (!this.mayDiscard()) return;
+    await clearAutosave();
+    this.openDemo(false);
+  }
+
+  private mayDiscard(): boolean {
+    if (!this.store || !this.store.dirty) return true;
+    return this.confirm('The plan has changes that are not saved to a file. Discard them and open the other file?');
+  }
+
+  // ---- opening files ----
+  /** Open files picked or dropped together: plan, catalog, profile and/or FITS image, each told apart by content. */
+  async openFiles(files: File[]): Promise<{ imageFiles: File[] }> {
+    const read = await Promise.all(files.map(async (f) => ({ f, ...(await loadedFileFrom(f)) })));
+    const classified = read.map((r) => ({ ...r, kind: classifyFile(r.f.name, r.bytes) }));
+    const plan = classified.find((c) => c.kind === 'plan');
+    const profile = classified.find((c) => c.kind === 'profile');
+    const catalogs = classified.filter((c) => c.kind === 'catalog');
+    const imageFiles = classified.filter((c) => c.kind === 'image').map((c) => c.f);
+    let profileObj: InstrumentProfile | undefined;
+    if (profile) {
+      try {
+        profileObj = parseProfileText(String(profile.file.content), profile.f.name);
+      } catch (e) {
+        this.notify('error', `${profile.f.name} is not a usable instrument profile`, problemsOf(e, profile.f.name));
+      }
+    }
+    if (plan) {
+      // A catalog dropped with the plan is used when its name matches the plan's `catalog` (or it is the only one).
+      let planCatalogName = '';
+      try { planCatalogName = String(JSON.parse(String(plan.file.content)).catalog ?? ''); } catch { /* reported below */ }
+      const base = planCatalogName.split(/[\\/]/).pop();
+      const cat = catalogs.find((c) => c.f.name === base) ?? (catalogs.length === 1 ? catalogs[0] : undefined);
+      this.openPlanText(plan.file, cat?.file ?? null, { ask: true, profile: profileObj });
+    } else {
+      if (profileObj && this.store) this.store.dispatch(setProfileCommand(this.store.doc, profileObj));
+      for (const c of catalogs) this.openCatalog(c.file);
+    }
+    return { imageFiles };
+  }
+
+  /** Open a plan; its catalog is `catalogFile`, or the one already loaded when the names match. */
+  openPlanText(planFile: LoadedFile, catalogFile: LoadedFile | null, opts: { ask: boolean; profile?: InstrumentProfile }): boolean {
+    if (opts.ask && !this.mayDiscard()) return false;
+    let plan: PlanFile;
+    try {
+      plan = parsePlanText(String(planFile.content), planFile.name);
+    } catch (e) {
+      this.notify('error', `${planFile.name} could not be opened`, problemsOf(e, planFile.name));
+      return false;
+    }
+    const profile = opts.profile ?? bundledProfileFor(plan.instrument) ?? (this.store?.doc.profile.id === plan.instrument ? this.store.doc.profile : undefined);
+    if (!profile) {
+      this.notify('error', `${planFile.name}: instrument "${plan.instrument}" is not a bundled profile`, [
+        { where: `${planFile.name}: instrument`, what: `no profile "${plan.instrument}" is known to the editor`, fix: 'open the profile file together with the plan (drop both at once)' },
+      ]);
+      return false;
+    }
+    if (opts.profile && plan.instrument !== opts.profile.id) plan = { ...plan, instrument: opts.profile.id };
+    let catalog: CatalogReadResult | null = null;
+    let catFile = catalogFile;
+    if (!catFile && this.session.catalogFile) {
+      const want = plan.catalog.split(/[\\/]/).pop();
+      if (this.session.catalogFile.name === want) catFile = this.session.catalogFile;
+    }
+    if (catFile) {
+      try {
+        catalog = readCatalog(catFile.content, catFile.name, plan.catalogColumns);
+      } catch (e) {
+        this.notify('error', `${catFile.name} could not be read`, problemsOf(e, catFile.name));
+      }
+    } else {
+      this.notify('warning', `open the catalog "${plan.catalog}" (file picker or drop it on the window) to solve this plan`);
+    }
+    this.install({ plan, profile }, catalog, catalog ? catFile : null, planFile.name, { dirty: false, place: true });
+    return true;
+  }
+
+  /** Open a catalog for the current plan (any format the core reads); rejected rows are listed, never hidden. */
+  openCatalog(file: LoadedFile): void {
+    if (!this.store) return;
+    let catalog: CatalogReadResult;
+    try {
+      catalog = readCatalog(file.content, file.name, this.store.doc.plan.catalogColumns);
+    } catch (e) {
+      this.notify('error', `${file.name} could not be read as a catalog`, problemsOf(e, file.name));
+      return;
+    }
+    this.patch({ catalog, catalogFile: file, selection: new Set() });
+    const used = catalog.targets.length;
+    const rejectedRows = new Set(catalog.rejects.map((r) => r.line)).size;
+    this.notify(catalog.rejects.length ? 'warning' : 'info',
+      `${file.name}: ${catalog.rowsRead} rows read, ${used} used, ${rejectedRows} not used${catalog.rejects.length ? ' (see the row report)' : ''}`);
+    if (used === 0) {
+      this.notify('error', `${file.name}: no row of the catalog is usable; nothing to solve`);
+      return;
+    }
+    this.sendInputs(true);
+    this.scheduleAutosave();
+  }
+
+  private installing = false;
+
+  private install(doc: EditorDoc, catalog: CatalogReadResult | null, catalogFile: LoadedFile | null, planName: string, o: { dirty: boolean; place: boolean }): void {
+    this.installing = true;
+    try {
+      this.installInner(doc, catalog, catalogFile, planName, o);
+    } finally {
+      this.installing = false;
+    }
+    if (catalog) {
+      this.sendInputs(false);
+      // A fresh plan: the solver places masks that have no position yet; the result is adopted below.
+      this.adoptRequestId = this.requestFor(this.store!.doc, o.place ? 'plan' : 'allocate');
+    }
+    this.scheduleAutosave();
+    this.emit();
+  }
+
+  private installInner(doc: EditorDoc, catalog: CatalogReadResult | null, catalogFile: LoadedFile | null, planName: string, o: { dirty: boolean; place: boolean }): void {
+    if (!this.store) {
+      this.store = new DocumentStore<Session>(doc, { ...emptySession(), catalog, catalogFile, planName });
+      this.store.subscribe(() => this.onStoreChange());
+    } else {
+      this.store.replaceDocument(doc, { dirty: o.dirty });
+      this.patch({ catalog, catalogFile, planName, solution: null, selection: new Set(), activeMaskId: null, preview: null, solveError: null });
+    }
+    if (o.dirty) this.store.replaceDocument(doc, { dirty: true });
+    this.lastDoc = this.store.doc;
+  }
+
+  private sendInputs(resolve: boolean): void {
+    if (!this.store || !this.session.catalog) return;
+    const inputs = { profile: this.store.doc.profile, catalog: this.session.catalog };
+    if (this.lastInputs && this.lastInputs.profile === inputs.profile && this.lastInputs.catalog === inputs.catalog) return;
+    this.lastInputs = inputs;
+    this.solver.setInputs(inputs.profile, inputs.catalog);
+    if (resolve) this.requestFor(this.store.doc, 'allocate');
+  }
+
+  private onStoreChange(): void {
+    const doc = this.store!.doc;
+    if (doc !== this.lastDoc && !this.installing) {
+      this.lastDoc = doc;
+      this.sendInputs(false);
+      if (this.session.catalog) this.requestFor(doc, 'allocate');
+      this.scheduleAutosave();
+    }
+    this.emit();
+  }
+
+  // ---- solving ----
+  /** Ask for a solve of `doc`'s plan and remember which document it was for. */
+  private requestFor(doc: EditorDoc, mode: 'allocate' | 'plan'): number {
+    const id = this.solver.request(doc.plan, mode);
+    this.requestedFor.set(id, doc);
+    if (this.requestedFor.size > 200) this.requestedFor.delete(this.requestedFor.keys().next().value!);
+    return id;
+  }
+
+  /** True when the shown solution is the exact solve of the current document and nothing is pending. */
+  get solutionIsCurrent(): boolean {
+    return !!this.store && !this.session.solving && this.session.solvedDoc === this.store.doc;
+  }
+
+  private onSolved(o: SolveOutcome): void {
+    if (!this.store) return;
+    this.solveTimes.push({ mode: o.mode, ms: o.computeMs });
+    if (this.solveTimes.length > 2000) this.solveTimes.splice(0, 1000);
+    if (o.requestId === this.adoptRequestId && o.mode === 'plan') {
+      // Adopt the solver's placements as the opened document (not an edit: nothing to undo or save).
+      this.adoptRequestId = -1;
+      const placed = placementsOf(this.store.doc.plan, o.result.plan);
+      if (placed) {
+        const doc = { ...this.store.doc, plan: { ...this.store.doc.plan, masks: placed } };
+        const wasDirty = this.store.dirty;
+        this.store.replaceDocument(doc, { dirty: wasDirty });
+        this.lastDoc = this.store.doc;
+        this.scheduleAutosave();
+      }
+    }
+    const forDoc = o.mode === 'preview' ? null : this.requestedFor.get(o.requestId) ?? null;
+    this.patch({ solution: o, solveError: null, solvedDoc: forDoc });
+  }
+
+  private onSolveError(message: string, problems: Problem[] | undefined, _id: number): void {
+    this.patch({ solveError: { message, problems } });
+  }
+
+  /** Show a mask at a pose it is being dragged to, and re-solve for it (not yet an edit). */
+  previewMask(pose: MaskPose): void {
+    if (!this.store || !this.session.catalog) return;
+    const plan = this.store.doc.plan;
+    const masks = (plan.masks ?? []).map((m) => (m.id === pose.id ? { ...m, raDeg: pose.raDeg, decDeg: pose.decDeg, paDeg: pose.paDeg } : m));
+    this.solver.request({ ...plan, masks }, 'preview');
+  }
+
+  /** Commit a drag or rotation as one undoable command. */
+  commitMask(pose: MaskPose, how: 'move' | 'rotate'): void {
+    if (!this.store) return;
+    this.store.run((d) => (how === 'move' ? moveMaskCommand(d, pose.id, pose.raDeg, pose.decDeg) : rotateMaskCommand(d, pose.id, pose.paDeg)));
+  }
+
+  /** Do any undoable command built from the current document. */
+  run(make: (d: EditorDoc) => Command): void {
+    this.store?.run(make);
+  }
+
+  undo(): void { this.store?.undo(); }
+  redo(): void { this.store?.redo(); }
+
+  // ---- pointing search ----
+  /** Run the pointing search for every unlocked mask (in its own worker, so it can be cancelled). */
+  startSearch(): void {
+    if (!this.store || !this.session.catalog) return;
+    const plan = this.store.doc.plan;
+    const masks = (plan.masks ?? []).map((m) => (m.locked ? m : { id: m.id, ...withoutPlacement(m) }));
+    this.searcher.setInputs(this.store.doc.profile, this.session.catalog);
+    this.searcher.request({ ...plan, masks }, 'plan');
+    this.patch({ search: { running: true, fraction: 0, message: 'starting' } });
+  }
+
+  cancelSearch(): void {
+    this.searcher.cancel();
+    this.patch({ search: null });
+    this.notify('info', 'pointing search cancelled; the masks are unchanged');
+  }
+
+  private onSearched(o: SolveOutcome): void {
+    if (!this.store) return;
+    this.patch({ search: null });
+    const placed = placementsOf(this.store.doc.plan, o.result.plan);
+    if (placed) this.store.dispatch(setMasksCommand(this.store.doc, placed, 'pointing search'));
+  }
+
+  // ---- saving ----
+  /** The plan file of the contract for the current document. */
+  planFileText(): string {
+    return JSON.stringify(this.store!.doc.plan, null, 2) + '\n';
+  }
+
+  markSaved(): void {
+    this.store?.markSaved();
+    this.scheduleAutosave();
+  }
+
+  private scheduleAutosave(): void {
+    if (this.autosaveTimer) clearTimeout(this.autosaveTimer);
+    this.autosaveTimer = setTimeout(() => void this.autosaveNow(), this.autosaveDelayMs);
+  }
+
+  /** Write the autosave record now. */
+  async autosaveNow(): Promise<void> {
+    if (!this.store) return;
+    const savedAt = new Date().toISOString();
+    await writeAutosave({
+      version: 1, savedAt, plan: this.store.doc.plan, profile: this.store.doc.profile, planName: this.session.planName,
+      catalogFile: this.session.catalogFile, unsaved: this.store.dirty,
+    });
+    this.patch({ autosavedAt: savedAt });
+  }
+
+  dispose(): void {
+    this.solver.dispose();
+    this.searcher.dispose();
+  }
+}
+
+/** Mask placements of a solved plan merged into the document's masks (each mask's other keys and lock kept). */
+function placementsOf(plan: PlanFile, solved: PlanFile): PlanMask[] | null {
+  const solvedMasks = solved.masks ?? [];
+  if (!solvedMasks.length) return null;
+  const given = new Map((plan.masks ?? []).map((m) => [m.id, m]));
+  return solvedMasks.map((s) => {
+    const g = given.get(s.id);
+    return { ...(g ?? {}), ...s, locked: g?.locked ?? false };
+  });
+}
+
+function withoutPlacement(m: PlanMask): Omit<PlanMask, 'id'> {
+  const { id: _id, raDeg: _r, decDeg: _d, paDeg: _p, ...rest } = m;
+  return rest;
+}

@@ -1,0 +1,46 @@
+/**
+ * Everything the editor exports: the files `haloweave plan` writes into its output folder (masks.csv,
+ * slits.csv, coverage.json, solved.plan.json, catalog-report.csv), the slit list in the other table
+ * formats, and an SVG chart per mask.
+ */
+import type { CatalogReadResult } from '../../core/catalog/types';
+import type { InstrumentProfile } from '../../core/profile/schema';
+import { masksToCsv, slitsToCsv } from '../../core/export/slitsCsv';
+import { catalogReportCsv } from '../../core/export/catalogReport';
+import type { SolveResult } from '../worker/protocol';
+import { maskChartSvg } from './maskChart';
+
+export interface ExportFile {
+  name: string;
+  content: string | Uint8Array;
+  mime: string;
+}
+
+/** The solved plan as written to solved.plan.json: every mask placed and locked, so a re-run reproduces these slits. */
+export function solvedPlanText(result: SolveResult): string {
+  const plan = { ...result.plan, masks: (result.plan.masks ?? []).map((m) => ({ ...m, locked: true })) };
+  return JSON.stringify(plan, null, 2) + '\n';
+}
+
+/** The CLI's output folder files for this solution. */
+export function outputFolderFiles(result: SolveResult, profile: InstrumentProfile, catalog: CatalogReadResult): ExportFile[] {
+  // Rows of each mask in order of y, as `haloweave plan` writes them.
+  const slits = result.masks.flatMap((m) => [...m.slits].sort((a, b) => a.yArcsec - b.yArcsec));
+  const maskRows = result.masks.map((m) => ({ maskId: m.mask.id, instrument: profile.id, raDeg: m.mask.raDeg, decDeg: m.mask.decDeg, paDeg: m.mask.paDeg }));
+  return [
+    { name: 'masks.csv', content: masksToCsv(maskRows), mime: 'text/csv' },
+    { name: 'slits.csv', content: slitsToCsv(slits), mime: 'text/csv' },
+    { name: 'coverage.json', content: JSON.stringify(result.coverage, null, 2) + '\n', mime: 'application/json' },
+    { name: 'solved.plan.json', content: solvedPlanText(result), mime: 'application/json' },
+    { name: 'catalog-report.csv', content: catalogReportCsv(catalog.rejects), mime: 'text/csv' },
+  ];
+}
+
+/** One SVG chart per mask. */
+export function maskChartFiles(result: SolveResult, profile: InstrumentProfile, reachRe: number): ExportFile[] {
+  return result.masks.map((ms) => ({
+    name: `mask-${ms.mask.id.replace(/[^A-Za-z0-9_.-]+/g, '_')}.svg`,
+    content: maskChartSvg(ms, result.galaxy, profile, reachRe),
+    mime: 'image/svg+xml',
+  }));
+}

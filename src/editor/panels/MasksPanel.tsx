@@ -1,0 +1,61 @@
+/** The masks: centre, PA, lock, and slits per role on each; click a row to make it the active mask. */
+import type { EditorController } from '../controller';
+import { setMaskLockedCommand } from '../store/commands';
+import { formatDecDms, formatRaHms } from '../../core/sky/sexagesimal';
+import type { MaskSolution } from '../../core/solver/types';
+import { ROLE_STYLE, ROLES } from '../view/palette';
+import { slitCountsByRole } from '../derive';
+import { Panel } from './Panel';
+
+export function MasksPanel({ c, solved }: { c: EditorController; solved: readonly MaskSolution[] }) {
+  const masks = c.store!.doc.plan.masks ?? [];
+  const active = c.session.activeMaskId;
+  const byId = new Map(solved.map((m) => [m.mask.id, m]));
+  return (
+    <Panel title="Masks" testId="panel-masks">
+      <table className="mini">
+        <thead>
+          <tr><th>mask</th><th>PA °</th>{ROLES.map((r) => <th key={r} title={ROLE_STYLE[r].label}><RoleMark role={r} /></th>)}<th>lock</th></tr>
+        </thead>
+        <tbody>
+          {masks.map((m) => {
+            const sol = byId.get(m.id);
+            const counts = sol ? slitCountsByRole([sol]) : null;
+            return (
+              <tr key={m.id} data-testid={`mask-row-${m.id}`} className={m.id === active ? 'active' : ''}
+                onClick={() => c.store!.updateSession((s) => ({ ...s, activeMaskId: m.id }))}
+                title={m.raDeg !== undefined ? `${formatRaHms(m.raDeg, 1)} ${formatDecDms(m.decDeg ?? 0, 0)}` : 'not placed yet'}>
+                <td>{m.id}</td>
+                <td className="num">{m.paDeg !== undefined ? m.paDeg.toFixed(1) : '–'}</td>
+                {ROLES.map((r) => <td key={r} className="num" data-testid={`mask-${m.id}-${r}`}>{counts ? counts[r] : '–'}</td>)}
+                <td>
+                  <button
+                    className={`lock ${m.locked ? 'on' : ''}`}
+                    data-testid={`lock-${m.id}`}
+                    aria-pressed={!!m.locked}
+                    title={m.locked ? 'locked: the pointing search keeps this mask (click to unlock)' : 'free: the pointing search may move it (click to lock)'}
+                    onClick={(e) => { e.stopPropagation(); c.run((d) => setMaskLockedCommand(d, m.id, !m.locked)); }}
+                  >{m.locked ? 'locked' : 'free'}</button>
+                </td>
+              </tr>
+            );
+          })}
+        </tbody>
+      </table>
+      <p className="dim small">Drag a mask on the sky to move it, its round handle to turn it. A mask moved by hand is locked.</p>
+    </Panel>
+  );
+}
+
+/** The legend mark of a role: a solid, dashed or dotted bar, or a square for alignment boxes. */
+export function RoleMark({ role, size = 14 }: { role: keyof typeof ROLE_STYLE; size?: number }) {
+  const st = ROLE_STYLE[role];
+  if (st.mark === 'square') {
+    return <svg width={size} height={size} aria-label={st.label}><rect x={2.5} y={2.5} width={size - 5} height={size - 5} fill="none" stroke={st.colour} strokeWidth={2} /></svg>;
+  }
+  return (
+    <svg width={size} height={size} aria-label={st.label}>
+      <line x1={size / 2} y1={1} x2={size / 2} y2={size - 1} stroke={st.colour} strokeWidth={3} strokeDasharray={st.dash.join(' ') || undefined} />
+    </svg>
+  );
+}

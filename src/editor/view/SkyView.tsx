@@ -1,0 +1,500 @@
+/**
+ * The sky view: tangent plane about the galaxy centre, North up and East left. Layers, bottom to top:
+ * backdrop image, catalog (one Shape drawing every target in batches), galaxy isophotes and masks
+ * (footprints, slits by role, rotate handles), and a fixed overlay with compass and scale bar.
+ * Mouse: drag empty sky to pan, wheel to zoom (pinch or Ctrl+wheel on a trackpad; two-finger scroll pans),
+ * drag a mask to move it, drag its round handle to rotate it, click a target to select it,
+ * Shift+click to add, Shift+drag for a box selection. Keys: arrows pan, + and - zoom, 0 fits.
+ */
+import { useCallback, useEffect, useMemo, useRef, useState, type KeyboardEvent as ReactKeyboardEvent } from 'react';
+import { Stage, Layer, Shape, Group, Line, Ellipse, Text, Circle, Rect } from 'react-konva';
+import type Konva from 'konva';
+import type { GalaxyModel } from '../../core/plan/schema';
+import type { InstrumentProfile } from '../../core/profile/schema';
+import type { Slit } from '../../core/solver/types';
+import { skyToTangentArcsec, tangentCentre, tangentToSkyDeg } from '../../core/sky/tangentPlane';
+import { DEG_PER_RAD, wrap360Deg } from '../../core/sky/angles';
+import { circularisedRadiusArcsec, skyToGalaxyArcsec } from '../../core/sky/frames';
+import { formatDecDms, formatRaHms } from '../../core/sky/sexagesimal';
+import { fitCamera, maskGroupRotationDeg, panBy, scaleBarArcmin, screenToSky, skyToScreen, zoomAt, type Camera } from './camera';
+import { nearestTarget, targetsInBox, type CatalogGeometry } from './catalogGeometry';
+import { CatalogLayer, cssPlacement } from './catalogBitmap';
+import { INK, ROLE_STYLE } from './palette';
+import type { Backdrop } from './backdrop';
+
+export interface MaskPose {
+  id: string;
+  raDeg: number;
+  decDeg: number;
+  paDeg: number;
+  locked: boolean;
+}
+
+export interface SkyViewProps {
+  galaxy: GalaxyModel;
+  tracerReachRe: number;
+  starlightReachRe: number;
+  profile: InstrumentProfile;
+  masks: MaskPose[];
+  slitsByMask: ReadonlyMap<string, Slit[]>;
+  catalog: CatalogGeometry | null;
+  /** Changes whenever the catalog geometry's classes or shades change, so the layer redraws. */
+  catalogRevision: number;
+  selected: ReadonlySet<number>;
+  /** Per catalog index: 1 on a tracer slit, 2 in an alignment box, 0 otherwise. */
+  onSlit: Uint8Array | null;
+  activeMaskId: string | null;
+  backdrop: Backdrop | null;
+  onPreviewMask(pose: MaskPose): void;
+  onCommitMask(pose: MaskPose, how: 'move' | 'rotate'): void;
+  onSelectTargets(indices: number[], additive: boolean): void;
+  onSelectMask(maskId: string | null): void;
+  /** Receives the camera on every change (used by the benchmark and the read-outs). */
+  onCamera?(cam: Camera): void;
+}
+
+type Gesture =
+  | { kind: 'pan'; lastX: number; lastY: number; moved: number; startX: number; startY: number; additive: boolean }
+  | { kind: 'box'; startX: number; startY: number; x: number; y: number }
+  | { kind: 'move'; maskId: string; startXi: number; startEta: number; maskXi: number; maskEta: number; pose: MaskPose; moved: boolean }
+  | { kind: 'rotate'; maskId: string; pose: MaskPose };
+
+const HANDLE_PX = 7;
+
+export function SkyView(props: SkyViewProps) {
+  const { galaxy, profile, catalog, selected } = props;
+  const boxRef = useRef<HTMLDivElement>(null);
+  const catalogCanvasEl = useRef<HTMLCanvasElement>(null);
+  const catalogLayer = useRef<CatalogLayer | null>(null);
+  const worldRef = useRef<HTMLDivElement>(null);
+  const backdropWorldRef = useRef<HTMLDivElement>(null);
+  const scaleBarRef = useRef<HTMLDivElement>(null);
+  const readoutRef = useRef<HTMLDivElement>(null);
+  const cameraTestRef = useRef<HTMLDivElement>(null);
+  const [size, setSize] = useState({ w: 800, h: 600 });
+  // Two cameras: `cam` is what the overlays and the catalog were last drawn for (a React render), `view` is
+  // what the user sees now. Between renders a CSS transform on the world layer maps one to the other, so a
+  // pan or zoom costs the compositor a move per frame; the drawing catches up when the motion settles
+  // or at once when the drawn area (twice the view) no longer covers the view.
+  const [cam, setCam] = useState<Camera>(() => fitCamera(800, 600, galaxy.reArcsec * props.tracerReachRe));
+  const camRef = useRef(cam);
+  camRef.current = cam;
+  const viewRef = useRef<Camera>(cam);
+  const settleTimer = useRef<ReturnType<typeof setTimeout> | null>(null);
+  const lastRender = useRef(0);
+  const renderCount = useRef(0);
+  renderCount.current++;
+  const gesture = useRef<Gesture | null>(null);
+  const [preview, setPreview] = useState<MaskPose | null>(null);
+  const [boxSel, setBoxSel] = useState<{ x0: number; y0: number; x1: number; y1: number } | null>(null);
+  const centre = useMemo(() => tangentCentre(galaxy.raDeg, galaxy.decDeg), [galaxy.raDeg, galaxy.decDeg]);
+  const fitted = useRef(false);
+
+  // Follow the container's size.
+  useEffect(() => {
+    const el = boxRef.current;
+    if (!el) return;
+    const ro = new ResizeObserver(() => {
+      const w = Math.max(200, Math.floor(el.clientWidth)), h = Math.max(200, Math.floor(el.clientHeight));
+      setSize({ w, h });
+      setView((c) => (fitted.current ? { ...c, widthPx: w, heightPx: h } : fitCamera(w, h, galaxy.reArcsec * props.tracerReachRe * 1.05)), true);
+      fitted.current = true;
+    });
+    ro.observe(el);
+    return () => ro.disconnect();
+  }, []); // eslint-disable-line react-hooks/exhaustive-deps
+
+  useEffect(() => { props.onCamera?.(cam); }, [cam]); // eslint-disable-line react-hooks/exhaustive-deps
+
+  /** Apply the CSS transform that shows `viewRef` from the drawn `camRef`, and the read-outs that follow the view. */
+  const placeWorld = useCallback(() => {
+    const v = viewRef.current, r = camRef.current;
+    const p = cssPlacement(r, v);
+    const tf = `translate(${p.dx}px, ${p.dy}px) scale(${p.k})`;
+    if (worldRef.current) worldRef.current.style.transform = tf;
+    if (backdropWorldRef.current) backdropWorldRef.current.style.transform = tf;
+    catalogLayer.current?.show(v);
+    const bar = scaleBarArcmin(v.pxPerArcsec);
+    if (scaleBarRef.current) {
+      scaleBarRef.current.style.width = `${bar * 60 * v.pxPerArcsec}px`;
+      scaleBarRef.current.dataset.label = formatArcmin(bar);
+      scaleBarRef.current.firstElementChild!.textContent = formatArcmin(bar);
+    }
+    const t = cameraTestRef.current;
+    if (t) { t.dataset.pxPerArcsec = String(v.pxPerArcsec); t.dataset.xi = String(v.centreXiArcsec); t.dataset.eta = String(v.centreEtaArcsec); }
+    return p;
+  }, []);
+  /** Change the view camera; the drawing follows later (or at once when `now` or when the drawn area runs out). */
+  const setView = useCallback((next: Camera | ((c: Camera) => Camera), now = false) => {
+    const v = typeof next === 'function' ? next(viewRef.current) : next;
+    viewRef.current = v;
+    const p = placeWorld();
+    const t = performance.now();
+    // The overlays are drawn for the view itself, so a pan shows empty edges until they catch up: allow a third of a view.
+    const far = Math.abs(p.dx) > v.widthPx / 3 || Math.abs(p.dy) > v.heightPx / 3 || p.k < 0.6 || p.k > 1.8;
+    if (now || far) {
+      lastRender.current = t;
+      if (settleTimer.current) clearTimeout(settleTimer.current);
+      setCam(v);
+      return;
+    }
+    if (settleTimer.current) clearTimeout(settleTimer.current);
+    settleTimer.current = setTimeout(() => { lastRender.current = performance.now(); setCam(viewRef.current); }, 120);
+  }, [placeWorld]);
+  useEffect(() => () => { if (settleTimer.current) clearTimeout(settleTimer.current); }, []);
+  // After each render for `cam`, place the world layer again (it may now be the identity).
+  useEffect(() => { placeWorld(); }, [cam, placeWorld]);
+  useEffect(() => {
+    const layer = new CatalogLayer(catalogCanvasEl.current!);
+    catalogLayer.current = layer;
+    layer.show(viewRef.current);
+    return () => layer.dispose();
+  }, []);
+  useEffect(() => {
+    catalogLayer.current?.setData(catalog, selected, props.onSlit);
+  }, [selected, catalog, props.catalogRevision, props.onSlit]);
+
+  // Wheel: a native listener on the container (not through the stage's hit test), so it stays cheap per event.
+  const wheelRef = useRef<(ev: WheelEvent) => void>(() => {});
+  wheelRef.current = (ev: WheelEvent) => {
+    ev.preventDefault();
+    const rect = boxRef.current!.getBoundingClientRect();
+    const p = { x: ev.clientX - rect.left, y: ev.clientY - rect.top };
+    const mouseWheel = ev.deltaMode === 1 || (ev.deltaX === 0 && Math.abs(ev.deltaY) >= 40 && Number.isInteger(ev.deltaY));
+    if (ev.ctrlKey || ev.metaKey || mouseWheel) {
+      const unit = ev.deltaMode === 1 ? 33 : 1;
+      const factor = Math.exp(-ev.deltaY * unit * (ev.ctrlKey ? 0.01 : 0.0015));
+      setView((c) => zoomAt(c, factor, p.x, p.y));
+    } else {
+      setView((c) => panBy(c, -ev.deltaX, -ev.deltaY));
+    }
+  };
+  useEffect(() => {
+    const el = boxRef.current!;
+    const h = (ev: WheelEvent) => wheelRef.current(ev);
+    el.addEventListener('wheel', h, { passive: false });
+    return () => el.removeEventListener('wheel', h);
+  }, []);
+
+  const maskXiEta = useCallback((m: { raDeg: number; decDeg: number }) => {
+    const p = skyToTangentArcsec(centre, m.raDeg, m.decDeg);
+    return p ?? { xiArcsec: 0, etaArcsec: 0 };
+  }, [centre]);
+
+  const shownMasks = props.masks.map((m) => (preview && preview.id === m.id ? preview : m));
+  const footprintYMax = Math.max(...profile.footprint.map((c) => c[1]));
+  const footprintPoints = profile.footprint.flatMap((c) => [c[0], c[1]]);
+
+  // ---- pointer gestures ----
+  const stagePointer = (e: Konva.KonvaEventObject<MouseEvent>) => e.target.getStage()!.getPointerPosition() ?? { x: 0, y: 0 };
+
+  const onMouseDown = (e: Konva.KonvaEventObject<MouseEvent>) => {
+    if (e.evt.button !== 0) return;
+    boxRef.current?.focus({ preventScroll: true });
+    const p = stagePointer(e);
+    const name = e.target.name();
+    const nodeId = e.target.id();
+    const maskId = nodeId.includes(':') ? nodeId.slice(nodeId.indexOf(':') + 1) : undefined;
+    if (maskId && (name === 'mask-body' || name === 'mask-handle')) {
+      const pose = shownMasks.find((m) => m.id === maskId)!;
+      props.onSelectMask(maskId);
+      props.onPreviewMask(pose); // warms the worker's live re-solve before the first move
+      if (name === 'mask-handle') {
+        gesture.current = { kind: 'rotate', maskId, pose };
+      } else {
+        const s = screenToSky(cam, p.x, p.y);
+        const c = maskXiEta(pose);
+        gesture.current = { kind: 'move', maskId, startXi: s.xiArcsec, startEta: s.etaArcsec, maskXi: c.xiArcsec, maskEta: c.etaArcsec, pose, moved: false };
+      }
+      return;
+    }
+    if (e.evt.shiftKey) {
+      gesture.current = { kind: 'box', startX: p.x, startY: p.y, x: p.x, y: p.y };
+      return;
+    }
+    // Pan in client pixels: the stage itself moves under the pointer while the view pans.
+    gesture.current = { kind: 'pan', lastX: e.evt.clientX, lastY: e.evt.clientY, moved: 0, startX: p.x, startY: p.y, additive: e.evt.shiftKey };
+  };
+
+  const onMouseMove = (e: Konva.KonvaEventObject<MouseEvent>) => {
+    const p = stagePointer(e);
+    const s = screenToSky(cam, p.x, p.y);
+    if (readoutRef.current) readoutRef.current.textContent = describePointer({ xi: s.xiArcsec, eta: s.etaArcsec }, centre, galaxy);
+    const g = gesture.current;
+    if (!g) return;
+    if (g.kind === 'pan') {
+      const dx = e.evt.clientX - g.lastX, dy = e.evt.clientY - g.lastY;
+      g.lastX = e.evt.clientX; g.lastY = e.evt.clientY;
+      g.moved += Math.abs(dx) + Math.abs(dy);
+      if (dx || dy) setView((c) => panBy(c, dx, dy));
+    } else if (g.kind === 'box') {
+      g.x = p.x; g.y = p.y;
+      setBoxSel({ x0: g.startX, y0: g.startY, x1: p.x, y1: p.y });
+    } else if (g.kind === 'move') {
+      const xi = g.maskXi + (s.xiArcsec - g.startXi), eta = g.maskEta + (s.etaArcsec - g.startEta);
+      const sky = tangentToSkyDeg(centre, xi, eta);
+      const pose = { ...g.pose, raDeg: sky.raDeg, decDeg: sky.decDeg };
+      g.pose = pose; g.moved = true;
+      setPreview(pose);
+      props.onPreviewMask(pose);
+    } else if (g.kind === 'rotate') {
+      const c = maskXiEta(g.pose);
+      const dXi = s.xiArcsec - c.xiArcsec, dEta = s.etaArcsec - c.etaArcsec;
+      if (Math.hypot(dXi, dEta) * cam.pxPerArcsec < 4) return;
+      // PA of the pointer seen from the mask centre, degrees East of North: the handle sits on +y.
+      const paDeg = Math.round(wrap360Deg(Math.atan2(dXi, dEta) * DEG_PER_RAD) * 10) / 10;
+      const pose = { ...g.pose, paDeg };
+      g.pose = pose;
+      setPreview(pose);
+      props.onPreviewMask(pose);
+    }
+  };
+
+  const endGesture = (e: Konva.KonvaEventObject<MouseEvent> | null) => {
+    const g = gesture.current;
+    gesture.current = null;
+    if (!g) return;
+    if (g.kind === 'move') {
+      if (g.moved) props.onCommitMask(g.pose, 'move');
+      setPreview(null);
+    } else if (g.kind === 'rotate') {
+      if (g.pose.paDeg !== props.masks.find((m) => m.id === g.maskId)?.paDeg) props.onCommitMask(g.pose, 'rotate');
+      setPreview(null);
+    } else if (g.kind === 'box') {
+      setBoxSel(null);
+      if (catalog) {
+        const a = screenToSky(cam, g.startX, g.startY), b = screenToSky(cam, g.x, g.y);
+        props.onSelectTargets(targetsInBox(catalog, a.xiArcsec, a.etaArcsec, b.xiArcsec, b.etaArcsec), true);
+      }
+    } else if (g.kind === 'pan' && g.moved < 4 && e) {
+      const s = screenToSky(cam, g.startX, g.startY);
+      const i = catalog ? nearestTarget(catalog, s.xiArcsec, s.etaArcsec, 8 / cam.pxPerArcsec) : -1;
+      if (i >= 0) props.onSelectTargets([i], e.evt.shiftKey);
+      else { props.onSelectTargets([], false); props.onSelectMask(null); }
+    }
+  };
+
+  const onKeyDown = (e: ReactKeyboardEvent) => {
+    const step = e.shiftKey ? 200 : 60;
+    const k = e.key;
+    let handled = true;
+    if (k === 'ArrowLeft') setView((c) => panBy(c, step, 0), true);
+    else if (k === 'ArrowRight') setView((c) => panBy(c, -step, 0), true);
+    else if (k === 'ArrowUp') setView((c) => panBy(c, 0, step), true);
+    else if (k === 'ArrowDown') setView((c) => panBy(c, 0, -step), true);
+    else if (k === '+' || k === '=') setView((c) => zoomAt(c, 1.25, c.widthPx / 2, c.heightPx / 2), true);
+    else if (k === '-' || k === '_') setView((c) => zoomAt(c, 0.8, c.widthPx / 2, c.heightPx / 2), true);
+    else if (k === '0') setView(fitCamera(size.w, size.h, galaxy.reArcsec * props.tracerReachRe * 1.05), true);
+    else handled = false;
+    if (handled) e.preventDefault();
+  };
+
+  // ---- drawing ----
+  const gc = skyToScreen(cam, 0, 0);
+  const galaxyRot = -(90 + galaxy.paDeg);
+  const maxRing = Math.max(1, Math.ceil(props.tracerReachRe));
+  const rings = Array.from({ length: maxRing }, (_, i) => i + 1);
+  const sq = Math.sqrt(galaxy.axisRatio);
+  const activePose = shownMasks.find((m) => m.id === props.activeMaskId) ?? null;
+
+  return (
+    <div
+      ref={boxRef}
+      className="sky-view"
+      data-testid="sky-view"
+      tabIndex={0}
+      onKeyDown={onKeyDown}
+      onMouseLeave={() => { if (readoutRef.current) readoutRef.current.textContent = HINT; }}
+      aria-label="Sky view: drag to pan, wheel to zoom, arrows and + - keys"
+    >
+      <div className="sky-world backdrop-world" ref={backdropWorldRef}>
+        <BackdropCanvas backdrop={props.backdrop} cam={cam} centre={centre} />
+      </div>
+      <canvas ref={catalogCanvasEl} className="catalog-canvas" data-testid="catalog-canvas" />
+      <div className="sky-world" ref={worldRef}>
+      <Stage
+        className="sky-stage"
+        width={size.w}
+        height={size.h}
+        onMouseDown={onMouseDown}
+        onMouseMove={onMouseMove}
+        onMouseUp={(e) => endGesture(e)}
+        onMouseLeave={() => endGesture(null)}
+      >
+        <Layer>
+          {rings.map((k) => {
+            const goalTracer = k === Math.round(props.tracerReachRe);
+            const goalStar = k === Math.round(props.starlightReachRe);
+            return (
+              <Ellipse
+                key={k}
+                listening={false}
+                x={gc.x}
+                y={gc.y}
+                radiusX={(k * galaxy.reArcsec * cam.pxPerArcsec) / sq}
+                radiusY={k * galaxy.reArcsec * cam.pxPerArcsec * sq}
+                rotation={galaxyRot}
+                stroke={goalStar ? ROLE_STYLE.starlight.colour : goalTracer ? INK.isophoteGoal : INK.isophote}
+                strokeWidth={goalTracer || goalStar ? 1.4 : 0.8}
+                dash={goalStar ? [8, 5] : k % 5 === 0 ? [] : [2, 4]}
+                opacity={goalTracer || goalStar ? 0.95 : 0.55}
+                perfectDrawEnabled={false}
+              />
+            );
+          })}
+          {rings.filter((k) => k <= 3 || k % 5 === 0 || k === maxRing).map((k) => {
+            const r = (k * galaxy.reArcsec * cam.pxPerArcsec) / sq;
+            const a = (galaxyRot * Math.PI) / 180;
+            return (
+              <Text key={`l${k}`} listening={false} x={gc.x + Math.cos(a) * r + 3} y={gc.y + Math.sin(a) * r - 12}
+                text={`${k} Re`} fontSize={11} fill={INK.textDim} />
+            );
+          })}
+          {shownMasks.map((m) => {
+            const c = maskXiEta(m);
+            const sp = skyToScreen(cam, c.xiArcsec, c.etaArcsec);
+            const active = m.id === props.activeMaskId;
+            const slits = props.slitsByMask.get(m.id) ?? [];
+            const s = cam.pxPerArcsec;
+            return (
+              <Group key={m.id} x={sp.x} y={sp.y} rotation={maskGroupRotationDeg(m.paDeg)} scaleX={s} scaleY={s}>
+                <Line
+                  name="mask-body"
+                  id={`body:${m.id}`}
+                  points={footprintPoints}
+                  closed
+                  fill={active ? 'rgba(255,255,255,0.09)' : INK.footprintFill}
+                  stroke={active ? INK.footprintActive : INK.footprint}
+                  strokeWidth={active ? 2 : 1.2}
+                  strokeScaleEnabled={false}
+                  dash={m.locked ? [] : [10, 5]}
+                  opacity={0.9}
+                  perfectDrawEnabled={false}
+                />
+                <Shape
+                  listening={false}
+                  sceneFunc={(ctx) => drawSlits(ctx._context as CanvasRenderingContext2D, slits, s)}
+                />
+                <Line listening={false} points={[0, footprintYMax, 0, footprintYMax + 26 / s]} stroke={INK.footprint} strokeWidth={1} strokeScaleEnabled={false} />
+                <Circle
+                  name="mask-handle"
+                  id={`handle:${m.id}`}
+                  x={0}
+                  y={footprintYMax + (26 + HANDLE_PX) / s}
+                  radius={HANDLE_PX / s}
+                  fill={active ? INK.footprintActive : '#aab4c2'}
+                  stroke="#000"
+                  strokeWidth={1}
+                  strokeScaleEnabled={false}
+                />
+              </Group>
+            );
+          })}
+          {shownMasks.map((m) => {
+            const c = maskXiEta(m);
+            const sp = skyToScreen(cam, c.xiArcsec, c.etaArcsec);
+            return <Text key={`t${m.id}`} listening={false} x={sp.x + 6} y={sp.y + 4} text={`${m.id}${m.locked ? ' (locked)' : ''}`} fontSize={12} fill={INK.text} />;
+          })}
+          {boxSel && (
+            <Rect x={Math.min(boxSel.x0, boxSel.x1)} y={Math.min(boxSel.y0, boxSel.y1)} width={Math.abs(boxSel.x1 - boxSel.x0)}
+              height={Math.abs(boxSel.y1 - boxSel.y0)} stroke={INK.selection} dash={[4, 3]} strokeWidth={1} />
+          )}
+        </Layer>
+      </Stage>
+      </div>
+      <Compass />
+      <div className="scale-bar" data-testid="scale-bar" ref={scaleBarRef}><span /></div>
+      {activePose && (
+        <div className="pa-readout" data-testid="pa-readout">{activePose.id} · PA {activePose.paDeg.toFixed(1)}° E of N</div>
+      )}
+      <div className="sky-readout" data-testid="sky-readout" ref={readoutRef}>{HINT}</div>
+      <ul className="test-anchors" data-testid="mask-anchors" hidden>
+        {shownMasks.map((m) => {
+          const c = maskXiEta(m);
+          const sp = skyToScreen(cam, c.xiArcsec, c.etaArcsec);
+          return <li key={m.id} data-mask-id={m.id} data-x={sp.x.toFixed(1)} data-y={sp.y.toFixed(1)} data-pa={m.paDeg.toFixed(2)} />;
+        })}
+      </ul>
+      <div hidden data-testid="camera" ref={cameraTestRef} data-renders={renderCount.current} />
+    </div>
+  );
+}
+
+/** Slits and boxes of one mask in the mask frame (ctx already carries the mask transform at `scale` px/arcsec). */
+function drawSlits(ctx: CanvasRenderingContext2D, slits: readonly Slit[], scale: number): void {
+  const px = 1 / scale;
+  for (const role of ['sky', 'starlight', 'tracer'] as const) {
+    const st = ROLE_STYLE[role];
+    ctx.beginPath();
+    for (const sl of slits) {
+      if (sl.role !== role) continue;
+      ctx.moveTo(sl.xArcsec, sl.yArcsec - sl.lenBelowArcsec);
+      ctx.lineTo(sl.xArcsec, sl.yArcsec + sl.lenAboveArcsec);
+    }
+    ctx.strokeStyle = st.colour;
+    ctx.lineWidth = Math.max(2.2 * px, 0);
+    ctx.setLineDash(st.dash.map((d) => d * px));
+    ctx.lineCap = 'butt';
+    ctx.stroke();
+  }
+  ctx.setLineDash([]);
+  ctx.beginPath();
+  for (const sl of slits) {
+    if (sl.role !== 'alignment') continue;
+    const h = Math.max(sl.widthArcsec / 2, 4 * px);
+    ctx.rect(sl.xArcsec - h, sl.yArcsec - h, 2 * h, 2 * h);
+  }
+  ctx.strokeStyle = ROLE_STYLE.alignment.colour;
+  ctx.lineWidth = 1.8 * px;
+  ctx.stroke();
+}
+
+const HINT = 'drag to pan · wheel to zoom · drag a mask · round handle rotates';
+
+/** North and East arrows for a view drawn North up, East left. */
+function Compass() {
+  return (
+    <svg className="compass" width={96} height={96} viewBox="-48 -48 96 96" data-testid="compass" aria-label="North up, East left">
+      <circle r={46} fill="rgba(10,13,18,0.6)" />
+      <g stroke={INK.compass} strokeWidth={2} fill={INK.compass}>
+        <line x1={0} y1={0} x2={0} y2={-30} /><polygon points="-5,-28 5,-28 0,-38" />
+        <line x1={0} y1={0} x2={-30} y2={0} /><polygon points="-28,-5 -28,5 -38,0" />
+      </g>
+      <text x={0} y={-40} textAnchor="middle" fontSize={12} fontWeight="bold" fill={INK.compass}>N</text>
+      <text x={-42} y={4} textAnchor="end" fontSize={12} fontWeight="bold" fill={INK.compass} dx={2}>E</text>
+    </svg>
+  );
+}
+
+function formatArcmin(a: number): string {
+  if (a >= 1) return `${a} arcmin`;
+  return `${Math.round(a * 60)} arcsec`;
+}
+
+/** Pointer read-out: RA/Dec, offsets from the galaxy centre and elliptical radius in Re. */
+function describePointer(p: { xi: number; eta: number }, centre: ReturnType<typeof tangentCentre>, galaxy: GalaxyModel): string {
+  const sky = tangentToSkyDeg(centre, p.xi, p.eta);
+  const g = skyToGalaxyArcsec(p.xi, p.eta, galaxy.paDeg);
+  const rRe = circularisedRadiusArcsec(g.uArcsec, g.vArcsec, galaxy.axisRatio) / galaxy.reArcsec;
+  return `RA ${formatRaHms(sky.raDeg, 2)}  Dec ${formatDecDms(sky.decDeg, 1)}   ξ ${(p.xi / 60).toFixed(2)}′ η ${(p.eta / 60).toFixed(2)}′   R ${rRe.toFixed(2)} Re`;
+}
+
+/** The FITS backdrop on its own canvas under the catalog (drawn only when the camera or image changes). */
+function BackdropCanvas({ backdrop, cam, centre }: { backdrop: Backdrop | null; cam: Camera; centre: ReturnType<typeof tangentCentre> }) {
+  const ref = useRef<HTMLCanvasElement>(null);
+  useEffect(() => {
+    const el = ref.current;
+    if (!el) return;
+    const pr = Math.min(2, window.devicePixelRatio || 1);
+    el.width = Math.ceil(cam.widthPx * pr);
+    el.height = Math.ceil(cam.heightPx * pr);
+    el.style.width = `${cam.widthPx}px`;
+    el.style.height = `${cam.heightPx}px`;
+    const ctx = el.getContext('2d')!;
+    ctx.setTransform(pr, 0, 0, pr, 0, 0);
+    ctx.clearRect(0, 0, cam.widthPx, cam.heightPx);
+    backdrop?.draw(ctx, cam, centre);
+  }, [backdrop, cam, centre]);
+  if (!backdrop) return null;
+  return <canvas ref={ref} className="backdrop-canvas" data-testid="backdrop-canvas" />;
+}

@@ -1,0 +1,103 @@
+/**
+ * Fast catalog raster: markers stamped straight into pixel memory (no path filling), which software
+ * canvases do about ten times faster than arcs for 20 000 points. Tracers as
+ * discs shaded by weight and sized by magnitude, alignment stars as magenta diamonds, excluded objects as
+ * grey crosses, targets on slits ringed in their role colour, selected ones ringed in white.
+ */
+import type { Camera } from './camera';
+import { KIND_ALIGNMENT, KIND_EXCLUDED, KIND_TRACER, type CatalogGeometry } from './catalogGeometry';
+import { INK, ROLE_STYLE, SHADE_STEPS, weightShade } from './palette';
+
+/** CSS colour "#rrggbb" or "rgb(r, g, b)" to a little-endian RGBA word for a Uint32Array view of ImageData. */
+export function rgbaWord(css: string, alpha = 255): number {
+  let r = 0, g = 0, b = 0;
+  const m = /^rgb\((\d+),\s*(\d+),\s*(\d+)\)$/.exec(css);
+  if (m) { r = +m[1]; g = +m[2]; b = +m[3]; }
+  else { r = parseInt(css.slice(1, 3), 16); g = parseInt(css.slice(3, 5), 16); b = parseInt(css.slice(5, 7), 16); }
+  return ((alpha << 24) | (b << 16) | (g << 8) | r) >>> 0;
+}
+
+/** Pixel offsets of a filled disc and of a one-pixel ring of radius r (px), cached by rounded radius. */
+const discCache = new Map<number, Int16Array>();
+const ringCache = new Map<number, Int16Array>();
+function disc(r: number): Int16Array {
+  const key = Math.round(r * 4);
+  let d = discCache.get(key);
+  if (!d) {
+    const pts: number[] = [];
+    const R = Math.ceil(r);
+    for (let y = -R; y <= R; y++) for (let x = -R; x <= R; x++) if (x * x + y * y <= r * r + 0.25) pts.push(x, y);
+    if (!pts.length) pts.push(0, 0);
+    d = Int16Array.from(pts);
+    discCache.set(key, d);
+  }
+  return d;
+}
+function ring(r: number, width: number): Int16Array {
+  const key = Math.round(r * 4) * 16 + Math.round(width * 2);
+  let d = ringCache.get(key);
+  if (!d) {
+    const pts: number[] = [];
+    const R = Math.ceil(r + width);
+    for (let y = -R; y <= R; y++) for (let x = -R; x <= R; x++) {
+      const q = Math.hypot(x, y);
+      if (q >= r - width / 2 && q <= r + width / 2) pts.push(x, y);
+    }
+    d = Int16Array.from(pts);
+    ringCache.set(key, d);
+  }
+  return d;
+}
+
+function stamp(px: Uint32Array, w: number, h: number, cx: number, cy: number, offs: Int16Array, colour: number): void {
+  for (let k = 0; k < offs.length; k += 2) {
+    const x = cx + offs[k], y = cy + offs[k + 1];
+    if (x >= 0 && y >= 0 && x < w && y < h) px[y * w + x] = colour;
+  }
+}
+
+/** Raster the catalog for camera `cam` into `px` (w x h device pixels, `pr` device pixels per CSS pixel). */
+export function rasterCatalog(px: Uint32Array, w: number, h: number, pr: number, g: CatalogGeometry, cam: Camera, selected: ReadonlySet<number>, onSlit: Uint8Array | null): void {
+  const s = cam.pxPerArcsec;
+  const ox = cam.widthPx / 2 + cam.centreXiArcsec * s, oy = cam.heightPx / 2 + cam.centreEtaArcsec * s;
+  const zf = Math.max(0.7, Math.min(2.2, Math.pow(s / 0.6, 0.35))) * pr;
+  const shades = Array.from({ length: SHADE_STEPS }, (_, b) => rgbaWord(weightShade((b + 0.5) / SHADE_STEPS)));
+  const align = rgbaWord(ROLE_STYLE.alignment.colour), excluded = rgbaWord(INK.excluded);
+  const tracerRing = rgbaWord(ROLE_STYLE.tracer.colour), white = rgbaWord(INK.selection), black = rgbaWord('#000000');
+  const X = new Int32Array(g.count), Y = new Int32Array(g.count);
+  for (let i = 0; i < g.count; i++) {
+    X[i] = Math.round((ox - g.xiArcsec[i] * s) * pr);
+    Y[i] = Math.round((oy - g.etaArcsec[i] * s) * pr);
+  }
+  const inside = (i: number, m: number) => X[i] > -m && Y[i] > -m && X[i] < w + m && Y[i] < h + m;
+  for (let i = 0; i < g.count; i++) {
+    if (!inside(i, 12)) continue;
+    const k = g.kind[i];
+    if (k === KIND_TRACER) stamp(px, w, h, X[i], Y[i], disc(g.radiusPx[i] * zf), shades[g.shade[i]]);
+    else if (k === KIND_EXCLUDED) {
+      const r = Math.round(2.2 * zf);
+      for (let d = -r; d <= r; d++) {
+        for (const [x, y] of [[X[i] + d, Y[i] + d], [X[i] + d, Y[i] - d]]) if (x >= 0 && y >= 0 && x < w && y < h) px[y * w + x] = excluded;
+      }
+    } else if (k === KIND_ALIGNMENT) {
+      const r = Math.round((g.radiusPx[i] + 2) * zf);
+      for (let d = 0; d <= r; d++) {
+        for (const [x, y] of [[X[i] + d, Y[i] - r + d], [X[i] + r - d, Y[i] + d], [X[i] - d, Y[i] + r - d], [X[i] - r + d, Y[i] - d]]) {
+          if (x >= 0 && y >= 0 && x < w && y < h) px[y * w + x] = align;
+        }
+      }
+    }
+  }
+  if (onSlit && onSlit.length === g.count) {
+    for (let i = 0; i < g.count; i++) {
+      if (!onSlit[i] || !inside(i, 12)) continue;
+      stamp(px, w, h, X[i], Y[i], ring(g.radiusPx[i] * zf + 2.2 * pr, 1.4 * pr), onSlit[i] === 2 ? align : tracerRing);
+    }
+  }
+  for (const i of selected) {
+    if (i < 0 || i >= g.count || !inside(i, 12)) continue;
+    const r = g.radiusPx[i] * zf + 4.5 * pr;
+    stamp(px, w, h, X[i], Y[i], ring(r, 3.2 * pr), black);
+    stamp(px, w, h, X[i], Y[i], ring(r, 1.5 * pr), white);
+  }
+}

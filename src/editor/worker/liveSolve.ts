@@ -1,0 +1,86 @@
+/**
+ * Fast re-solve while a mask is dragged: the pipeline's own stages (src/core/plan/pipeline.ts), with the
+ * allocation of the last solve kept, so moving one mask re-prepares and re-allocates only that mask
+ * (solver/allocateMasks.ts `reallocateOneMask`: the other masks keep their tracers), then starlight and
+ * sky slits, lengthening and coverage as the pipeline does them. The result is a live preview; when the
+ * drag ends, the editor solves the committed plan with the full `solvePlan`, so the numbers it keeps
+ * are exactly the pipeline's.
+ */
+import type { CatalogReadResult } from '../../core/catalog/types';
+import type { PlanFile } from '../../core/plan/schema';
+import type { InstrumentProfile } from '../../core/profile/schema';
+import { galaxyModel } from '../../core/plan/validate';
+import { wrap360Deg } from '../../core/sky/angles';
+import { addStarlightAndSky, lengthenMasks, placeMasks, solvedPlanFile, targetWeights } from '../../core/plan/pipeline';
+import { allocateForPointings, allocationContext, reallocateOneMask, type AllocationContext, type PointingsAllocation } from '../../core/solver/allocateMasks';
+import { coverageReport } from '../../core/coverage/coverage';
+import type { MaskPointing } from '../../core/solver/types';
+import type { SolveResult } from './protocol';
+
+interface LiveCache {
+  key: string;
+  inputs: object;
+  ctx: AllocationContext;
+  galaxy: ReturnType<typeof galaxyModel>;
+  weightWarnings: string[];
+  pointings: MaskPointing[];
+  alloc: PointingsAllocation;
+}
+
+let cache: LiveCache | null = null;
+
+/** Everything of the plan except the mask placements (a change there needs a full rebuild). */
+function planKey(plan: PlanFile): string {
+  const { masks, ...rest } = plan;
+  return JSON.stringify([rest, (masks ?? []).map((m) => m.id)]);
+}
+
+const samePointing = (a: MaskPointing, b: MaskPointing) => a.raDeg === b.raDeg && a.decDeg === b.decDeg && a.paDeg === b.paDeg;
+
+/** The plan's masks as pointings when every one is placed (a drag never has unplaced masks), else null. */
+function givenPointings(plan: PlanFile): MaskPointing[] | null {
+  const masks = plan.masks ?? [];
+  if (masks.length < plan.goals.masks || masks.some((m) => m.raDeg === undefined || m.decDeg === undefined || m.paDeg === undefined)) return null;
+  return masks.map((m) => ({ id: m.id, raDeg: m.raDeg!, decDeg: m.decDeg!, paDeg: wrap360Deg(m.paDeg!), locked: true }));
+}
+
+/** Live solve of `plan` (every placed mask kept where it is); `inputs` identifies the catalog and profile. */
+export function liveSolve(plan: PlanFile, profile: InstrumentProfile, catalog: CatalogReadResult, inputs: object): SolveResult {
+  const key = planKey(plan);
+  if (!cache || cache.key !== key || cache.inputs !== inputs) {
+    const galaxy = galaxyModel(plan);
+    const weightWarnings: string[] = [];
+    const weights = targetWeights(plan, catalog.targets, weightWarnings);
+    const ctx = allocationContext(profile, galaxy, plan.goals.linesA, catalog.targets, weights);
+    // Every mask placed (the case while dragging): allocate for the pointings as given, without a search.
+    const given = givenPointings(plan);
+    const placed = given ? { pointings: given, allocation: allocateForPointings(ctx, given) } : placeMasks(plan, galaxy, profile, ctx);
+    cache = { key, inputs, ctx, galaxy, weightWarnings, pointings: placed.pointings, alloc: placed.allocation };
+  } else {
+    const c = cache;
+    const next = givenPointings(plan);
+    if (!next || next.length !== c.pointings.length || next.some((p, i) => p.id !== c.pointings[i].id)) {
+      const placed = placeMasks(plan, c.galaxy, profile, c.ctx);
+      c.pointings = placed.pointings;
+      c.alloc = placed.allocation;
+    } else {
+      const changed = next.map((p, i) => (samePointing(p, c.pointings[i]) ? -1 : i)).filter((i) => i >= 0);
+      if (changed.length === 1) c.alloc = reallocateOneMask(c.ctx, c.alloc, changed[0], next[changed[0]]);
+      else if (changed.length > 1) c.alloc = allocateForPointings(c.ctx, next);
+      c.pointings = next;
+    }
+  }
+  const warnings = [...cache.weightWarnings];
+  let masks = addStarlightAndSky(plan, cache.ctx, cache.alloc.masks, warnings);
+  masks = lengthenMasks(plan, profile, masks);
+  const coverage = coverageReport(cache.galaxy, plan.goals, masks.flatMap((m) => m.slits));
+  return {
+    plan: solvedPlanFile(plan, cache.pointings), galaxy: cache.galaxy, masks, coverage, warnings,
+    extra: { problems: cache.alloc.problems, preview: true },
+  };
+}
+
+/** Forget the cached allocation (new catalog or profile). */
+export function resetLiveSolve(): void {
+  cache = null;
+}

@@ -1,0 +1,59 @@
+/// <reference lib="webworker" />
+/**
+ * The solver worker: runs the planning pipeline off the main thread and reports its own compute time.
+ * It keeps the latest catalog and profile; each solve request carries only the plan.
+ */
+import { solvePlan } from '../../core/plan/pipeline';
+import type { CatalogReadResult } from '../../core/catalog/types';
+import type { InstrumentProfile } from '../../core/profile/schema';
+import type { PlanFile } from '../../core/plan/schema';
+import type { FromWorker, SolveMode, SolveResult, ToWorker } from './protocol';
+import { InputError } from '../../core/result';
+import { liveSolve, resetLiveSolve } from './liveSolve';
+
+let inputs: { version: number; profile: InstrumentProfile; catalog: CatalogReadResult } | null = null;
+
+/** The plan with every placed mask locked, so the pipeline only allocates (no pointing search). */
+function lockedPlan(plan: PlanFile): PlanFile {
+  return { ...plan, masks: (plan.masks ?? []).map((m) => (m.raDeg !== undefined && m.paDeg !== undefined ? { ...m, locked: true } : m)) };
+}
+
+function post(msg: FromWorker): void {
+  (self as unknown as DedicatedWorkerGlobalScope).postMessage(msg);
+}
+
+/** Solve and keep only cloneable data. */
+function solve(plan: PlanFile, mode: SolveMode, requestId: number): void {
+  if (!inputs) throw new Error('the worker has no catalog and profile yet');
+  const t0 = performance.now();
+  if (mode === 'preview') {
+    const result = liveSolve(lockedPlan(plan), inputs.profile, inputs.catalog, inputs);
+    post({ type: 'result', requestId, mode, result, computeMs: performance.now() - t0 });
+    return;
+  }
+  const sol = solvePlan(
+    { plan: mode === 'allocate' ? lockedPlan(plan) : plan, profile: inputs.profile, catalog: inputs.catalog },
+    { onProgress: (fraction, message) => post({ type: 'progress', requestId, fraction, message }) },
+  ) as unknown as Record<string, unknown>;
+  const computeMs = performance.now() - t0;
+  const { plan: solved, galaxy, masks, coverage, warnings, ...rest } = sol;
+  const extra: Record<string, unknown> = {};
+  for (const [k, v] of Object.entries(rest)) if (typeof v !== 'function') extra[k] = v;
+  const result = { plan: solved, galaxy, masks, coverage, warnings: (warnings as string[]) ?? [], extra } as SolveResult;
+  post({ type: 'result', requestId, mode, result, computeMs });
+}
+
+self.onmessage = (ev: MessageEvent<ToWorker>) => {
+  const msg = ev.data;
+  if (msg.type === 'inputs') {
+    inputs = { version: msg.inputsVersion, profile: msg.profile, catalog: msg.catalog };
+    resetLiveSolve();
+    return;
+  }
+  try {
+    solve(msg.plan, msg.mode, msg.requestId);
+  } catch (e) {
+    const problems = e instanceof InputError ? e.problems : undefined;
+    post({ type: 'error', requestId: msg.requestId, message: (e as Error).message ?? String(e), problems });
+  }
+};

@@ -1,0 +1,214 @@
+// The editor in real Chromium (Debian's /usr/bin/chromium via playwright-core), served by Vite in-process:
+// the demo loads solved, a mask drag changes the slits, undo restores them exactly, a bad catalog shows its
+// row report, reload restores the work, exported files pass `haloweave check` and load again, and the editor's
+// numbers equal those of `haloweave plan` on the same plan.
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { copyFileSync, mkdtempSync, readFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import type { Page } from 'playwright-core';
+import { demoOnDisk, numbersOfOutput, openEditor, runCli, shownNumbers, startHarness, waitSolved, type Harness } from './harness';
+
+let h: Harness;
+
+beforeAll(async () => {
+  h = await startHarness();
+}, 180_000);
+
+afterAll(async () => {
+  await h?.close();
+});
+
+interface Anchor { id: string; x: number; y: number; pa: number }
+
+type Numbers = Awaited<ReturnType<typeof shownNumbers>>;
+
+/**
+ * Slit counts must be equal; reach (a float from the same formulas) to 1e-9 Re, since the browser's V8 and
+ * node's V8 may round transcendental functions differently in the last bits.
+ */
+function expectSameNumbers(actual: Numbers, expected: Numbers): void {
+  expect(actual.counts).toStrictEqual(expected.counts);
+  for (const r of Object.keys(expected.reach)) expect(actual.reach[r], `reach of ${r}`).toBeCloseTo(expected.reach[r], 9);
+}
+
+async function anchors(page: Page): Promise<Anchor[]> {
+  return page.$$eval('[data-testid="mask-anchors"] li', (lis) =>
+    lis.map((li) => ({ id: li.getAttribute('data-mask-id')!, x: Number(li.getAttribute('data-x')), y: Number(li.getAttribute('data-y')), pa: Number(li.getAttribute('data-pa')) })));
+}
+
+async function maskCounts(page: Page, id: string): Promise<Record<string, number>> {
+  return page.evaluate((mid) => {
+    const out: Record<string, number> = {};
+    for (const r of ['tracer', 'starlight', 'sky', 'alignment']) out[r] = Number(document.querySelector(`[data-testid="mask-${mid}-${r}"]`)?.textContent);
+    return out;
+  }, id);
+}
+
+/** Drag mask `id` by (dx, dy) screen pixels with real mouse events on the canvas. */
+async function dragMask(page: Page, id: string, dx: number, dy: number): Promise<void> {
+  const box = (await page.locator('[data-testid="sky-view"]').boundingBox())!;
+  const a = (await anchors(page)).find((m) => m.id === id)!;
+  // Grab a point a little off the centre (labels sit at the centre but do not take the mouse).
+  const x0 = box.x + a.x, y0 = box.y + a.y;
+  await page.mouse.move(x0, y0);
+  await page.mouse.down();
+  for (let i = 1; i <= 12; i++) {
+    await page.mouse.move(x0 + (dx * i) / 12, y0 + (dy * i) / 12);
+    await page.waitForTimeout(16);
+  }
+  await page.mouse.up();
+  await page.waitForTimeout(50); // let the page render the commit before anyone waits for its solve
+}
+
+async function clickExport(page: Page, testId: string, dir: string): Promise<string> {
+  if (!(await page.locator(`[data-testid="${testId}"]`).isVisible())) await page.click('[data-testid="export-menu"]');
+  const [download] = await Promise.all([page.waitForEvent('download'), page.click(`[data-testid="${testId}"]`)]);
+  const path = join(dir, download.suggestedFilename());
+  await download.saveAs(path);
+  return path;
+}
+
+describe('editor in chromium', () => {
+  it('loads the demo solved, drags a mask (slits change), undoes exactly, and restores the work after a reload', async () => {
+    const { context, page } = await openEditor(h);
+    const masks = await anchors(page);
+    expect(masks.length).toBeGreaterThanOrEqual(4);
+    const before = await shownNumbers(page);
+    expect(before.counts.tracer).toBeGreaterThan(0);
+    expect(before.counts.alignment).toBeGreaterThanOrEqual(3 * masks.length);
+    await page.screenshot({ path: '/tmp/hw-demo.png' });
+
+    const perMaskBefore = Object.fromEntries(await Promise.all(masks.map(async (m) => [m.id, await maskCounts(page, m.id)] as const)));
+    // Move a mask well across the field (towards the view's centre, so the pointer stays on the canvas): its
+    // tracer yield must change. Masks may overlap; the one on top at that point is the one that moves.
+    const box = (await page.locator('[data-testid="sky-view"]').boundingBox())!;
+    const dirX = box.width / 2 - masks[0].x, dirY = box.height / 2 - masks[0].y;
+    const n = Math.hypot(dirX, dirY) || 1;
+    await dragMask(page, masks[0].id, (dirX / n) * 160, (dirY / n) * 160);
+    await waitSolved(page);
+    const moved = await anchors(page);
+    const k = moved.findIndex((m, i) => Math.hypot(m.x - masks[i].x, m.y - masks[i].y) > 100);
+    expect(k).toBeGreaterThanOrEqual(0);
+    expect(moved.filter((m, i) => m.x !== masks[i].x || m.y !== masks[i].y)).toHaveLength(1);
+    const id = moved[k].id;
+    const perMaskAfter = await maskCounts(page, id);
+    expect(perMaskAfter.tracer).not.toBe(perMaskBefore[id].tracer);
+    const after = await shownNumbers(page);
+    expect(after.counts).not.toStrictEqual(before.counts);
+    await expect.poll(() => page.textContent(`[data-testid="lock-${id}"]`)).toBe('locked');
+    await page.screenshot({ path: '/tmp/hw-dragged.png' });
+
+    // Undo with the keyboard: everything as before, exactly.
+    await page.locator('[data-testid="sky-view"]').focus();
+    await page.keyboard.press('Control+z');
+    await waitSolved(page);
+    await expect.poll(async () => (await anchors(page))[k]).toStrictEqual(masks[k]);
+    expect(await anchors(page)).toStrictEqual(masks);
+    expect(await shownNumbers(page)).toStrictEqual(before);
+    expect(await maskCounts(page, id)).toStrictEqual(perMaskBefore[id]);
+
+    // Redo, then reload: the autosave brings back the moved mask and its numbers.
+    await page.keyboard.press('Control+Shift+z');
+    await waitSolved(page);
+    expect(await shownNumbers(page)).toStrictEqual(after);
+    await page.waitForFunction(() => /kept in this browser/.test(document.querySelector('[data-testid="autosave-status"]')?.textContent ?? ''));
+    await page.waitForTimeout(600);
+    await page.reload();
+    await waitSolved(page);
+    expect(await shownNumbers(page)).toStrictEqual(after);
+    const restored = await anchors(page);
+    expect(restored.map((m) => m.id)).toStrictEqual(moved.map((m) => m.id));
+    expect(restored[k].pa).toBe(moved[k].pa);
+    expect(Math.abs(restored[k].x - moved[k].x)).toBeLessThan(0.2);
+    expect(Math.abs(restored[k].y - moved[k].y)).toBeLessThan(0.2);
+    expect(await page.textContent(`[data-testid="lock-${id}"]`)).toBe('locked');
+    await context.close();
+  });
+
+  it('shows every bad row of a dropped catalog with its line, column and reason', async () => {
+    const { context, page } = await openEditor(h);
+    const csv = [
+      'id,ra,dec,mag',
+      'ok1,161.80,-21.40,21.0',
+      'nomag,161.81,-21.41,',
+      'textra,abc,-21.40,21.5',
+      'far,161.82,95,21.0',
+      'ok1,161.83,-21.42,21.2',
+      'ok2,161.79,-21.39,20.5',
+    ].join('\n') + '\n';
+    await page.evaluate((text) => {
+      const dt = new DataTransfer();
+      dt.items.add(new File([text], 'bad-rows.csv', { type: 'text/csv' }));
+      const target = document.querySelector('[data-testid="app"]')!;
+      target.dispatchEvent(new DragEvent('dragover', { dataTransfer: dt, bubbles: true, cancelable: true }));
+      target.dispatchEvent(new DragEvent('drop', { dataTransfer: dt, bubbles: true, cancelable: true }));
+    }, csv);
+    await page.waitForSelector('[data-testid="reject-row"]');
+    const rows = await page.$$eval('[data-testid="reject-row"]', (trs) => trs.map((tr) => [...tr.querySelectorAll('td')].map((td) => td.textContent ?? '')));
+    // Lines count the header as line 1: the bad rows are lines 3, 4, 5 and the duplicate id on line 6.
+    const lines = [...new Set(rows.map((r) => Number(r[0])))].sort((a, b) => a - b);
+    expect(lines).toStrictEqual([3, 4, 5, 6]);
+    const byLine = (l: number) => rows.filter((r) => Number(r[0]) === l);
+    expect(byLine(3).some((r) => r[1] === 'mag')).toBe(true);
+    expect(byLine(4).some((r) => r[1] === 'ra')).toBe(true);
+    expect(byLine(5).some((r) => r[1] === 'dec')).toBe(true);
+    expect(byLine(6).some((r) => r[1] === 'id')).toBe(true);
+    for (const r of rows) expect(r[2].length).toBeGreaterThan(3);
+    expect(await page.textContent('[data-testid="catalog-used"]')).toBe('2');
+    expect(await page.textContent('[data-testid="catalog-rejected"]')).toBe('4');
+    await page.screenshot({ path: '/tmp/hw-rejects.png' });
+    await context.close();
+  });
+
+  it('shows the same numbers as `haloweave plan` on the demo plan', async () => {
+    const demo = demoOnDisk();
+    const out = mkdtempSync(join(tmpdir(), 'hw-cli-'));
+    const r = runCli(['plan', demo.planPath, '--out', out, '--quiet']);
+    expect(r.status, r.stderr).toBe(0);
+    const cli = numbersOfOutput(readFileSync(join(out, 'slits.csv'), 'utf8'), readFileSync(join(out, 'coverage.json'), 'utf8'));
+    const { context, page } = await openEditor(h);
+    expectSameNumbers(await shownNumbers(page), cli);
+    await context.close();
+  });
+
+  it('exports files that pass `haloweave check`, give the same numbers under `haloweave plan`, and load again', async () => {
+    const demo = demoOnDisk();
+    const { context, page } = await openEditor(h);
+    const id = (await anchors(page))[1].id;
+    await dragMask(page, id, 70, -40);
+    await waitSolved(page);
+    const shown = await shownNumbers(page);
+    const dir = mkdtempSync(join(tmpdir(), 'hw-export-'));
+    for (const f of ['masks.csv', 'slits.csv', 'coverage.json', 'solved.plan.json', 'catalog-report.csv']) await clickExport(page, `export-${f}`, dir);
+    await page.keyboard.press('Escape');
+    // The CLI's folder layout: the plan's catalog beside it.
+    copyFileSync(demo.catalogPath, join(dir, demo.catalogName));
+    const check = runCli(['check', dir]);
+    expect(check.status, check.stderr + check.stdout).toBe(0);
+    expect(numbersOfOutput(readFileSync(join(dir, 'slits.csv'), 'utf8'), readFileSync(join(dir, 'coverage.json'), 'utf8'))).toStrictEqual(shown);
+
+    // The exported plan, solved again by the CLI, gives the editor's numbers.
+    const again = mkdtempSync(join(tmpdir(), 'hw-again-'));
+    const r = runCli(['plan', join(dir, 'solved.plan.json'), '--out', again, '--quiet']);
+    expect(r.status, r.stderr).toBe(0);
+    expectSameNumbers(numbersOfOutput(readFileSync(join(again, 'slits.csv'), 'utf8'), readFileSync(join(again, 'coverage.json'), 'utf8')), shown);
+
+    // Save the plan file too, then open the exported plan with its catalog in a fresh editor: same numbers.
+    const saved = await clickExport(page, 'save-plan', dir).catch(async () => {
+      const [d] = await Promise.all([page.waitForEvent('download'), page.click('[data-testid="save-plan"]')]);
+      const p = join(dir, d.suggestedFilename());
+      await d.saveAs(p);
+      return p;
+    });
+    expect(JSON.parse(readFileSync(saved, 'utf8')).format).toBe('haloweave.plan/1');
+    await context.close();
+    const fresh = await openEditor(h);
+    fresh.page.on('dialog', (d) => void d.accept());
+    await fresh.page.setInputFiles('[data-testid="open-input"]', [join(dir, 'solved.plan.json'), join(dir, demo.catalogName)]);
+    await fresh.page.waitForFunction(() => document.querySelector('[data-testid="doc-name"]')?.textContent?.startsWith('solved.plan.json'));
+    await waitSolved(fresh.page);
+    expectSameNumbers(await shownNumbers(fresh.page), shown);
+    await fresh.context.close();
+  });
+});

@@ -1,0 +1,134 @@
+/**
+ * Browser test harness: Vite's dev server started in-process on a free port, and Debian's chromium
+ * driven by playwright-core in a fresh context (nothing downloads a browser).
+ */
+import { createServer, type ViteDevServer } from 'vite';
+import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
+import { fileURLToPath } from 'node:url';
+import { dirname, resolve } from 'node:path';
+
+export const ROOT = resolve(dirname(fileURLToPath(import.meta.url)), '../..');
+export const CHROMIUM = '/usr/bin/chromium';
+export const CHROMIUM_ARGS = ['--headless', '--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run'];
+
+export interface Harness {
+  server: ViteDevServer;
+  url: string;
+  browser: Browser;
+  close(): Promise<void>;
+}
+
+/** Start Vite on a free port and launch chromium. */
+export async function startHarness(): Promise<Harness> {
+  const server = await createServer({
+    root: ROOT,
+    configFile: resolve(ROOT, 'vite.config.ts'),
+    logLevel: 'error',
+    server: { port: 0, strictPort: false, host: '127.0.0.1', open: false, hmr: false, watch: null },
+    optimizeDeps: { noDiscovery: false },
+  });
+  await server.listen();
+  const addr = server.httpServer!.address();
+  const port = typeof addr === 'object' && addr ? addr.port : 5173;
+  const url = `http://127.0.0.1:${port}/`;
+  const browser = await chromium.launch({ executablePath: CHROMIUM, args: CHROMIUM_ARGS });
+  return {
+    server, url, browser,
+    async close() {
+      await browser.close().catch(() => {});
+      await server.close().catch(() => {});
+    },
+  };
+}
+
+/** A fresh context (its own storage) and page at the editor, waiting until the demo is solved. */
+export async function openEditor(h: Harness, opts: { context?: BrowserContext; width?: number; height?: number } = {}): Promise<{ context: BrowserContext; page: Page }> {
+  const context = opts.context ?? (await h.browser.newContext({ viewport: { width: opts.width ?? 1500, height: opts.height ?? 950 }, acceptDownloads: true }));
+  // tsx (esbuild keepNames) wraps functions handed to page.evaluate with a __name helper: give the page one.
+  await context.addInitScript({ content: 'window.__name = (f) => f;' });
+  const page = await context.newPage();
+  page.on('pageerror', (e) => console.error('[page error]', e.message));
+  await page.goto(h.url);
+  await waitSolved(page);
+  return { context, page };
+}
+
+/** Wait until the shown solution is the exact solve of the current document (no preview, nothing pending). */
+export async function waitSolved(page: Page, timeoutMs = 90_000): Promise<void> {
+  await page.waitForFunction(() => {
+    const el = document.querySelector('[data-testid="count-tracer"]');
+    const current = document.querySelector('[data-testid="solve-status"]')?.getAttribute('data-current');
+    return el && /^\d+$/.test(el.textContent ?? '') && current === 'yes';
+  }, undefined, { timeout: timeoutMs });
+}
+
+/** The numbers the editor shows: slits and reach per role. */
+export async function shownNumbers(page: Page): Promise<{ counts: Record<string, number>; reach: Record<string, number> }> {
+  return page.evaluate(() => {
+    const counts: Record<string, number> = {}, reach: Record<string, number> = {};
+    for (const r of ['tracer', 'starlight', 'sky', 'alignment']) {
+      counts[r] = Number(document.querySelector(`[data-testid="count-${r}"]`)?.textContent);
+      reach[r] = Number(document.querySelector(`[data-testid="reach-${r}"]`)?.getAttribute('data-value'));
+    }
+    return { counts, reach };
+  });
+}
+
+import { existsSync, mkdtempSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { spawnSync } from 'node:child_process';
+import { generatedDemo } from '../../src/editor/io/generatedDemo';
+
+/** The demo plan and catalog as files: examples/demo when present (what the editor bundles), else the generated demo in a temp folder. */
+export function demoOnDisk(): { planPath: string; catalogPath: string; catalogName: string } {
+  const dir = join(ROOT, 'examples/demo');
+  const plan = existsSync(dir) ? readdirSync(dir).find((f) => f.endsWith('.plan.json')) : undefined;
+  if (plan) {
+    const planPath = join(dir, plan);
+    const cat = String(JSON.parse(readFileSync(planPath, 'utf8')).catalog);
+    const catalogPath = resolve(dir, cat);
+    if (existsSync(catalogPath)) return { planPath, catalogPath, catalogName: cat.split(/[\\/]/).pop()! };
+  }
+  const g = generatedDemo();
+  const tmp = mkdtempSync(join(tmpdir(), 'hw-demo-'));
+  writeFileSync(join(tmp, g.planName), g.planText);
+  writeFileSync(join(tmp, g.catalogName), g.catalogText);
+  return { planPath: join(tmp, g.planName), catalogPath: join(tmp, g.catalogName), catalogName: g.catalogName };
+}
+
+/** Run the haloweave CLI (bin/haloweave.js) and return its exit status and output. */
+export function runCli(args: string[]): { status: number; stdout: string; stderr: string } {
+  const r = spawnSync(process.execPath, [join(ROOT, 'bin/haloweave.js'), ...args], { cwd: ROOT, encoding: 'utf8', timeout: 240_000 });
+  return { status: r.status ?? -1, stdout: r.stdout, stderr: r.stderr };
+}
+
+/** Slit counts per role from a slits.csv text and reach per role from a coverage.json text (as the CLI writes them). */
+export function numbersOfOutput(slitsCsv: string, coverageJson: string): { counts: Record<string, number>; reach: Record<string, number> } {
+  const lines = slitsCsv.trim().split(/\r?\n/);
+  const roleCol = lines[0].split(',').indexOf('role');
+  const counts: Record<string, number> = { tracer: 0, starlight: 0, sky: 0, alignment: 0 };
+  // Roles are plain words, so the role cell never holds a quoted comma; ids before it may, so count from a CSV split.
+  for (const line of lines.slice(1)) counts[splitCsvLine(line)[roleCol]]++;
+  const cov = JSON.parse(coverageJson) as { roles: Record<string, { maxReachRe: number }> };
+  const reach: Record<string, number> = {};
+  for (const r of Object.keys(counts)) reach[r] = cov.roles[r]?.maxReachRe ?? 0;
+  return { counts, reach };
+}
+
+function splitCsvLine(line: string): string[] {
+  const out: string[] = [];
+  let cur = '', q = false;
+  for (let i = 0; i < line.length; i++) {
+    const ch = line[i];
+    if (q) {
+      if (ch === '"' && line[i + 1] === '"') { cur += '"'; i++; }
+      else if (ch === '"') q = false;
+      else cur += ch;
+    } else if (ch === '"') q = true;
+    else if (ch === ',') { out.push(cur); cur = ''; }
+    else cur += ch;
+  }
+  out.push(cur);
+  return out;
+}

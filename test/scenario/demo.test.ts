@@ -1,0 +1,35 @@
+import { describe, expect, it } from 'vitest';
+import { mkdtempSync, readFileSync, existsSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { demoFiles } from '../../src/cli/commands/demo';
+import { main } from '../../src/cli/main';
+
+describe('the demo scenario', () => {
+  it('examples/demo/ holds exactly what the documented generator writes for the fixed seed', () => {
+    for (const [name, text] of Object.entries(demoFiles())) {
+      expect(readFileSync(new URL(`../../examples/demo/${name}`, import.meta.url), 'utf8')).toBe(text);
+    }
+  });
+
+  it('`haloweave demo --out DIR` writes and solves it, the goals are met, and `haloweave check` passes', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'hw-demo-'));
+    const out: string[] = [], err: string[] = [];
+    const io = { out: (t: string) => out.push(t), err: (t: string) => err.push(t) };
+    expect(await main(['demo', '--out', dir, '--quiet'], io)).toBe(0);
+    for (const f of ['halo-demo.plan.json', 'halo-demo.catalog.csv', 'solved/slits.csv', 'solved/coverage.json', 'solved/excluded-targets.csv']) expect(existsSync(join(dir, f))).toBe(true);
+    const text = out.join('\n');
+    expect(text).toMatch(/tracer: \d+ slits, reach [\d.]+ Re \(goal 10 Re, met\)/);
+    expect(text).toMatch(/starlight: \d+ slits, reach [\d.]+ Re \(goal 3 Re, met\)/);
+    expect(text).toContain('every goal bin holds at least one slit');
+    expect(text).toContain('exclusion region "companion galaxy"');
+    const cov = JSON.parse(readFileSync(join(dir, 'solved/coverage.json'), 'utf8'));
+    expect(cov.roles.tracer.maxReachRe).toBeGreaterThanOrEqual(9);
+    expect(cov.roles.starlight.maxReachRe).toBeGreaterThanOrEqual(3);
+    expect(await main(['check', join(dir, 'solved')], io)).toBe(0);
+    // Excluded targets are listed with their rule, never silently dropped.
+    const excluded = readFileSync(join(dir, 'solved/excluded-targets.csv'), 'utf8').trim().split('\n');
+    expect(excluded[0]).toBe('id,line,role,rule,reason');
+    expect(excluded.some((l) => l.includes('exclusion:companion galaxy'))).toBe(true);
+  });
+});
