@@ -43,7 +43,7 @@ export default async function allocationBench(): Promise<void> {
       const m = k++ % 4;
       const p = pointings[m];
       return reallocateOneMask(ctx, full, m, { ...p, decDeg: p.decDeg + (3 / 3600) * ((k % 2) * 2 - 1) });
-    }, 21), unit: 'ms', goal: n === 3000 ? 5 : undefined });
+    }, 41), unit: 'ms', goal: n === 3000 ? 5 : undefined, note: 'median of 41 drags' });
     const problem = jointProblemOf(ctx, full.prepared);
     const greedy = allocateGreedyMaskByMask(problem);
     const t0 = performance.now();

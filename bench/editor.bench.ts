@@ -1,5 +1,6 @@
 /**
- * Editor benchmark in Chromium (Debian's /usr/bin/chromium via playwright-core, Vite in-process):
+ * Editor benchmark in Chromium (Debian's /usr/bin/chromium via playwright-core) on the built editor (vite build +
+ * vite preview, in-process):
  * - 20 000 tracers: frame rate while the view pans and zooms, one scripted wheel event per animation frame
  *   (frame times from requestAnimationFrame timestamps in the page);
  * - the 3 000-candidate demo: frame rate while a mask is dragged with real mouse events, and the worker's own
@@ -10,7 +11,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { printTable, type BenchRow } from './harness';
-import { openEditor, startHarness, waitSolved } from '../test/browser/harness';
+import { openEditor, startBuiltHarness, waitSolved } from '../test/browser/harness';
 import { generateScenario } from '../src/core/scenario/generator';
 
 interface FrameStats { fps: number; p95FrameMs: number; frames: number }
@@ -50,7 +51,8 @@ async function camera(page: Page): Promise<string> {
 const pct = (v: number[], p: number) => { const s = [...v].sort((a, b) => a - b); return s[Math.min(s.length - 1, Math.floor(s.length * p))] ?? NaN; };
 
 export default async function editorBench(): Promise<void> {
-  const h = await startHarness();
+  // The shipped bundle (vite build, served by vite preview): React's production build, as a deployment runs it.
+  const h = await startBuiltHarness();
   const rows: BenchRow[] = [];
   try {
     // ---- 20 000 tracers: pan and zoom ----
@@ -76,9 +78,10 @@ export default async function editorBench(): Promise<void> {
     rows.push({ name: `zoom, ${targets} catalog rows`, value: zoom.fps, unit: 'fps', goal: 30, lowerIsBetter: false, note: `${zoom.frames} frames, p95 frame ${zoom.p95FrameMs.toFixed(1)} ms` });
     await context.close();
 
-    // ---- 3 000-candidate demo: drag one mask ----
+    // ---- the demo (about 3 000 candidates): drag one mask ----
     const demo = await openEditor(h, { width: 1500, height: 950 });
     const p = demo.page;
+    const demoRows = await p.evaluate(() => document.querySelector('[data-testid="catalog-used"]')?.textContent);
     const box = (await p.locator('[data-testid="sky-view"]').boundingBox())!;
     const a = await p.$eval('[data-testid="mask-anchors"] li', (li) => ({ x: Number(li.getAttribute('data-x')), y: Number(li.getAttribute('data-y')) }));
     const before = await p.evaluate(() => (window as unknown as { haloweave: { solveTimes: unknown[] } }).haloweave.solveTimes.length);
@@ -101,12 +104,15 @@ export default async function editorBench(): Promise<void> {
     await p.mouse.up();
     await waitSolved(p);
     const times = await p.evaluate((n) => (window as unknown as { haloweave: { solveTimes: { mode: string; ms: number }[] } }).haloweave.solveTimes.slice(n), before);
-    const preview = times.filter((t) => t.mode === 'preview').map((t) => t.ms);
+    // The first preview of a drag builds the live cache (a full allocation, at mouse-down); the rest are the updates.
+    const previewAll = times.filter((t) => t.mode === 'preview').map((t) => t.ms);
+    const preview = previewAll.slice(1);
     const full = times.filter((t) => t.mode !== 'preview').map((t) => t.ms);
     const drag = frameStats(frames);
-    rows.push({ name: 'view while dragging a mask, 3 000 candidates', value: drag.fps, unit: 'fps', goal: 57, lowerIsBetter: false, note: `60 Hz display: >= 57 means no frames lost beyond timer jitter; ${k} mouse moves, p95 frame ${drag.p95FrameMs.toFixed(1)} ms` });
+    rows.push({ name: `view while dragging a mask, demo with ${demoRows} catalog rows`, value: drag.fps, unit: 'fps', goal: 57, lowerIsBetter: false, note: `60 Hz display: >= 57 means no frames lost beyond timer jitter; ${k} mouse moves, p95 frame ${drag.p95FrameMs.toFixed(1)} ms` });
     rows.push({ name: 'worker time per live re-solve (median)', value: pct(preview, 0.5), unit: 'ms', goal: 16, note: `${preview.length} updates` });
     rows.push({ name: 'worker time per live re-solve (p95)', value: pct(preview, 0.95), unit: 'ms', goal: 16 });
+    rows.push({ name: 'worker time, first update of the drag (builds the live cache)', value: previewAll[0] ?? NaN, unit: 'ms' });
     rows.push({ name: 'worker time, full solve after the drag', value: pct(full, 0.5), unit: 'ms', note: 'exact pipeline solve of the committed plan' });
     await demo.context.close();
   } finally {

@@ -38,6 +38,12 @@ export default async function run(): Promise<void> {
     const goals = s.plan.goals as { tracerReachRe: number; starlightReachRe: number };
     const msNaive = await medianMs(() => solvePlan(naive, { skipObservingReport: true }), name.startsWith('20') ? 3 : 5);
     rows.push({ name: `${name}: full plan`, value: ms, unit: 'ms', goal: goalMs, lowerIsBetter: true });
+    // CPU time of this process per plan (user + system), less sensitive than wall time to other work on a shared machine.
+    const reps = name.startsWith('20') ? 3 : 5;
+    const c0 = process.cpuUsage();
+    for (let i = 0; i < reps; i++) solvePlan(searched, { skipObservingReport: true });
+    const c1 = process.cpuUsage(c0);
+    rows.push({ name: `${name}: full plan, CPU time (mean of ${reps})`, value: (c1.user + c1.system) / 1000 / reps, unit: 'cpu ms', goal: goalMs, lowerIsBetter: true });
     rows.push({ name: `${name}: full plan without the search (naive layout: one joint allocation)`, value: msNaive, unit: 'ms' });
     rows.push({ name: `${name}: objective, search / naive cross`, value: a.search.objective.total / b.search.objective.total, unit: 'x', goal: 1.0000001, lowerIsBetter: false, note: `${a.search.objective.total.toFixed(1)} vs ${b.search.objective.total.toFixed(1)}` });
     rows.push({ name: `${name}: tracer weighted yield, search / naive`, value: a.search.objective.yieldWeight / b.search.objective.yieldWeight, unit: 'x', note: `${a.search.objective.yieldWeight.toFixed(1)} vs ${b.search.objective.yieldWeight.toFixed(1)}; ${a.coverage.roles.tracer.count} vs ${b.coverage.roles.tracer.count} tracer slits` });

@@ -60,6 +60,20 @@ export interface LoadedPlan extends PlanInputs {
   planPath: string;
   profilePath: string;
   catalogPath: string;
+  /** Things worth saying that do not stop the run (e.g. a profile file reusing a package profile's id). */
+  warnings: string[];
+}
+
+/** A warning when a profile file outside the package reuses the id of a package profile with other content. */
+export function profileIdClash(profile: InstrumentProfile, path: string): string | null {
+  const own = resolve(PACKAGE_PROFILE_DIR, `${profile.id}.json`);
+  if (resolve(path) === own || !existsSync(own)) return null;
+  try {
+    if (JSON.stringify(JSON.parse(readFileSync(own, 'utf8'))) === JSON.stringify(JSON.parse(readFileSync(path, 'utf8')))) return null;
+  } catch {
+    return null;
+  }
+  return `the profile file ${path} has the id "${profile.id}" of a different profile shipped with the package; masks.csv names profiles by id, so give your profile an id of its own`;
 }
 
 function problemsOf(e: unknown): Problem[] {
@@ -109,5 +123,6 @@ export function loadPlanInputs(planPathArg: string): LoadedPlan {
   // Streaming for CSV/TSV/ECSV (large catalogs), whole-file for VOTable and FITS.
   const catalog: CatalogReadResult = readCatalogFile(catalogPath, plan.catalogColumns as ColumnMapping | undefined, { source: plan.catalog });
   assertCatalogUsable(catalog);
-  return { plan, profile: loadedProfile.profile, catalog, planPath, profilePath: loadedProfile.path, catalogPath };
+  const clash = profileIdClash(loadedProfile.profile, loadedProfile.path);
+  return { plan, profile: loadedProfile.profile, catalog, planPath, profilePath: loadedProfile.path, catalogPath, warnings: clash ? [clash] : [] };
 }

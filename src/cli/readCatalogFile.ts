@@ -3,6 +3,7 @@
  * validated row by row, so only the usable targets stay in memory; VOTable and FITS files are read whole.
  * The result is the same as `readCatalog` on the whole file's bytes.
  */
+import { Buffer, isAscii } from 'node:buffer';
 import { closeSync, openSync, readFileSync, readSync, statSync } from 'node:fs';
 import { InputError } from '../core/result';
 import type { CatalogReadResult, ColumnMapping } from '../core/catalog/types';
@@ -16,7 +17,10 @@ const HEAD_BYTES = 1 << 20;
 
 /**
  * A TextSource over a file, decoded in chunks of `chunkBytes` (UTF-8, or UTF-16 by its BOM); each call reads from the
- * start. Invalid UTF-8 is an InputError naming the byte offset (never replaced silently).
+ * start. Invalid UTF-8 is an InputError naming the byte offset (never replaced silently). A UTF-8 chunk of ASCII bytes
+ * only is copied as Latin-1 (the same characters, without the decoder's validation work) when the decoder holds no
+ * partial character, i.e. when the chunk before it ended with an ASCII byte; the first chunk always goes through the
+ * decoder, which drops the byte-order mark.
  */
 export function fileTextSource(path: string, chunkBytes = 1 << 16, encoding: TextEncodingName = 'utf-8', name = path): TextSource {
   return (onChunk) => {
@@ -32,6 +36,8 @@ export function fileTextSource(path: string, chunkBytes = 1 << 16, encoding: Tex
           throw new InputError([{ where: name, what: `is not valid ${encoding.toUpperCase()} text (near byte ${offset})`, fix: 'save the file as UTF-8' }]);
         }
       };
+      const bytes = Buffer.from(buf.buffer, buf.byteOffset, buf.byteLength);
+      let decoderIdle = false; // true once the decoder has started and holds no partial character
       for (;;) {
         const n = readSync(fd, buf, 0, chunkBytes, null);
         if (n === 0) {
@@ -39,7 +45,9 @@ export function fileTextSource(path: string, chunkBytes = 1 << 16, encoding: Tex
           if (tail !== '') onChunk(tail);
           return;
         }
-        const text = decode(buf.subarray(0, n));
+        const chunk = buf.subarray(0, n);
+        const text = decoderIdle && encoding === 'utf-8' && isAscii(chunk) ? bytes.toString('latin1', 0, n) : decode(chunk);
+        decoderIdle = chunk[n - 1] < 0x80;
         offset += n;
         if (!onChunk(text)) return;
       }

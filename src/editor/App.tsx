@@ -17,6 +17,7 @@ import { MasksPanel } from './panels/MasksPanel';
 import { SearchPanel } from './panels/SearchPanel';
 import { YieldPanel } from './panels/YieldPanel';
 import { CoveragePanel } from './panels/CoveragePanel';
+import { ObservabilityPanel } from './panels/ObservabilityPanel';
 import { TargetTable } from './panels/TargetTable';
 import { RejectReport } from './panels/RejectReport';
 import { ExportMenu } from './panels/ExportMenu';
@@ -75,10 +76,16 @@ export function App({ controller: c }: { controller: EditorController }) {
   const solvedMasks = session.solution?.result.masks ?? [];
   const slitMap = useMemo(() => slitsByMask(solvedMasks), [solvedMasks]);
   const slitOf = useMemo(() => slitOfObject(solvedMasks), [solvedMasks]);
+  // Rings on the catalog follow exact solves only: a drag preview moves the mask's slits live, and the
+  // rings (a full redraw of the catalog layer) catch up when the drag is committed and solved.
+  const exactMasks = useRef(solvedMasks);
+  if (session.solvedDoc || !session.solution) exactMasks.current = solvedMasks;
+  const ringMasks = exactMasks.current;
   const onSlit = useMemo(() => {
     if (!targets) return null;
-    return Uint8Array.from(targets, (t) => { const s = slitOf.get(t.id); return !s ? 0 : s.role === 'alignment' ? 2 : 1; });
-  }, [targets, slitOf]);
+    const of = slitOfObject(ringMasks);
+    return Uint8Array.from(targets, (t) => { const s = of.get(t.id); return !s ? 0 : s.role === 'alignment' ? 2 : 1; });
+  }, [targets, ringMasks]);
 
   const poses: MaskPose[] = (doc?.plan.masks ?? [])
     .filter((m) => m.raDeg !== undefined && m.decDeg !== undefined)
@@ -148,8 +155,8 @@ export function App({ controller: c }: { controller: EditorController }) {
                 onSelectMask={(id) => store.updateSession((s) => ({ ...s, activeMaskId: id }))}
               />
               <div className="legend sky-legend">
-                {ROLES.map((r) => <span key={r}><RoleMark role={r} /> {ROLE_STYLE[r].label}</span>)}
-                <span><i className="dot" /> candidate: size by brightness, shade by weight</span>
+                {ROLES.map((r) => <span key={r}><RoleMark role={r} /> {ROLE_STYLE[r].label.replace(' slit', '')}</span>)}
+                <span title="size by brightness, shade by weight"><i className="dot" /> candidate</span>
                 <span><i className="ring" /> on a slit</span>
                 <span><i className="diamond" /> alignment star</span>
                 <span><i className="cross">×</i> excluded</span>
@@ -162,6 +169,7 @@ export function App({ controller: c }: { controller: EditorController }) {
           <aside className="side right">
             <YieldPanel c={c} />
             <CoveragePanel c={c} galaxyPaDeg={galaxy.paDeg} />
+            <ObservabilityPanel c={c} galaxy={galaxy} />
             {session.catalog && <RejectReport key={`${session.catalog.source}:${session.catalog.rowsRead}:${session.catalog.rejects.length}`} catalog={session.catalog} name={session.catalogFile?.name ?? session.catalog.source} />}
           </aside>
         </div>

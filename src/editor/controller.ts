@@ -113,6 +113,7 @@ export class EditorController {
       return;
     }
     this.patch({ notices: [...this.session.notices.slice(-4), n] });
+    if (level === 'info') setTimeout(() => this.dismissNotice(n.id), 8000);
   }
 
   dismissNotice(id: number): void {

@@ -132,3 +132,21 @@ function splitCsvLine(line: string): string[] {
   out.push(cur);
   return out;
 }
+
+/** Build the editor (vite build into a temp folder) and serve it with vite preview; for benchmarks of the shipped bundle. */
+export async function startBuiltHarness(): Promise<Harness> {
+  const { build, preview } = await import('vite');
+  const outDir = mkdtempSync(join(tmpdir(), 'hw-build-'));
+  await build({ root: ROOT, configFile: resolve(ROOT, 'vite.config.ts'), logLevel: 'error', build: { outDir, emptyOutDir: true } });
+  const server = await preview({ root: ROOT, configFile: resolve(ROOT, 'vite.config.ts'), logLevel: 'error', build: { outDir }, preview: { port: 0, host: '127.0.0.1', open: false } });
+  const addr = server.httpServer.address();
+  const port = typeof addr === 'object' && addr ? addr.port : 4173;
+  const browser = await chromium.launch({ executablePath: CHROMIUM, args: CHROMIUM_ARGS });
+  return {
+    server: server as unknown as ViteDevServer, url: `http://127.0.0.1:${port}/`, browser,
+    async close() {
+      await browser.close().catch(() => {});
+      await new Promise<void>((r) => server.httpServer.close(() => r()));
+    },
+  };
+}

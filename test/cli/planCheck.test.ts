@@ -97,6 +97,28 @@ describe('haloweave plan and check on a hand-written plan', () => {
   });
 });
 
+describe('check uses the plan\'s own profile file even when it reuses a package profile id', () => {
+  it('a wider footprint under the id quad8-square: slits beyond the package footprint still pass', () => {
+    const dir = join(work, 'sameid');
+    mkdirSync(dir, { recursive: true });
+    const prof = JSON.parse(readFileSync(join(ROOT, 'instrument-profiles/quad8-square.json'), 'utf8'));
+    prof.footprint = [[-300, -300], [300, -300], [300, 300], [-300, 300]];
+    writeFileSync(join(dir, 'wide.json'), JSON.stringify(prof));
+    cpSync(join(FIXTURES, 'small.catalog.csv'), join(dir, 'small.catalog.csv'));
+    const plan = JSON.parse(readFileSync(join(FIXTURES, 'small.plan.json'), 'utf8'));
+    plan.instrument = 'wide.json';
+    writeFileSync(join(dir, 'wide.plan.json'), JSON.stringify(plan));
+    const r = cli(['plan', 'sameid/wide.plan.json', '--out', 'out/sameid', '--quiet'], work);
+    expect(r.code).toBe(0);
+    expect(r.err).toMatch(/warning: the profile file .*wide\.json has the id "quad8-square" of a different profile/);
+    const rows = readFileSync(join(work, 'out/sameid/slits.csv'), 'utf8').trim().split('\n').slice(1).map((l) => l.split(','));
+    expect(rows.some((c) => Math.abs(Number(c[7])) > 165 || Math.abs(Number(c[6])) > 165)).toBe(true);
+    const k = cli(['check', 'out/sameid'], work);
+    expect(k.err).toBe('');
+    expect(k.code).toBe(0);
+  });
+});
+
 describe('bad input: one line per problem naming the field, non-zero exit, no complete-looking folder', () => {
   const base = () => JSON.parse(readFileSync(join(FIXTURES, 'small.plan.json'), 'utf8'));
   function runBad(name: string, edit: (p: Record<string, any>) => void) {

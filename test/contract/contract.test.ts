@@ -4,9 +4,9 @@
  * astropy (astropy.wcs RA---TAN/DEC--TAN projection, astropy 5.2.1 from Debian's python3-astropy) that shares no code
  * with the TypeScript checker. Missing python3 or astropy fails these tests with a clear message; nothing is skipped.
  */
-import { beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { spawnSync } from 'node:child_process';
-import { cpSync, mkdirSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { cpSync, mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { tangentCentre, tangentToSkyDeg } from '../../src/core/sky/tangentPlane';
@@ -116,6 +116,7 @@ const SCENARIOS: Scenario[] = [
 let work: string;
 let demoDir: string;
 let demoCommandDir: string;
+let smallDir: string;
 const scenarioDirs = new Map<string, string>();
 
 beforeAll(() => {
@@ -125,6 +126,8 @@ beforeAll(() => {
   work = mkdtempSync(join(tmpdir(), 'haloweave-contract-'));
   demoDir = join(work, 'demo');
   plan(join(ROOT, 'examples/demo/halo-demo.plan.json'), demoDir);
+  smallDir = join(work, 'small');
+  plan(join(ROOT, 'test/cli/fixtures/small.plan.json'), smallDir); // RA across 0/360, two rejected catalog rows
   demoCommandDir = join(work, 'demo-command');
   const d = spawnSync(process.execPath, [BIN, 'demo', '--out', demoCommandDir], { cwd: ROOT, encoding: 'utf8', maxBuffer: 64 << 20 });
   if (d.status !== 0) throw new Error(`haloweave demo failed (exit ${d.status}):\n${d.stderr.split('\n').slice(-8).join('\n')}`);
@@ -136,6 +139,11 @@ beforeAll(() => {
   }
 }, 600_000);
 
+// The work folder is removed afterwards; set HALOWEAVE_KEEP_TMP=1 to keep it for a look.
+afterAll(() => {
+  if (work && !process.env.HALOWEAVE_KEEP_TMP) rmSync(work, { recursive: true, force: true });
+});
+
 describe('contract_check.py itself', () => {
   it('passes its own geometry, tilt, wavelength and projection self-test (astropy 5.x)', () => {
     const r = spawnSync(PYTHON, [CHECKER, '--self-test'], { encoding: 'utf8' });
@@ -144,27 +152,44 @@ describe('contract_check.py itself', () => {
   });
 });
 
+/** Check several folders in one python start; the output lines of each folder (prefix removed) and the exit status. */
+function checkMany(dirs: string[]): { code: number | null; linesOf(dir: string): string[] } {
+  const r = check(...dirs);
+  const linesOf = (dir: string) => (dirs.length === 1 ? r.out.split('\n') : r.out.split('\n').filter((l) => l.startsWith(`${dir}: `)).map((l) => l.slice(dir.length + 2))).filter((l) => l !== '');
+  return { code: r.code, linesOf };
+}
+
 describe('haloweave plan outputs obey the contract (checked with astropy)', () => {
-  it('the demo scenario (examples/demo) through `haloweave plan`', () => {
-    const r = check(demoDir);
-    expect(r.out).toMatch(/contract_check: ok: 4 masks, \d+ rows checked/);
-    expect(r.code).toBe(0);
+  let good: ReturnType<typeof checkMany>;
+  let goodDirs: string[];
+  beforeAll(() => {
+    goodDirs = [smallDir, demoDir, join(demoCommandDir, 'solved'), ...SCENARIOS.map((s) => scenarioDirs.get(s.name)!)];
+    good = checkMany(goodDirs);
+  }, 120_000);
+  /** The folder's only output line is the ok summary (no violation line). */
+  const expectOk = (dir: string, masks: number) => {
+    const lines = good.linesOf(dir);
+    expect(lines.filter((l) => !l.startsWith('contract_check: ok:')), `violations in ${dir}`).toEqual([]);
+    expect(lines).toHaveLength(1);
+    expect(lines[0]).toMatch(new RegExp(`^contract_check: ok: ${masks} masks, \\d+ rows checked, worst position residual`));
+  };
+
+  it('the hand-written plan test/cli/fixtures/small.plan.json (with catalog-report.csv rows)', () => {
+    expectOk(smallDir, 2);
+    expect(readFileSync(join(smallDir, 'catalog-report.csv'), 'utf8').trim().split('\n').length).toBeGreaterThan(1);
   });
 
-  it('`haloweave demo --out DIR` (its solved/ folder)', () => {
-    const r = check(join(demoCommandDir, 'solved'));
-    expect(r.out).toMatch(/contract_check: ok: 4 masks, \d+ rows checked/);
-    expect(r.code).toBe(0);
-  });
+  it('the demo scenario (examples/demo) through `haloweave plan`', () => expectOk(demoDir, 4));
+
+  it('`haloweave demo --out DIR` (its solved/ folder)', () => expectOk(join(demoCommandDir, 'solved'), 4));
 
   it.each(SCENARIOS.map((s) => [s.name, s] as const))('generated plan %s (RA across 0/360, |Dec| up to 80, every profile)', (name, s) => {
-    const r = check(scenarioDirs.get(name)!);
-    expect(r.out.split('\n').filter((l) => l !== '' && !l.includes('contract_check: ok'))).toEqual([]); // no violation line
-    expect(r.out).toMatch(/ok: 2 masks, \d+ rows checked, worst position residual/);
+    expectOk(scenarioDirs.get(name)!, 2);
     const masks = readFileSync(join(scenarioDirs.get(name)!, 'masks.csv'), 'utf8');
     expect(masks).toContain(`,${s.customProfile?.id ?? s.profileId},`);
-    expect(r.code).toBe(0);
   });
+
+  it('exit status 0 when every folder passes', () => expect(good.code).toBe(0));
 
   it('solved.plan.json is loadable again by `haloweave plan`, and that output obeys the contract too', () => {
     const again = join(work, 'out', 'again-south80-quad');
@@ -220,7 +245,12 @@ function placeAlone(t: Table, masks: Table, maskIds: string[], x: number, below:
   throw new Error(`no y window on masks ${maskIds.join(', ')} free of alignment boxes to build this case`);
 }
 
-interface Corruption { name: string; apply(dir: string): { rule: string; mustName: string[]; only?: boolean; alsoAllowed?: string[] } }
+interface Corruption {
+  name: string;
+  /** false for rules outside `haloweave check`'s contract ("against its instrument profile"): coverage, catalog, plan. */
+  profileRule?: boolean;
+  apply(dir: string): { rule: string; mustName: string[]; only?: boolean; alsoAllowed?: string[] };
+}
 const MOVED = ['[coverage]', '[catalog]']; // a moved target also leaves its catalog position
 
 const ridge = profile('ridge10-narrow'); // the demo's profile
@@ -324,13 +354,21 @@ const CORRUPTIONS: Corruption[] = [
     writeTable(join(dir, 'masks.csv'), t);
     return { rule: '[columns]', mustName: ['masks.csv line 1'] };
   } },
-  { name: 'a coverage count that slits.csv does not give', apply(dir) {
+  { name: 'a coverage count that slits.csv does not give', profileRule: false, apply(dir) {
     const cov = JSON.parse(readFileSync(join(dir, 'coverage.json'), 'utf8'));
     cov.roles.tracer.radialBins[2].count += 1;
     writeFileSync(join(dir, 'coverage.json'), JSON.stringify(cov));
     return { rule: '[coverage]', mustName: ['roles.tracer', 'bin [2, 3)'], only: true };
   } },
-  { name: 'solved.plan.json disagreeing with masks.csv', apply(dir) {
+  { name: 'a used object on a catalog line that catalog-report.csv lists as not used', profileRule: false, apply(dir) {
+    const t = readTable(join(dir, 'slits.csv'));
+    const r = t.rows.find((row) => row.mask_id === 'm2' && row.role === 'tracer')!;
+    const catalogLines = readFileSync(join(ROOT, 'examples/demo/halo-demo.catalog.csv'), 'utf8').split('\n');
+    const line = catalogLines.findIndex((l) => l.startsWith(`${r.object_id},`)) + 1; // 1-based, header is line 1
+    writeFileSync(join(dir, 'catalog-report.csv'), readFileSync(join(dir, 'catalog-report.csv'), 'utf8') + `${line},dec,invented reason for this test\n`);
+    return { rule: '[catalog]', mustName: [`line ${lineOf(t, r)} `, `slit ${r.slit_id}`, `catalog line(s) ${line}`], only: true };
+  } },
+  { name: 'solved.plan.json disagreeing with masks.csv', profileRule: false, apply(dir) {
     const p = JSON.parse(readFileSync(join(dir, 'solved.plan.json'), 'utf8'));
     p.masks[2].paDeg += 0.5;
     writeFileSync(join(dir, 'solved.plan.json'), JSON.stringify(p));
@@ -339,9 +377,13 @@ const CORRUPTIONS: Corruption[] = [
 ];
 
 describe('contract_check.py reports each corruption of a good folder, naming the row', () => {
-  let results: Map<string, { lines: string[]; expected: ReturnType<Corruption['apply']> }>;
+  let results: Map<string, { dir: string; lines: string[]; expected: ReturnType<Corruption['apply']> }>;
   beforeAll(() => {
     results = new Map();
+    const demoMasks = readFileSync(join(demoDir, 'masks.csv'), 'utf8');
+    if (!/^m1,ridge10-narrow,/m.test(demoMasks) || !/^m4,/m.test(demoMasks)) {
+      throw new Error(`these cases are built for the demo's masks m1..m4 on ridge10-narrow; masks.csv now reads:\n${demoMasks}`);
+    }
     const dirs: string[] = [];
     const expected: ReturnType<Corruption['apply']>[] = [];
     CORRUPTIONS.forEach((c, i) => {
@@ -355,7 +397,7 @@ describe('contract_check.py reports each corruption of a good folder, naming the
     CORRUPTIONS.forEach((c, i) => {
       const prefix = `${dirs[i]}: `;
       const lines = r.out.split('\n').filter((l) => l.startsWith(prefix)).map((l) => l.slice(prefix.length));
-      results.set(c.name, { lines, expected: expected[i] });
+      results.set(c.name, { dir: dirs[i], lines, expected: expected[i] });
     });
   }, 120_000);
 
@@ -366,5 +408,19 @@ describe('contract_check.py reports each corruption of a good folder, naming the
     // Corruptions built consistently (ra/dec moved with x/y) break only the rule they target.
     const allowed = [expected.rule, ...(expected.alsoAllowed ?? [])];
     if (expected.only) expect(lines.filter((l) => !allowed.some((a) => l.includes(a))), lines.join('\n')).toEqual([]);
+  });
+
+  // Agreement with the TypeScript checker on the rules it owns: it must reject each of these folders too.
+  it.each(CORRUPTIONS.filter((c) => c.profileRule !== false).map((c) => [c.name]))('`haloweave check` rejects it too: %s', (name) => {
+    const r = spawnSync(process.execPath, [BIN, 'check', results.get(name)!.dir], { cwd: ROOT, encoding: 'utf8' });
+    expect(r.status, r.stdout + r.stderr).not.toBe(0);
+  });
+});
+
+describe('`haloweave check` agrees on good folders', () => {
+  it.each([['demo'], ['south80-quad'], ['path-profile']])('%s passes `haloweave check` as it passes contract_check.py', (name) => {
+    const dir = name === 'demo' ? demoDir : scenarioDirs.get(name)!;
+    const r = spawnSync(process.execPath, [BIN, 'check', dir], { cwd: ROOT, encoding: 'utf8' });
+    expect(r.status, r.stdout + r.stderr).toBe(0);
   });
 });

@@ -453,6 +453,13 @@ def check_coverage(cov, galaxy, goals, slit_rows, report):
                            f"radial bins must be 1 Re wide from 0 out to the goal {goal_re} Re "
                            f"({n_expected} bins); found {[(b.get('fromRe'), b.get('toRe')) for b in bins if isinstance(b, dict)]}")
             check_bins(f"{role} radial", [b for b in bins if isinstance(b, dict)], r_re, "fromRe", "toRe", rwhere, report)
+            beyond = rc.get("beyondGoal")   # Haloweave's extension: rows at or beyond the goal radius
+            if isinstance(beyond, (int, float)):
+                sure = sum(1 for v in r_re if v >= goal_re + BIN_EDGE_TOL)
+                maybe = sum(1 for v in r_re if v >= goal_re - BIN_EDGE_TOL)
+                if not sure <= beyond <= maybe:
+                    report.add(rwhere, "coverage", f"beyondGoal {beyond}; recomputed from slits.csv: {sure}"
+                               + (f" to {maybe}" if maybe != sure else ""))
         sectors = rc.get("sectors")
         if not isinstance(sectors, list) or len(sectors) != 8:
             report.add(rwhere, "coverage", f"needs 8 azimuthal sectors, found {len(sectors) if isinstance(sectors, list) else 'none'}")
@@ -504,33 +511,38 @@ def check_catalog(plan, out_dir, slit_rows, report_rows, report):
         if not all(c in header for c in cols.values()):
             return f"catalog not cross-checked (columns {list(cols.values())} not all in {os.path.basename(path)})"
         ix = {k: header.index(c) for k, c in cols.items()}
-        by_id, line_of_id = {}, {}
+        rows_of_id = {}   # id -> [(line, ra_deg, dec_deg)], every readable row (an id may repeat)
         for cells in reader:
             if len(cells) <= max(ix.values()):
                 continue
-            oid = cells[ix["id"]].strip()
-            line_of_id.setdefault(oid, reader.line_num)
             try:
-                ra = float(cells[ix["ra"]]) * (15.0 if mapping.get("raUnit") == "hour" else 1.0) \
-                    if _PLAIN_NUMBER.match(cells[ix["ra"]].strip()) else ra_deg_of(cells[ix["ra"]])
-                by_id.setdefault(oid, (ra, dec_deg_of(cells[ix["dec"]])))
+                text = cells[ix["ra"]].strip()
+                ra = float(text) * (15.0 if mapping.get("raUnit") == "hour" else 1.0) \
+                    if _PLAIN_NUMBER.match(text) else ra_deg_of(text)
+                rows_of_id.setdefault(cells[ix["id"]].strip(), []).append((reader.line_num, ra, dec_deg_of(cells[ix["dec"]])))
             except (ValueError, TypeError):
                 continue
     rejected = {int(r["line"]) for _, r in report_rows if re.fullmatch(r"[1-9]\d*", (r.get("line") or "").strip())}
     targets = [r for r in slit_rows if r["role"] in ("tracer", "alignment") and r["object"] != ""]
-    known = [r for r in targets if r["object"] in by_id]
+    pairs = []        # (target, catalog row) for every used (not rejected) catalog row of the target's id
     for r in targets:
-        if r["object"] not in by_id:
+        cands = rows_of_id.get(r["object"], [])
+        used = [c for c in cands if c[0] not in rejected]
+        if not cands:
             report.add(r["where"], "catalog", f"object {r['object']} is not a readable row of {os.path.basename(path)}")
-        elif line_of_id.get(r["object"]) in rejected:
-            report.add(r["where"], "catalog", f"object {r['object']} is on catalog line {line_of_id[r['object']]}, "
-                       "which catalog-report.csv lists as not used")
-    if known:
-        slit_pos = SkyCoord([r["ra"] for r in known] * u.deg, [r["dec"] for r in known] * u.deg)
-        cat_pos = SkyCoord([by_id[r["object"]][0] for r in known] * u.deg, [by_id[r["object"]][1] for r in known] * u.deg)
-        sep = slit_pos.separation(cat_pos).to_value(u.arcsec)
-        for r, d in zip(known, sep):
-            if not d <= POSITION_TOL_ARCSEC:
+        elif not used:
+            report.add(r["where"], "catalog", f"object {r['object']} is only on catalog line(s) "
+                       f"{', '.join(str(c[0]) for c in cands)}, which catalog-report.csv lists as not used")
+        pairs.extend((r, c) for c in used)
+    known = {}
+    if pairs:
+        slit_pos = SkyCoord([r["ra"] for r, _ in pairs] * u.deg, [r["dec"] for r, _ in pairs] * u.deg)
+        cat_pos = SkyCoord([c[1] for _, c in pairs] * u.deg, [c[2] for _, c in pairs] * u.deg)
+        for (r, _), d in zip(pairs, slit_pos.separation(cat_pos).to_value(u.arcsec)):
+            known[r["line"]] = min(known.get(r["line"], math.inf), float(d))
+        for r in targets:
+            d = known.get(r["line"])
+            if d is not None and not d <= POSITION_TOL_ARCSEC:
                 report.add(r["where"], "catalog", f"the row is {d:.4g} arcsec from its object {r['object']} in the catalog")
     return f"{len(known)} targets matched to {os.path.basename(path)}"
 
@@ -543,7 +555,7 @@ def check_folder(out_dir, profile_dir):
     stats = {"rows": 0, "masks": 0, "worst": 0.0, "worst_where": "-", "catalog": "-"}
 
     _, mask_rows = read_csv(os.path.join(out_dir, "masks.csv"), "masks.csv", MASKS_COLUMNS, report)
-    slit_header, slit_rows_raw = read_csv(os.path.join(out_dir, "slits.csv"), "slits.csv", SLITS_COLUMNS, report)
+    _, slit_rows_raw = read_csv(os.path.join(out_dir, "slits.csv"), "slits.csv", SLITS_COLUMNS, report)
     _, report_rows = read_csv(os.path.join(out_dir, "catalog-report.csv"), "catalog-report.csv", REPORT_COLUMNS, report)
     plan = read_json(os.path.join(out_dir, "solved.plan.json"), "solved.plan.json", report)
     cov = read_json(os.path.join(out_dir, "coverage.json"), "coverage.json", report)
@@ -807,6 +819,12 @@ def self_test():
     expect(why is None, f"a thin box lying on the notch floor touches the boundary only ({why})")
     why = quad_in_polygon([(2, 8), (8, 8), (8, 8.5), (2, 8.5)], poly)
     expect(why is not None, "rect spanning the notch at mid-height is outside")
+    cw = list(reversed(poly))   # the same footprint listed clockwise: every answer must be the same
+    expect(not point_in_polygon((5, 8), cw) and point_in_polygon((5, 5), cw), "clockwise polygon, points")
+    expect(quad_in_polygon([(3, 7), (7, 7), (7, 9), (3, 9)], cw) is not None
+           and quad_in_polygon([(1, 1), (3, 1), (3, 9), (1, 9)], cw) is None, "clockwise polygon, rectangles")
+    expect(fold_azimuth_deg(200.0, 360.0) == 200.0 and fold_azimuth_deg(200.0, 180.0) == 20.0
+           and fold_azimuth_deg(100.0, 90.0) == 80.0 and fold_azimuth_deg(350.0, 90.0) == 10.0, "azimuth folding")
     expect(segments_cross_properly((0, 0), (2, 2), (0, 2), (2, 0)), "an X crosses")
     expect(not segments_cross_properly((0, 0), (2, 0), (1, 0), (1, 2)), "a T touching is no crossing")
     # tilt convention: +y turns towards +x; a slit of length 2 above its centre, tilted 90 deg, points along +x

@@ -37,11 +37,28 @@ describe('weighting inside the pipeline', () => {
     const text = coverageSummaryLines(sol).join('\n');
     expect(text).toContain('exclusion region "blob"');
     expect(text).toMatch(/\d+ by exclusion:blob/);
-    expect(text).toMatch(/pointing search: objective [\d.]+ against [\d.]+/);
+    expect(text).toMatch(/pointing search: objective [\d.]+ against (at most )?[\d.]+ for the naive starting layout/);
     expect(text).toMatch(/tracer: \d+ slits, reach [\d.]+ Re \(goal 10 Re/);
     expect(text).toContain('per 45-deg sector from the major axis');
     const csv = excludedTargetsCsv(sol.weighting).trim().split('\n');
     expect(csv.length - 1).toBe(sol.weighting.excluded.length);
     expect(csv.filter((l) => l.includes('exclusion:blob')).length).toBeGreaterThan(0);
+  });
+});
+
+describe('exclusion regions in a solved plan', () => {
+  it('no excluded target, tracer or alignment star, appears on any mask', () => {
+    // Regions over the galaxy centre (where the masks of any layout overlap) and around three alignment stars.
+    const probe = scenario({ seed: 12, candidates: 900 });
+    const stars = probe.catalog.targets.filter((t) => t.role === 'alignment').slice(0, 3);
+    const x = scenario({ seed: 12, candidates: 900 }, (p) => {
+      p.weighting.exclusions = [{ label: 'core', xiArcsec: 0, etaArcsec: 0, radiusArcsec: 200 }, ...stars.map((t) => ({ label: 'core', ra: t.raDeg, dec: t.decDeg, radiusArcsec: 30 }))];
+      p.search = { levels: 1, passes: 1 };
+    });
+    const sol = solvePlan(x);
+    const excluded = new Set(sol.weighting.excluded.map((e) => e.id));
+    expect([...sol.weighting.excluded].some((e) => e.role === 'alignment' && e.rule === 'exclusion:core')).toBe(true);
+    const used = sol.masks.flatMap((m) => m.slits.map((s) => s.objectId));
+    expect(used.filter((id) => excluded.has(id))).toEqual([]);
   });
 });

@@ -28,15 +28,17 @@ export async function run(argv: string[], io: CliIO): Promise<number> {
   const slits = parseSlitsCsv(readIn(dir, 'slits.csv'), join(dir, 'slits.csv'));
   const planSource = join(dir, 'solved.plan.json');
   const plan = parsePlanText(readIn(dir, 'solved.plan.json'), planSource);
-  // A masks.csv instrument is a package profile id; a plan that names a profile file (relative to the folder) also serves.
+  // A masks.csv instrument is a profile id: the profile solved.plan.json names (id or file relative to the folder) when
+  // its id matches, else the package profile of that id.
   const cache = new Map<string, InstrumentProfile | null>();
   const profileFor = (instrument: string): InstrumentProfile | null => {
     if (cache.has(instrument)) return cache.get(instrument)!;
     let found: InstrumentProfile | null = null;
-    for (const ref of [instrument, plan.instrument]) {
+    // The plan's own profile first (a file may reuse a package id with other numbers), then the package's.
+    for (const ref of [plan.instrument, instrument]) {
       try {
         const p = loadProfile(ref, dir, `${planSource}: instrument`).profile;
-        if (p.id === instrument || ref === instrument) { found = p; break; }
+        if (p.id === instrument || (ref === instrument && ref !== plan.instrument)) { found = p; break; }
       } catch {
         // try the next reference
       }

@@ -10,7 +10,7 @@ import { formatRefractionSummary } from '../../core/observe/refractionReport';
 
 const USAGE = 'usage: haloweave plan PLAN --out DIR [--quiet]';
 
-/** Plain-text summary of a solution: slits per mask and coverage per role. */
+/** Plain-text summary of a solution: slits per mask and the tracer weight allocated (coverage follows from coverage/summary.ts). */
 export function solutionSummary(solution: PlanSolution): string[] {
   const lines: string[] = [];
   for (const s of solution.stats.masks) {
@@ -20,10 +20,6 @@ export function solutionSummary(solution: PlanSolution): string[] {
   }
   const ub = solution.stats.tracerWeightUpperBound;
   lines.push(`tracer weight allocated: ${solution.stats.tracerWeight.toFixed(3)}${Number.isFinite(ub) ? ` (upper bound for these pointings ${ub.toFixed(3)})` : ''}`);
-  for (const role of ['tracer', 'starlight'] as const) {
-    const c = solution.coverage.roles[role];
-    lines.push(`${role}: ${c.count} slits, reach ${c.maxReachRe.toFixed(2)} Re (goal ${c.goalRe} Re); per 1-Re bin ${c.radialBins.map((b) => b.count).join(' ')}; per 45-deg sector ${c.sectors.map((b) => b.count).join(' ')}${c.emptyBinsFromRe.length ? `; empty bins from ${c.emptyBinsFromRe.join(', ')} Re` : ''}`);
-  }
   return lines;
 }
 
@@ -52,7 +48,7 @@ export async function run(argv: string[], io: CliIO): Promise<number> {
     },
   });
   if (solution.problems.length) throw new InputError(solution.problems);
-  for (const w of solution.warnings) io.err(`haloweave plan: warning: ${w}`);
+  for (const w of [...loaded.warnings, ...solution.warnings]) io.err(`haloweave plan: warning: ${w}`);
   writeOutputFolder(out, { ...planOutputFiles(solution, loaded, out), 'excluded-targets.csv': excludedTargetsCsv(solution.weighting) });
   for (const line of solutionSummary(solution)) io.out(line);
   for (const line of coverageSummaryLines(solution)) io.out(line);

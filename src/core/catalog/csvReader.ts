@@ -1,13 +1,16 @@
 /**
  * Delimited text (CSV, TSV and the body of ECSV) split into records with their 1-based file line, through
- * papaparse (text without any quote is split directly, as papaparse's own fast mode does).
+ * papaparse; a chunk of text without any quote is split directly (every record is then one line and every
+ * field the text between two delimiters, as in papaparse's own fast mode), into spans of the text rather than
+ * strings, so the validator reads numbers straight from the text.
  * Rules: a UTF-8 BOM is dropped; CRLF, LF and CR line ends are accepted; lines starting with `#` before the
  * header row are comments (skipped, but counted in line numbers); quoted fields may hold delimiters, quotes ("")
  * and line ends. The parser takes the text in chunks, so a file can be streamed, and gives the same records as
  * the whole text at once.
  */
 import Papa from 'papaparse';
-import type { CatalogFormat, ColumnInfo, RawTable, RowReject } from './types';
+import type { CatalogFormat, ColumnInfo, RowReject } from './types';
+import { cellNumber, textSpanNumber, type CellWhy, type RowCells, type RowCellsTable } from './validate';
 
 /** One record of delimited text: its cells, the 1-based file line it starts on, and a parse problem if any. */
 export interface CsvRecord {
@@ -15,6 +18,142 @@ export interface CsvRecord {
   line: number;
   /** Set when the record could not be split cleanly (an unterminated quoted field). */
   error?: string;
+}
+
+/**
+ * A record as the splitter hands it to its consumer: its fields as a RowCells view, with the 1-based file line
+ * it starts on, the field count and a parse problem if any. The splitter reuses the object for the next record,
+ * so copy what must outlive the call (`cells`).
+ */
+export interface CsvRecordView extends RowCells {
+  readonly line: number;
+  readonly count: number;
+  /** Set when the record could not be split cleanly (an unterminated quoted field). */
+  readonly error: string | undefined;
+  /** True when field `k` holds nothing but blanks. */
+  blank(k: number): boolean;
+  /** The first `n` fields (default: all) as an array the caller may keep. */
+  cells(n?: number): string[];
+}
+
+/**
+ * A one-line record of text without quotes: field k is src[starts[k], ends[k]). `reset` points it at a text, then
+ * `nextLine` takes that text's lines in order (the search for the next delimiter carries over from line to line,
+ * so a line without delimiters costs no search of the lines after it).
+ */
+class SpanRecord implements CsvRecordView {
+  src = '';
+  line = 0;
+  count = 0;
+  readonly error = undefined;
+  private starts = new Int32Array(16);
+  private ends = new Int32Array(16);
+  private delimiter = ',';
+  /** Index of the first delimiter in `src` not yet used, or -1 when there is none. */
+  private nextDelimiter = -1;
+
+  /** Point the record at a new text with the given field delimiter. */
+  reset(src: string, delimiter: string): void {
+    this.src = src;
+    this.delimiter = delimiter;
+    this.nextDelimiter = src.indexOf(delimiter);
+  }
+
+  /** The record of src[from, to), file line `line`: the next line after the previous call's. */
+  nextLine(from: number, to: number, line: number): this {
+    const { src, delimiter } = this;
+    this.line = line;
+    let k = 0;
+    let fieldStart = from;
+    let d = this.nextDelimiter;
+    while (d >= 0 && d < to) {
+      this.setField(k++, fieldStart, d);
+      fieldStart = d + delimiter.length;
+      d = src.indexOf(delimiter, fieldStart);
+    }
+    this.nextDelimiter = d;
+    this.setField(k++, fieldStart, to);
+    this.count = k;
+    return this;
+  }
+
+  private setField(k: number, start: number, end: number): void {
+    if (k === this.starts.length) {
+      const starts = new Int32Array(2 * k);
+      const ends = new Int32Array(2 * k);
+      starts.set(this.starts);
+      ends.set(this.ends);
+      this.starts = starts;
+      this.ends = ends;
+    }
+    this.starts[k] = start;
+    this.ends[k] = end;
+  }
+
+  number(k: number, why: CellWhy): number {
+    return textSpanNumber(this.src, this.starts[k], this.ends[k], why);
+  }
+
+  text(k: number): string {
+    return this.src.slice(this.starts[k], this.ends[k]);
+  }
+
+  isText(): boolean {
+    return true;
+  }
+
+  blank(k: number): boolean {
+    const start = this.starts[k];
+    if (start === this.ends[k]) return true;
+    const c = this.src.charCodeAt(start);
+    if (c > 32 && c < 127) return false; // a visible ASCII character: no need to make the string
+    return this.text(k).trim() === '';
+  }
+
+  cells(n = this.count): string[] {
+    const out: string[] = [];
+    for (let k = 0; k < n; k++) out.push(this.text(k));
+    return out;
+  }
+}
+
+/** A record whose fields papaparse has already made into strings (the path for text with quotes). */
+class ArrayRecord implements CsvRecordView {
+  private fields: string[] = [];
+  line = 0;
+  error: string | undefined = undefined;
+
+  /** Point the record at `fields`, from file line `line`. */
+  of(fields: string[], line: number, error: string | undefined): this {
+    this.fields = fields;
+    this.line = line;
+    this.error = error;
+    return this;
+  }
+
+  get count(): number {
+    return this.fields.length;
+  }
+
+  number(k: number, why: CellWhy): number {
+    return cellNumber(this.fields[k], why);
+  }
+
+  text(k: number): string {
+    return this.fields[k];
+  }
+
+  isText(): boolean {
+    return true;
+  }
+
+  blank(k: number): boolean {
+    return this.fields[k].trim() === '';
+  }
+
+  cells(n = this.fields.length): string[] {
+    return n === this.fields.length ? this.fields : this.fields.slice(0, n);
+  }
 }
 
 export interface CsvDialect {
@@ -100,10 +239,13 @@ export class CsvRecordSplitter {
   private linesBefore = 0;
   private first = true;
   private inPreamble = true;
+  /** The record objects handed to `emit`, one per path, reused for every record. */
+  private readonly spanRecord = new SpanRecord();
+  private readonly arrayRecord = new ArrayRecord();
 
   constructor(
     private readonly dialect: CsvDialect,
-    private readonly emit: (rec: CsvRecord) => void,
+    private readonly emit: (rec: CsvRecordView) => void,
   ) {}
 
   /** Add a chunk of text; emits every record known to be complete. */
@@ -161,28 +303,29 @@ export class CsvRecordSplitter {
     else this.parseQuoted(text, final);
   }
 
-  /** Fast path for text without quotes: every record is one line, so lines follow from the record index. */
+  /**
+   * Fast path for text without quotes: every record is one line and a field is the text between delimiters
+   * (papaparse's own "fast mode"), handed out as spans of the text. Lines end at each line end; unless `final`,
+   * text after the last line end waits for the next chunk, and at the end it is a last line of its own.
+   */
   private parseUnquoted(text: string, final: boolean): void {
     const nl = this.dialect.newline;
-    let cut: number;
-    if (final) cut = text.length;
-    else {
+    let cut = text.length;
+    if (!final) {
       const last = text.lastIndexOf(nl);
       if (last < 0) return;
       cut = last + nl.length;
     }
-    // Text up to `cut` ends with a line end (or is the final remainder): papaparse gives one trailing empty record for it.
-    const endsWithNl = endsWithLineEnd(text, cut, nl);
-    const body = endsWithNl ? text.slice(0, cut - nl.length) : text.slice(0, cut);
-    if (cut > 0 && (body !== '' || endsWithNl)) {
-      // Without quotes a record is a line and a field is the text between delimiters: this is papaparse's own
-      // "fast mode" (split on the line end, then on the delimiter), done here without its per-call overhead.
-      const lines = body.split(nl);
-      const delimiter = this.dialect.delimiter;
-      const base = this.linesBefore + 1;
-      for (let i = 0; i < lines.length; i++) this.emit({ cells: lines[i].split(delimiter), line: base + i });
-      this.linesBefore += lines.length;
+    const rec = this.spanRecord;
+    rec.reset(text, this.dialect.delimiter);
+    let line = this.linesBefore;
+    for (let pos = 0; pos < cut; ) {
+      let eol = text.indexOf(nl, pos);
+      if (eol < 0) eol = cut;
+      this.emit(rec.nextLine(pos, eol, ++line));
+      pos = eol + nl.length;
     }
+    this.linesBefore = line;
     this.carry = final ? '' : text.slice(cut);
   }
 
@@ -197,7 +340,7 @@ export class CsvRecordSplitter {
       const lastLine = endsWithLineEnd(text, row.end, nl) ? linesToEnd : linesToEnd + 1;
       let inner = 0;
       for (const c of row.data) if (c.length > 0) inner += countLineEnds(c, nl, 0, c.length);
-      this.emit({ cells: row.data, line: lastLine - inner, error: row.error });
+      this.emit(this.arrayRecord.of(row.data, lastLine - inner, row.error));
       prevEnd = row.end;
       linesToPrevEnd = linesToEnd;
     };
@@ -283,15 +426,22 @@ function endsWithLineEnd(text: string, end: number, nl: string): boolean {
 /** Split a whole delimited text into records with file lines (dialect sniffed unless given). */
 export function parseCsvRecords(text: string, dialect: CsvDialect = sniffCsvDialect(text.slice(0, 65536))): CsvRecord[] {
   const out: CsvRecord[] = [];
-  const s = new CsvRecordSplitter(dialect, (r) => out.push(r));
+  const s = new CsvRecordSplitter(dialect, (r) => out.push(recordOf(r)));
   s.push(text);
   s.end();
   return out;
 }
 
+/** A copy of a record view that outlives the splitter's call (`error` only when there is one). */
+function recordOf(r: CsvRecordView): CsvRecord {
+  const rec: CsvRecord = { cells: r.cells(), line: r.line };
+  if (r.error !== undefined) rec.error = r.error;
+  return rec;
+}
+
 /** True for a record that holds nothing but blanks (an empty line, or only delimiters and spaces). */
-export function isBlankRecord(cells: readonly string[]): boolean {
-  for (const c of cells) if (c.trim() !== '') return false;
+export function isBlankRecord(rec: CsvRecordView): boolean {
+  for (let k = 0; k < rec.count; k++) if (!rec.blank(k)) return false;
   return true;
 }
 
@@ -309,7 +459,7 @@ export function stringSource(text: string, chunkChars = 1 << 16): TextSource {
 function readHeaderRecord(source: TextSource, dialect: CsvDialect): CsvRecord | null {
   let header: CsvRecord | null = null;
   const s = new CsvRecordSplitter(dialect, (r) => {
-    if (header === null && !isBlankRecord(r.cells)) header = r;
+    if (header === null && !isBlankRecord(r)) header = recordOf(r);
   });
   let exhausted = true;
   source((chunk) => {
@@ -329,7 +479,7 @@ function readHeaderRecord(source: TextSource, dialect: CsvDialect): CsvRecord | 
  * name from a trailing delimiter dropped). Later records are rows: blank lines, rows without any value and
  * rows with the wrong number of fields become structural rejects (a row with one extra empty field, from a
  * trailing delimiter, is accepted). `declared` columns (ECSV) replace the header's names, which must match them;
- * a mismatch is added to `problems`.
+ * a mismatch is added to `problems`. Rows are given as cell arrays (`forEachRow`) or as views (`forEachRowCells`).
  */
 export function delimitedRawTable(
   format: CatalogFormat,
@@ -337,7 +487,7 @@ export function delimitedRawTable(
   dialect: CsvDialect,
   declared?: ColumnInfo[],
   problems: string[] = [],
-): RawTable {
+): RowCellsTable {
   const header = readHeaderRecord(source, dialect);
   const names = header ? header.cells.map((c) => c.trim()) : [];
   if (names.length > 1 && names[names.length - 1] === '') names.pop();
@@ -352,46 +502,51 @@ export function delimitedRawTable(
   const structuralRejects: RowReject[] = [];
   const n = columns.length;
   const headerLine = header?.line ?? 0;
+
+  /** Visit every usable data row with its field count (a trailing empty field left out); report the others. */
+  const eachRow = (visit: (row: CsvRecordView, line: number, count: number) => void): void => {
+    if (!header) return;
+    const s = new CsvRecordSplitter(dialect, (rec) => {
+      if (rec.line <= headerLine) return;
+      if (rec.error) {
+        structuralRejects.push({ line: rec.line, column: WHOLE_ROW, reason: `${rec.error}; close it with a double quote (") or remove the stray quote` });
+        return;
+      }
+      if (isBlankRecord(rec)) {
+        structuralRejects.push({ line: rec.line, column: WHOLE_ROW, reason: rec.count === 1 ? 'blank line' : 'row without any value' });
+        return;
+      }
+      let count = rec.count;
+      if (count === n + 1 && rec.blank(n)) count = n;
+      if (count !== n) {
+        const fewer = count < n;
+        structuralRejects.push({
+          line: rec.line,
+          column: fewer ? columns[count].name : WHOLE_ROW,
+          reason: `wrong field count: ${fewer ? 'missing field, ' : ''}the row has ${count} fields, the header (line ${headerLine}) has ${n}`,
+        });
+        return;
+      }
+      visit(rec, rec.line, count);
+    });
+    source((chunk) => {
+      s.push(chunk);
+      return true;
+    });
+    s.end();
+  };
+
   return {
     format,
     columns,
     structuralRejects,
-    forEachRow(visit) {
-      if (!header) return;
-      const s = new CsvRecordSplitter(dialect, (rec) => {
-        if (rec.line <= headerLine) return;
-        if (rec.error) {
-          structuralRejects.push({ line: rec.line, column: WHOLE_ROW, reason: `${rec.error}; close it with a double quote (") or remove the stray quote` });
-          return;
-        }
-        if (isBlankRecord(rec.cells)) {
-          structuralRejects.push({ line: rec.line, column: WHOLE_ROW, reason: rec.cells.length === 1 ? 'blank line' : 'row without any value' });
-          return;
-        }
-        let cells = rec.cells;
-        if (cells.length === n + 1 && cells[n].trim() === '') cells = cells.slice(0, n);
-        if (cells.length !== n) {
-          const fewer = cells.length < n;
-          structuralRejects.push({
-            line: rec.line,
-            column: fewer ? columns[cells.length].name : WHOLE_ROW,
-            reason: `wrong field count: ${fewer ? 'missing field, ' : ''}the row has ${cells.length} fields, the header (line ${headerLine}) has ${n}`,
-          });
-          return;
-        }
-        visit(cells, rec.line);
-      });
-      source((chunk) => {
-        s.push(chunk);
-        return true;
-      });
-      s.end();
-    },
+    forEachRow: (visit) => eachRow((row, line, count) => visit(row.cells(count), line)),
+    forEachRowCells: (visit) => eachRow((row, line) => visit(row, line)),
   };
 }
 
 /** A RawTable over a whole CSV/TSV text (format from the sniffed delimiter unless given). */
-export function readCsvTable(text: string, format?: CatalogFormat): RawTable {
+export function readCsvTable(text: string, format?: CatalogFormat): RowCellsTable {
   const dialect = sniffCsvDialect(text.slice(0, 65536));
   return delimitedRawTable(format ?? (dialect.delimiter === '\t' ? 'tsv' : 'csv'), stringSource(text), dialect);
 }

@@ -7,6 +7,7 @@
 import { InputError } from '../result';
 import { parseDecDeg, parseRaDeg } from '../sky/sexagesimal';
 import { resolveColumns, type AngleUnit, type ResolvedColumns } from './columns';
+import { IdIndex } from './idIndex';
 import type { CatalogReadResult, Cell, ColumnMapping, RawTable, RowReject, Target, TargetRole } from './types';
 
 const NUMBER_TEXT = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
@@ -71,34 +72,123 @@ export function cellNumber(c: Cell, why: CellWhy): number {
   return NaN;
 }
 
-/** RA cell to degrees [0, 360), or NaN with `why`: numbers in the column's unit, or sexagesimal text (hours unless d:m:s or d letters). */
-export function cellRaDeg(c: Cell, unit: AngleUnit, why: CellWhy): number {
-  const v = cellNumber(c, why);
-  if (!Number.isNaN(v)) {
-    let deg: number;
-    if (unit.kind === 'number' && unit.name === 'hour') {
-      if (v < 0 || v >= 24) {
-        why.reason = `RA ${v} h is outside [0, 24) h`;
-        return NaN;
-      }
-      deg = v * 15;
-    } else if (unit.kind === 'sexagesimal') deg = unit.name === 'h:m:s' ? v * 15 : v;
-    else {
-      if (unit.name === 'rad' && (v < 0 || v >= 2 * Math.PI)) {
-        why.reason = `RA ${v} rad is outside [0, 2 pi)`;
-        return NaN;
-      }
-      deg = v * unit.factorDeg;
-    }
-    if (deg >= 0 && deg < 360) return deg;
-    const r = parseRaDeg(deg); // tolerates rounding just outside [0, 360) and wraps it
-    if (r.ok) return r.value;
-    why.reason = unit.kind === 'number' && unit.name !== 'deg' ? `RA ${v} ${unit.name} is outside [0, 360) deg` : r.error;
+/** 10^k for k = 0..15, each an exact double. */
+const POW10 = [1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15];
+const MAX_FAST_DIGITS = 15;
+
+/**
+ * The value of text[start, end) when it is `[+-]digits[.digits]` with 1 to 15 digits in all, else NaN.
+ * Exact: the digits as an integer (below 10^15 < 2^53) and 10^(fraction digits) are both exact doubles, so one
+ * division rounds once, to the double nearest the decimal, which is what Number() gives (the exact-operand
+ * fast path of decimal-to-binary conversion, Clinger 1990). A sign before zero gives -0 as Number('-0') does.
+ */
+function plainDecimal(text: string, start: number, end: number): number {
+  let i = start;
+  let c = text.charCodeAt(i);
+  const negative = c === 45;
+  if (negative || c === 43) i++;
+  let mantissa = 0;
+  let digits = 0;
+  let point = -1; // index of the decimal point, -1 when none
+  for (; i < end; i++) {
+    c = text.charCodeAt(i);
+    if (c >= 48 && c <= 57) {
+      mantissa = mantissa * 10 + (c - 48);
+      digits++;
+    } else if (c === 46 && point < 0) point = i;
+    else return NaN;
+  }
+  if (digits === 0 || digits > MAX_FAST_DIGITS) return NaN;
+  const v = point < 0 ? mantissa : mantissa / POW10[end - 1 - point];
+  return negative ? -v : v;
+}
+
+/** `cellNumber(text.slice(start, end), why)`, without making the string when the cell is empty or a plain decimal. */
+export function textSpanNumber(text: string, start: number, end: number, why: CellWhy): number {
+  if (start === end) {
+    why.reason = null; // an empty cell is a missing value, as in cellNumber
     return NaN;
   }
-  if (why.reason === null || typeof c !== 'string') return NaN;
-  // Text that is not a plain number: sexagesimal.
-  let text = c.trim();
+  const v = plainDecimal(text, start, end);
+  return v === v ? v : cellNumber(text.slice(start, end), why);
+}
+
+/**
+ * The cells of one row, read by column index (0-based). Readers of delimited text hand rows out this way so that
+ * numbers are read straight from the text; `CellArray` gives the same view of a row held as an array of cells.
+ */
+export interface RowCells {
+  /** The cell as `cellNumber` reads it. */
+  number(k: number, why: CellWhy): number;
+  /** The cell as `cellText` shows it. */
+  text(k: number): string;
+  /** True when the cell is text (only text is read as sexagesimal). */
+  isText(k: number): boolean;
+}
+
+/** RowCells over an array of cells; point it at a row with `of` (one object serves every row). */
+export class CellArray implements RowCells {
+  cells: readonly Cell[] = [];
+
+  /** This view, now of `cells`. */
+  of(cells: readonly Cell[]): this {
+    this.cells = cells;
+    return this;
+  }
+
+  number(k: number, why: CellWhy): number {
+    return cellNumber(this.cells[k], why);
+  }
+
+  text(k: number): string {
+    return cellText(this.cells[k]);
+  }
+
+  isText(k: number): boolean {
+    return typeof this.cells[k] === 'string';
+  }
+}
+
+/** RA of cell `k` in degrees [0, 360), or NaN with `why`: numbers in the column's unit, or sexagesimal text (hours unless d:m:s or d letters). */
+export function rowRaDeg(row: RowCells, k: number, unit: AngleUnit, why: CellWhy): number {
+  const v = row.number(k, why);
+  if (!Number.isNaN(v)) return raDegOfNumber(v, unit, why);
+  if (why.reason === null || !row.isText(k)) return NaN;
+  return raDegOfText(row.text(k), unit, why);
+}
+
+/** RA cell to degrees [0, 360), or NaN with `why` (see `rowRaDeg`). */
+export function cellRaDeg(c: Cell, unit: AngleUnit, why: CellWhy): number {
+  return rowRaDeg(new CellArray().of([c]), 0, unit, why);
+}
+
+/** RA in degrees [0, 360) of a number `v` in the column's unit, or NaN with `why`. */
+function raDegOfNumber(v: number, unit: AngleUnit, why: CellWhy): number {
+  let deg: number;
+  if (unit.kind === 'number' && unit.name === 'hour') {
+    if (v < 0 || v >= 24) {
+      why.reason = `RA ${v} h is outside [0, 24) h`;
+      return NaN;
+    }
+    deg = v * 15;
+  } else if (unit.kind === 'sexagesimal') deg = unit.name === 'h:m:s' ? v * 15 : v;
+  else {
+    if (unit.name === 'rad' && (v < 0 || v >= 2 * Math.PI)) {
+      why.reason = `RA ${v} rad is outside [0, 2 pi)`;
+      return NaN;
+    }
+    deg = v * unit.factorDeg;
+  }
+  if (deg >= 0 && deg < 360) return deg;
+  const r = parseRaDeg(deg); // tolerates rounding just outside [0, 360) and wraps it
+  if (r.ok) return r.value;
+  why.reason = unit.kind === 'number' && unit.name !== 'deg' ? `RA ${v} ${unit.name} is outside [0, 360) deg` : r.error;
+  return NaN;
+}
+
+/** RA in degrees [0, 360) of text that is not a plain number (sexagesimal), or NaN with `why`. */
+function raDegOfText(cell: string, unit: AngleUnit, why: CellWhy): number {
+  let text = cell.trim();
   if (!/\d/.test(text)) return NaN; // keeps "... is not a number"
   if (unit.kind === 'sexagesimal' && unit.name === 'd:m:s' && !/[hHdD°]/.test(text)) text = text.replace(/^(\d+)[\s:]+/, '$1d');
   const r = parseRaDeg(text);
@@ -107,17 +197,30 @@ export function cellRaDeg(c: Cell, unit: AngleUnit, why: CellWhy): number {
   return NaN;
 }
 
-/** Dec cell to degrees [-90, 90], or NaN with `why`: numbers in the column's unit, or sexagesimal text (degrees). */
+/** Dec of cell `k` in degrees [-90, 90], or NaN with `why`: numbers in the column's unit, or sexagesimal text (degrees). */
+export function rowDecDeg(row: RowCells, k: number, unit: AngleUnit, why: CellWhy): number {
+  const v = row.number(k, why);
+  if (!Number.isNaN(v)) return decDegOfNumber(v, unit, why);
+  if (why.reason === null || !row.isText(k)) return NaN;
+  return decDegOfText(row.text(k), why);
+}
+
+/** Dec cell to degrees [-90, 90], or NaN with `why` (see `rowDecDeg`). */
 export function cellDecDeg(c: Cell, unit: AngleUnit, why: CellWhy): number {
-  const v = cellNumber(c, why);
-  if (!Number.isNaN(v)) {
-    const deg = unit.kind === 'number' ? v * unit.factorDeg : v;
-    if (deg >= -90 && deg <= 90) return deg;
-    why.reason = `Dec ${v}${unit.kind === 'number' && unit.name !== 'deg' ? ` ${unit.name}` : ''} is outside [-90, 90] deg`;
-    return NaN;
-  }
-  if (why.reason === null || typeof c !== 'string') return NaN;
-  const text = c.trim();
+  return rowDecDeg(new CellArray().of([c]), 0, unit, why);
+}
+
+/** Dec in degrees [-90, 90] of a number `v` in the column's unit, or NaN with `why`. */
+function decDegOfNumber(v: number, unit: AngleUnit, why: CellWhy): number {
+  const deg = unit.kind === 'number' ? v * unit.factorDeg : v;
+  if (deg >= -90 && deg <= 90) return deg;
+  why.reason = `Dec ${v}${unit.kind === 'number' && unit.name !== 'deg' ? ` ${unit.name}` : ''} is outside [-90, 90] deg`;
+  return NaN;
+}
+
+/** Dec in degrees [-90, 90] of text that is not a plain number (sexagesimal), or NaN with `why`. */
+function decDegOfText(cell: string, why: CellWhy): number {
+  const text = cell.trim();
   if (!/\d/.test(text)) return NaN;
   const r = parseDecDeg(text);
   if (r.ok) return r.value;
@@ -141,8 +244,11 @@ export class RowValidator {
   readonly targets: Target[] = [];
   readonly rejects: RowReject[] = [];
   rowsVisited = 0;
-  private readonly firstLineOfId = new Map<string, number>();
+  /** First file line of each id used so far (only rows that became targets claim their id). */
+  private readonly firstLineOfId = new IdIndex();
   private readonly names: string[];
+  /** View used by `visit` for rows given as cell arrays. */
+  private readonly cellArray = new CellArray();
 
   constructor(
     private readonly cols: ResolvedColumns,
@@ -165,26 +271,31 @@ export class RowValidator {
 
   /** Validate one data row (cells in column order) from file line / row `line`. */
   visit(cells: Cell[], line: number): void {
+    this.visitRow(this.cellArray.of(cells), line);
+  }
+
+  /** Validate one data row, read through a RowCells view, from file line / row `line`. */
+  visitRow(row: RowCells, line: number): void {
     this.rowsVisited++;
     const { index, raUnit, decUnit } = this.cols;
     const why = this.why;
     const before = this.rejects.length;
 
-    const id = trimmed(cellText(cells[index.id]));
+    const id = trimmed(row.text(index.id));
     if (id === '') this.reject(line, index.id, 'missing value');
-    const raDeg = this.check(line, index.ra, cellRaDeg(cells[index.ra], raUnit, why));
-    const decDeg = this.check(line, index.dec, cellDecDeg(cells[index.dec], decUnit, why));
-    const mag = this.check(line, index.mag, cellNumber(cells[index.mag], why));
+    const raDeg = this.check(line, index.ra, rowRaDeg(row, index.ra, raUnit, why));
+    const decDeg = this.check(line, index.dec, rowDecDeg(row, index.dec, decUnit, why));
+    const mag = this.check(line, index.mag, row.number(index.mag, why));
 
     let color: number | null = null;
     if (index.color >= 0) {
-      const v = cellNumber(cells[index.color], why);
+      const v = row.number(index.color, why);
       if (!Number.isNaN(v)) color = v;
       else if (why.reason !== null) this.reject(line, index.color, why.reason);
     }
     let priority: number | null = null;
     if (index.priority >= 0) {
-      const v = cellNumber(cells[index.priority], why);
+      const v = row.number(index.priority, why);
       if (!Number.isNaN(v)) {
         if (v > 0) priority = v;
         else this.reject(line, index.priority, `non-positive priority ${v}; a priority is a positive weight (leave it empty for the default)`);
@@ -192,7 +303,7 @@ export class RowValidator {
     }
     let role: TargetRole = 'tracer';
     if (index.role >= 0) {
-      const t = cellText(cells[index.role]).trim();
+      const t = row.text(index.role).trim();
       if (t !== '') {
         const r = t === 'tracer' || t === 'alignment' ? t : ROLES.get(t.toLowerCase());
         if (r) role = r;
@@ -201,7 +312,7 @@ export class RowValidator {
     }
     if (id !== '') {
       const first = this.firstLineOfId.get(id);
-      if (first !== undefined) this.reject(line, index.id, `duplicate id "${id}", first used on line ${first}`);
+      if (first >= 0) this.reject(line, index.id, `duplicate id "${id}", first used on line ${first}`);
       else if (this.rejects.length === before) this.firstLineOfId.set(id, line);
     }
     if (this.rejects.length !== before) return;
@@ -209,10 +320,20 @@ export class RowValidator {
     let extra = NO_EXTRA;
     if (extraIdx.length > 0) {
       extra = {};
-      for (let k = 0; k < extraIdx.length; k++) extra[this.names[extraIdx[k]]] = cellText(cells[extraIdx[k]]);
+      for (let k = 0; k < extraIdx.length; k++) extra[this.names[extraIdx[k]]] = row.text(extraIdx[k]);
     }
     this.targets.push({ id, raDeg, decDeg, mag, color, priority, role, line, extra });
   }
+}
+
+/** A RawTable that can also hand out its rows as RowCells views (delimited text), which saves making a string per cell. */
+export interface RowCellsTable extends RawTable {
+  /** Like `forEachRow`; the view is valid only during the call. */
+  forEachRowCells(visit: (row: RowCells, line: number) => void): void;
+}
+
+function hasRowCells(table: RawTable): table is RowCellsTable {
+  return typeof (table as Partial<RowCellsTable>).forEachRowCells === 'function';
 }
 
 /**
@@ -228,7 +349,8 @@ export function validateTable(table: RawTable, source: string, mapping?: ColumnM
     cols,
     table.columns.map((c) => c.name),
   );
-  table.forEachRow((cells, line) => v.visit(cells, line));
+  if (hasRowCells(table)) table.forEachRowCells((row, line) => v.visitRow(row, line));
+  else table.forEachRow((cells, line) => v.visit(cells, line));
   return finishValidation(table, source, cols, v);
 }
 

@@ -30,7 +30,10 @@ export function coverageSummaryLines(s: SummaryInput): string[] {
   }
   if (s.search) {
     const r = s.search;
-    lines.push(`pointing search: objective ${f2(r.objective.total)} against ${f2(r.startObjective.total)} for the starting layout (tracer weight ${f2(r.objective.yieldWeight)} vs ${f2(r.startObjective.yieldWeight)}); ${r.evaluations} evaluations, ${r.acceptedMoves} moves kept${r.keptStart ? '; starting layout kept' : ''}`);
+    const against = r.startObjective
+      ? `against ${f2(r.startObjective.total)} for the naive starting layout (tracer weight ${f2(r.objective.yieldWeight)} vs ${f2(r.startObjective.yieldWeight)})`
+      : `against at most ${f2(r.startObjectiveUpperBound ?? NaN)} for the naive starting layout (a proven upper bound; tracer weight ${f2(r.objective.yieldWeight)})`;
+    lines.push(`pointing search: objective ${f2(r.objective.total)} ${against}; ${r.evaluations} evaluations, ${r.acceptedMoves} moves kept${r.keptStart ? '; starting layout kept' : ''}`);
   }
   for (const role of ['tracer', 'starlight', 'sky'] as const) {
     const c = s.coverage.roles[role];

@@ -11,7 +11,7 @@ import type { InstrumentProfile } from '../profile/schema';
 import type { Problem } from '../result';
 import { alignmentBoxFits, eligibilityRules, scienceSlitEligible, type EligibilityRules } from '../geometry/eligibility';
 import { chooseAlignmentBoxes, type AlignmentCandidate } from './alignment';
-import { allocateJoint, maskCandidateSet, resolveOneMask, jointObjective, type JointProblem, type JointSolution, type MaskCandidateSet } from './jointAllocation';
+import { allocateJoint, maskCandidateSet, resolveOneMask, jointObjective, type JointOptions, type JointProblem, type JointSolution, type MaskCandidateSet } from './jointAllocation';
 import { maskPointToSkyDeg, projectIndicesToMaskArcsec, unitVectors, type UnitVectors } from './maskTargets';
 import { polygonBounds } from '../geometry/polygon';
 import type { MaskPointing, MaskSolution, Slit } from './types';
@@ -40,7 +40,8 @@ export function allocationContext(profile: InstrumentProfile, galaxy: GalaxyMode
   const [bright, faint] = profile.alignment.magRange;
   const tracers: number[] = [], aligns: number[] = [];
   targets.forEach((t, i) => {
-    if (t.role === 'alignment') { if (t.mag >= bright && t.mag <= faint) aligns.push(i); }
+    // An alignment star with weight 0 was excluded by the weighting rules (exclusion region, force out).
+    if (t.role === 'alignment') { if (weights[i] > 0 && t.mag >= bright && t.mag <= faint) aligns.push(i); }
     else if (weights[i] > 0) tracers.push(i);
   });
   const raDeg = Float64Array.from(targets, (t) => t.raDeg), decDeg = Float64Array.from(targets, (t) => t.decDeg);
@@ -154,9 +155,9 @@ export interface PointingsAllocation {
 }
 
 /** Full allocation for a set of pointings: alignment boxes, joint tracer allocation, minimal slit rows. */
-export function allocateForPointings(ctx: AllocationContext, pointings: readonly MaskPointing[], opts: { maxIterations?: number } = {}): PointingsAllocation {
+export function allocateForPointings(ctx: AllocationContext, pointings: readonly MaskPointing[], opts: Pick<JointOptions, 'maxIterations' | 'steals' | 'relativeGap'> = {}): PointingsAllocation {
   const prepared = prepareMasks(ctx, pointings);
-  const joint = allocateJoint(jointProblemOf(ctx, prepared), { maxIterations: opts.maxIterations });
+  const joint = allocateJoint(jointProblemOf(ctx, prepared), opts);
   const problems = prepared.map((p) => alignmentProblem(ctx, p)).filter((p): p is Problem => p !== null);
   return { prepared, joint, masks: buildMaskSolutions(ctx, prepared, joint.chosen), problems };
 }
@@ -175,5 +176,8 @@ export function reallocateOneMask(ctx: AllocationContext, previous: PointingsAll
   const chosen = resolveOneMask(problem, start, m);
   const joint: JointSolution = { chosen, objective: jointObjective(problem, chosen), upperBound: Infinity, iterations: 0 };
   const problems = prepared.map((p) => alignmentProblem(ctx, p)).filter((p): p is Problem => p !== null);
-  return { prepared, joint, masks: buildMaskSolutions(ctx, prepared, chosen), problems };
+  // Only mask m's rows change: the other masks keep their slits as they were.
+  const masks = previous.masks.slice();
+  masks[m] = buildMaskSolutions(ctx, [prepared[m]], [chosen[m]])[0];
+  return { prepared, joint, masks, problems };
 }

@@ -5,7 +5,7 @@
  * several masks) are subtracted from their weights, every mask is solved exactly, and the multipliers follow a
  * subgradient (Polyak step). Each round's per-mask picks are repaired into a feasible plan (duplicates go to one
  * mask) and improved by best-response sweeps (re-solve one mask exactly with the others fixed, which never lowers
- * the total) and, for plans that beat the best so far and for the final plan, by steal moves (improveBySteals).
+ * the total) and, for the first plan within 0.2 % of the best and for the final plan, by steal moves (improveBySteals).
  * The best feasible plan is returned with the Lagrangian upper bound as an optimality certificate.
  */
 import { buildIntervalIndex, optimumWithoutEach, solveIntervalIndex, type IntervalIndex } from './intervalScheduling';
@@ -125,8 +125,8 @@ export function improveBySteals(problem: JointProblem, chosen: number[][], maxRo
   let total = jointObjective(problem, chosen);
   for (let round = 0; round < maxRounds; round++) {
     let accepted = false;
-    // Holder's loss per object (exact, one pass per mask); after a move only the masks it changed are re-priced
-    // (prices are a guide: every move is verified on the true total).
+    // Holder's loss per object (exact, one pass per mask), priced once per round: prices are a guide, and every
+    // move is verified on the true total, so a price made stale by an earlier move of the round costs nothing.
     const loss = new Float64Array(problem.weights.length);
     holderLosses(problem, chosen, loss);
     for (let a = 0; a < M; a++) {
@@ -158,7 +158,6 @@ export function improveBySteals(problem: JointProblem, chosen: number[][], maxRo
         for (let m = 0; m < M; m++) chosen[m] = trial[m];
         total = v;
         accepted = true;
-        holderLosses(problem, chosen, loss, [a, ...stolenFrom]);
       }
     }
     if (!accepted) break;
@@ -215,7 +214,7 @@ export function allocateJoint(problem: JointProblem, opts: JointOptions = {}): J
   let theta = 1;
   let sinceImproved = 0;
   let stall = 0;
-  let stealBudget = 4;
+  let stealBudget = 1;
   let it = 0;
   for (; it < maxIt; it++) {
     // Relaxed problem: each mask exactly, weights reduced by the multipliers.
@@ -248,7 +247,7 @@ export function allocateJoint(problem: JointProblem, opts: JointOptions = {}): J
     if (improvedUpper || it % 8 === 0) {
       let candidate = improveByBestResponse(problem, repaired, 2);
       let v = jointObjective(problem, candidate);
-      // Steal moves are dearer: only for a few plans that come within 0.2 % of the best so far.
+      // Steal moves are dearer: only for the first plan that comes within 0.2 % of the best so far (and the final one).
       if (steals && stealBudget > 0 && v >= bestValue * (1 - 2e-3)) {
         stealBudget--; candidate = improveBySteals(problem, candidate, 1); v = jointObjective(problem, candidate); }
       if (v > bestValue) { bestValue = v; best = candidate; stall = 0; }
@@ -260,7 +259,13 @@ export function allocateJoint(problem: JointProblem, opts: JointOptions = {}): J
     // Subgradient step on the coupling rows sum_m z_om <= 1.
     let norm2 = 0;
     for (const o of shared) { const g = 1 - use[o]; if (g < 0 || lambda[o] > 0) norm2 += g * g; }
-    if (norm2 === 0) break; // the relaxed picks are feasible and complementary: optimal
+    if (norm2 === 0) {
+      // The relaxed picks are feasible and complementary, hence optimal: keep them (after sweeps, which cannot lose).
+      const candidate = improveByBestResponse(problem, repaired, 1);
+      const v = jointObjective(problem, candidate);
+      if (v > bestValue) { bestValue = v; best = candidate; }
+      break;
+    }
     const step = (theta * (L - bestValue)) / norm2;
     for (const o of shared) {
       const g = 1 - use[o];
@@ -268,7 +273,7 @@ export function allocateJoint(problem: JointProblem, opts: JointOptions = {}): J
     }
     if (theta < 1e-4) break;
   }
-  // Final polish of the best plan with steal moves (cheap next to the rounds above).
+  // Final polish of the best plan with steal moves, unless the bound already proves it within relGap.
   if (steals && bound(upper) - bestValue > relGap * Math.abs(upper)) {
     best = improveBySteals(problem, best);
     bestValue = jointObjective(problem, best);

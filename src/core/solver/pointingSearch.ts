@@ -24,9 +24,11 @@ import { skyToTangentArcsec, tangentCentre, tangentToSkyDeg } from '../sky/tange
 import { sersicBn } from '../sky/sersic';
 import { galaxyRadiusAndAzimuth } from '../coverage/coverage';
 import { allocateForPointings, type AllocationContext, type PointingsAllocation } from './allocateMasks';
-import { allocateGreedyMaskByMask, improveByBestResponse, resolveOneMask, type JointProblem, type MaskCandidateSet } from './jointAllocation';
+import { solveIntervalIndex } from './intervalScheduling';
+import { allocateGreedyMaskByMask, improveByBestResponse, maskCandidateSet, resolveOneMask, type JointProblem, type MaskCandidateSet } from './jointAllocation';
 import { wavelengthOk } from '../geometry/eligibility';
 import { footprintRaster, rasterFits } from './footprintRaster';
+import { maskPointToSkyDeg } from './maskTargets';
 import { chooseSlots, freeSlots, galaxyOnMask, placeStarlightAndSky, starlightSettings, type RowSpan, type StarlightRules, type StarlightSettings, type StarlightTrade } from './starlight';
 import { addStarlight, addTracer, emptyTally, mergeTallies, objectiveContext, objectiveValue, type ObjectiveContext, type ObjectiveValue, type SearchRules, type Tally } from './objective';
 import { makeRng } from '../scenario/random';
@@ -137,8 +139,12 @@ export function evaluatePointings(env: SearchEnv, pointings: readonly MaskPointi
 interface PlanePointing { xi: number; eta: number; paDeg: number }
 
 export interface SearchReport {
-  /** Objective of the starting layout and of the returned one (full joint evaluation of both). */
-  startObjective: ObjectiveValue;
+  /**
+   * Objective of the starting (naive) layout in full, when it was evaluated; when the result beat a proven upper
+   * bound of it instead (objectiveUpperBound), that bound. `objective` is the returned layout's, in full.
+   */
+  startObjective?: ObjectiveValue;
+  startObjectiveUpperBound?: number;
   objective: ObjectiveValue;
   evaluations: number;
   acceptedMoves: number;
@@ -185,57 +191,72 @@ function equalLengthCandidateSet(objects: Int32Array, starts: Float64Array, ends
 }
 
 /** The search's fast model of one mask: its tracer candidates (exact projection, raster footprint test), no boxes. */
-interface ProxyMask {
+export interface ProxyMask {
   set: MaskCandidateSet;
   y: Float64Array;
   alignmentAvailable: number;
 }
 
 /**
- * Search the unlocked masks' pointings (see the module comment). Deterministic for a given plan and `search.seed`.
- * onProgress receives fractions in [0, 1].
+ * The search's fast model of masks for an environment: `proxy(pointing)` gives a mask's tracer candidates (exact
+ * gnomonic projection by dot products of cached unit vectors, the wavelength rule exactly, the footprint by a
+ * conservative column raster; no alignment boxes) and a count of alignment stars whose box fits. With `liberal`
+ * the footprint test is only the bounds box: every truly eligible tracer is then in the set (for upper bounds).
  */
-export function searchPointings(env: SearchEnv, start: readonly MaskPointing[], onProgress: (fraction: number, message: string) => void = () => {}): SearchResult {
+export function proxyModel(env: SearchEnv): (p: MaskPointing, liberal?: boolean) => ProxyMask {
   const { ctx } = env;
-  const rules = (env.plan.search ?? {}) as SearchRules;
-  const startEval = evaluatePointings(env, start);
-  const free = start.map((p, i) => (p.locked ? -1 : i)).filter((i) => i >= 0);
-  const keep = (evaluations: number, accepted: number): SearchResult => ({
-    pointings: start.slice(), masks: startEval.masks, allocation: startEval.allocation, starlightWarnings: startEval.warnings,
-    report: { startObjective: startEval.value, objective: startEval.value, evaluations, acceptedMoves: accepted, keptStart: true },
-  });
-  if (rules.enabled === false || free.length === 0) return keep(1, 0);
-  const rng = makeRng(rules.seed ?? 1);
-  const levels = rules.levels ?? 3, passes = rules.passes ?? 2, randomTrials = rules.randomTrials ?? 1;
-  const g = ctx.galaxy, profile = ctx.profile;
-  const gc = tangentCentre(g.raDeg, g.decDeg);
+  const profile = ctx.profile;
   const b = polygonBounds(profile.footprint);
-  const halfDiag = Math.hypot(Math.max(-b.minX, b.maxX), Math.max(-b.minY, b.maxY));
-  const halfLong = Math.max(b.maxY - b.minY, b.maxX - b.minX) / 2;
   const L = profile.slits.minLengthArcsec, gap = profile.slits.gapArcsec, box = profile.alignment.boxSizeArcsec;
   const slitRaster = footprintRaster(profile.footprint, profile.slits.widthArcsec / 2, L / 2);
   const boxRaster = footprintRaster(profile.footprint, box / 2, box / 2);
   const uv = unitVectors(ctx);
   const bufObj = new Int32Array(ctx.tracerIndices.length), bufY = new Float64Array(ctx.tracerIndices.length);
   if (ctx.tracerIndices.length >= 1048576) throw new RangeError('pointing search: more than 2^20 tracer candidates');
+  // Tracers binned in square cells of the galaxy's tangent plane, so a trial only visits cells near the mask.
+  const cell = 60, gc = tangentCentre(ctx.galaxy.raDeg, ctx.galaxy.decDeg);
+  const cells = new Map<number, number[]>();
+  const key = (cx: number, cy: number) => (cx + 32768) * 65536 + (cy + 32768);
+  for (const i of ctx.tracerIndices) {
+    const xi = env.xi[i], eta = env.eta[i];
+    const k = Number.isFinite(xi) && Number.isFinite(eta) && Math.abs(xi) < 1e6 && Math.abs(eta) < 1e6 ? key(Math.floor(xi / cell), Math.floor(eta / cell)) : -1;
+    let list = cells.get(k);
+    if (!list) cells.set(k, (list = []));
+    list.push(i);
+  }
+  const cellList = [...cells.entries()].map(([k, list]) => ({ k, list: Int32Array.from(list), cxi: (Math.floor(k / 65536) - 32768 + 0.5) * cell, ceta: ((k % 65536) - 32768 + 0.5) * cell }));
+  // A cell is visited when its centre, in the mask frame, lies within the footprint bounds grown by the cell's
+  // half-diagonal and a margin for the difference between the galaxy's and the mask's tangent planes.
+  const grow = cell * Math.SQRT1_2 + 30;
 
-  /** Exact mask-frame (x, y) of target i about centre unit vectors (c, e, n) at PA (sin, cos); null behind the plane. */
-  const proxyMask = (p: MaskPointing): ProxyMask => {
+  return (p: MaskPointing, liberal = false): ProxyMask => {
     const a0 = p.raDeg * RAD_PER_DEG, d0 = p.decDeg * RAD_PER_DEG;
     const ca = Math.cos(a0), sa = Math.sin(a0), cd = Math.cos(d0), sd = Math.sin(d0);
     const cx = cd * ca, cy = cd * sa, cz = sd, ex = -sa, ey = ca, nx = -sd * ca, ny = -sd * sa, nz = cd;
     const sp = Math.sin(p.paDeg * RAD_PER_DEG), cp = Math.cos(p.paDeg * RAD_PER_DEG);
+    const pc = skyToTangentArcsec(gc, p.raDeg, p.decDeg);
+    // The mask's +y direction as seen in the galaxy's tangent plane (North turns between the two tangent points).
+    const up = maskPointToSkyDeg(p, 0, 60), pu = skyToTangentArcsec(gc, up.raDeg, up.decDeg);
+    const upA = pc && pu ? Math.atan2(pu.xiArcsec - pc.xiArcsec, pu.etaArcsec - pc.etaArcsec) : p.paDeg * RAD_PER_DEG;
+    const gsp = Math.sin(upA), gcp = Math.cos(upA);
     // Candidates in y order (so that the interval index's sort by end is a single pass), no allocation per target.
     let n = 0;
-    for (const i of ctx.tracerIndices) {
+    for (const c of cellList) {
+      if (pc && c.k >= 0) {
+        const dxi = c.cxi - pc.xiArcsec, deta = c.ceta - pc.etaArcsec;
+        const mx = dxi * gcp - deta * gsp, my = dxi * gsp + deta * gcp;
+        if (mx < b.minX - grow || mx > b.maxX + grow || my < b.minY - grow || my > b.maxY + grow) continue;
+      }
+      for (const i of c.list) {
       const px = uv[3 * i], py = uv[3 * i + 1], pz = uv[3 * i + 2];
       const cosC = px * cx + py * cy + pz * cz;
       if (cosC < 0.9) continue; // farther than ~25 degrees: never on a mask
       const xi = ((px * ex + py * ey) / cosC) * ARCSEC_PER_RAD, eta = ((px * nx + py * ny + pz * nz) / cosC) * ARCSEC_PER_RAD;
       const x = xi * cp - eta * sp, y = xi * sp + eta * cp;
       if (x < b.minX || x > b.maxX || y < b.minY || y > b.maxY) continue;
-      if (!wavelengthOk(ctx.rules, x) || !rasterFits(slitRaster, x, y)) continue;
+      if (!wavelengthOk(ctx.rules, x) || (!liberal && !rasterFits(slitRaster, x, y))) continue;
       bufObj[n] = i; bufY[n] = y; n++;
+      }
     }
     // Sort by y with a native numeric sort of packed keys: y quantised to 1e-4 arcsec (ordering only), index in the low 20 bits.
     const keys = new Float64Array(n);
@@ -255,8 +276,37 @@ export function searchPointings(env: SearchEnv, start: readonly MaskPointing[], 
       const xi = ((px * ex + py * ey) / cosC) * ARCSEC_PER_RAD, eta = ((px * nx + py * ny + pz * nz) / cosC) * ARCSEC_PER_RAD;
       if (rasterFits(boxRaster, xi * cp - eta * sp, xi * sp + eta * cp)) alignmentAvailable++;
     }
-    return { set: equalLengthCandidateSet(objects, starts, ends), y, alignmentAvailable };
+    // The liberal set feeds a proven bound: its interval index is built exactly (sorted by end), not from the packed keys.
+    return { set: liberal ? maskCandidateSet(objects, starts, ends) : equalLengthCandidateSet(objects, starts, ends), y, alignmentAvailable };
   };
+}
+
+/**
+ * Search the unlocked masks' pointings (see the module comment). Deterministic for a given plan and `search.seed`.
+ * onProgress receives fractions in [0, 1].
+ */
+export function searchPointings(env: SearchEnv, start: readonly MaskPointing[], onProgress: (fraction: number, message: string) => void = () => {}): SearchResult {
+  const { ctx } = env;
+  const rules = (env.plan.search ?? {}) as SearchRules;
+  const free = start.map((p, i) => (p.locked ? -1 : i)).filter((i) => i >= 0);
+  let startEvalCache: ReturnType<typeof evaluatePointings> | null = null;
+  const startEval = () => (startEvalCache ??= evaluatePointings(env, start));
+  const keep = (evaluations: number, accepted: number): SearchResult => {
+    const e = startEval();
+    return {
+      pointings: start.slice(), masks: e.masks, allocation: e.allocation, starlightWarnings: e.warnings,
+      report: { startObjective: e.value, objective: e.value, evaluations, acceptedMoves: accepted, keptStart: true },
+    };
+  };
+  if (rules.enabled === false || free.length === 0) return keep(1, 0);
+  const rng = makeRng(rules.seed ?? 1);
+  const levels = rules.levels ?? 3, passes = rules.passes ?? 2, randomTrials = rules.randomTrials ?? 1;
+  const g = ctx.galaxy, profile = ctx.profile;
+  const gc = tangentCentre(g.raDeg, g.decDeg);
+  const b = polygonBounds(profile.footprint);
+  const halfDiag = Math.hypot(Math.max(-b.minX, b.maxX), Math.max(-b.minY, b.maxY));
+  const halfLong = Math.max(b.maxY - b.minY, b.maxX - b.minX) / 2;
+  const proxyMask = proxyModel(env);
 
   // Current state: plane pointings, proxy masks, joint selection over the proxies, per-mask tallies.
   const plane: PlanePointing[] = start.map((p) => {
@@ -264,7 +314,7 @@ export function searchPointings(env: SearchEnv, start: readonly MaskPointing[], 
     return { xi: t.xiArcsec, eta: t.etaArcsec, paDeg: p.paDeg };
   });
   const pointings = start.map((p) => ({ ...p }));
-  let proxies = pointings.map(proxyMask);
+  let proxies = pointings.map((p) => proxyMask(p));
   const problemOf = (ps: readonly ProxyMask[]): JointProblem => ({ weights: ctx.weights, masks: ps.map((p) => p.set) });
   let chosen = improveByBestResponse(problemOf(proxies), allocateGreedyMaskByMask(problemOf(proxies)).chosen, 3);
   const tallies = proxies.map((p, m) => proxyTally(env, pointings[m], p, chosen[m]));
@@ -345,11 +395,40 @@ export function searchPointings(env: SearchEnv, start: readonly MaskPointing[], 
   const final = evaluatePointings(env, pointings);
   evaluations++;
   onProgress(1, 'pointing search done');
-  const fewerProblems = final.allocation.problems.length < startEval.allocation.problems.length;
-  if (fewerProblems || (final.allocation.problems.length === startEval.allocation.problems.length && final.value.total > startEval.value.total)) {
-    return { pointings, masks: final.masks, allocation: final.allocation, starlightWarnings: final.warnings, report: { startObjective: startEval.value, objective: final.value, evaluations, acceptedMoves: accepted, keptStart: false } };
+  const won = (report: Partial<SearchReport>): SearchResult => ({
+    pointings, masks: final.masks, allocation: final.allocation, starlightWarnings: final.warnings,
+    report: { objective: final.value, evaluations, acceptedMoves: accepted, keptStart: false, ...report },
+  });
+  // A proven bound on the start's objective often settles the comparison without allocating the start in full:
+  // with no alignment problem left, beating the bound beats the start whatever its problems.
+  const finalProblems = final.allocation.problems.length;
+  if (finalProblems === 0) {
+    const upperBound = objectiveUpperBound(env, start.map((p) => proxyMask(p, true).set));
+    if (final.value.total > upperBound) return won({ startObjectiveUpperBound: upperBound });
   }
+  const e = startEval();
+  evaluations++;
+  if (finalProblems < e.allocation.problems.length || (finalProblems === e.allocation.problems.length && final.value.total > e.value.total)) return won({ startObjective: e.value });
   return keep(evaluations, accepted);
+}
+
+/**
+ * A proven upper bound on the objective of pointings from candidate sets that contain every tracer eligible on each
+ * mask (centre inside the footprint's bounds and the wavelength rule: necessary conditions of eligibility, so a
+ * superset): each mask's exact optimum alone bounds its share of the joint tracer weight (dropping "each object once",
+ * alignment boxes and the footprint's shape can only raise the optimum; trading tracers for starlight only lowers it),
+ * and every coverage term is bounded by its maximum (all bins and sectors full, every starlight bin, full reach).
+ */
+export function objectiveUpperBound(env: SearchEnv, supersets: readonly MaskCandidateSet[]): number {
+  let y = 0;
+  for (const set of supersets) {
+    const w = new Float64Array(set.objects.length);
+    for (let k = 0; k < w.length; k++) w[k] = env.ctx.weights[set.objects[k]];
+    y += solveIntervalIndex(set.index, w).total;
+  }
+  const o = env.objective, W = o.unitWeight, a = o.weights;
+  const t = emptyTally(o);
+  return y + W * (a.aBin * t.tracerBins.length + a.aSector * t.tracerSectors.length + (o.starlightReachRe > 0 ? a.aStarlightBin * t.starlightBins.length + a.aStarlightReach : 0));
 }
 
 /** Tally of one proxy mask with a selection: its tracers, and its starlight slits estimated on the free space. */

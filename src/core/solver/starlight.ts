@@ -401,11 +401,18 @@ function displaceForStarlight(w: MaskWork, rules: EligibilityRules, s: Starlight
   const windows: Span[] = [];
   for (const L of lengths) {
     const from = Math.max(rules.bounds.minY, w.g.gyArcsec - (s.maxRe * re) / sq - L), to = Math.min(rules.bounds.maxY - L, w.g.gyArcsec + (s.maxRe * re) / sq);
-    for (let a = from; a <= to; a += L / 3) windows.push({ lo: a, hi: a + L });
+    for (let a = from; a <= to; a += L / 2) windows.push({ lo: a, hi: a + L });
   }
   // Starlight options of each window (the galaxy model does not change while tracers are traded), computed when first needed.
   const options = new Map<number, SlotChoice[]>();
+  const noSky = { ...s, skyPerMask: 0 };
+  const nBins = Math.ceil(s.reachRe - 1e-12);
   while (w.starlight.length < s.maxPerMask) {
+    // Nothing left to gain once every starlight bin is filled and the goal radius is reached.
+    let maxOpenBin = -1;
+    for (let b = 0; b < nBins; b++) if (!bins.has(b)) maxOpenBin = b;
+    const reachDone = reachNow() >= s.reachRe;
+    if (maxOpenBin < 0 && reachDone) return;
     const occupied: { r: Slit | null; span: Span }[] = w.base.map((r) => ({ r, span: coreSpan(r, minHalf) }));
     for (const c of w.starlight) occupied.push({ r: null, span: { lo: c.y0, hi: c.y1 } });
     for (const c of w.sky) occupied.push({ r: null, span: { lo: c.y0, hi: c.y1 } });
@@ -422,8 +429,11 @@ function displaceForStarlight(w: MaskWork, rules: EligibilityRules, s: Starlight
         cost += o.r.priority;
       }
       if (blocked || !blockers.length || cost >= maxGain) continue;
+      // R >= sqrt(q) x (distance along y to the galaxy centre): a window that cannot reach an open bin gains nothing.
+      const dy = Math.max(0, lo - w.g.gyArcsec, w.g.gyArcsec - hi);
+      if (reachDone && (sq * dy) / re >= maxOpenBin + 1) continue;
       let opts = options.get(k);
-      if (!opts) options.set(k, (opts = evaluateSlot(w.g, rules, windows[k], s, 3, 6).options));
+      if (!opts) options.set(k, (opts = evaluateSlot(w.g, rules, windows[k], noSky, 3, 10).options));
       for (const c of opts) {
         const gain = trade.unitWeight * ((bins.has(Math.floor(c.rRe)) ? 0 : trade.aStarlightBin) + (trade.aStarlightReach * Math.max(0, Math.min(c.rRe, s.reachRe) - Math.min(reach, s.reachRe))) / s.reachRe);
         const net = gain - cost;

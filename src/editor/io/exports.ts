@@ -36,10 +36,18 @@ export function outputFolderFiles(result: SolveResult, profile: InstrumentProfil
   ];
 }
 
+/** Names of the output-folder files, in the order outputFolderFiles gives them. */
+export const FOLDER_FILES = ['masks.csv', 'slits.csv', 'coverage.json', 'solved.plan.json', 'catalog-report.csv'] as const;
+
+/** File name of a mask's SVG chart. */
+export function maskChartName(maskId: string): string {
+  return `mask-${maskId.replace(/[^A-Za-z0-9_.-]+/g, '_')}.svg`;
+}
+
 /** One SVG chart per mask. */
 export function maskChartFiles(result: SolveResult, profile: InstrumentProfile, reachRe: number): ExportFile[] {
   return result.masks.map((ms) => ({
-    name: `mask-${ms.mask.id.replace(/[^A-Za-z0-9_.-]+/g, '_')}.svg`,
+    name: maskChartName(ms.mask.id),
     content: maskChartSvg(ms, result.galaxy, profile, reachRe),
     mime: 'image/svg+xml',
   }));

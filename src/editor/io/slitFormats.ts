@@ -8,6 +8,8 @@ import { writeJsonTable } from '../../core/export/jsonWriter';
 import type { SolveResult } from '../worker/protocol';
 import type { ExportFile } from './exports';
 
+export const FORMAT_FILES = ['slits.ecsv', 'slits.vot', 'slits.fits', 'slits.json'] as const;
+
 export function slitListFiles(result: SolveResult, profile: InstrumentProfile): ExportFile[] {
   const slits = result.masks.flatMap((m) => m.slits);
   const masks = result.masks.map((m) => ({ maskId: m.mask.id, instrument: profile.id, raDeg: m.mask.raDeg, decDeg: m.mask.decDeg, paDeg: m.mask.paDeg }));

@@ -31,7 +31,7 @@ export function useBackdrop(c: EditorController): BackdropState {
       const bytes = new Uint8Array(await file.arrayBuffer());
       const r = readFitsImage(bytes);
       if (!r.ok) {
-        c.notify('error', `${file.name} cannot be placed on the sky: ${r.error}`, [
+        c.notify('error', `${file.name} cannot be placed on the sky (no usable WCS)`, [
           { where: file.name, what: r.error, fix: 'use an image with a TAN WCS (CTYPE1 RA---TAN, CTYPE2 DEC--TAN, CRVAL, CRPIX and CD or CDELT/PC)' },
         ]);
         return;
@@ -49,7 +49,7 @@ export function BackdropPanel({ backdrop }: { c: EditorController; backdrop: Bac
   const s = backdrop.scaling;
   const set = (p: Partial<Scaling>) => backdrop.setScaling({ ...s, ...p });
   return (
-    <Panel title="Sky image" testId="panel-backdrop" startOpen={!!backdrop.image}>
+    <Panel key={backdrop.name ?? "none"} title="Sky image" testId="panel-backdrop" startOpen={!!backdrop.image}>
       {!backdrop.image ? (
         <p className="dim small">Open or drop a FITS image of the field (with a TAN WCS) to see it under the plan.</p>
       ) : (

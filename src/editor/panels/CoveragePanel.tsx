@@ -46,7 +46,7 @@ function RadialBars({ tracer, starlight }: { tracer: RoleCoverage; starlight: Ro
       {Array.from({ length: nBins + 1 }, (_, i) => i).filter((i) => i % Math.max(1, Math.ceil(nBins / 10)) === 0).map((i) => (
         <text key={i} x={left + i * bw} y={h - 4} textAnchor="middle" className="axis">{i}</text>
       ))}
-      <text x={W - 6} y={h - 4} textAnchor="end" className="axis">R/Re</text>
+      <text x={W - 6} y={12} textAnchor="end" className="axis">per 1 Re bin of R/Re</text>
     </svg>
   );
 }

@@ -2,8 +2,8 @@
 import { useState } from 'react';
 import type { EditorController } from '../controller';
 import { downloadFile } from '../io/download';
-import { maskChartFiles, outputFolderFiles, type ExportFile } from '../io/exports';
-import { slitListFiles } from '../io/slitFormats';
+import { FOLDER_FILES, maskChartFiles, maskChartName, outputFolderFiles, type ExportFile } from '../io/exports';
+import { FORMAT_FILES, slitListFiles } from '../io/slitFormats';
 
 export function ExportMenu({ c }: { c: EditorController }) {
   const [open, setOpen] = useState(false);
@@ -20,7 +20,12 @@ export function ExportMenu({ c }: { c: EditorController }) {
     };
   };
   const save = (list: ExportFile[]) => list.forEach((f) => downloadFile(f.name, f.content, f.mime));
-  const names = ready ? files() : null;
+  // Only the names are needed to draw the menu; file contents are made when a file is asked for.
+  const names = ready && open ? {
+    folder: FOLDER_FILES.map((name) => ({ name })),
+    formats: FORMAT_FILES.map((name) => ({ name })),
+    charts: sol!.result.masks.map((m) => ({ name: maskChartName(m.mask.id) })),
+  } : null;
   return (
     <div className="menu">
       <button disabled={!ready} onClick={() => setOpen(!open)} data-testid="export-menu" aria-expanded={open}>Export ▾</button>

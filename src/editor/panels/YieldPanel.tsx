@@ -38,6 +38,11 @@ export function YieldPanel({ c }: { c: EditorController }) {
       {sol && sol.result.warnings.length > 0 && (
         <ul className="warnings" data-testid="solve-warnings">{sol.result.warnings.map((w, i) => <li key={i}>{w}</li>)}</ul>
       )}
+      {sol && Array.isArray(sol.result.extra.problems) && sol.result.extra.problems.length > 0 && (
+        <ul className="warnings problems" data-testid="solve-problems">
+          {(sol.result.extra.problems as { where: string; what: string; fix?: string }[]).map((p, i) => <li key={i}>{p.where}: {p.what}{p.fix ? ` (${p.fix})` : ''}</li>)}
+        </ul>
+      )}
       {c.session.solveError && (
         <div className="error" data-testid="solve-error">
           {c.session.solveError.message}

@@ -454,14 +454,14 @@ const HINT = 'drag to pan · wheel to zoom · drag a mask · round handle rotate
 /** North and East arrows for a view drawn North up, East left. */
 function Compass() {
   return (
-    <svg className="compass" width={96} height={96} viewBox="-48 -48 96 96" data-testid="compass" aria-label="North up, East left">
-      <circle r={46} fill="rgba(10,13,18,0.6)" />
+    <svg className="compass" width={104} height={104} viewBox="-52 -52 104 104" data-testid="compass" aria-label="North up, East left">
+      <circle r={50} fill="rgba(10,13,18,0.6)" />
       <g stroke={INK.compass} strokeWidth={2} fill={INK.compass}>
         <line x1={0} y1={0} x2={0} y2={-30} /><polygon points="-5,-28 5,-28 0,-38" />
         <line x1={0} y1={0} x2={-30} y2={0} /><polygon points="-28,-5 -28,5 -38,0" />
       </g>
-      <text x={0} y={-40} textAnchor="middle" fontSize={12} fontWeight="bold" fill={INK.compass}>N</text>
-      <text x={-42} y={4} textAnchor="end" fontSize={12} fontWeight="bold" fill={INK.compass} dx={2}>E</text>
+      <text x={0} y={-41} textAnchor="middle" fontSize={12} fontWeight="bold" fill={INK.compass}>N</text>
+      <text x={-44} y={4} textAnchor="middle" fontSize={12} fontWeight="bold" fill={INK.compass}>E</text>
     </svg>
   );
 }

@@ -1,8 +1,8 @@
 /**
  * Fast re-solve while a mask is dragged: the pipeline's own stages (src/core/plan/pipeline.ts), with the
  * allocation of the last solve kept, so moving one mask re-prepares and re-allocates only that mask
- * (solver/allocateMasks.ts `reallocateOneMask`: the other masks keep their tracers), then starlight and
- * sky slits, lengthening and coverage as the pipeline does them. The result is a live preview; when the
+ * (solver/allocateMasks.ts `reallocateOneMask`: the other masks keep their tracers), then redoes starlight and
+ * sky slits and lengthening on that mask only, and coverage over all. The result is a live preview; when the
  * drag ends, the editor solves the committed plan with the full `solvePlan`, so the numbers it keeps
  * are exactly the pipeline's.
  */
@@ -14,7 +14,7 @@ import { wrap360Deg } from '../../core/sky/angles';
 import { addStarlightAndSky, lengthenMasks, placeMasks, solvedPlanFile, targetWeights } from '../../core/plan/pipeline';
 import { allocateForPointings, allocationContext, reallocateOneMask, type AllocationContext, type PointingsAllocation } from '../../core/solver/allocateMasks';
 import { coverageReport } from '../../core/coverage/coverage';
-import type { MaskPointing } from '../../core/solver/types';
+import type { MaskPointing, MaskSolution } from '../../core/solver/types';
 import type { SolveResult } from './protocol';
 
 interface LiveCache {
@@ -25,6 +25,8 @@ interface LiveCache {
   weightWarnings: string[];
   pointings: MaskPointing[];
   alloc: PointingsAllocation;
+  /** Every mask after starlight, sky and lengthening, for the current allocation. */
+  finished: MaskSolution[] | null;
 }
 
 let cache: LiveCache | null = null;
@@ -46,6 +48,8 @@ function givenPointings(plan: PlanFile): MaskPointing[] | null {
 
 /** Live solve of `plan` (every placed mask kept where it is); `inputs` identifies the catalog and profile. */
 export function liveSolve(plan: PlanFile, profile: InstrumentProfile, catalog: CatalogReadResult, inputs: object): SolveResult {
+  const t0 = performance.now();
+  let moved = -1;
   const key = planKey(plan);
   if (!cache || cache.key !== key || cache.inputs !== inputs) {
     const galaxy = galaxyModel(plan);
@@ -55,7 +59,7 @@ export function liveSolve(plan: PlanFile, profile: InstrumentProfile, catalog: C
     // Every mask placed (the case while dragging): allocate for the pointings as given, without a search.
     const given = givenPointings(plan);
     const placed = given ? { pointings: given, allocation: allocateForPointings(ctx, given) } : placeMasks(plan, galaxy, profile, ctx);
-    cache = { key, inputs, ctx, galaxy, weightWarnings, pointings: placed.pointings, alloc: placed.allocation };
+    cache = { key, inputs, ctx, galaxy, weightWarnings, pointings: placed.pointings, alloc: placed.allocation, finished: null };
   } else {
     const c = cache;
     const next = givenPointings(plan);
@@ -63,20 +67,45 @@ export function liveSolve(plan: PlanFile, profile: InstrumentProfile, catalog: C
       const placed = placeMasks(plan, c.galaxy, profile, c.ctx);
       c.pointings = placed.pointings;
       c.alloc = placed.allocation;
+      c.finished = null;
     } else {
       const changed = next.map((p, i) => (samePointing(p, c.pointings[i]) ? -1 : i)).filter((i) => i >= 0);
-      if (changed.length === 1) c.alloc = reallocateOneMask(c.ctx, c.alloc, changed[0], next[changed[0]]);
-      else if (changed.length > 1) c.alloc = allocateForPointings(c.ctx, next);
+      if (changed.length === 1) {
+        c.alloc = reallocateOneMask(c.ctx, c.alloc, changed[0], next[changed[0]]);
+        moved = changed[0];
+      } else if (changed.length > 1) {
+        c.alloc = allocateForPointings(c.ctx, next);
+        c.finished = null;
+      }
       c.pointings = next;
     }
   }
+  const t1 = performance.now();
   const warnings = [...cache.weightWarnings];
-  let masks = addStarlightAndSky(plan, cache.ctx, cache.alloc.masks, warnings);
-  masks = lengthenMasks(plan, profile, masks);
+  let masks: MaskSolution[];
+  let t2: number;
+  if (cache.finished && moved >= 0) {
+    // One mask moved and the others kept their tracers: redo starlight, sky and lengthening on that mask only
+    // (the full solve after the drag redoes them on all masks together).
+    const one = addStarlightAndSky(plan, cache.ctx, [cache.alloc.masks[moved]], warnings);
+    t2 = performance.now();
+    masks = cache.finished.slice();
+    masks[moved] = lengthenMasks(plan, profile, one)[0];
+  } else if (cache.finished && moved < 0) {
+    t2 = performance.now();
+    masks = cache.finished;
+  } else {
+    masks = addStarlightAndSky(plan, cache.ctx, cache.alloc.masks, warnings);
+    t2 = performance.now();
+    masks = lengthenMasks(plan, profile, masks);
+  }
+  cache.finished = masks;
+  const t3 = performance.now();
   const coverage = coverageReport(cache.galaxy, plan.goals, masks.flatMap((m) => m.slits));
+  const stageMs = { allocation: t1 - t0, starlightAndSky: t2 - t1, lengthening: t3 - t2, coverage: performance.now() - t3 };
   return {
     plan: solvedPlanFile(plan, cache.pointings), galaxy: cache.galaxy, masks, coverage, warnings,
-    extra: { problems: cache.alloc.problems, preview: true },
+    extra: { problems: cache.alloc.problems, preview: true, stageMs },
   };
 }
 
