@@ -25,7 +25,7 @@ export const COMMANDS: Record<string, CommandEntry> = {
     load: () => import('./commands/export'),
   },
   sky: {
-    usage: 'haloweave sky PLAN --from DATE --to DATE [--max-airmass X] [--json]',
+    usage: 'haloweave sky PLAN --from DATE --to DATE [--max-airmass X] [--step-min N] [--json [--curve]]',
     summary: "observability of the galaxy from the profile's site, one row a night",
     load: () => import('./commands/sky'),
   },

@@ -350,7 +350,7 @@ def _strictly_inside_convex(p, quad, tol):
         if L == 0.0:
             return False
         signs.append(_cross(a, b, p) / L)
-    return all(s > tol for s in signs) or all(s < -tol for s in signs)
+    return all(sg > tol for sg in signs) or all(sg < -tol for sg in signs)
 
 
 # ---- the wavelength rule ------------------------------------------------------------------------------------------
@@ -464,9 +464,9 @@ def check_coverage(cov, galaxy, goals, slit_rows, report):
         if not isinstance(sectors, list) or len(sectors) != 8:
             report.add(rwhere, "coverage", f"needs 8 azimuthal sectors, found {len(sectors) if isinstance(sectors, list) else 'none'}")
         else:
-            span = max((s.get("toDeg", 0) for s in sectors if isinstance(s, dict)), default=0)
-            widths_ok = all(isinstance(s, dict) and abs((s.get("toDeg", 0) - s.get("fromDeg", 0)) - 45) < 1e-9
-                            for s in sectors)
+            span = max((sec.get("toDeg", 0) for sec in sectors if isinstance(sec, dict)), default=0)
+            widths_ok = all(isinstance(sec, dict) and abs((sec.get("toDeg", 0) - sec.get("fromDeg", 0)) - 45) < 1e-9
+                            for sec in sectors)
             if not widths_ok:
                 report.add(rwhere, "coverage", "sectors must be 45 degrees wide")
             if folded is False and abs(span - 360) > 1e-9:
@@ -477,7 +477,7 @@ def check_coverage(cov, galaxy, goals, slit_rows, report):
             else:
                 # a sector edge at 0 = 360: an azimuth within tolerance below 360 may be counted in the first sector
                 wrapped = [p - 360.0 if p > 360.0 - BIN_EDGE_TOL else p for p in phis]
-                check_bins(f"{role} sector", [s for s in sectors if isinstance(s, dict)], wrapped, "fromDeg", "toDeg", rwhere, report)
+                check_bins(f"{role} sector", [sec for sec in sectors if isinstance(sec, dict)], wrapped, "fromDeg", "toDeg", rwhere, report)
         reach = rc.get("maxReachRe")
         expected = max(r_re) if r_re else 0.0
         if not isinstance(reach, (int, float)):

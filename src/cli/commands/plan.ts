@@ -2,25 +2,46 @@
 import type { CliIO } from '../io';
 import { optionText, parseArgs, unknownOptions } from '../args';
 import { InputError } from '../../core/result';
-import { solvePlan, type PlanSolution } from '../../core/plan/pipeline';
-import { loadPlanInputs } from '../loadPlanInputs';
-import { planOutputFiles, writeOutputFolder } from '../outputFolder';
-import { coverageSummaryLines, excludedTargetsCsv } from '../../core/coverage/summary';
-import { formatRefractionSummary } from '../../core/observe/refractionReport';
+import { solvePlan } from '../../core/plan/pipeline';
+import { loadPlanInputs, type LoadedPlan } from '../loadPlanInputs';
+import { planOutputFiles, writeOutputFolder, type OutputFolderOptions } from '../outputFolder';
+import { excludedTargetsCsv, planSummaryLines } from '../../core/coverage/summary';
 
 const USAGE = 'usage: haloweave plan PLAN --out DIR [--quiet]';
 
-/** Plain-text summary of a solution: slits per mask and the tracer weight allocated (coverage follows from coverage/summary.ts). */
-export function solutionSummary(solution: PlanSolution): string[] {
-  const lines: string[] = [];
-  for (const s of solution.stats.masks) {
-    const m = solution.masks.find((x) => x.mask.id === s.maskId)!;
-    const byRole = (r: string) => m.slits.filter((x) => x.role === r).length;
-    lines.push(`mask ${s.maskId}: ra ${m.mask.raDeg.toFixed(5)} dec ${m.mask.decDeg.toFixed(5)} pa ${m.mask.paDeg.toFixed(2)} deg; ${byRole('tracer')} tracer, ${byRole('starlight')} starlight, ${byRole('sky')} sky slits, ${byRole('alignment')} alignment boxes (${s.eligibleTracers} eligible tracers)`);
-  }
-  const ub = solution.stats.tracerWeightUpperBound;
-  lines.push(`tracer weight allocated: ${solution.stats.tracerWeight.toFixed(3)}${Number.isFinite(ub) ? ` (upper bound for these pointings ${ub.toFixed(3)})` : ''}`);
-  return lines;
+/** How solveAndWrite runs: progress shown or not, and files written into the same atomic folder as the outputs. */
+export interface SolveAndWriteOptions extends OutputFolderOptions {
+  quiet?: boolean;
+  /** Extra files (name -> text) written into the output folder with the outputs, e.g. the demo's own inputs. */
+  extraFiles?: Record<string, string>;
+  /** The name, among extraFiles, of the plan's catalog copied into the folder: solved.plan.json then names it. */
+  catalogInFolder?: string;
+}
+
+/** Solve loaded plan inputs, write the output folder `out` atomically (outputs plus extra files) and print the summary. */
+export function solveAndWrite(loaded: LoadedPlan, out: string, io: CliIO, opts: SolveAndWriteOptions = {}): number {
+  const c = loaded.catalog;
+  io.err(`haloweave plan: catalog ${c.source} (${c.format}): ${c.rowsRead} rows read, ${c.targets.length} used, ${c.rowsRead - c.targets.length} rejected${c.rejects.length ? ` (${c.rejects.length} problems listed in ${out}/catalog-report.csv)` : ''}`);
+  let lastShown = -1;
+  const solution = solvePlan(loaded, {
+    onProgress: (fraction, message) => {
+      const pct = Math.round(fraction * 100);
+      if (opts.quiet || pct === lastShown) return;
+      lastShown = pct;
+      io.err(`haloweave plan: [${String(pct).padStart(3)}%] ${message}`);
+    },
+  });
+  if (solution.problems.length) throw new InputError(solution.problems);
+  for (const w of [...loaded.warnings, ...solution.warnings]) io.err(`haloweave plan: warning: ${w}`);
+  const files = {
+    ...(opts.extraFiles ?? {}),
+    ...planOutputFiles(solution, loaded, out, opts.catalogInFolder),
+    'excluded-targets.csv': excludedTargetsCsv(solution.weighting),
+  };
+  writeOutputFolder(out, files, opts);
+  for (const line of planSummaryLines(solution)) io.out(line);
+  io.out(`wrote ${out}/: ${Object.keys(files).join(', ')}`);
+  return 0;
 }
 
 export async function run(argv: string[], io: CliIO): Promise<number> {
@@ -34,25 +55,5 @@ export async function run(argv: string[], io: CliIO): Promise<number> {
     io.err(USAGE);
     return 2;
   }
-  const quiet = args.options.quiet === true;
-  const loaded = loadPlanInputs(args.positionals[0]);
-  const c = loaded.catalog;
-  io.err(`haloweave plan: catalog ${c.source} (${c.format}): ${c.rowsRead} rows read, ${c.targets.length} used, ${c.rowsRead - c.targets.length} rejected${c.rejects.length ? ` (${c.rejects.length} problems listed in ${out}/catalog-report.csv)` : ''}`);
-  let lastShown = -1;
-  const solution = solvePlan(loaded, {
-    onProgress: (fraction, message) => {
-      const pct = Math.round(fraction * 100);
-      if (quiet || pct === lastShown) return;
-      lastShown = pct;
-      io.err(`haloweave plan: [${String(pct).padStart(3)}%] ${message}`);
-    },
-  });
-  if (solution.problems.length) throw new InputError(solution.problems);
-  for (const w of [...loaded.warnings, ...solution.warnings]) io.err(`haloweave plan: warning: ${w}`);
-  writeOutputFolder(out, { ...planOutputFiles(solution, loaded, out), 'excluded-targets.csv': excludedTargetsCsv(solution.weighting) });
-  for (const line of solutionSummary(solution)) io.out(line);
-  for (const line of coverageSummaryLines(solution)) io.out(line);
-  if (solution.observingReport) for (const line of formatRefractionSummary(solution.observingReport)) io.out(line);
-  io.out(`wrote ${out}/: masks.csv, slits.csv, coverage.json, solved.plan.json, catalog-report.csv, excluded-targets.csv`);
-  return 0;
+  return solveAndWrite(loadPlanInputs(args.positionals[0]), out, io, { quiet: args.options.quiet === true });
 }

@@ -72,6 +72,14 @@ export const targetOverrideSchema = z.looseObject({
   force: z.enum(['in', 'out']).optional(),
 });
 
+/**
+ * Slit allocation settings (plan/pipeline.ts, lengthening stage): `maxSlitLengthArcsec` caps a lengthened slit's
+ * total length along the mask y axis (arcsec; default a multiple of the profile's slits.minLengthArcsec).
+ */
+export const allocationSchema = z.looseObject({
+  maxSlitLengthArcsec: z.number().positive('must be a positive length in arcsec').optional(),
+});
+
 export const planSchema = z.looseObject({
   format: z.literal(PLAN_FORMAT, { message: `must be "${PLAN_FORMAT}"` }),
   galaxy: galaxySchema,
@@ -89,6 +97,8 @@ export const planSchema = z.looseObject({
   search: searchSchema.optional(),
   /** Observing conditions for refraction and exposure (observe/). */
   observing: observingSchema.optional(),
+  /** Slit allocation settings (see allocationSchema). */
+  allocation: allocationSchema.optional(),
 });
 
 export type PlanFile = z.infer<typeof planSchema>;
