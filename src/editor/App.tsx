@@ -75,17 +75,20 @@ export function App({ controller: c }: { controller: EditorController }) {
   }, [galaxy, targets]);
   const solvedMasks = session.solution?.result.masks ?? [];
   const slitMap = useMemo(() => slitsByMask(solvedMasks), [solvedMasks]);
-  const slitOf = useMemo(() => slitOfObject(solvedMasks), [solvedMasks]);
   // Rings on the catalog follow exact solves only: a drag preview moves the mask's slits live, and the
   // rings (a full redraw of the catalog layer) catch up when the drag is committed and solved.
   const exactMasks = useRef(solvedMasks);
   if (session.solvedDoc || !session.solution) exactMasks.current = solvedMasks;
   const ringMasks = exactMasks.current;
+  // The target table's status column follows exact solves too: a preview result re-renders only what shows it live.
+  const slitOf = useMemo(() => slitOfObject(ringMasks), [ringMasks]);
   const onSlit = useMemo(() => {
     if (!targets) return null;
-    const of = slitOfObject(ringMasks);
-    return Uint8Array.from(targets, (t) => { const s = of.get(t.id); return !s ? 0 : s.role === 'alignment' ? 2 : 1; });
-  }, [targets, ringMasks]);
+    return Uint8Array.from(targets, (t) => { const s = slitOf.get(t.id); return !s ? 0 : s.role === 'alignment' ? 2 : 1; });
+  }, [targets, slitOf]);
+  const tableData = useMemo(() => (targets && weights ? { targets, rRe, weights, slitOf } : null), [targets, rRe, weights, slitOf]);
+  const overrides = doc?.plan.targetOverrides;
+  const tableOverrides = useMemo(() => overrides ?? {}, [overrides]);
 
   const poses: MaskPose[] = (doc?.plan.masks ?? [])
     .filter((m) => m.raDeg !== undefined && m.decDeg !== undefined)
@@ -162,8 +165,8 @@ export function App({ controller: c }: { controller: EditorController }) {
                 <span><i className="cross">×</i> excluded</span>
               </div>
             </div>
-            {targets && weights && (
-              <TargetTable c={c} data={{ targets, rRe, weights, slitOf }} />
+            {tableData && (
+              <TargetTable c={c} data={tableData} selection={session.selection} overrides={tableOverrides} />
             )}
           </main>
           <aside className="side right">

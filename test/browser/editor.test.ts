@@ -174,6 +174,19 @@ describe('editor in chromium', () => {
     await context.close();
   });
 
+  it('draws the per-sector coverage rose whole at 1600 x 1000 (its caption beside it does not squeeze it)', async () => {
+    const { context, page } = await openEditor(h, { width: 1600, height: 1000 });
+    const svg = page.locator('[data-testid="sector-plot"]');
+    await svg.scrollIntoViewIfNeeded();
+    const shown = (await svg.boundingBox())!;
+    const drawn = Number(await svg.getAttribute('width'));
+    expect(drawn).toBeGreaterThan(0);
+    // The laid-out box is the drawn size: a narrower box cuts part of the chart off.
+    expect(shown.width).toBeCloseTo(drawn, 0);
+    expect(shown.height).toBeCloseTo(Number(await svg.getAttribute('height')), 0);
+    await context.close();
+  });
+
   it('exports files that pass `haloweave check`, give the same numbers under `haloweave plan`, and load again', async () => {
     const demo = demoOnDisk();
     const { context, page } = await openEditor(h);

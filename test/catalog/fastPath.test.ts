@@ -1,6 +1,6 @@
 /**
- * The fast paths of the catalog reader against the general ones: text without quotes (split into spans, numbers read
- * straight from the text) against the same text with every field quoted (split by papaparse); the plain-decimal
+ * The fast paths of the catalog reader against the general ones: simple lines (split into spans, numbers read
+ * straight from the text) against papaparse alone, on random text with and without quotes; the plain-decimal
  * reader against `cellNumber`; the duplicate-id index against a Map; ASCII chunks of a streamed file against the
  * UTF-8 decoder.
  */
@@ -10,8 +10,8 @@ import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { readCatalog } from '../../src/core/catalog/read';
-import { parseCsvRecords } from '../../src/core/catalog/csvReader';
-import { cellNumber, textSpanNumber, type CellWhy } from '../../src/core/catalog/validate';
+import { delimitedRawTable, parseCsvRecords, sniffCsvDialect, stringSource } from '../../src/core/catalog/csvReader';
+import { cellNumber, textSpanNumber, validateTable, type CellWhy } from '../../src/core/catalog/validate';
 import { IdIndex } from '../../src/core/catalog/idIndex';
 import { readCatalogFile } from '../../src/cli/readCatalogFile';
 
@@ -32,41 +32,63 @@ const rowArb = fc.oneof(
 );
 const HEADER = ['id', 'ra', 'dec', 'mag', 'color', 'priority', 'role'];
 
-/**
- * The rows as delimited text; `quote` writes every field as "field" (the same values under RFC 4180). A delimiter
- * inside a field is replaced by `_` first (quoted, it would not split the field).
- */
-function catalogText(rows: string[][], delimiter: string, eol: string, quote: boolean, trailingEol: boolean): string {
-  const line = (fields: string[]) => fields.map((f) => f.split(delimiter).join('_')).map((f) => (quote ? `"${f}"` : f)).join(delimiter);
-  return [line(HEADER), ...rows.map(line)].join(eol) + (trailingEol ? eol : '');
-}
+describe('the fast path gives exactly what papaparse alone gives', () => {
+  /** A field as written in the file: plain, quoted (with `""` for a quote), or raw text with stray quotes and line ends. */
+  const writtenFieldArb = (delimiter: string) =>
+    fc.oneof(
+      { weight: 6, arbitrary: cellArb.map((c) => c.split(delimiter).join('_').split('"').join('')) },
+      { weight: 3, arbitrary: fc.oneof(cellArb, fc.constantFrom('a,b', 'a;b', 'a\tb', 'q"q', 'l1\nl2', 'l1\r\nl2', '')).map((c) => `"${c.split('"').join('""')}"`) },
+      { weight: 1, arbitrary: fc.stringMatching(/^[ab", \n\r]{0,4}$/) },
+    );
+  const textArb = fc.constantFrom(',', ';', '\t').chain((delimiter) =>
+    fc.tuple(
+      fc.constant(delimiter),
+      fc.array(fc.oneof({ weight: 9, arbitrary: fc.array(writtenFieldArb(delimiter), { minLength: 0, maxLength: 8 }) }, { weight: 1, arbitrary: fc.constant([] as string[]) }), { maxLength: 30 }),
+      fc.constantFrom('\n', '\r\n'),
+      fc.boolean(),
+    ).map(([d, rows, eol, trailingEol]) => [HEADER.join(d), ...rows.map((r) => r.join(d))].join(eol) + (trailingEol ? eol : '')),
+  );
+  const generalOnly = (text: string, chunk?: number) =>
+    validateTable(delimitedRawTable('csv', stringSource(text, chunk), { ...sniffCsvDialect(text), generalPathOnly: true }), 'c.csv');
 
-describe('text without quotes reads exactly like the same text with every field quoted', () => {
-  it('gives the same targets, rejects (lines, columns, reasons) and counts', () => {
+  it('on random catalogs with and without quotes: targets, rejects (lines, columns, reasons) and counts', () => {
+    let withQuotes = 0;
     fc.assert(
-      fc.property(
-        fc.array(rowArb, { maxLength: 30 }),
-        fc.constantFrom(',', ';', '\t'),
-        fc.constantFrom('\n', '\r\n'),
-        fc.boolean(),
-        (rows, delimiter, eol, trailingEol) => {
-          // A last row with no field text and no line end is not in the plain text at all, but is "" when quoted.
-          const last = rows[rows.length - 1];
-          fc.pre(trailingEol || last === undefined || last.join('') !== '' || last.length > 1);
-          const plain = catalogText(rows, delimiter, eol, false, trailingEol);
-          const quoted = catalogText(rows, delimiter, eol, true, trailingEol);
-          expect(plain).not.toContain('"');
-          const fast = readCatalog(plain, 'c.csv');
-          const general = readCatalog(quoted, 'c.csv');
-          expect(fast).toEqual(general);
-          expect(parseCsvRecords(plain)).toEqual(parseCsvRecords(quoted));
-        },
-      ),
-      { numRuns: 400 },
+      fc.property(textArb, fc.integer({ min: 1, max: 120 }), (text, chunk) => {
+        if (text.includes('"')) withQuotes++;
+        const reference = generalOnly(text);
+        const fast = readCatalog(text, 'c.csv');
+        expect({ ...fast, format: 'csv' }).toEqual(reference);
+        // Streamed in chunks, the fast path and the general path alternate.
+        const streamed = validateTable(delimitedRawTable('csv', stringSource(text, chunk), sniffCsvDialect(text)), 'c.csv');
+        expect(streamed).toEqual(reference);
+        expect(generalOnly(text, chunk)).toEqual(reference);
+      }),
+      { numRuns: 600 },
+    );
+    expect(withQuotes).toBeGreaterThan(100);
+  });
+
+  it('splits the same records (parseCsvRecords)', () => {
+    fc.assert(
+      fc.property(textArb, (text) => {
+        expect(parseCsvRecords(text)).toEqual(parseCsvRecords(text, { ...sniffCsvDialect(text), generalPathOnly: true }));
+      }),
+      { numRuns: 300 },
     );
   });
 
-  it('keeps the file lines when quoted chunks and plain chunks alternate in a stream', () => {
+  it('counts a lone LF in a CRLF file as a file line, whatever the chunks', () => {
+    const text = 'id,ra,dec,mag\r\na\nb,1,2,3\r\nc,1,2,x\r\n';
+    const whole = readCatalog(text, 'c.csv');
+    expect(whole.targets.map((t) => [t.id, t.line])).toEqual([['a\nb', 2]]);
+    expect(whole.rejects).toEqual([{ line: 4, column: 'mag', reason: '"x" is not a number' }]);
+    for (let chunk = 1; chunk <= text.length; chunk++) {
+      expect(validateTable(delimitedRawTable('csv', stringSource(text, chunk), sniffCsvDialect(text)), 'c.csv')).toEqual(whole);
+    }
+  });
+
+  it('keeps the file lines when quoted and plain rows alternate in a streamed file', () => {
     const dir = mkdtempSync(join(tmpdir(), 'haloweave-fast-'));
     fc.assert(
       fc.property(fc.array(rowArb, { maxLength: 30 }), fc.array(fc.boolean(), { minLength: 30, maxLength: 30 }), fc.integer({ min: 1, max: 200 }), (rows, quoteRow, chunk) => {

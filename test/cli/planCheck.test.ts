@@ -163,6 +163,12 @@ describe('bad input: one line per problem naming the field, non-zero exit, no co
     expect(lines[0]).toMatch(/galaxy\.reArcsec: must be greater than 0/);
   });
 
+  it('a wrong allocation.maxSlitLengthArcsec', () => {
+    const lines = runBad('alloc', (p) => { p.allocation = { maxSlitLengthArcsec: -4 }; });
+    expect(lines).toHaveLength(1);
+    expect(lines[0]).toMatch(/allocation\.maxSlitLengthArcsec: must be a positive length in arcsec/);
+  });
+
   it('all of them at once: one line each', () => {
     const lines = runBad('all', (p) => { p.galaxy.reArcsec = 0; p.instrument = 'nope'; p.catalog = 'nope.csv'; });
     expect(lines).toHaveLength(3);

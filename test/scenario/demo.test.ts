@@ -17,18 +17,20 @@ describe('the demo scenario', () => {
     const out: string[] = [], err: string[] = [];
     const io = { out: (t: string) => out.push(t), err: (t: string) => err.push(t) };
     expect(await main(['demo', '--out', dir, '--quiet'], io)).toBe(0);
-    for (const f of ['halo-demo.plan.json', 'halo-demo.catalog.csv', 'solved/slits.csv', 'solved/coverage.json', 'solved/excluded-targets.csv']) expect(existsSync(join(dir, f))).toBe(true);
+    // DIR itself is the output folder: the scenario's inputs beside every output file.
+    for (const f of ['halo-demo.plan.json', 'halo-demo.catalog.csv', 'masks.csv', 'slits.csv', 'coverage.json', 'solved.plan.json', 'catalog-report.csv', 'excluded-targets.csv']) expect(existsSync(join(dir, f))).toBe(true);
+    expect(JSON.parse(readFileSync(join(dir, 'solved.plan.json'), 'utf8')).catalog).toBe('halo-demo.catalog.csv');
     const text = out.join('\n');
     expect(text).toMatch(/tracer: \d+ slits, reach [\d.]+ Re \(goal 10 Re, met\)/);
     expect(text).toMatch(/starlight: \d+ slits, reach [\d.]+ Re \(goal 3 Re, met\)/);
     expect(text).toContain('every goal bin holds at least one slit');
     expect(text).toContain('exclusion region "companion galaxy"');
-    const cov = JSON.parse(readFileSync(join(dir, 'solved/coverage.json'), 'utf8'));
+    const cov = JSON.parse(readFileSync(join(dir, 'coverage.json'), 'utf8'));
     expect(cov.roles.tracer.maxReachRe).toBeGreaterThanOrEqual(9);
     expect(cov.roles.starlight.maxReachRe).toBeGreaterThanOrEqual(3);
-    expect(await main(['check', join(dir, 'solved')], io)).toBe(0);
+    expect(await main(['check', dir], io)).toBe(0);
     // Excluded targets are listed with their rule, never silently dropped.
-    const excluded = readFileSync(join(dir, 'solved/excluded-targets.csv'), 'utf8').trim().split('\n');
+    const excluded = readFileSync(join(dir, 'excluded-targets.csv'), 'utf8').trim().split('\n');
     expect(excluded[0]).toBe('id,line,role,rule,reason');
     expect(excluded.some((l) => l.includes('exclusion:companion galaxy'))).toBe(true);
   });

@@ -1,14 +1,18 @@
 /**
  * `haloweave demo --out DIR`: write the invented demo scenario (examples/demo/: a made-up galaxy and a synthetic
- * catalog from the documented generator, fixed seed) into DIR, then solve it into DIR/solved/ with `haloweave plan`,
- * printing its summary.
+ * catalog from the documented generator, fixed seed) and solve it, DIR becoming one complete output folder: the
+ * outputs of `haloweave plan` (masks.csv, slits.csv, coverage.json, solved.plan.json, catalog-report.csv,
+ * excluded-targets.csv) beside the scenario's plan and catalog, all written in one atomic step, so
+ * `haloweave check DIR` works on it and solved.plan.json's catalog path names the catalog in DIR.
  */
-import { mkdirSync, writeFileSync } from 'node:fs';
-import { join, resolve } from 'node:path';
+import { existsSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 import type { CliIO } from '../io';
 import { optionText, parseArgs, unknownOptions } from '../args';
 import { DEMO_PLAN_FILE, demoScenario } from '../../core/scenario/generator';
-import { run as runPlan } from './plan';
+import { loadPlanInputs } from '../loadPlanInputs';
+import { solveAndWrite } from './plan';
 
 const USAGE = 'usage: haloweave demo --out DIR [--quiet]';
 
@@ -16,6 +20,11 @@ const USAGE = 'usage: haloweave demo --out DIR [--quiet]';
 export function demoFiles(): Record<string, string> {
   const s = demoScenario();
   return { [DEMO_PLAN_FILE]: JSON.stringify(s.plan, null, 2) + '\n', [String(s.plan.catalog)]: s.catalogCsv };
+}
+
+/** The `solved/` subfolder an earlier demo layout solved into (it holds a solved.plan.json): replaced by a new run. */
+function earlierDemoLayout(entry: string, dir: string): boolean {
+  return entry === 'solved' && existsSync(join(dir, entry, 'solved.plan.json'));
 }
 
 export async function run(argv: string[], io: CliIO): Promise<number> {
@@ -29,9 +38,21 @@ export async function run(argv: string[], io: CliIO): Promise<number> {
     io.err(USAGE);
     return 2;
   }
-  const dir = resolve(out);
-  mkdirSync(dir, { recursive: true });
-  for (const [name, text] of Object.entries(demoFiles())) writeFileSync(join(dir, name), text);
-  io.out(`haloweave demo: wrote ${join(dir, DEMO_PLAN_FILE)} and its catalog (invented galaxy, synthetic catalog)`);
-  return runPlan([join(dir, DEMO_PLAN_FILE), '--out', join(dir, 'solved'), ...(args.options.quiet ? ['--quiet'] : [])], io);
+  const inputs = demoFiles();
+  // The inputs are read back from a scratch folder through the same loader as `haloweave plan`; the output folder
+  // receives them together with the outputs, in the same atomic rename.
+  const scratch = mkdtempSync(join(tmpdir(), 'haloweave-demo-'));
+  try {
+    for (const [name, text] of Object.entries(inputs)) writeFileSync(join(scratch, name), text);
+    const loaded = loadPlanInputs(join(scratch, DEMO_PLAN_FILE));
+    io.out(`haloweave demo: the invented galaxy ${loaded.plan.galaxy.id} and its synthetic catalog (${DEMO_PLAN_FILE}, ${String(loaded.plan.catalog)}), solved into ${out}/`);
+    return solveAndWrite(loaded, out, io, {
+      quiet: args.options.quiet === true,
+      extraFiles: inputs,
+      catalogInFolder: String(loaded.plan.catalog),
+      alsoReplaces: earlierDemoLayout,
+    });
+  } finally {
+    rmSync(scratch, { recursive: true, force: true });
+  }
 }

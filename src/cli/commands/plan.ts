@@ -33,11 +33,14 @@ export function solveAndWrite(loaded: LoadedPlan, out: string, io: CliIO, opts: 
   });
   if (solution.problems.length) throw new InputError(solution.problems);
   for (const w of [...loaded.warnings, ...solution.warnings]) io.err(`haloweave plan: warning: ${w}`);
-  const files = {
-    ...(opts.extraFiles ?? {}),
+  const files: Record<string, string> = {
     ...planOutputFiles(solution, loaded, out, opts.catalogInFolder),
     'excluded-targets.csv': excludedTargetsCsv(solution.weighting),
   };
+  for (const [name, text] of Object.entries(opts.extraFiles ?? {})) {
+    if (name in files) throw new Error(`extra file ${name} would replace an output file`);
+    files[name] = text;
+  }
   writeOutputFolder(out, files, opts);
   for (const line of planSummaryLines(solution)) io.out(line);
   io.out(`wrote ${out}/: ${Object.keys(files).join(', ')}`);

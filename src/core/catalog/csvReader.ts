@@ -37,9 +37,11 @@ export interface CsvRecordView extends RowCells {
 }
 
 /**
- * A one-line record of text without quotes: field k is src[starts[k], ends[k]). `reset` points it at a text, then
- * `nextLine` takes that text's lines in order (the search for the next delimiter carries over from line to line,
- * so a line without delimiters costs no search of the lines after it).
+ * A one-line record of "simple" text: field k is src[starts[k], ends[k]). A simple line has no quote, or quotes only
+ * around whole fields that hold no quote and end right before a delimiter or the line end (`"a b",1`); papaparse
+ * reads such a line the same way. `reset` points the record at a text, then `nextLine` takes that text's lines in
+ * order (the searches for the next delimiter and quote carry over from line to line, so a line without them costs
+ * no search of the lines after it).
  */
 class SpanRecord implements CsvRecordView {
   src = '';
@@ -51,18 +53,27 @@ class SpanRecord implements CsvRecordView {
   private delimiter = ',';
   /** Index of the first delimiter in `src` not yet used, or -1 when there is none. */
   private nextDelimiter = -1;
+  /** Index of the first quote in `src` not yet used, or -1 when there is none. */
+  private nextQuote = -1;
 
   /** Point the record at a new text with the given field delimiter. */
   reset(src: string, delimiter: string): void {
     this.src = src;
     this.delimiter = delimiter;
     this.nextDelimiter = src.indexOf(delimiter);
+    this.nextQuote = src.indexOf('"');
   }
 
-  /** The record of src[from, to), file line `line`: the next line after the previous call's. */
-  nextLine(from: number, to: number, line: number): this {
-    const { src, delimiter } = this;
+  /** The record of src[from, to), file line `line` (the line after the previous call's), or null when it is not simple. */
+  nextLine(from: number, to: number, line: number): this | null {
     this.line = line;
+    if (this.nextQuote < 0 || this.nextQuote >= to) return this.splitPlain(from, to);
+    return this.splitWithQuotes(from, to) ? this : null;
+  }
+
+  /** Fields of a line without quotes: the text between delimiters. */
+  private splitPlain(from: number, to: number): this {
+    const { src, delimiter } = this;
     let k = 0;
     let fieldStart = from;
     let d = this.nextDelimiter;
@@ -75,6 +86,36 @@ class SpanRecord implements CsvRecordView {
     this.setField(k++, fieldStart, to);
     this.count = k;
     return this;
+  }
+
+  /** Fields of a line with quotes, when each quote opens or closes a whole simple field (else false). */
+  private splitWithQuotes(from: number, to: number): boolean {
+    const { src, delimiter } = this;
+    let k = 0;
+    let i = from;
+    let quote = this.nextQuote; // the first quote at or after i
+    for (;;) {
+      let next: number; // where the text after the field starts (a delimiter or the line end)
+      if (quote === i) {
+        const close = src.indexOf('"', i + 1);
+        if (close < 0 || close >= to) return false; // closed on a later line, or never
+        next = close + 1;
+        if (next < to && !src.startsWith(delimiter, next)) return false; // `""` or text after the closing quote
+        this.setField(k++, i + 1, close);
+        quote = src.indexOf('"', next);
+      } else {
+        next = src.indexOf(delimiter, i);
+        if (next < 0 || next >= to) next = to;
+        if (quote >= 0 && quote < next) return false; // a quote inside an unquoted field
+        this.setField(k++, i, next);
+      }
+      if (next >= to) break;
+      i = next + delimiter.length;
+    }
+    this.count = k;
+    this.nextDelimiter = src.indexOf(delimiter, to);
+    this.nextQuote = quote; // at or after `to`, or -1
+    return true;
   }
 
   private setField(k: number, start: number, end: number): void {
@@ -165,6 +206,8 @@ export interface CsvDialect {
    * (ECSV with the space delimiter, as astropy reads it; quoted fields keep their spaces).
    */
   collapseSpaces?: boolean;
+  /** Split every record with papaparse, without the fast path (to check the fast path against it). */
+  generalPathOnly?: boolean;
 }
 
 /** Column placeholder for a reject that concerns the whole row rather than one column. */
@@ -299,34 +342,46 @@ export class CsvRecordSplitter {
     if (this.dialect.collapseSpaces) this.carry = collapseSpaceRuns(this.carry, final);
     const text = this.carry;
     if (text === '') return;
-    if (text.indexOf('"') < 0) this.parseUnquoted(text, final);
-    else this.parseQuoted(text, final);
+    const rest = this.dialect.generalPathOnly ? 0 : this.parseSimpleLines(text, final);
+    if (rest >= 0) this.parseQuoted(rest === 0 ? text : text.slice(rest), final);
   }
 
   /**
-   * Fast path for text without quotes: every record is one line and a field is the text between delimiters
-   * (papaparse's own "fast mode"), handed out as spans of the text. Lines end at each line end; unless `final`,
-   * text after the last line end waits for the next chunk, and at the end it is a last line of its own.
+   * Fast path: simple lines (see SpanRecord) are records of one line each, handed out as spans of the text.
+   * Lines end at each line end; unless `final`, text after the last line end waits for the next chunk, and at the
+   * end it is a last line of its own. Stops at the first line that is not simple and returns where it starts (a
+   * record boundary), for the general path to take the rest; returns -1 when it took every line. In a CRLF text a
+   * line holding a lone LF is not simple: the general path counts that LF as a file line, as an editor shows it.
    */
-  private parseUnquoted(text: string, final: boolean): void {
+  private parseSimpleLines(text: string, final: boolean): number {
     const nl = this.dialect.newline;
     let cut = text.length;
     if (!final) {
       const last = text.lastIndexOf(nl);
-      if (last < 0) return;
+      if (last < 0) return -1; // no line end, so no record can be complete yet
       cut = last + nl.length;
     }
+    const crlf = nl === '\r\n';
+    const lineEnd = crlf ? '\n' : nl; // in CRLF text, look for any LF and check the CR before it
     const rec = this.spanRecord;
     rec.reset(text, this.dialect.delimiter);
-    let line = this.linesBefore;
-    for (let pos = 0; pos < cut; ) {
-      let eol = text.indexOf(nl, pos);
-      if (eol < 0) eol = cut;
-      this.emit(rec.nextLine(pos, eol, ++line));
-      pos = eol + nl.length;
+    let pos = 0;
+    while (pos < cut) {
+      let end = text.indexOf(lineEnd, pos); // end of the line's text
+      let next = end + lineEnd.length; // start of the next line
+      if (end < 0) end = next = cut; // the last line, without a line end (only when final)
+      else if (crlf) {
+        if (end === pos || text.charCodeAt(end - 1) !== 13) return pos; // a lone LF
+        end--;
+      }
+      const simple = rec.nextLine(pos, end, this.linesBefore + 1);
+      if (!simple) return pos;
+      this.linesBefore++;
+      this.emit(simple);
+      pos = next;
     }
-    this.linesBefore = line;
     this.carry = final ? '' : text.slice(cut);
+    return -1;
   }
 
   /** General path: records may span lines inside quotes; lines come from papaparse's cursor after each record. */

@@ -30,6 +30,9 @@ export interface CheckInput {
   /** File names used in messages. */
   slitsSource?: string;
   masksSource?: string;
+  /** File line (counting the header) of each slits.csv / masks.csv row; default: row index + 2 (no blank lines). */
+  slitLines?: readonly number[];
+  maskLines?: readonly number[];
 }
 
 export interface Violation {
@@ -53,13 +56,13 @@ export function checkOutput(input: CheckInput): Violation[] {
   const out: Violation[] = [];
   const slitsSrc = input.slitsSource ?? 'slits.csv';
   const masksSrc = input.masksSource ?? 'masks.csv';
-  const rowWhere = (i: number, s: Slit) => `${slitsSrc} row ${i + 1} (mask ${s.maskId}, slit ${s.slitId})`;
+  const rowWhere = (i: number, s: Slit) => `${slitsSrc} line ${input.slitLines?.[i] ?? i + 2} (mask ${s.maskId}, slit ${s.slitId})`;
   const tol = LENGTH_TOL_ARCSEC;
 
   const maskById = new Map<string, CheckedMask>();
   const profiles = new Map<string, InstrumentProfile>();
   input.masks.forEach((m, i) => {
-    const where = `${masksSrc} row ${i + 1} (mask ${m.maskId})`;
+    const where = `${masksSrc} line ${input.maskLines?.[i] ?? i + 2} (mask ${m.maskId})`;
     if (maskById.has(m.maskId)) out.push({ where, rule: 'unique mask id', what: `mask id "${m.maskId}" appears twice` });
     maskById.set(m.maskId, m);
     if (!(m.paDeg >= 0 && m.paDeg < 360)) out.push({ where, rule: 'position angle', what: `pa_deg ${m.paDeg} is not in [0, 360)` });

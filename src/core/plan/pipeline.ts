@@ -81,11 +81,12 @@ export function targetWeights(plan: PlanFile, targets: readonly Target[], warnin
     const k = kept.get(t.id);
     return k ? (t.role === 'alignment' ? 1 : k.weight) : 0;
   });
-  const overrides = plan.targetOverrides ?? {};
+  const overrides = Object.entries(plan.targetOverrides ?? {});
+  if (overrides.length === 0) return w;
   const index = new Map(targets.map((t, i) => [t.id, i]));
   let total = 0;
   for (const v of w) total += v;
-  for (const [id, o] of Object.entries(overrides)) {
+  for (const [id, o] of overrides) {
     const i = index.get(id);
     if (i === undefined) { warnings.push(`targetOverrides: no catalog target with id "${id}"; the override is ignored`); continue; }
     if (o.force === 'in' && w[i] > 0) w[i] += total;

@@ -8,14 +8,29 @@
 import { polygonBounds, stripFreeYRange, type Corner } from '../geometry/polygon';
 
 export interface FootprintRaster {
-  minX: number;
-  dxArcsec: number;
+  readonly minX: number;
+  readonly dxArcsec: number;
   /** Per column, the y-centre intervals [lo, hi] (arcsec) where the rectangle fits. */
-  columns: [number, number][][];
+  readonly columns: readonly (readonly (readonly [number, number])[])[];
 }
 
-/** Build the raster for a rectangle of halfWidth x halfLength (arcsec); dx is the column width. */
+/** Rasters already built, per footprint array and (half-width, half-length, dx): a profile's footprint never changes. */
+const built = new WeakMap<readonly Corner[], Map<string, FootprintRaster>>();
+
+/**
+ * The raster for a rectangle of halfWidth x halfLength (arcsec); dx is the column width. Memoised per footprint
+ * array (the result is shared and must be treated as read-only), since every plan solve of a profile needs the same.
+ */
 export function footprintRaster(footprint: readonly Corner[], halfWidthArcsec: number, halfLengthArcsec: number, dxArcsec = 1): FootprintRaster {
+  let byShape = built.get(footprint);
+  if (!byShape) built.set(footprint, (byShape = new Map()));
+  const key = `${halfWidthArcsec} ${halfLengthArcsec} ${dxArcsec}`;
+  let r = byShape.get(key);
+  if (!r) byShape.set(key, (r = buildFootprintRaster(footprint, halfWidthArcsec, halfLengthArcsec, dxArcsec)));
+  return r;
+}
+
+function buildFootprintRaster(footprint: readonly Corner[], halfWidthArcsec: number, halfLengthArcsec: number, dxArcsec: number): FootprintRaster {
   const b = polygonBounds(footprint);
   const n = Math.max(1, Math.ceil((b.maxX - b.minX) / dxArcsec));
   const columns: [number, number][][] = [];
@@ -41,6 +56,7 @@ export function footprintRaster(footprint: readonly Corner[], halfWidthArcsec: n
 export function rasterFits(r: FootprintRaster, xArcsec: number, yArcsec: number): boolean {
   const k = Math.floor((xArcsec - r.minX) / r.dxArcsec);
   if (!(k >= 0 && k < r.columns.length)) return false;
-  for (const [lo, hi] of r.columns[k]) if (yArcsec >= lo && yArcsec <= hi) return true;
+  const column = r.columns[k];
+  for (let j = 0; j < column.length; j++) if (yArcsec >= column[j][0] && yArcsec <= column[j][1]) return true;
   return false;
 }

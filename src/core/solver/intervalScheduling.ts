@@ -113,11 +113,12 @@ function startView(index: IntervalIndex, starts: ArrayLike<number>, ends: ArrayL
 }
 
 /**
- * For every interval i, the optimum when i is not allowed (same weights otherwise), in O(n log n + n w) with w the
- * number of intervals overlapping one: a plan without i either has nothing overlapping i (best before s_i plus best
- * after e_i) or contains some j overlapping i, whose best containing plan cannot contain i.
+ * For every interval i (or only those listed in `only`), the optimum when i is not allowed (same weights otherwise),
+ * in O(n log n + m w) with m the intervals asked for and w the number of intervals overlapping one: a plan without i
+ * either has nothing overlapping i (best before s_i plus best after e_i) or contains some j overlapping i, whose
+ * best containing plan cannot contain i. Entries not asked for are NaN.
  */
-export function optimumWithoutEach(index: IntervalIndex, starts: ArrayLike<number>, ends: ArrayLike<number>, weights: ArrayLike<number>): Float64Array {
+export function optimumWithoutEach(index: IntervalIndex, starts: ArrayLike<number>, ends: ArrayLike<number>, weights: ArrayLike<number>, only?: ArrayLike<number>): Float64Array {
   const n = starts.length;
   const sv = startView(index, starts, ends);
   // F[k]: best over the first k intervals by end. G[k]: best over start-sorted positions >= k.
@@ -133,16 +134,17 @@ export function optimumWithoutEach(index: IntervalIndex, starts: ArrayLike<numbe
     const take = w > 0 ? w + G[sv.nextAfterEnd[k]] : -Infinity;
     G[k] = take > G[k + 1] ? take : G[k + 1];
   }
-  // Per original interval: best before its start, best after its end, best plan containing it.
-  const before = new Float64Array(n), after = new Float64Array(n), containing = new Float64Array(n);
+  // Per original interval: best before its start plus best after its end, and the best plan containing it.
+  const apart = new Float64Array(n), containing = new Float64Array(n);
   for (let i = 0; i < n; i++) {
-    before[i] = F[index.pred[sv.endPos[i]]];
-    after[i] = G[lowerBound(sv.sortedStarts, ends[i])];
-    containing[i] = weights[i] > 0 ? before[i] + weights[i] + after[i] : -Infinity;
+    apart[i] = F[index.pred[sv.endPos[i]]] + G[lowerBound(sv.sortedStarts, ends[i])];
+    containing[i] = weights[i] > 0 ? apart[i] + weights[i] : -Infinity;
   }
-  const out = new Float64Array(n);
-  for (let i = 0; i < n; i++) {
-    let best = before[i] + after[i];
+  const out = new Float64Array(n).fill(NaN);
+  const count = only ? only.length : n;
+  for (let q = 0; q < count; q++) {
+    const i = only ? only[q] : q;
+    let best = apart[i];
     // Intervals overlapping i start in (s_i - maxLength, e_i).
     for (let k = lowerBound(sv.sortedStarts, starts[i] - sv.maxLength); k < n && sv.sortedStarts[k] < ends[i]; k++) {
       const j = sv.order[k];

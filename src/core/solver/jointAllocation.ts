@@ -52,18 +52,49 @@ function ownerOf(problem: JointProblem, chosen: readonly (readonly number[])[]):
   return owner;
 }
 
-/** Exact re-solve of mask m with every other mask fixed (objects owned by another mask are unavailable); updates owner. */
+/**
+ * Per-mask weight buffers for repeated exact re-solves of one problem: only objects on several masks can be held by
+ * another mask, so each buffer keeps the plain weights and a re-solve rewrites only the shared positions.
+ */
+export interface ResponseWork {
+  buffers: Float64Array[];
+  sharedPositions: Int32Array[];
+}
+
+/** Build the re-solve buffers of a problem (O(total candidates)); worth it when a problem is re-solved many times. */
+export function responseWork(problem: JointProblem, shared: Uint8Array = sharedObjects(problem)): ResponseWork {
+  return {
+    buffers: problem.masks.map((set) => Float64Array.from(set.objects, (o) => problem.weights[o])),
+    sharedPositions: problem.masks.map((set) => Int32Array.from(set.objects.keys()).filter((k) => shared[set.objects[k]] === 1)),
+  };
+}
+
 let brBuf = new Float64Array(0);
 
-function bestResponse(problem: JointProblem, owner: Int32Array, chosen: number[][], m: number): void {
+/** Weights of mask m's candidates with objects owned by another mask set to 0 (in `work`'s buffer when given). */
+function availableWeights(problem: JointProblem, owner: Int32Array, m: number, work?: ResponseWork): Float64Array {
   const set = problem.masks[m];
+  if (work) {
+    const w = work.buffers[m], positions = work.sharedPositions[m];
+    for (let q = 0; q < positions.length; q++) {
+      const o = set.objects[positions[q]];
+      w[positions[q]] = owner[o] === -1 || owner[o] === m ? problem.weights[o] : 0;
+    }
+    return w;
+  }
   const n = set.objects.length;
   if (brBuf.length < n) brBuf = new Float64Array(Math.max(n, brBuf.length * 2));
-  const w = brBuf;
   for (let k = 0; k < n; k++) {
     const o = set.objects[k];
-    w[k] = owner[o] === -1 || owner[o] === m ? problem.weights[o] : 0;
+    brBuf[k] = owner[o] === -1 || owner[o] === m ? problem.weights[o] : 0;
   }
+  return brBuf;
+}
+
+/** Exact re-solve of mask m with every other mask fixed (objects owned by another mask are unavailable); updates owner. */
+function bestResponse(problem: JointProblem, owner: Int32Array, chosen: number[][], m: number, work?: ResponseWork): void {
+  const set = problem.masks[m];
+  const w = availableWeights(problem, owner, m, work);
   for (const k of chosen[m]) owner[set.objects[k]] = -1;
   chosen[m] = solveIntervalIndex(set.index, w).chosen;
   for (const k of chosen[m]) owner[set.objects[k]] = m;
@@ -76,12 +107,12 @@ export function resolveOneMask(problem: JointProblem, chosen: readonly (readonly
   return next;
 }
 
-/** Best-response sweeps over all masks until a sweep gains nothing (or maxSweeps). */
-export function improveByBestResponse(problem: JointProblem, chosen: number[][], maxSweeps = 10): number[][] {
+/** Best-response sweeps over all masks until a sweep gains nothing (or maxSweeps); `work` only speeds it up. */
+export function improveByBestResponse(problem: JointProblem, chosen: number[][], maxSweeps = 10, work?: ResponseWork): number[][] {
   const owner = ownerOf(problem, chosen);
   let value = jointObjective(problem, chosen);
   for (let sweep = 0; sweep < maxSweeps; sweep++) {
-    for (let m = 0; m < problem.masks.length; m++) bestResponse(problem, owner, chosen, m);
+    for (let m = 0; m < problem.masks.length; m++) bestResponse(problem, owner, chosen, m, work);
     const v = jointObjective(problem, chosen);
     if (v <= value * (1 + 1e-12)) { value = v; break; }
     value = v;
@@ -95,23 +126,32 @@ function maskValue(problem: JointProblem, chosen: readonly (readonly number[])[]
   return v;
 }
 
+/** 1 for every object that is a candidate on more than one mask (the only objects a steal can move), else 0. */
+export function sharedObjects(problem: JointProblem): Uint8Array {
+  const count = new Uint8Array(problem.weights.length);
+  for (const set of problem.masks) for (const o of set.objects) if (count[o] < 2) count[o]++;
+  for (let o = 0; o < count.length; o++) count[o] = count[o] > 1 ? 1 : 0;
+  return count;
+}
+
 /**
- * What each held object is worth to its holder: the holder's value minus its exact optimum without that object.
- * Fills `loss` for the objects of the masks in `masks` (all masks when omitted).
+ * What each held shared object is worth to its holder: the holder's value minus its exact optimum without that
+ * object. Fills `loss` for the shared objects (`shared` from sharedObjects) held by any mask; others are untouched.
  */
-function holderLosses(problem: JointProblem, chosen: readonly (readonly number[])[], loss: Float64Array, masks?: Iterable<number>): void {
+function holderLosses(problem: JointProblem, chosen: readonly (readonly number[])[], shared: Uint8Array, loss: Float64Array): void {
   const owner = ownerOf(problem, chosen);
-  for (const b of masks ?? problem.masks.keys()) {
+  for (let b = 0; b < problem.masks.length; b++) {
     const set = problem.masks[b];
-    if (!chosen[b].length) continue;
+    const held = chosen[b].filter((k) => shared[set.objects[k]] === 1);
+    if (!held.length) continue;
     const w = new Float64Array(set.objects.length);
     for (let k = 0; k < w.length; k++) {
       const o = set.objects[k];
       w[k] = owner[o] === -1 || owner[o] === b ? problem.weights[o] : 0;
     }
-    const without = optimumWithoutEach(set.index, set.starts, set.ends, w);
+    const without = optimumWithoutEach(set.index, set.starts, set.ends, w, held);
     const v = maskValue(problem, chosen, b);
-    for (const k of chosen[b]) loss[set.objects[k]] = Math.max(0, v - without[k]);
+    for (const k of held) loss[set.objects[k]] = Math.max(0, v - without[k]);
   }
 }
 
@@ -120,15 +160,17 @@ function holderLosses(problem: JointProblem, chosen: readonly (readonly number[]
  * (computed exactly by re-solving the holder without that one object); the holders then re-solve without the
  * stolen objects, and the move is kept only when the total weight rises. Repeats until no move helps.
  */
-export function improveBySteals(problem: JointProblem, chosen: number[][], maxRounds = 3): number[][] {
+export function improveBySteals(problem: JointProblem, chosen: number[][], maxRounds = 3, work?: ResponseWork): number[][] {
   const M = problem.masks.length;
   let total = jointObjective(problem, chosen);
+  const shared = sharedObjects(problem);
+  work ??= responseWork(problem, shared);
+  const loss = new Float64Array(problem.weights.length);
   for (let round = 0; round < maxRounds; round++) {
     let accepted = false;
-    // Holder's loss per object (exact, one pass per mask), priced once per round: prices are a guide, and every
-    // move is verified on the true total, so a price made stale by an earlier move of the round costs nothing.
-    const loss = new Float64Array(problem.weights.length);
-    holderLosses(problem, chosen, loss);
+    // Holder's loss per held shared object (exact, one pass per mask), priced once per round: prices are a guide,
+    // and every move is verified on the true total, so a price made stale by an earlier move of the round costs nothing.
+    holderLosses(problem, chosen, shared, loss);
     for (let a = 0; a < M; a++) {
       const owner = ownerOf(problem, chosen);
       const setA = problem.masks[a];
@@ -151,8 +193,8 @@ export function improveBySteals(problem: JointProblem, chosen: number[][], maxRo
       for (const b of stolenFrom) trial[b] = trial[b].filter((j) => !taken.has(problem.masks[b].objects[j]));
       trial[a] = pick;
       const trialOwner = ownerOf(problem, trial);
-      for (const b of stolenFrom) bestResponse(problem, trialOwner, trial, b);
-      bestResponse(problem, trialOwner, trial, a);
+      for (const b of stolenFrom) bestResponse(problem, trialOwner, trial, b, work);
+      bestResponse(problem, trialOwner, trial, a, work);
       const v = jointObjective(problem, trial);
       if (v > total + 1e-9 * Math.max(1, Math.abs(total))) {
         for (let m = 0; m < M; m++) chosen[m] = trial[m];
@@ -196,17 +238,20 @@ export function allocateJoint(problem: JointProblem, opts: JointOptions = {}): J
   best = improveByBestResponse(problem, best);
   let bestValue = jointObjective(problem, best);
 
-  const mult = new Int32Array(nObj);
-  for (const set of problem.masks) for (const o of set.objects) mult[o]++;
+  const isShared = sharedObjects(problem);
   const shared: number[] = [];
-  for (let o = 0; o < nObj; o++) if (mult[o] > 1) shared.push(o);
+  for (let o = 0; o < nObj; o++) if (isShared[o]) shared.push(o);
   if (shared.length === 0) {
     // No object falls on two masks: per-mask optima are jointly optimal.
     return { chosen: best, objective: bestValue, upperBound: bestValue, iterations: 0 };
   }
   const lambda = new Float64Array(nObj);
   const use = new Int32Array(nObj);
-  const buffers = problem.masks.map((s) => new Float64Array(s.objects.length));
+  const owner = new Int32Array(nObj);
+  // Relaxed weights per mask (only shared objects carry a multiplier, so each round rewrites only their positions),
+  // and separate buffers for the sweeps and steals of the repaired plans.
+  const { buffers, sharedPositions } = responseWork(problem, isShared);
+  const work = responseWork(problem, isShared);
   // With whole-number weights the optimum is a whole number, so floor(upper bound) is a bound too.
   const integral = problem.weights.every((w) => Number.isInteger(w));
   const bound = (u: number) => (integral ? Math.floor(u + 1e-9) : u);
@@ -221,8 +266,8 @@ export function allocateJoint(problem: JointProblem, opts: JointOptions = {}): J
     let L = 0;
     const picks: number[][] = [];
     for (let m = 0; m < M; m++) {
-      const set = problem.masks[m], w = buffers[m];
-      for (let k = 0; k < w.length; k++) w[k] = problem.weights[set.objects[k]] - lambda[set.objects[k]];
+      const set = problem.masks[m], w = buffers[m], positions = sharedPositions[m];
+      for (let q = 0; q < positions.length; q++) { const o = set.objects[positions[q]]; w[positions[q]] = problem.weights[o] - lambda[o]; }
       const r = solveIntervalIndex(set.index, w);
       picks.push(r.chosen);
       L += r.total;
@@ -233,7 +278,7 @@ export function allocateJoint(problem: JointProblem, opts: JointOptions = {}): J
 
     // Repair: a duplicated object stays on the first mask (rotating the order) that took it; then sweeps.
     use.fill(0);
-    const owner = new Int32Array(nObj).fill(-1);
+    owner.fill(-1);
     const repaired: number[][] = picks.map(() => []);
     for (let j = 0; j < M; j++) {
       const m = (j + it) % M;
@@ -245,11 +290,11 @@ export function allocateJoint(problem: JointProblem, opts: JointOptions = {}): J
     }
     // The repair and sweeps cost more than the relaxed solve: run them when the bound improved, and every 8th round.
     if (improvedUpper || it % 8 === 0) {
-      let candidate = improveByBestResponse(problem, repaired, 2);
+      let candidate = improveByBestResponse(problem, repaired, 2, work);
       let v = jointObjective(problem, candidate);
       // Steal moves are dearer: only for the first plan that comes within 0.2 % of the best so far (and the final one).
       if (steals && stealBudget > 0 && v >= bestValue * (1 - 2e-3)) {
-        stealBudget--; candidate = improveBySteals(problem, candidate, 1); v = jointObjective(problem, candidate); }
+        stealBudget--; candidate = improveBySteals(problem, candidate, 1, work); v = jointObjective(problem, candidate); }
       if (v > bestValue) { bestValue = v; best = candidate; stall = 0; }
     }
     if (bound(upper) - bestValue <= relGap * Math.abs(upper)) break;
@@ -261,7 +306,7 @@ export function allocateJoint(problem: JointProblem, opts: JointOptions = {}): J
     for (const o of shared) { const g = 1 - use[o]; if (g < 0 || lambda[o] > 0) norm2 += g * g; }
     if (norm2 === 0) {
       // The relaxed picks are feasible and complementary, hence optimal: keep them (after sweeps, which cannot lose).
-      const candidate = improveByBestResponse(problem, repaired, 1);
+      const candidate = improveByBestResponse(problem, repaired, 1, work);
       const v = jointObjective(problem, candidate);
       if (v > bestValue) { bestValue = v; best = candidate; }
       break;
@@ -275,7 +320,7 @@ export function allocateJoint(problem: JointProblem, opts: JointOptions = {}): J
   }
   // Final polish of the best plan with steal moves, unless the bound already proves it within relGap.
   if (steals && bound(upper) - bestValue > relGap * Math.abs(upper)) {
-    best = improveBySteals(problem, best);
+    best = improveBySteals(problem, best, 3, work);
     bestValue = jointObjective(problem, best);
   }
   return { chosen: best, objective: bestValue, upperBound: Math.max(bound(upper), bestValue), iterations: it };

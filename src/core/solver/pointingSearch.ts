@@ -162,18 +162,6 @@ export interface SearchResult {
   starlightWarnings: string[];
 }
 
-/** Unit vectors of every target (for exact gnomonic projection by dot products, no trigonometry per point). */
-function unitVectors(ctx: AllocationContext): Float64Array {
-  const n = ctx.targets.length, v = new Float64Array(3 * n);
-  for (let i = 0; i < n; i++) {
-    const a = ctx.raDeg[i] * RAD_PER_DEG, d = ctx.decDeg[i] * RAD_PER_DEG;
-    v[3 * i] = Math.cos(d) * Math.cos(a);
-    v[3 * i + 1] = Math.cos(d) * Math.sin(a);
-    v[3 * i + 2] = Math.sin(d);
-  }
-  return v;
-}
-
 /**
  * The candidate set of intervals already sorted by end (equal lengths, sorted by start): the interval index of
  * solver/intervalScheduling (order by end, pred[k] = number of intervals ending at or before start k) in one pass.
@@ -210,9 +198,8 @@ export function proxyModel(env: SearchEnv): (p: MaskPointing, liberal?: boolean)
   const L = profile.slits.minLengthArcsec, gap = profile.slits.gapArcsec, box = profile.alignment.boxSizeArcsec;
   const slitRaster = footprintRaster(profile.footprint, profile.slits.widthArcsec / 2, L / 2);
   const boxRaster = footprintRaster(profile.footprint, box / 2, box / 2);
-  const uv = unitVectors(ctx);
+  const { x: ux, y: uy, z: uz } = ctx.unit;
   const bufObj = new Int32Array(ctx.tracerIndices.length), bufY = new Float64Array(ctx.tracerIndices.length);
-  if (ctx.tracerIndices.length >= 1048576) throw new RangeError('pointing search: more than 2^20 tracer candidates');
   // Tracers binned in square cells of the galaxy's tangent plane, so a trial only visits cells near the mask.
   const cell = 60, gc = tangentCentre(ctx.galaxy.raDeg, ctx.galaxy.decDeg);
   const cells = new Map<number, number[]>();
@@ -248,7 +235,7 @@ export function proxyModel(env: SearchEnv): (p: MaskPointing, liberal?: boolean)
         if (mx < b.minX - grow || mx > b.maxX + grow || my < b.minY - grow || my > b.maxY + grow) continue;
       }
       for (const i of c.list) {
-      const px = uv[3 * i], py = uv[3 * i + 1], pz = uv[3 * i + 2];
+      const px = ux[i], py = uy[i], pz = uz[i];
       const cosC = px * cx + py * cy + pz * cz;
       if (cosC < 0.9) continue; // farther than ~25 degrees: never on a mask
       const xi = ((px * ex + py * ey) / cosC) * ARCSEC_PER_RAD, eta = ((px * nx + py * ny + pz * nz) / cosC) * ARCSEC_PER_RAD;
@@ -258,19 +245,19 @@ export function proxyModel(env: SearchEnv): (p: MaskPointing, liberal?: boolean)
       bufObj[n] = i; bufY[n] = y; n++;
       }
     }
-    // Sort by y with a native numeric sort of packed keys: y quantised to 1e-4 arcsec (ordering only), index in the low 20 bits.
+    // Order by y quantised to 1e-4 arcsec (ordering only), ties by position: a bucket sort, O(n) for spread-out y.
     const keys = new Float64Array(n);
-    for (let k = 0; k < n; k++) keys[k] = Math.floor((bufY[k] + 1e4) * 1e4) * 1048576 + k;
-    keys.sort();
+    for (let k = 0; k < n; k++) keys[k] = Math.floor((bufY[k] + 1e4) * 1e4);
+    const byY = orderByKey(keys);
     const objects = new Int32Array(n), y = new Float64Array(n), starts = new Float64Array(n), ends = new Float64Array(n);
     for (let k = 0; k < n; k++) {
-      const j = keys[k] % 1048576;
+      const j = byY[k];
       objects[k] = bufObj[j]; y[k] = bufY[j];
       starts[k] = y[k] - L / 2; ends[k] = y[k] + L / 2 + gap;
     }
     let alignmentAvailable = 0;
     for (const i of ctx.alignmentIndices) {
-      const px = uv[3 * i], py = uv[3 * i + 1], pz = uv[3 * i + 2];
+      const px = ux[i], py = uy[i], pz = uz[i];
       const cosC = px * cx + py * cy + pz * cz;
       if (cosC < 0.9) continue;
       const xi = ((px * ex + py * ey) / cosC) * ARCSEC_PER_RAD, eta = ((px * nx + py * ny + pz * nz) / cosC) * ARCSEC_PER_RAD;
@@ -279,6 +266,35 @@ export function proxyModel(env: SearchEnv): (p: MaskPointing, liberal?: boolean)
     // The liberal set feeds a proven bound: its interval index is built exactly (sorted by end), not from the packed keys.
     return { set: liberal ? maskCandidateSet(objects, starts, ends) : equalLengthCandidateSet(objects, starts, ends), y, alignmentAvailable };
   };
+}
+
+/**
+ * Positions 0..n-1 of `keys` ordered by (key, position) ascending, the order of a stable sort: a counting sort into
+ * n equal-width buckets over [min, max] key (monotone in the key), then insertion sort inside each bucket.
+ */
+export function orderByKey(keys: Float64Array): Int32Array {
+  const n = keys.length;
+  const out = new Int32Array(n);
+  if (n === 0) return out;
+  let lo = Infinity, hi = -Infinity;
+  for (let k = 0; k < n; k++) { if (keys[k] < lo) lo = keys[k]; if (keys[k] > hi) hi = keys[k]; }
+  const scale = hi > lo ? (n - 1) / (hi - lo) : 0;
+  const bucketOf = (k: number) => Math.min(n - 1, Math.floor((keys[k] - lo) * scale));
+  const start = new Int32Array(n + 1);
+  for (let k = 0; k < n; k++) start[bucketOf(k) + 1]++;
+  for (let b = 0; b < n; b++) start[b + 1] += start[b];
+  const fill = start.slice(0, n);
+  // Positions enter their bucket in increasing order, so equal keys keep position order (a stable insertion sort).
+  for (let k = 0; k < n; k++) out[fill[bucketOf(k)]++] = k;
+  for (let b = 0; b < n; b++) {
+    for (let i = start[b] + 1; i < start[b + 1]; i++) {
+      const v = out[i], kv = keys[v];
+      let j = i - 1;
+      while (j >= start[b] && keys[out[j]] > kv) { out[j + 1] = out[j]; j--; }
+      out[j + 1] = v;
+    }
+  }
+  return out;
 }
 
 /**

@@ -243,29 +243,34 @@ export function evaluateSlot(g: GalaxyOnMask, rules: EligibilityRules, slot: Spa
   // R >= sqrt(q) x (distance to the galaxy centre) >= sqrt(q) |yc - gy|: slots whose line stays beyond the reach hold no starlight.
   const lineCanReach = s.reachRe > 0 && Math.sqrt(g.galaxy.axisRatio) * Math.abs(yc - g.gyArcsec) <= s.maxRe * re;
   const wantSky = s.skyPerMask > 0;
-  const lightOk: SlotChoice[] = [], skyOk: SlotChoice[] = [];
+  // The centre surface brightness is needed for sky slots and for one-sample starlight only.
+  const needCentre = wantSky || samples === 1;
+  const reachable: SlotChoice[] = [], skyOk: SlotChoice[] = [];
   for (const x of xs) {
     const { u, v } = maskOffsetToGalaxy(g, x, yc);
     const rArcsec = circularisedRadiusArcsec(u, v, g.galaxy.axisRatio), azimuthDeg = galaxyAzimuthDeg(u, v);
     const rRe = rArcsec / re;
-    const muCentre = sersicMuMagPerArcsec2(rArcsec, re, n, g.galaxy.muE, g.bn);
-    if (lineCanReach && rRe <= s.maxRe) {
-      const mu = samples === 1 ? muCentre : slitMeanMu(g, x, slot.lo, slot.hi, samples);
-      const sn = starlightSignalToNoise(mu, len, rules.widthArcsec, s);
-      if (sn >= s.targetSnPerA) lightOk.push({ y0: slot.lo, y1: slot.hi, xArcsec: x, rRe, azimuthDeg, snPerA: sn, muMagPerArcsec2: mu });
-    }
+    const muCentre = needCentre ? sersicMuMagPerArcsec2(rArcsec, re, n, g.galaxy.muE, g.bn) : NaN;
+    if (lineCanReach && rRe <= s.maxRe) reachable.push({ y0: slot.lo, y1: slot.hi, xArcsec: x, rRe, azimuthDeg, snPerA: NaN, muMagPerArcsec2: muCentre });
     if (wantSky && muCentre >= s.skyMagPerArcsec2 + s.skyContrastMag) skyOk.push({ y0: slot.lo, y1: slot.hi, xArcsec: x, rRe, azimuthDeg, snPerA: 0, muMagPerArcsec2: muCentre });
   }
-  // Outermost first; the footprint test only until one fits. Starlight: the outermost fitting position of each radial bin.
+  // Outermost first; per radial bin the first position that reaches the S/N goal and fits the footprint. The mean
+  // surface brightness, the S/N and the footprint test (the costly parts) are computed only until a bin is settled,
+  // which gives the same choices as testing every position first.
   const fits = (c: SlotChoice) => centredRectFits(rules, c.xArcsec, yc, hw, half);
   const byR = (a: SlotChoice, b: SlotChoice) => b.rRe - a.rRe || a.xArcsec - b.xArcsec;
   const options: SlotChoice[] = [];
   const binsDone = new Set<number>();
-  for (const c of lightOk.sort(byR)) {
+  for (const c of reachable.sort(byR)) {
     const bin = Math.floor(c.rRe);
-    if (binsDone.has(bin) || !fits(c)) continue;
+    if (binsDone.has(bin)) continue;
+    const mu = samples === 1 ? c.muMagPerArcsec2 : slitMeanMu(g, c.xArcsec, slot.lo, slot.hi, samples);
+    const sn = starlightSignalToNoise(mu, len, rules.widthArcsec, s);
+    if (!(sn >= s.targetSnPerA)) continue;
+    const choice: SlotChoice = { ...c, snPerA: sn, muMagPerArcsec2: mu };
+    if (!fits(choice)) continue;
     binsDone.add(bin);
-    options.push(c);
+    options.push(choice);
   }
   return { starlight: options[0] ?? null, options, sky: skyOk.sort(byR).find(fits) ?? null };
 }
@@ -350,6 +355,54 @@ interface MaskWork {
   displaced: Slit[];
 }
 
+/** What the stage needs on every mask: settings, eligibility rules, the Sérsic b_n and the trade (all independent of where a mask points). */
+export interface StarlightStage {
+  galaxy: GalaxyModel;
+  s: StarlightSettings;
+  rules: EligibilityRules;
+  bn: number;
+  gapArcsec: number;
+  /** The trade of tracers for starlight slits, or null when it is off (no trade given, displaceTracers false, no starlight). */
+  trade: StarlightTrade | null;
+}
+
+/** Prepare the stage once for a plan (reused for every mask and, in the editor, for every drag update). */
+export function starlightStage(galaxy: GalaxyModel, profile: InstrumentProfile, plan: Pick<PlanFile, 'goals' | 'galaxy' | 'starlight'>, trade?: StarlightTrade): StarlightStage {
+  const s = starlightSettings(plan.starlight as StarlightRules | undefined, profile, plan);
+  const rules = eligibilityRules(profile, plan.goals.linesA, galaxy.vsysKms);
+  const displace = !!trade && (plan.starlight as StarlightRules | undefined)?.displaceTracers !== false && s.reachRe > 0 && s.maxPerMask > 0;
+  return { galaxy, s, rules, bn: sersicBn(galaxy.sersicN), gapArcsec: profile.slits.gapArcsec, trade: displace ? trade! : null };
+}
+
+/** Coverage the other masks already give: starlight cells (starlightCell), radial bins (floor of R/Re) and the reach (R/Re). */
+export interface StarlightTaken {
+  cells: ReadonlySet<string>;
+  bins: ReadonlySet<number>;
+  reachRe: number;
+}
+
+/** First step on one mask: starlight and sky slits in the free space (cells filled here are added to `cells`). */
+function freeSpaceWork(st: StarlightStage, ms: MaskSolution, cells: Set<string>): MaskWork {
+  const g = galaxyOnMask(ms.mask, st.galaxy, st.bn);
+  const base = ms.slits.filter((r) => r.role === 'tracer' || r.role === 'alignment');
+  const slots = freeSlots(base, st.rules, st.gapArcsec, st.s.slitLengthArcsec);
+  const { starlight, sky } = chooseSlots(g, st.rules, slots, st.s, cells);
+  return { ms, g, base, starlight, sky, displaced: [] };
+}
+
+/** Last step on one mask: its rows (neighbours trimmed, new slits added, sorted by y) and its warnings. */
+function finishWork(st: StarlightStage, w: MaskWork, warnings: string[]): MaskSolution {
+  const { s, rules, gapArcsec: gap } = st;
+  if (w.sky.length < s.skyPerMask) warnings.push(`mask ${w.ms.mask.id}: ${w.sky.length} of ${s.skyPerMask} sky slits placed (free space where the galaxy is ${s.skyContrastMag} mag fainter than the sky is short)`);
+  if (w.displaced.length) warnings.push(`mask ${w.ms.mask.id}: ${w.displaced.length} tracer slit(s) (weight ${w.displaced.reduce((a, d) => a + d.priority, 0).toFixed(2)}) gave way to starlight slits that raise the objective more (${w.displaced.map((d) => d.objectId).join(', ')})`);
+  const added = [...w.starlight, ...w.sky];
+  const kept = trimAround(w.base, added, gap, rules.minLengthArcsec / 2);
+  const starlightRows = [...w.starlight].sort((a, b) => a.y0 - b.y0);
+  const rows = [...kept, ...slotRows(w.ms.mask, starlightRows, 'starlight', rules.widthArcsec), ...slotRows(w.ms.mask, w.sky, 'sky', rules.widthArcsec)];
+  rows.sort((a, b) => a.yArcsec - b.yArcsec);
+  return { ...w.ms, slits: rows };
+}
+
 /**
  * Add starlight and sky slits to every mask (see the module comment). `reachRe` 0 turns starlight off (sky slits
  * are still placed). First every mask gets slits in its free space (masks in order; cells filled by an earlier mask
@@ -358,37 +411,54 @@ interface MaskWork {
  * (a new radial bin, more reach; see StarlightTrade) must exceed the summed weight of the tracers it displaces.
  */
 export function placeStarlightAndSky(masks: readonly MaskSolution[], galaxy: GalaxyModel, profile: InstrumentProfile, plan: Pick<PlanFile, 'goals' | 'galaxy' | 'starlight'>, trade?: StarlightTrade): StarlightResult {
-  const s = starlightSettings(plan.starlight as StarlightRules | undefined, profile, plan);
-  const rules = eligibilityRules(profile, plan.goals.linesA, galaxy.vsysKms);
-  const bn = sersicBn(galaxy.sersicN);
+  const st = starlightStage(galaxy, profile, plan, trade);
   const cells = new Set<string>();
   const warnings: string[] = [];
-  const gap = profile.slits.gapArcsec, minHalf = rules.minLengthArcsec / 2;
-  const work: MaskWork[] = masks.map((ms) => {
-    const g = galaxyOnMask(ms.mask, galaxy, bn);
-    const base = ms.slits.filter((r) => r.role === 'tracer' || r.role === 'alignment');
-    const slots = freeSlots(base, rules, gap, s.slitLengthArcsec);
-    const { starlight, sky } = chooseSlots(g, rules, slots, s, cells);
-    return { ms, g, base, starlight, sky, displaced: [] };
-  });
-  const displace = trade && (plan.starlight as StarlightRules | undefined)?.displaceTracers !== false && s.reachRe > 0 && s.maxPerMask > 0;
-  if (displace) {
+  const work = masks.map((ms) => freeSpaceWork(st, ms, cells));
+  if (st.trade) {
     const bins = new Set<number>();
     let reach = 0;
     for (const w of work) for (const c of w.starlight) { bins.add(Math.floor(c.rRe)); reach = Math.max(reach, c.rRe); }
-    for (const w of work) displaceForStarlight(w, rules, s, trade, gap, bins, () => reach, (r) => (reach = Math.max(reach, r)));
+    for (const w of work) displaceForStarlight(w, st.rules, st.s, st.trade, st.gapArcsec, bins, () => reach, (r) => (reach = Math.max(reach, r)));
   }
-  const out = work.map((w) => {
-    if (w.sky.length < s.skyPerMask) warnings.push(`mask ${w.ms.mask.id}: ${w.sky.length} of ${s.skyPerMask} sky slits placed (free space where the galaxy is ${s.skyContrastMag} mag fainter than the sky is short)`);
-    if (w.displaced.length) warnings.push(`mask ${w.ms.mask.id}: ${w.displaced.length} tracer slit(s) (weight ${w.displaced.reduce((a, d) => a + d.priority, 0).toFixed(2)}) gave way to starlight slits that raise the objective more (${w.displaced.map((d) => d.objectId).join(', ')})`);
-    const added = [...w.starlight, ...w.sky];
-    const kept = trimAround(w.base, added, gap, minHalf);
-    const starlightRows = [...w.starlight].sort((a, b) => a.y0 - b.y0);
-    const rows = [...kept, ...slotRows(w.ms.mask, starlightRows, 'starlight', rules.widthArcsec), ...slotRows(w.ms.mask, w.sky, 'sky', rules.widthArcsec)];
-    rows.sort((a, b) => a.yArcsec - b.yArcsec);
-    return { ...w.ms, slits: rows };
-  });
-  return { masks: out, warnings };
+  return { masks: work.map((w) => finishWork(st, w, warnings)), warnings };
+}
+
+/**
+ * Starlight and sky slits on one mask, by the same steps as placeStarlightAndSky, with the coverage the other
+ * masks already give counted as taken (`taken`; nothing taken: exactly placeStarlightAndSky of this mask alone).
+ * The editor re-solves a dragged mask with this, reusing one StarlightStage for the whole drag.
+ */
+export function placeStarlightOnMask(st: StarlightStage, ms: MaskSolution, taken: StarlightTaken = { cells: new Set(), bins: new Set(), reachRe: 0 }): { mask: MaskSolution; warnings: string[] } {
+  const cells = new Set(taken.cells);
+  const w = freeSpaceWork(st, ms, cells);
+  if (st.trade) {
+    const bins = new Set(taken.bins);
+    let reach = taken.reachRe;
+    for (const c of w.starlight) { bins.add(Math.floor(c.rRe)); reach = Math.max(reach, c.rRe); }
+    displaceForStarlight(w, st.rules, st.s, st.trade, st.gapArcsec, bins, () => reach, (r) => (reach = Math.max(reach, r)));
+  }
+  const warnings: string[] = [];
+  return { mask: finishWork(st, w, warnings), warnings };
+}
+
+/** The coverage a set of finished masks gives to the starlight stage (their starlight slits' cells, bins and reach). */
+export function starlightTaken(st: StarlightStage, masks: readonly MaskSolution[]): StarlightTaken {
+  const cells = new Set<string>(), bins = new Set<number>();
+  let reachRe = 0;
+  for (const ms of masks) {
+    const rows = ms.slits.filter((r) => r.role === 'starlight');
+    if (!rows.length) continue;
+    const g = galaxyOnMask(ms.mask, st.galaxy, st.bn);
+    for (const r of rows) {
+      const { rArcsec, azimuthDeg } = galaxyRadiusAt(g, r.xArcsec, r.yArcsec);
+      const rRe = rArcsec / st.galaxy.reArcsec;
+      cells.add(starlightCell(rRe, azimuthDeg));
+      bins.add(Math.floor(rRe));
+      reachRe = Math.max(reachRe, rRe);
+    }
+  }
+  return { cells, bins, reachRe };
 }
 
 /** Greedy trade of tracer slits for starlight slits on one mask (see placeStarlightAndSky). */

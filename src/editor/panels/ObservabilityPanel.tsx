@@ -3,7 +3,7 @@
  * with the Moon's illuminated fraction, computed in a worker (src/core/observe/night.ts); and each mask's
  * recommended hour-angle window from the solution's refraction report (src/core/observe/refractionReport.ts).
  */
-import { useEffect, useRef, useState } from 'react';
+import { memo, useEffect, useRef, useState } from 'react';
 import type { EditorController } from '../controller';
 import type { NightRow } from '../../core/observe/night';
 import type { GalaxyModel } from '../../core/plan/schema';
@@ -19,7 +19,8 @@ function semesterOf(d: Date): { from: string; to: string; label: string } {
   return { from: `${y0}-08-01`, to: `${y0 + 1}-01-31`, label: `${y0} Aug–${y0 + 1} Jan` };
 }
 
-function NightsChart({ rows }: { rows: NightRow[] }) {
+/** Dark hours per night (bars) and the Moon's lit fraction (dashed line); memoised: it redraws only when the rows change, not on every solve. */
+const NightsChart = memo(function NightsChart({ rows }: { rows: NightRow[] }) {
   const W = 290, H = 110, left = 24, bottom = 16;
   const maxH = Math.max(1, ...rows.map((r) => r.darkTotalHours));
   const bw = (W - left - 4) / Math.max(1, rows.length);
@@ -40,7 +41,7 @@ function NightsChart({ rows }: { rows: NightRow[] }) {
       {months.map(({ r, i }) => <text key={r.date} x={left + i * bw} y={H - 3} className="axis">{r.date.slice(5, 7)}</text>)}
     </svg>
   );
-}
+});
 
 function HourAngleWindows({ c }: { c: EditorController }) {
   const masks = c.session.solution?.result.plan.masks ?? [];

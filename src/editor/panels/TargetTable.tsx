@@ -4,9 +4,10 @@
  * reset the weight or the forcing of the selection. Linked both ways with the sky view: the selection
  * is shared, and the table scrolls to the first selected row when the sky selects it.
  */
-import { useEffect, useMemo, useRef, useState } from 'react';
+import { memo, useEffect, useMemo, useRef, useState } from 'react';
 import type { EditorController } from '../controller';
 import type { Target } from '../../core/catalog/types';
+import type { PlanFile } from '../../core/plan/schema';
 import type { Slit } from '../../core/solver/types';
 import { setOverridesCommand } from '../store/commands';
 
@@ -29,7 +30,16 @@ function statusOf(t: Target, w: number, slit: Slit | undefined, force: string | 
   return t.role === 'alignment' ? 'star' : '';
 }
 
-export function TargetTable({ c, data }: { c: EditorController; data: TargetRowData }) {
+export interface TargetTableProps {
+  c: EditorController;
+  data: TargetRowData;
+  /** The shared selection (catalog indices) and the plan's per-target overrides; props so the memo sees their changes. */
+  selection: ReadonlySet<number>;
+  overrides: NonNullable<PlanFile['targetOverrides']>;
+}
+
+/** Memoised: it re-renders when its data, the selection or the overrides change, not on every controller change. */
+export const TargetTable = memo(function TargetTable({ c, data, selection, overrides }: TargetTableProps) {
   const [sort, setSort] = useState<{ key: SortKey; dir: 1 | -1 }>({ key: 'weight', dir: -1 });
   const [text, setText] = useState('');
   const [filter, setFilter] = useState<Filter>('all');
@@ -38,8 +48,6 @@ export function TargetTable({ c, data }: { c: EditorController; data: TargetRowD
   const [height, setHeight] = useState(200);
   const box = useRef<HTMLDivElement>(null);
   const anchor = useRef<number | null>(null);
-  const overrides = c.store!.doc.plan.targetOverrides ?? {};
-  const selection = c.session.selection;
   const { targets, rRe, weights, slitOf } = data;
 
   // The slit map changes with every solve; rows depend on it only when sorting or filtering by it.
@@ -185,4 +193,4 @@ export function TargetTable({ c, data }: { c: EditorController; data: TargetRowD
       </div>
     </div>
   );
-}
+});

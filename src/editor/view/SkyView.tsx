@@ -85,6 +85,25 @@ export function SkyView(props: SkyViewProps) {
   const renderCount = useRef(0);
   renderCount.current++;
   const gesture = useRef<Gesture | null>(null);
+  // A dragged mask's newest pose waits here for the next animation frame: one render and one preview request per frame,
+  // however many pointer events arrive in between.
+  const framePose = useRef<MaskPose | null>(null);
+  const frameReq = useRef(0);
+  const flushPose = useCallback(() => {
+    frameReq.current = 0;
+    const pose = framePose.current;
+    framePose.current = null;
+    if (!pose) return;
+    setPreview(pose);
+    previewRef.current(pose);
+  }, []);
+  const previewRef = useRef(props.onPreviewMask);
+  previewRef.current = props.onPreviewMask;
+  const queuePose = (pose: MaskPose) => {
+    framePose.current = pose;
+    if (!frameReq.current) frameReq.current = requestAnimationFrame(flushPose);
+  };
+  useEffect(() => () => { if (frameReq.current) cancelAnimationFrame(frameReq.current); }, []);
   const [preview, setPreview] = useState<MaskPose | null>(null);
   const [boxSel, setBoxSel] = useState<{ x0: number; y0: number; x1: number; y1: number } | null>(null);
   const centre = useMemo(() => tangentCentre(galaxy.raDeg, galaxy.decDeg), [galaxy.raDeg, galaxy.decDeg]);
@@ -235,8 +254,7 @@ export function SkyView(props: SkyViewProps) {
       const sky = tangentToSkyDeg(centre, xi, eta);
       const pose = { ...g.pose, raDeg: sky.raDeg, decDeg: sky.decDeg };
       g.pose = pose; g.moved = true;
-      setPreview(pose);
-      props.onPreviewMask(pose);
+      queuePose(pose);
     } else if (g.kind === 'rotate') {
       const c = maskXiEta(g.pose);
       const dXi = s.xiArcsec - c.xiArcsec, dEta = s.etaArcsec - c.etaArcsec;
@@ -245,8 +263,7 @@ export function SkyView(props: SkyViewProps) {
       const paDeg = Math.round(wrap360Deg(Math.atan2(dXi, dEta) * DEG_PER_RAD) * 10) / 10;
       const pose = { ...g.pose, paDeg };
       g.pose = pose;
-      setPreview(pose);
-      props.onPreviewMask(pose);
+      queuePose(pose);
     }
   };
 
@@ -254,6 +271,9 @@ export function SkyView(props: SkyViewProps) {
     const g = gesture.current;
     gesture.current = null;
     if (!g) return;
+    // A pose still waiting for its frame is superseded by the commit (or dropped with the gesture).
+    if (frameReq.current) { cancelAnimationFrame(frameReq.current); frameReq.current = 0; }
+    framePose.current = null;
     if (g.kind === 'move') {
       if (g.moved) props.onCommitMask(g.pose, 'move');
       setPreview(null);

@@ -2,7 +2,8 @@
  * Fast re-solve while a mask is dragged: the pipeline's own stages (src/core/plan/pipeline.ts), with the
  * allocation of the last solve kept, so moving one mask re-prepares and re-allocates only that mask
  * (solver/allocateMasks.ts `reallocateOneMask`: the other masks keep their tracers), then redoes starlight and
- * sky slits and lengthening on that mask only, and coverage over all. The result is a live preview; when the
+ * sky slits (solver/starlight.ts `placeStarlightOnMask`, with the cells, bins and reach of the other masks counted
+ * as taken, and one prepared starlight stage for the whole drag) and lengthening on that mask only, and coverage over all. The result is a live preview; when the
  * drag ends, the editor solves the committed plan with the full `solvePlan`, so the numbers it keeps
  * are exactly the pipeline's.
  */
@@ -14,6 +15,9 @@ import { wrap360Deg } from '../../core/sky/angles';
 import { addStarlightAndSky, lengthenMasks, placeMasks, solvedPlanFile, targetWeights } from '../../core/plan/pipeline';
 import { allocateForPointings, allocationContext, reallocateOneMask, type AllocationContext, type PointingsAllocation } from '../../core/solver/allocateMasks';
 import { coverageReport } from '../../core/coverage/coverage';
+import { objectiveContext } from '../../core/solver/objective';
+import { starlightTrade } from '../../core/solver/pointingSearch';
+import { placeStarlightOnMask, starlightStage, starlightTaken, type StarlightStage, type StarlightTaken } from '../../core/solver/starlight';
 import type { MaskPointing, MaskSolution } from '../../core/solver/types';
 import type { SolveResult } from './protocol';
 
@@ -27,6 +31,10 @@ interface LiveCache {
   alloc: PointingsAllocation;
   /** Every mask after starlight, sky and lengthening, for the current allocation. */
   finished: MaskSolution[] | null;
+  /** The starlight stage of the plan (settings, rules, trade), prepared once. */
+  stage: StarlightStage;
+  /** Starlight coverage of every mask but `index` (those stay as they are while `index` is dragged). */
+  taken: { index: number; value: StarlightTaken } | null;
 }
 
 let cache: LiveCache | null = null;
@@ -59,7 +67,9 @@ export function liveSolve(plan: PlanFile, profile: InstrumentProfile, catalog: C
     // Every mask placed (the case while dragging): allocate for the pointings as given, without a search.
     const given = givenPointings(plan);
     const placed = given ? { pointings: given, allocation: allocateForPointings(ctx, given) } : placeMasks(plan, galaxy, profile, ctx);
-    cache = { key, inputs, ctx, galaxy, weightWarnings, pointings: placed.pointings, alloc: placed.allocation, finished: null };
+    const objective = objectiveContext(plan.goals, plan.search, Array.from(ctx.tracerIndices, (i) => ctx.weights[i]));
+    const stage = starlightStage(galaxy, profile, plan, starlightTrade(objective));
+    cache = { key, inputs, ctx, galaxy, weightWarnings, pointings: placed.pointings, alloc: placed.allocation, finished: null, stage, taken: null };
   } else {
     const c = cache;
     const next = givenPointings(plan);
@@ -87,14 +97,20 @@ export function liveSolve(plan: PlanFile, profile: InstrumentProfile, catalog: C
   if (cache.finished && moved >= 0) {
     // One mask moved and the others kept their tracers: redo starlight, sky and lengthening on that mask only
     // (the full solve after the drag redoes them on all masks together).
-    const one = addStarlightAndSky(plan, cache.ctx, [cache.alloc.masks[moved]], warnings);
+    if (!cache.taken || cache.taken.index !== moved) {
+      const finished = cache.finished;
+      cache.taken = { index: moved, value: starlightTaken(cache.stage, finished.filter((_, i) => i !== moved)) };
+    }
+    const one = placeStarlightOnMask(cache.stage, cache.alloc.masks[moved], cache.taken.value);
+    warnings.push(...one.warnings);
     t2 = performance.now();
     masks = cache.finished.slice();
-    masks[moved] = lengthenMasks(plan, profile, one)[0];
+    masks[moved] = lengthenMasks(plan, profile, [one.mask])[0];
   } else if (cache.finished && moved < 0) {
     t2 = performance.now();
     masks = cache.finished;
   } else {
+    cache.taken = null;
     masks = addStarlightAndSky(plan, cache.ctx, cache.alloc.masks, warnings);
     t2 = performance.now();
     masks = lengthenMasks(plan, profile, masks);
