@@ -127,8 +127,8 @@ export function App({ controller: c }: { controller: EditorController }) {
       ) : (
         <div className="columns">
           <aside className="side left">
-            <GalaxyPanel c={c} galaxy={galaxy} />
-            <ProfilePanel c={c} />
+            <GalaxyPanel c={c} galaxy={galaxy} plan={doc.plan} />
+            <ProfilePanel c={c} profile={doc.profile} />
             <MasksPanel c={c} solved={solvedMasks} />
             <SearchPanel c={c} />
             <BackdropPanel c={c} backdrop={backdrop} />

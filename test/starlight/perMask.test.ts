@@ -3,7 +3,8 @@
 // for each mask of a plan given the cells the masks before it hold.
 import { describe, expect, it } from 'vitest';
 import { solvePlan } from '../../src/core/plan/pipeline';
-import { placeStarlightAndSky, placeStarlightOnMask, starlightStage, starlightTaken, type StarlightTrade } from '../../src/core/solver/starlight';
+import { evaluateSlot, galaxyOnMask, galaxyRadiusAt, placeStarlightAndSky, placeStarlightOnMask, slitMeanMu, starlightSignalToNoise, starlightStage, starlightTaken, type GalaxyOnMask, type StarlightTrade } from '../../src/core/solver/starlight';
+import { centredRectFits, wavelengthOk } from '../../src/core/geometry/eligibility';
 import type { MaskSolution } from '../../src/core/solver/types';
 import { scenario } from '../search/helpers';
 
@@ -54,5 +55,52 @@ describe('starlight and sky slits on one mask', () => {
     expect(t.reachRe).toBeGreaterThan(0);
     expect(t.reachRe).toBeLessThanOrEqual(stage.s.maxRe + 1e-9);
     expect(Math.max(...t.bins)).toBe(Math.floor(t.reachRe));
+  });
+});
+
+describe('one slot evaluated lazily', () => {
+  const x = scenario({ seed: 5, candidates: 800 });
+  const sol = solvePlan(x);
+  const stage = starlightStage(sol.galaxy, x.profile, x.plan);
+
+  /** Every grid position tested first, then sorted (the plain reading of evaluateSlot's rule), as the oracle. */
+  function oracle(g: GalaxyOnMask, slot: { lo: number; hi: number }, samples: number, step: number) {
+    const { rules, s } = stage;
+    const hw = rules.widthArcsec / 2, len = slot.hi - slot.lo, yc = 0.5 * (slot.lo + slot.hi);
+    const ok: { x: number; rRe: number }[] = [];
+    for (let xx = rules.bounds.minX + hw; xx <= rules.bounds.maxX - hw; xx += step) {
+      if (!wavelengthOk(rules, xx)) continue;
+      const rRe = galaxyRadiusAt(g, xx, yc).rArcsec / sol.galaxy.reArcsec;
+      if (!(s.reachRe > 0 && Math.sqrt(sol.galaxy.axisRatio) * Math.abs(yc - g.gyArcsec) <= s.maxRe * sol.galaxy.reArcsec) || rRe > s.maxRe) continue;
+      const sn = starlightSignalToNoise(slitMeanMu(g, xx, slot.lo, slot.hi, samples), len, rules.widthArcsec, s);
+      if (sn >= s.targetSnPerA) ok.push({ x: xx, rRe });
+    }
+    ok.sort((a, b) => b.rRe - a.rRe || a.x - b.x);
+    const bins = new Set<number>(), out: number[] = [];
+    for (const o of ok) {
+      if (bins.has(Math.floor(o.rRe)) || !centredRectFits(rules, o.x, yc, hw, len / 2)) continue;
+      bins.add(Math.floor(o.rRe));
+      out.push(o.x);
+    }
+    return out;
+  }
+
+  it('chooses the same positions as testing every position first, over windows along every mask', () => {
+    let chosen = 0, windows = 0;
+    for (const m of sol.masks) {
+      const g = galaxyOnMask(m.mask, sol.galaxy);
+      for (const L of [stage.s.slitLengthArcsec, stage.s.slitLengthArcsec / 2]) {
+        for (let lo = stage.rules.bounds.minY; lo + L <= stage.rules.bounds.maxY; lo += L) {
+          const slot = { lo, hi: lo + L };
+          const got = evaluateSlot(g, stage.rules, slot, { ...stage.s, skyPerMask: 0 }, 3, 10).options.map((o) => o.xArcsec);
+          expect(got, `mask ${m.mask.id} window ${lo.toFixed(1)}+${L}`).toStrictEqual(oracle(g, slot, 3, 10));
+          chosen += got.length;
+          windows++;
+        }
+      }
+    }
+    // Both kinds of window occur: some hold starlight options, some are too faint for any.
+    expect(chosen).toBeGreaterThan(0);
+    expect(windows).toBeGreaterThan(chosen);
   });
 });

@@ -69,25 +69,25 @@ export class IdIndex {
   /** Set the value of `id` (replacing an earlier one). `value` must be a non-negative integer. */
   set(id: string, value: number): void {
     let h: number;
-    let s: number;
+    let slot: number;
     if (id === this.missKey) {
       // Nothing was added since that `get` (every change clears missKey), so the id is still absent from that slot on.
       h = this.missHash;
-      s = this.missSlot;
+      slot = this.missSlot;
     } else {
       h = hashText(id);
       const t = this.table;
-      for (s = h & this.mask; t[2 * s] !== EMPTY; s = (s + 1) & this.mask) {
-        const e = t[2 * s];
-        if (t[2 * s + 1] === h && this.keys[e] === id) {
+      for (slot = h & this.mask; t[2 * slot] !== EMPTY; slot = (slot + 1) & this.mask) {
+        const e = t[2 * slot];
+        if (t[2 * slot + 1] === h && this.keys[e] === id) {
           this.values[e] = value;
           return;
         }
       }
     }
     this.missKey = null;
-    this.table[2 * s] = this.keys.length;
-    this.table[2 * s + 1] = h;
+    this.table[2 * slot] = this.keys.length;
+    this.table[2 * slot + 1] = h;
     this.keys.push(id);
     this.values.push(value);
     if (this.keys.length * 2 > this.mask + 1) this.grow();

@@ -232,6 +232,34 @@ function slotPositions(rules: EligibilityRules, stepArcsec: number): number[] {
 }
 
 /**
+ * Radius (arcsec, circularised) beyond which a slit of this length cannot reach the S/N goal: the Sérsic surface
+ * brightness falls with radius and the S/N (CCD equation) rises with the source flux, so every point of a slit
+ * beyond it is fainter than a slit that just fails. Found by bisection on the upper side, cached per spectrograph
+ * setup, galaxy, goal and slit size (none of which depends on where the mask points); Infinity when no radius fails.
+ */
+interface LimitEntry { galaxy: GalaxyModel; bn: number; widthArcsec: number; targetSnPerA: number; exposureS: number; skyMagPerArcsec2: number; limitArcsec: number }
+const limitCache = new WeakMap<SpectroSetup, Map<number, LimitEntry>>();
+function snLimitRadiusArcsec(g: GalaxyOnMask, lengthArcsec: number, widthArcsec: number, s: StarlightSettings): number {
+  const gal = g.galaxy;
+  let byLength = limitCache.get(s.setup);
+  if (!byLength) limitCache.set(s.setup, (byLength = new Map()));
+  const e = byLength.get(lengthArcsec);
+  if (e && e.galaxy === gal && e.bn === g.bn && e.widthArcsec === widthArcsec && e.targetSnPerA === s.targetSnPerA && e.exposureS === s.exposureS && e.skyMagPerArcsec2 === s.skyMagPerArcsec2) return e.limitArcsec;
+  const ok = (rArcsec: number) => starlightSignalToNoise(sersicMuMagPerArcsec2(rArcsec, gal.reArcsec, gal.sersicN, gal.muE, g.bn), lengthArcsec, widthArcsec, s) >= s.targetSnPerA;
+  let lo = 0, hi = 1e3 * gal.reArcsec;
+  let limit: number;
+  if (ok(hi)) limit = Infinity;
+  else if (!ok(lo)) limit = 0;
+  else {
+    for (let i = 0; i < 80 && hi - lo > 1e-9 * hi; i++) { const mid = 0.5 * (lo + hi); if (ok(mid)) lo = mid; else hi = mid; }
+    limit = hi;
+  }
+  if (byLength.size > 64) byLength.clear();
+  byLength.set(lengthArcsec, { galaxy: gal, bn: g.bn, widthArcsec, targetSnPerA: s.targetSnPerA, exposureS: s.exposureS, skyMagPerArcsec2: s.skyMagPerArcsec2, limitArcsec: limit });
+  return limit;
+}
+
+/**
  * Evaluate one slot: the outermost position that still reaches the S/N goal within starlightReachRe (starlight),
  * and the outermost position where the galaxy is skyContrastMag fainter than the sky (sky). Positions lie on an
  * x grid of `stepArcsec`; the footprint test (the costly one) is made only for a position that would be chosen.
@@ -261,9 +289,14 @@ export function evaluateSlot(g: GalaxyOnMask, rules: EligibilityRules, slot: Spa
   const byR = (a: SlotChoice, b: SlotChoice) => b.rRe - a.rRe || a.xArcsec - b.xArcsec;
   const options: SlotChoice[] = [];
   const binsDone = new Set<number>();
+  // No point of the slit lies closer to the centre than R - half x (largest gradient of R in the mask frame, 1/sqrt(q)
+  // for q <= 1): beyond the S/N limit radius (with a 0.1 % margin against rounding) the slot cannot reach the goal.
+  const q = g.galaxy.axisRatio, slope = Math.max(Math.sqrt(q), 1 / Math.sqrt(q));
+  const limitArcsec = reachable.length ? snLimitRadiusArcsec(g, len, rules.widthArcsec, s) * 1.001 + 1e-6 : Infinity;
   for (const c of reachable.sort(byR)) {
     const bin = Math.floor(c.rRe);
     if (binsDone.has(bin)) continue;
+    if (c.rRe * re - half * slope > limitArcsec) continue;
     const mu = samples === 1 ? c.muMagPerArcsec2 : slitMeanMu(g, c.xArcsec, slot.lo, slot.hi, samples);
     const sn = starlightSignalToNoise(mu, len, rules.widthArcsec, s);
     if (!(sn >= s.targetSnPerA)) continue;

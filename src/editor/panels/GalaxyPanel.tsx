@@ -2,11 +2,12 @@
 import type { EditorController } from '../controller';
 import { setGalaxyFieldCommand, setGoalCommand } from '../store/commands';
 import { formatDecDms, formatRaHms } from '../../core/sky/sexagesimal';
-import type { GalaxyModel } from '../../core/plan/schema';
+import type { GalaxyModel, PlanFile } from '../../core/plan/schema';
+import { memo } from 'react';
 import { NumberField, Panel } from './Panel';
 
-export function GalaxyPanel({ c, galaxy }: { c: EditorController; galaxy: GalaxyModel }) {
-  const plan = c.store!.doc.plan;
+/** Memoised on the plan it shows: a drag preview (not an edit) does not re-render it. */
+export const GalaxyPanel = memo(function GalaxyPanel({ c, galaxy, plan }: { c: EditorController; galaxy: GalaxyModel; plan: PlanFile }) {
   const g = plan.galaxy;
   const goals = plan.goals;
   return (
@@ -31,4 +32,4 @@ export function GalaxyPanel({ c, galaxy }: { c: EditorController; galaxy: Galaxy
       <div className="kv"><span>lines</span><span className="mono">{goals.linesA.map((l) => l.toFixed(1)).join(', ')} Å</span></div>
     </Panel>
   );
-}
+});

@@ -4,9 +4,11 @@ import { BUNDLED_PROFILES } from '../io/profiles';
 import { setProfileCommand } from '../store/commands';
 import { polygonBounds } from '../../core/geometry/polygon';
 import { Panel } from './Panel';
+import { memo } from 'react';
+import type { InstrumentProfile } from '../../core/profile/schema';
 
-export function ProfilePanel({ c }: { c: EditorController }) {
-  const p = c.store!.doc.profile;
+/** Memoised on the profile it shows: a drag preview (not an edit) does not re-render it. */
+export const ProfilePanel = memo(function ProfilePanel({ c, profile: p }: { c: EditorController; profile: InstrumentProfile }) {
   const b = polygonBounds(p.footprint);
   const ids = [...BUNDLED_PROFILES.keys()];
   if (!ids.includes(p.id)) ids.push(p.id);
@@ -31,4 +33,4 @@ export function ProfilePanel({ c }: { c: EditorController }) {
       <p className="dim small">Illustrative numbers: take real values from your observatory before cutting masks.</p>
     </Panel>
   );
-}
+});
