@@ -134,8 +134,7 @@ export function addStarlightAndSky(plan: PlanFile, ctx: AllocationContext, masks
 
 /** Lengthen every slit (boxes stay fixed) into the free space of its mask. */
 export function lengthenMasks(plan: PlanFile, profile: InstrumentProfile, masks: MaskSolution[]): MaskSolution[] {
-  const cap = (plan as { allocation?: { maxSlitLengthArcsec?: unknown } }).allocation?.maxSlitLengthArcsec;
-  const maxLengthArcsec = typeof cap === 'number' && cap > 0 ? cap : DEFAULT_MAX_LENGTH_FACTOR * profile.slits.minLengthArcsec;
+  const maxLengthArcsec = plan.allocation?.maxSlitLengthArcsec ?? DEFAULT_MAX_LENGTH_FACTOR * profile.slits.minLengthArcsec;
   return masks.map((ms) => {
     const rows = ms.slits.map((s) => ({ ...s, fixed: s.role === 'alignment' }));
     const grown = lengthenSlits(rows, { footprint: profile.footprint, gapArcsec: profile.slits.gapArcsec, maxLengthArcsec });
