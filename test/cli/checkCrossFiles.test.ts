@@ -4,19 +4,11 @@
  * key, and exit non-zero. Line numbers count the header, as catalog-report.csv does.
  */
 import { describe, expect, it, beforeAll } from 'vitest';
-import { spawnSync } from 'node:child_process';
 import { cpSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { join, resolve } from 'node:path';
+import { join } from 'node:path';
+import { FIXTURES, cli } from './runCli';
 
-const ROOT = resolve(__dirname, '../..');
-const BIN = join(ROOT, 'bin/haloweave.js');
-const FIXTURES = join(ROOT, 'test/cli/fixtures');
-
-function cli(args: string[], cwd: string) {
-  const r = spawnSync(process.execPath, [BIN, ...args], { cwd, encoding: 'utf8' });
-  return { code: r.status, out: r.stdout, err: r.stderr };
-}
 
 let work: string;
 let good: string;

@@ -1,20 +1,11 @@
 /** `haloweave plan` and `haloweave check` end to end on a hand-written plan file, plus every bad-input case. */
 import { describe, expect, it, beforeAll } from 'vitest';
-import { spawnSync } from 'node:child_process';
 import { cpSync, existsSync, mkdtempSync, readdirSync, readFileSync, writeFileSync, mkdirSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { join, resolve } from 'node:path';
+import { join } from 'node:path';
 import { parsePlanText } from '../../src/core/plan/validate';
+import { FIXTURES, ROOT, cli } from './runCli';
 
-const ROOT = resolve(__dirname, '../..');
-const BIN = join(ROOT, 'bin/haloweave.js');
-const FIXTURES = join(ROOT, 'test/cli/fixtures');
-
-/** Run the CLI from a working directory away from the package, so nothing depends on the cwd. */
-function cli(args: string[], cwd: string) {
-  const r = spawnSync(process.execPath, [BIN, ...args], { cwd, encoding: 'utf8' });
-  return { code: r.status, out: r.stdout, err: r.stderr };
-}
 
 let work: string;
 beforeAll(() => {

@@ -6,6 +6,7 @@
 import { RAD_PER_DEG } from '../sky/angles';
 import type { Corner } from './polygon';
 
+/** The mask-frame shape of a slit or box: centre (x, y), half-lengths below and above along y, width along x, tilt (arcsec, degrees). */
 export interface SlitShape {
   xArcsec: number;
   yArcsec: number;

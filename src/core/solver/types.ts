@@ -3,6 +3,8 @@
  * centre (gnomonic) at position angle paDeg (East of North).
  */
 
+import type { SlitShape } from '../geometry/slitGeometry';
+
 export type SlitRole = 'tracer' | 'starlight' | 'sky' | 'alignment';
 
 /** A mask pointing: centre in ICRS degrees and PA in degrees East of North, [0, 360). */
@@ -14,20 +16,14 @@ export interface MaskPointing {
   locked: boolean;
 }
 
-/** One slit or alignment box, exactly the columns of slits.csv. */
-export interface Slit {
+/** One slit or alignment box, exactly the columns of slits.csv; its mask-frame shape is a SlitShape. */
+export interface Slit extends SlitShape {
   maskId: string;
   slitId: string;
   objectId: string;
   role: SlitRole;
   raDeg: number;
   decDeg: number;
-  xArcsec: number;
-  yArcsec: number;
-  lenBelowArcsec: number;
-  lenAboveArcsec: number;
-  widthArcsec: number;
-  tiltDeg: number;
   priority: number;
   /** Magnitude of the object, or null for starlight and sky slits. */
   mag: number | null;
