@@ -22,9 +22,6 @@ import type { MaskPose } from './view/SkyView';
 
 export type Listener = () => void;
 
-/** A superseded drag preview is still shown when no preview was shown for this long, ms. */
-const PREVIEW_STALE_SHOW_MS = 100;
-
 /** Problems of an error, or one problem holding its message. */
 function problemsOf(e: unknown, where: string): Problem[] {
   if (e instanceof InputError) return e.problems;
@@ -331,18 +328,9 @@ export class EditorController {
         this.scheduleAutosave();
       }
     }
-    if (o.mode === 'preview' && o.superseded && performance.now() - this.previewShownAt < PREVIEW_STALE_SHOW_MS) {
-      // A newer pose is already on its way to the worker: skip re-rendering for this stale preview (the newest
-      // result is always shown; a stale one only when none was shown for a while, so a backed-up drag still updates).
-      return;
-    }
-    if (o.mode === 'preview') this.previewShownAt = performance.now();
     const forDoc = o.mode === 'preview' ? null : this.requestedFor.get(o.requestId) ?? null;
     this.patch({ solution: o, solveError: null, solvedDoc: forDoc });
   }
-
-  /** When the last drag preview result was shown, ms (performance.now()). */
-  private previewShownAt = -Infinity;
 
   private onSolveError(message: string, problems: Problem[] | undefined, _id: number): void {
     this.patch({ solveError: { message, problems } });

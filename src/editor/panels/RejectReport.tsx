@@ -1,8 +1,10 @@
 /** The catalog's row report: every row that was not used, with its line, column and reason. */
+import { memo } from 'react';
 import type { CatalogReadResult } from '../../core/catalog/types';
 import { Panel } from './Panel';
 
-export function RejectReport({ catalog, name }: { catalog: CatalogReadResult; name: string }) {
+/** Memoised on the catalog it reports: a drag preview (not an edit) does not re-render it. */
+export const RejectReport = memo(function RejectReport({ catalog, name }: { catalog: CatalogReadResult; name: string }) {
   const rejects = [...catalog.rejects].sort((a, b) => a.line - b.line);
   const rows = new Set(rejects.map((r) => r.line)).size;
   return (
@@ -26,4 +28,4 @@ export function RejectReport({ catalog, name }: { catalog: CatalogReadResult; na
       )}
     </Panel>
   );
-}
+});
