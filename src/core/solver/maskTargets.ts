@@ -52,6 +52,45 @@ export function unitVectors(raDeg: ArrayLike<number>, decDeg: ArrayLike<number>)
 }
 
 /**
+ * A mask's tangent-plane basis as unit vectors: centre c, East e (e_z = 0) and North n at the mask centre, and
+ * sin/cos of the mask PA (degrees East of North). With it a unit vector p projects with dot products only.
+ */
+export interface MaskBasis {
+  cx: number; cy: number; cz: number;
+  ex: number; ey: number;
+  nx: number; ny: number; nz: number;
+  sinPa: number; cosPa: number;
+}
+
+/** The tangent-plane basis of a mask centred at (raDeg, decDeg) with position angle paDeg (East of North). */
+export function maskBasis(mask: Pick<MaskPointing, 'raDeg' | 'decDeg' | 'paDeg'>): MaskBasis {
+  const a0 = mask.raDeg * RAD_PER_DEG, d0 = mask.decDeg * RAD_PER_DEG;
+  const ca = Math.cos(a0), sa = Math.sin(a0), cd = Math.cos(d0), sd = Math.sin(d0);
+  return {
+    cx: cd * ca, cy: cd * sa, cz: sd,
+    ex: -sa, ey: ca,
+    nx: -sd * ca, ny: -sd * sa, nz: cd,
+    sinPa: Math.sin(mask.paDeg * RAD_PER_DEG), cosPa: Math.cos(mask.paDeg * RAD_PER_DEG),
+  };
+}
+
+/** cos of the angular distance of unit vector p from the mask centre (p . c). */
+export function maskCosC(b: MaskBasis, px: number, py: number, pz: number): number {
+  return px * b.cx + py * b.cy + pz * b.cz;
+}
+
+/**
+ * Gnomonic projection of unit vector p (with cosC = p . c > 0) into the mask frame, arcsec, written into `out`:
+ * xi = (p . e) / cos c, eta = (p . n) / cos c, then the contract's x = xi cos PA - eta sin PA, y = xi sin PA + eta cos PA.
+ */
+export function unitToMaskArcsec(b: MaskBasis, px: number, py: number, pz: number, cosC: number, out: { xArcsec: number; yArcsec: number }): void {
+  const xi = ((px * b.ex + py * b.ey) / cosC) * ARCSEC_PER_RAD;
+  const eta = ((px * b.nx + py * b.ny + pz * b.nz) / cosC) * ARCSEC_PER_RAD;
+  out.xArcsec = xi * b.cosPa - eta * b.sinPa;
+  out.yArcsec = xi * b.sinPa + eta * b.cosPa;
+}
+
+/**
  * Mask-frame (x, y) arcsec of the points `indices` of `u`, by the same gnomonic projection as projectToMaskArcsec
  * written with dot products (cos c = p.centre, xi = p.east / cos c, eta = p.north / cos c): no trigonometry per
  * point. Points farther than maxRadiusArcsec from the centre (or with no gnomonic image) get NaN.
@@ -59,12 +98,8 @@ export function unitVectors(raDeg: ArrayLike<number>, decDeg: ArrayLike<number>)
 export function projectIndicesToMaskArcsec(
   mask: Pick<MaskPointing, 'raDeg' | 'decDeg' | 'paDeg'>, u: UnitVectors, indices: ArrayLike<number>, maxRadiusArcsec = Infinity,
 ): { xArcsec: Float64Array; yArcsec: Float64Array } {
-  const a0 = mask.raDeg * RAD_PER_DEG, d0 = mask.decDeg * RAD_PER_DEG;
-  const ca = Math.cos(a0), sa = Math.sin(a0), cd = Math.cos(d0), sd = Math.sin(d0);
-  const cx = cd * ca, cy = cd * sa, cz = sd; // centre
-  const ex = -sa, ey = ca; // East (ez = 0)
-  const nx = -sd * ca, ny = -sd * sa, nz = cd; // North
-  const sp = Math.sin(mask.paDeg * RAD_PER_DEG), cp = Math.cos(mask.paDeg * RAD_PER_DEG);
+  const b = maskBasis(mask);
+  const at = { xArcsec: 0, yArcsec: 0 };
   const r = maxRadiusArcsec / ARCSEC_PER_RAD;
   // cos c below which a point is farther than maxRadius on the sky (tan c > r on the plane).
   const minCos = Number.isFinite(r) ? 1 / Math.sqrt(1 + r * r) : 1e-12;
@@ -73,13 +108,11 @@ export function projectIndicesToMaskArcsec(
   for (let k = 0; k < n; k++) {
     const i = indices[k];
     const px = u.x[i], py = u.y[i], pz = u.z[i];
-    const cosC = px * cx + py * cy + pz * cz;
+    const cosC = maskCosC(b, px, py, pz);
     if (!(cosC > minCos) || !(cosC > 1e-12)) { xArcsec[k] = NaN; yArcsec[k] = NaN; continue; }
-    const xi = ((px * ex + py * ey) / cosC) * ARCSEC_PER_RAD;
-    const eta = ((px * nx + py * ny + pz * nz) / cosC) * ARCSEC_PER_RAD;
-    // Mask frame (contract): x = xi cos PA - eta sin PA, y = xi sin PA + eta cos PA.
-    xArcsec[k] = xi * cp - eta * sp;
-    yArcsec[k] = xi * sp + eta * cp;
+    unitToMaskArcsec(b, px, py, pz, cosC, at);
+    xArcsec[k] = at.xArcsec;
+    yArcsec[k] = at.yArcsec;
   }
   return { xArcsec, yArcsec };
 }

@@ -18,7 +18,7 @@
 import type { GalaxyModel, PlanFile } from '../plan/schema';
 import type { InstrumentProfile } from '../profile/schema';
 import { polygonBounds } from '../geometry/polygon';
-import { ARCSEC_PER_RAD, RAD_PER_DEG, wrap360Deg } from '../sky/angles';
+import { RAD_PER_DEG, wrap360Deg } from '../sky/angles';
 import { galaxyToSkyArcsec } from '../sky/frames';
 import { skyToTangentArcsec, tangentCentre, tangentToSkyDeg } from '../sky/tangentPlane';
 import { sersicBn } from '../sky/sersic';
@@ -28,7 +28,7 @@ import { solveIntervalIndex } from './intervalScheduling';
 import { allocateGreedyMaskByMask, improveByBestResponse, maskCandidateSet, resolveOneMask, type JointProblem, type MaskCandidateSet } from './jointAllocation';
 import { wavelengthOk } from '../geometry/eligibility';
 import { footprintRaster, rasterFits } from './footprintRaster';
-import { maskPointToSkyDeg } from './maskTargets';
+import { maskBasis, maskCosC, maskPointToSkyDeg, unitToMaskArcsec } from './maskTargets';
 import { chooseSlots, freeSlots, galaxyOnMask, placeStarlightAndSky, starlightSettings, type RowSpan, type StarlightRules, type StarlightSettings, type StarlightTrade } from './starlight';
 import { addStarlight, addTracer, emptyTally, mergeTallies, objectiveContext, objectiveValue, type ObjectiveContext, type ObjectiveValue, type SearchRules, type Tally } from './objective';
 import { makeRng } from '../scenario/random';
@@ -217,10 +217,8 @@ export function proxyModel(env: SearchEnv): (p: MaskPointing, liberal?: boolean)
   const grow = cell * Math.SQRT1_2 + 30;
 
   return (p: MaskPointing, liberal = false): ProxyMask => {
-    const a0 = p.raDeg * RAD_PER_DEG, d0 = p.decDeg * RAD_PER_DEG;
-    const ca = Math.cos(a0), sa = Math.sin(a0), cd = Math.cos(d0), sd = Math.sin(d0);
-    const cx = cd * ca, cy = cd * sa, cz = sd, ex = -sa, ey = ca, nx = -sd * ca, ny = -sd * sa, nz = cd;
-    const sp = Math.sin(p.paDeg * RAD_PER_DEG), cp = Math.cos(p.paDeg * RAD_PER_DEG);
+    const basis = maskBasis(p);
+    const at = { xArcsec: 0, yArcsec: 0 };
     const pc = skyToTangentArcsec(gc, p.raDeg, p.decDeg);
     // The mask's +y direction as seen in the galaxy's tangent plane (North turns between the two tangent points).
     const up = maskPointToSkyDeg(p, 0, 60), pu = skyToTangentArcsec(gc, up.raDeg, up.decDeg);
@@ -236,10 +234,10 @@ export function proxyModel(env: SearchEnv): (p: MaskPointing, liberal?: boolean)
       }
       for (const i of c.list) {
       const px = ux[i], py = uy[i], pz = uz[i];
-      const cosC = px * cx + py * cy + pz * cz;
+      const cosC = maskCosC(basis, px, py, pz);
       if (cosC < 0.9) continue; // farther than ~25 degrees: never on a mask
-      const xi = ((px * ex + py * ey) / cosC) * ARCSEC_PER_RAD, eta = ((px * nx + py * ny + pz * nz) / cosC) * ARCSEC_PER_RAD;
-      const x = xi * cp - eta * sp, y = xi * sp + eta * cp;
+      unitToMaskArcsec(basis, px, py, pz, cosC, at);
+      const x = at.xArcsec, y = at.yArcsec;
       if (x < b.minX || x > b.maxX || y < b.minY || y > b.maxY) continue;
       if (!wavelengthOk(ctx.rules, x) || (!liberal && !rasterFits(slitRaster, x, y))) continue;
       bufObj[n] = i; bufY[n] = y; n++;
@@ -258,10 +256,10 @@ export function proxyModel(env: SearchEnv): (p: MaskPointing, liberal?: boolean)
     let alignmentAvailable = 0;
     for (const i of ctx.alignmentIndices) {
       const px = ux[i], py = uy[i], pz = uz[i];
-      const cosC = px * cx + py * cy + pz * cz;
+      const cosC = maskCosC(basis, px, py, pz);
       if (cosC < 0.9) continue;
-      const xi = ((px * ex + py * ey) / cosC) * ARCSEC_PER_RAD, eta = ((px * nx + py * ny + pz * nz) / cosC) * ARCSEC_PER_RAD;
-      if (rasterFits(boxRaster, xi * cp - eta * sp, xi * sp + eta * cp)) alignmentAvailable++;
+      unitToMaskArcsec(basis, px, py, pz, cosC, at);
+      if (rasterFits(boxRaster, at.xArcsec, at.yArcsec)) alignmentAvailable++;
     }
     // The liberal set feeds a proven bound: its interval index is built exactly (sorted by end), not from the packed keys.
     return { set: liberal ? maskCandidateSet(objects, starts, ends) : equalLengthCandidateSet(objects, starts, ends), y, alignmentAvailable };
