@@ -9,6 +9,7 @@ import type { GalaxyModel } from '../plan/schema';
 import type { Slit } from '../solver/types';
 import { skyToTangentArcsec, tangentCentre } from '../sky/tangentPlane';
 import type { Violation } from './checkOutput';
+import { PMath } from '../numeric/portableMath';
 
 /** A row this close (in R/Re, or degrees of azimuth) to a bin edge may be counted in either bin. */
 export const BIN_EDGE_TOL = 1e-9;
@@ -23,10 +24,10 @@ export function radiusReAndAzimuthDeg(g: GalaxyModel, raDeg: number, decDeg: num
   const t = skyToTangentArcsec(tangentCentre(g.raDeg, g.decDeg), raDeg, decDeg);
   if (!t) return { rRe: Infinity, phiDeg: 0 };
   const th = g.paDeg * DEG;
-  const u = t.xiArcsec * Math.sin(th) + t.etaArcsec * Math.cos(th);
-  const v = t.xiArcsec * Math.cos(th) - t.etaArcsec * Math.sin(th);
+  const u = t.xiArcsec * PMath.sin(th) + t.etaArcsec * PMath.cos(th);
+  const v = t.xiArcsec * PMath.cos(th) - t.etaArcsec * PMath.sin(th);
   const q = g.axisRatio;
-  const phi = Math.atan2(v, u) / DEG;
+  const phi = PMath.atan2(v, u) / DEG;
   return { rRe: Math.sqrt(q * u * u + (v * v) / q) / g.reArcsec, phiDeg: phi < 0 ? phi + 360 : phi };
 }
 

@@ -3,6 +3,7 @@
  * slit corners with tilt, point-in-polygon with a boundary tolerance, and containment of a convex quadrilateral
  * in a possibly non-convex polygon. Mask frame, arcsec; tilt turns the slit's +y direction towards +x.
  */
+import { PMath } from '../numeric/portableMath';
 
 export type Pt = readonly [number, number];
 
@@ -10,7 +11,7 @@ export type Pt = readonly [number, number];
 export function rowCorners(r: { xArcsec: number; yArcsec: number; lenBelowArcsec: number; lenAboveArcsec: number; widthArcsec: number; tiltDeg: number }): Pt[] {
   const a = (r.tiltDeg * Math.PI) / 180;
   // Unit vectors of the tilted slit: along (sin a, cos a), across (cos a, -sin a).
-  const ax = Math.sin(a), ay = Math.cos(a), cx = Math.cos(a), cy = -Math.sin(a);
+  const ax = PMath.sin(a), ay = PMath.cos(a), cx = PMath.cos(a), cy = -PMath.sin(a);
   const h = r.widthArcsec / 2;
   const at = (across: number, along: number): Pt => [r.xArcsec + across * cx + along * ax, r.yArcsec + across * cy + along * ay];
   return [at(-h, -r.lenBelowArcsec), at(h, -r.lenBelowArcsec), at(h, r.lenAboveArcsec), at(-h, r.lenAboveArcsec)];
@@ -20,7 +21,7 @@ function distToSegment(p: Pt, a: Pt, b: Pt): number {
   const dx = b[0] - a[0], dy = b[1] - a[1];
   const l2 = dx * dx + dy * dy;
   const t = l2 === 0 ? 0 : Math.max(0, Math.min(1, ((p[0] - a[0]) * dx + (p[1] - a[1]) * dy) / l2));
-  return Math.hypot(p[0] - a[0] - t * dx, p[1] - a[1] - t * dy);
+  return PMath.hypot(p[0] - a[0] - t * dx, p[1] - a[1] - t * dy);
 }
 
 /** Inside or within tolArcsec of the outline (winding number, so either orientation works). */
@@ -49,7 +50,7 @@ export function quadInside(quad: readonly Pt[], poly: readonly Pt[], tolArcsec: 
   const s = area >= 0 ? 1 : -1;
   const sides = quad.map((a, i) => {
     const b = quad[(i + 1) % quad.length];
-    const len = Math.hypot(b[0] - a[0], b[1] - a[1]) || 1;
+    const len = PMath.hypot(b[0] - a[0], b[1] - a[1]) || 1;
     // Inward unit normal and offset: depth(p) = n . (p - a) >= 0 inside.
     return { nx: (-s * (b[1] - a[1])) / len, ny: (s * (b[0] - a[0])) / len, a };
   });

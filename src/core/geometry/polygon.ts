@@ -1,4 +1,5 @@
 /** Planar polygons in the mask frame (x, y in arcsec); corners in order, either orientation, may be non-convex. */
+import { PMath } from '../numeric/portableMath';
 
 export type Corner = readonly [number, number];
 
@@ -17,7 +18,7 @@ export function pointInPolygon(xArcsec: number, yArcsec: number, polygon: readon
 
 function onSegment(px: number, py: number, ax: number, ay: number, bx: number, by: number): boolean {
   const cross = (bx - ax) * (py - ay) - (by - ay) * (px - ax);
-  const len = Math.hypot(bx - ax, by - ay);
+  const len = PMath.hypot(bx - ax, by - ay);
   if (Math.abs(cross) > 1e-9 * Math.max(1, len)) return false;
   return px >= Math.min(ax, bx) - 1e-9 && px <= Math.max(ax, bx) + 1e-9 && py >= Math.min(ay, by) - 1e-9 && py <= Math.max(ay, by) + 1e-9;
 }
@@ -132,7 +133,7 @@ function strictlyInsideConvex(x: number, y: number, quad: readonly Corner[]): bo
   for (let i = 0; i < quad.length; i++) {
     const [ax, ay] = quad[i];
     const [bx, by] = quad[(i + 1) % quad.length];
-    const len = Math.hypot(bx - ax, by - ay) || 1;
+    const len = PMath.hypot(bx - ax, by - ay) || 1;
     const c = ((bx - ax) * (y - ay) - (by - ay) * (x - ax)) / len;
     if (Math.abs(c) <= 1e-9) return false;
     const s = Math.sign(c);

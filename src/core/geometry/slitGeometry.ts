@@ -5,6 +5,7 @@
  */
 import { RAD_PER_DEG } from '../sky/angles';
 import type { Corner } from './polygon';
+import { PMath } from '../numeric/portableMath';
 
 /** The mask-frame shape of a slit or box: centre (x, y), half-lengths below and above along y, width along x, tilt (arcsec, degrees). */
 export interface SlitShape {
@@ -20,7 +21,7 @@ export interface SlitShape {
 export function slitCornersArcsec(s: SlitShape): Corner[] {
   const h = s.widthArcsec / 2;
   const local: [number, number][] = [[-h, -s.lenBelowArcsec], [h, -s.lenBelowArcsec], [h, s.lenAboveArcsec], [-h, s.lenAboveArcsec]];
-  const t = s.tiltDeg * RAD_PER_DEG, c = Math.cos(t), sn = Math.sin(t);
+  const t = s.tiltDeg * RAD_PER_DEG, c = PMath.cos(t), sn = PMath.sin(t);
   // Rotation taking +y towards +x by tilt: (dx, dy) -> (dx c + dy s, -dx s + dy c).
   return local.map(([dx, dy]) => [s.xArcsec + dx * c + dy * sn, s.yArcsec - dx * sn + dy * c] as Corner);
 }

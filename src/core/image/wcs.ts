@@ -10,6 +10,7 @@ import { type Result, fail, ok } from '../result';
 import { ARCSEC_PER_DEG, DEG_PER_RAD, RAD_PER_DEG } from '../sky/angles';
 import { type SkyPointDeg, type TangentCentre, skyToTangentArcsec, tangentCentre, tangentToSkyDeg } from '../sky/tangentPlane';
 import { type FitsHeader, headerNumber, headerString, headerValue } from '../formats/fits/header';
+import { PMath } from '../numeric/portableMath';
 
 /** A TAN WCS: reference sky point, reference pixel (1-based) and the matrix from pixel offsets to (xi, eta) in degrees. */
 export interface TanWcs {
@@ -124,13 +125,13 @@ function cdMatrix(header: FitsHeader, num: (k: string) => number | undefined, pr
     return [cdelt1 * pc[0], cdelt1 * pc[1], cdelt2 * pc[2], cdelt2 * pc[3]];
   }
   const rotDeg = num('CROTA2') ?? 0;
-  const cr = Math.cos(rotDeg * RAD_PER_DEG), sr = Math.sin(rotDeg * RAD_PER_DEG);
+  const cr = PMath.cos(rotDeg * RAD_PER_DEG), sr = PMath.sin(rotDeg * RAD_PER_DEG);
   // Calabretta & Greisen 2002 (Paper II, section 6.1): CROTA2 expressed as a CD matrix.
   return [cdelt1 * cr, -cdelt2 * sr, cdelt1 * sr, cdelt2 * cr];
 }
 
 /** Position angle (degrees East of North) of the image's +y axis on the sky at CRPIX, for drawing the image rotated. */
 export function imageYAxisPaDeg(wcs: TanWcs): number {
-  const pa = Math.atan2(wcs.skyDegPerPx[1], wcs.skyDegPerPx[3]) * DEG_PER_RAD;
+  const pa = PMath.atan2(wcs.skyDegPerPx[1], wcs.skyDegPerPx[3]) * DEG_PER_RAD;
   return ((pa % 360) + 360) % 360;
 }

@@ -4,6 +4,7 @@
  * (the polynomial turns over near z = 87 deg); the plane-parallel sec z is given alongside.
  */
 import { RAD_PER_DEG } from '../sky/angles';
+import { PMath } from '../numeric/portableMath';
 
 /** Largest zenith distance (degrees) at which airmass is reported; beyond it the functions return null. */
 export const MAX_AIRMASS_ZENITH_DEG = 87;
@@ -11,7 +12,7 @@ export const MAX_AIRMASS_ZENITH_DEG = 87;
 /** Plane-parallel airmass sec z for zenith distance zDeg; null at or below the horizon limit. */
 export function secZAirmass(zenithDeg: number): number | null {
   if (!(zenithDeg < MAX_AIRMASS_ZENITH_DEG)) return null;
-  return 1 / Math.cos(zenithDeg * RAD_PER_DEG);
+  return 1 / PMath.cos(zenithDeg * RAD_PER_DEG);
 }
 
 /** Hardie (1962) airmass for zenith distance zDeg; null beyond MAX_AIRMASS_ZENITH_DEG (object near or below the horizon). */

@@ -4,6 +4,7 @@
  * horizon (no refraction); azimuth from North through East, [0, 360).
  */
 import { DEG_PER_RAD, RAD_PER_DEG, wrap180Deg, wrap360Deg } from '../sky/angles';
+import { PMath } from '../numeric/portableMath';
 
 /** Hour angle in degrees [-180, 180) from local sidereal time and RA (both degrees); positive West. */
 export function hourAngleDeg(localSiderealDeg: number, raDeg: number): number {
@@ -13,14 +14,14 @@ export function hourAngleDeg(localSiderealDeg: number, raDeg: number): number {
 /** Geometric altitude in degrees for hour angle, declination and latitude (degrees), Meeus (13.6). */
 export function altitudeDeg(haDeg: number, decDeg: number, latDeg: number): number {
   const h = haDeg * RAD_PER_DEG, d = decDeg * RAD_PER_DEG, p = latDeg * RAD_PER_DEG;
-  const s = Math.sin(p) * Math.sin(d) + Math.cos(p) * Math.cos(d) * Math.cos(h);
-  return Math.asin(Math.max(-1, Math.min(1, s))) * DEG_PER_RAD;
+  const s = PMath.sin(p) * PMath.sin(d) + PMath.cos(p) * PMath.cos(d) * PMath.cos(h);
+  return PMath.asin(Math.max(-1, Math.min(1, s))) * DEG_PER_RAD;
 }
 
 /** Azimuth in degrees from North through East [0, 360), Meeus (13.5) converted from his South-westward count. */
 export function azimuthDeg(haDeg: number, decDeg: number, latDeg: number): number {
   const h = haDeg * RAD_PER_DEG, d = decDeg * RAD_PER_DEG, p = latDeg * RAD_PER_DEG;
-  const azSouthWest = Math.atan2(Math.sin(h), Math.cos(h) * Math.sin(p) - Math.tan(d) * Math.cos(p));
+  const azSouthWest = PMath.atan2(PMath.sin(h), PMath.cos(h) * PMath.sin(p) - PMath.tan(d) * PMath.cos(p));
   return wrap360Deg(azSouthWest * DEG_PER_RAD + 180);
 }
 
@@ -35,8 +36,8 @@ export function transitAltitudeDeg(decDeg: number, latDeg: number): number {
  */
 export function hourAngleAtAltitudeDeg(altDeg: number, decDeg: number, latDeg: number): number {
   const d = decDeg * RAD_PER_DEG, p = latDeg * RAD_PER_DEG;
-  const c = (Math.sin(altDeg * RAD_PER_DEG) - Math.sin(p) * Math.sin(d)) / (Math.cos(p) * Math.cos(d));
+  const c = (PMath.sin(altDeg * RAD_PER_DEG) - PMath.sin(p) * PMath.sin(d)) / (PMath.cos(p) * PMath.cos(d));
   if (c >= 1) return 0;
   if (c <= -1) return 180;
-  return Math.acos(c) * DEG_PER_RAD;
+  return PMath.acos(c) * DEG_PER_RAD;
 }

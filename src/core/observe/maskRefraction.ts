@@ -17,6 +17,7 @@ import { hardieAirmass } from './airmass';
 import { edlenRefractivity, type AirConditions } from './refractiveIndex';
 import { lossRelativeToCentred, slitTransmission } from './slitLoss';
 import { ARCSEC_PER_RAD, RAD_PER_DEG } from '../sky/angles';
+import { PMath } from '../numeric/portableMath';
 
 /** Settings of the refraction report (resolved: every value present). */
 export interface RefractionSettings {
@@ -132,10 +133,10 @@ export interface MaskRefractionContext {
  */
 function liftPerUnitRefractivity(ctx: MaskRefractionContext, haDeg: number, sinDec: number, cosDec: number): [number, number] | null {
   const h = haDeg * RAD_PER_DEG;
-  const cosH = Math.cos(h);
+  const cosH = PMath.cos(h);
   const cosZ = ctx.sinLat * sinDec + ctx.cosLat * cosDec * cosH;
   if (!(cosZ > 0)) return null;
-  return [(Math.sin(h) * ctx.cosLat) / cosZ, (ctx.sinLat * cosDec - ctx.cosLat * sinDec * cosH) / cosZ];
+  return [(PMath.sin(h) * ctx.cosLat) / cosZ, (ctx.sinLat * cosDec - ctx.cosLat * sinDec * cosH) / cosZ];
 }
 
 /** The guided centre's own refraction displacement in the mask frame (arcsec) at hour angle haH; null below the horizon. */
@@ -171,8 +172,8 @@ export function maskRefractionContext(input: MaskRefractionInput): MaskRefractio
   const ctx: MaskRefractionContext = {
     input,
     kArcsec: { guide: k(s.guideWavelengthA), blue: k(s.scienceRangeA[0]), red: k(s.scienceRangeA[1]) },
-    sinLat: Math.sin(input.latDeg * RAD_PER_DEG), cosLat: Math.cos(input.latDeg * RAD_PER_DEG),
-    centreSinDec: Math.sin(input.mask.decDeg * RAD_PER_DEG), centreCosDec: Math.cos(input.mask.decDeg * RAD_PER_DEG),
+    sinLat: PMath.sin(input.latDeg * RAD_PER_DEG), cosLat: PMath.cos(input.latDeg * RAD_PER_DEG),
+    centreSinDec: PMath.sin(input.mask.decDeg * RAD_PER_DEG), centreCosDec: PMath.cos(input.mask.decDeg * RAD_PER_DEG),
     slits: [],
   };
   const maskCentre = tangentCentre(input.mask.raDeg, input.mask.decDeg);
@@ -191,7 +192,7 @@ export function maskRefractionContext(input: MaskRefractionInput): MaskRefractio
       slit, widthArcsec: slit.widthArcsec, windowRole: WINDOW_ROLES.includes(slit.role),
       centredTransmission: slitTransmission(0, slit.widthArcsec, s.seeingFwhmArcsec),
       dRaDeg: slit.raDeg - input.mask.raDeg,
-      sinDec: Math.sin(slit.decDeg * RAD_PER_DEG), cosDec: Math.cos(slit.decDeg * RAD_PER_DEG),
+      sinDec: PMath.sin(slit.decDeg * RAD_PER_DEG), cosDec: PMath.cos(slit.decDeg * RAD_PER_DEG),
       jxe: (pe.xArcsec - me.xArcsec) / (2 * eps), jxn: (pn.xArcsec - mn.xArcsec) / (2 * eps),
       jye: (pe.yArcsec - me.yArcsec) / (2 * eps), jyn: (pn.yArcsec - mn.yArcsec) / (2 * eps),
       design: { xArcsec: 0, yArcsec: 0 },

@@ -13,6 +13,7 @@ import type { EquatorialOfDate } from './sun';
 import { nutationAt, type NutationRad } from './time';
 import { quadraticThrough, unwrapNearDeg } from './interpolate';
 import { altitudeDeg } from './horizon';
+import { PMath } from '../numeric/portableMath';
 
 /** Equatorial radius of the Earth in km used with astronomia's ellipsoid (Meeus's IAU 1976 value). */
 export const EARTH_RADIUS_KM = 6378.14;
@@ -42,13 +43,13 @@ export function topocentricEquatorial(geo: EquatorialOfDate, site: SiteGeodetic,
   const [rhoSin, rhoCos] = Earth76.parallaxConstants(site.latDeg * RAD_PER_DEG, site.elevationM);
   const r = geo.distanceKm / EARTH_RADIUS_KM;
   const a = geo.raDeg * RAD_PER_DEG, d = geo.decDeg * RAD_PER_DEG, th = localSiderealDeg * RAD_PER_DEG;
-  const x = r * Math.cos(d) * Math.cos(a) - rhoCos * Math.cos(th);
-  const y = r * Math.cos(d) * Math.sin(a) - rhoCos * Math.sin(th);
-  const z = r * Math.sin(d) - rhoSin;
-  const rho = Math.hypot(x, y, z);
+  const x = r * PMath.cos(d) * PMath.cos(a) - rhoCos * PMath.cos(th);
+  const y = r * PMath.cos(d) * PMath.sin(a) - rhoCos * PMath.sin(th);
+  const z = r * PMath.sin(d) - rhoSin;
+  const rho = Math.sqrt(x * x + y * y + z * z);
   return {
-    raDeg: wrap360Deg(Math.atan2(y, x) * DEG_PER_RAD),
-    decDeg: Math.asin(z / rho) * DEG_PER_RAD,
+    raDeg: wrap360Deg(PMath.atan2(y, x) * DEG_PER_RAD),
+    decDeg: PMath.asin(z / rho) * DEG_PER_RAD,
     distanceKm: rho * EARTH_RADIUS_KM,
   };
 }

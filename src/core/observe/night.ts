@@ -14,6 +14,7 @@ import { meanPlaceOfDateDeg } from './precession';
 import { moonTrack, moonEquatorialOfDate, moonIlluminatedFraction, topocentricEquatorial, type SiteGeodetic } from './moon';
 import { sunEquatorialOfDate, type EquatorialOfDate } from './sun';
 import { isoUtcFromJd, jdeFromJdUt, jdFromUnixMs, nutationAt, SIDEREAL_DEG_PER_DAY } from './time';
+import { PMath } from '../numeric/portableMath';
 
 export interface NightOptions {
   /** Dark hours count only while the Hardie airmass is below this (default 2). */
@@ -100,11 +101,11 @@ export function nightRow(date: string, target: SkyTarget, site: SiteGeodetic, op
   const track = nightTrack(jd0, span, site.latDeg, site.lonDeg, nut);
   const place = meanPlaceOfDateDeg(target.raDeg, target.decDeg, jd0 + 0.5);
   const altLimitDeg = altitudeForAirmassDeg(maxAirmass);
-  const sinLat = Math.sin(site.latDeg * RAD_PER_DEG), cosLat = Math.cos(site.latDeg * RAD_PER_DEG);
-  const sinDec = Math.sin(place.decDeg * RAD_PER_DEG), cosDec = Math.cos(place.decDeg * RAD_PER_DEG);
+  const sinLat = PMath.sin(site.latDeg * RAD_PER_DEG), cosLat = PMath.cos(site.latDeg * RAD_PER_DEG);
+  const sinDec = PMath.sin(place.decDeg * RAD_PER_DEG), cosDec = PMath.cos(place.decDeg * RAD_PER_DEG);
   const targetAlt = (jd: number) => {
-    const x = sinLat * sinDec + cosLat * cosDec * Math.cos((track.localSiderealDeg(jd) - place.raDeg) * RAD_PER_DEG);
-    return Math.asin(x > 1 ? 1 : x < -1 ? -1 : x) * DEG_PER_RAD;
+    const x = sinLat * sinDec + cosLat * cosDec * PMath.cos((track.localSiderealDeg(jd) - place.raDeg) * RAD_PER_DEG);
+    return PMath.asin(x > 1 ? 1 : x < -1 ? -1 : x) * DEG_PER_RAD;
   };
 
   const n = Math.ceil(span / stepDays) + 1;

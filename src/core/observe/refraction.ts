@@ -4,10 +4,11 @@
  */
 import { ARCSEC_PER_RAD, RAD_PER_DEG } from '../sky/angles';
 import { edlenRefractivity, type AirConditions } from './refractiveIndex';
+import { PMath } from '../numeric/portableMath';
 
 /** Refraction in arcsec toward the zenith for refractivity n - 1 at true zenith distance zDeg (plane-parallel). */
 export function refractionArcsec(zenithDeg: number, refractivity: number): number {
-  return ARCSEC_PER_RAD * refractivity * Math.tan(zenithDeg * RAD_PER_DEG);
+  return ARCSEC_PER_RAD * refractivity * PMath.tan(zenithDeg * RAD_PER_DEG);
 }
 
 /** Refraction in arcsec toward the zenith of light at airWavelengthA (Edlén index for `air`) at zenith distance zDeg. */

@@ -5,6 +5,7 @@
  * Applied Optics 35, 1566), written from the paper's procedure as remembered (constants marked below) and
  * confirmed against Edlén to better than 1 % (test/observe/refractiveIndex.test.ts).
  */
+import { PMath } from '../numeric/portableMath';
 
 /** Site air: pressure in hPa, temperature in deg C, relative humidity 0..1, CO2 molar fraction in ppm (Ciddor only). */
 export interface AirConditions {
@@ -24,7 +25,7 @@ export const HPA_PER_MMHG = 1.33322387415;
  */
 export function saturationVapourPressurePa(temperatureC: number): number {
   const t = temperatureC + 273.15;
-  return Math.exp(1.2378847e-5 * t * t - 1.9121316e-2 * t + 33.93711047 - 6.3431645e3 / t);
+  return PMath.exp(1.2378847e-5 * t * t - 1.9121316e-2 * t + 33.93711047 - 6.3431645e3 / t);
 }
 
 /** Partial pressure of water vapour in Pa: relative humidity times the saturation pressure. */

@@ -3,6 +3,7 @@
  * FWHM); only its width matters. Offsets are across the slit, arcsec, from the slit's centre line.
  */
 import { regularisedLowerGamma } from '../sky/sersic';
+import { PMath } from '../numeric/portableMath';
 
 /** Gaussian sigma for a FWHM: FWHM = 2 sqrt(2 ln 2) sigma. */
 export const FWHM_PER_SIGMA = 2 * Math.sqrt(2 * Math.LN2);
@@ -22,7 +23,7 @@ export function erf(x: number): number {
       sum += term;
       if (term < sum * 1e-17) break;
     }
-    v = (2 / Math.sqrt(Math.PI)) * Math.exp(-ax * ax) * sum;
+    v = (2 / Math.sqrt(Math.PI)) * PMath.exp(-ax * ax) * sum;
   } else v = regularisedLowerGamma(0.5, ax * ax);
   return x < 0 ? -v : v;
 }

@@ -6,6 +6,7 @@ import { apparent as apparentSiderealS, mean as meanSiderealS } from 'astronomia
 import { deltaT } from 'astronomia/deltat';
 import { meanObliquity, nutation } from 'astronomia/nutation';
 import { wrap360Deg } from '../sky/angles';
+import { PMath } from '../numeric/portableMath';
 
 /** JD of the Unix epoch 1970-01-01T00:00Z. */
 export const JD_UNIX_EPOCH = 2440587.5;
@@ -73,7 +74,7 @@ export function nutationAt(jde: number): NutationRad {
  * for a nutation computed once (it changes by < 0.01 s of time over a day).
  */
 export function greenwichApparentSiderealWithNutationDeg(jdUt: number, nut: NutationRad): number {
-  return wrap360Deg(greenwichMeanSiderealDeg(jdUt) + (nut.dPsi * Math.cos(nut.trueObliquity) * 180) / Math.PI);
+  return wrap360Deg(greenwichMeanSiderealDeg(jdUt) + (nut.dPsi * PMath.cos(nut.trueObliquity) * 180) / Math.PI);
 }
 
 /** Local sidereal time in degrees [0, 360) from Greenwich sidereal time and longitude (East positive, degrees). */

@@ -10,6 +10,7 @@ import { altitudeDeg } from './horizon';
 import { DEG_PER_RAD, RAD_PER_DEG } from '../sky/angles';
 import { quadraticThrough, unwrapNearDeg } from './interpolate';
 import { greenwichApparentSiderealDeg, greenwichApparentSiderealWithNutationDeg, jdeFromJdUt, SIDEREAL_DEG_PER_DAY, type NutationRad } from './time';
+import { PMath } from '../numeric/portableMath';
 
 export const SUNSET_ALTITUDE_DEG = -0.833;
 export const CIVIL_TWILIGHT_DEG = -6;
@@ -42,7 +43,7 @@ export function nightTrack(jd0: number, spanDays: number, latDeg: number, lonEas
   const s2 = sunEquatorialOfDate(jdeFromJdUt(jd0 + spanDays));
   const r0 = s0.raDeg, r1 = unwrapNearDeg(r0, s1.raDeg), r2 = unwrapNearDeg(r1, s2.raDeg);
   const quad = quadraticThrough;
-  const sinLat = Math.sin(latDeg * RAD_PER_DEG), cosLat = Math.cos(latDeg * RAD_PER_DEG);
+  const sinLat = PMath.sin(latDeg * RAD_PER_DEG), cosLat = PMath.cos(latDeg * RAD_PER_DEG);
   const track: NightTrack = {
     localSiderealDeg: (jd) => lst0 + SIDEREAL_DEG_PER_DAY * (jd - jd0),
     sunRaDecDeg: (jd) => {
@@ -53,8 +54,8 @@ export function nightTrack(jd0: number, spanDays: number, latDeg: number, lonEas
       const u = (jd - jd0) / spanDays;
       const ra = quad(r0, r1, r2, u), dec = quad(s0.decDeg, s1.decDeg, s2.decDeg, u) * RAD_PER_DEG;
       const h = (lst0 + SIDEREAL_DEG_PER_DAY * (jd - jd0) - ra) * RAD_PER_DEG;
-      const x = sinLat * Math.sin(dec) + cosLat * Math.cos(dec) * Math.cos(h);
-      return Math.asin(x > 1 ? 1 : x < -1 ? -1 : x) * DEG_PER_RAD;
+      const x = sinLat * PMath.sin(dec) + cosLat * PMath.cos(dec) * PMath.cos(h);
+      return PMath.asin(x > 1 ? 1 : x < -1 ? -1 : x) * DEG_PER_RAD;
     },
   };
   return track;

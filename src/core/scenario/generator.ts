@@ -24,6 +24,7 @@ import { galaxyToSkyArcsec } from '../sky/frames';
 import { tangentCentre, tangentToSkyDeg } from '../sky/tangentPlane';
 import { toCsv } from '../export/csvText';
 import { makeRng, type Rng } from './random';
+import { PMath, sq } from '../numeric/portableMath';
 
 /** The invented demo galaxy: name and position are made up; numbers typical of a nearby early-type galaxy. */
 export const DEMO_GALAXY: GalaxyModel = {
@@ -87,7 +88,7 @@ export interface Scenario {
 
 /** Distance modulus m - M = 5 log10(D / 10 pc), D in Mpc. */
 export function distanceModulusMag(distanceMpc: number): number {
-  return 5 * Math.log10((distanceMpc * 1e6) / 10);
+  return 5 * PMath.log10((distanceMpc * 1e6) / 10);
 }
 
 /** Draw a circularised radius (arcsec) from Sigma ∝ (1 + (R/Rc)^2)^(-alpha/2) on [0, Rmax], inverse CDF on a grid. */
@@ -96,7 +97,7 @@ function radialSampler(rcArcsec: number, alpha: number, rMaxArcsec: number): (u:
   const cdf = new Float64Array(n + 1);
   for (let i = 1; i <= n; i++) {
     const r0 = (rMaxArcsec * (i - 1)) / n, r1 = (rMaxArcsec * i) / n, rm = 0.5 * (r0 + r1);
-    cdf[i] = cdf[i - 1] + Math.pow(1 + (rm / rcArcsec) ** 2, -alpha / 2) * rm * (r1 - r0);
+    cdf[i] = cdf[i - 1] + PMath.pow(1 + sq(rm / rcArcsec), -alpha / 2) * rm * (r1 - r0);
   }
   const total = cdf[n];
   return (u: number) => {
@@ -114,8 +115,8 @@ function radialSampler(rcArcsec: number, alpha: number, rMaxArcsec: number): (u:
 
 /** Draw an apparent magnitude from number counts ∝ 10^(0.3 m) on [mBright, mFaint]. */
 function countsMag(rng: Rng, mBright: number, mFaint: number): number {
-  const a = Math.pow(10, 0.3 * mBright), b = Math.pow(10, 0.3 * mFaint);
-  return Math.log10(a + (b - a) * rng.next()) / 0.3;
+  const a = PMath.pow(10, 0.3 * mBright), b = PMath.pow(10, 0.3 * mFaint);
+  return PMath.log10(a + (b - a) * rng.next()) / 0.3;
 }
 
 const round = (v: number, digits: number) => Number(v.toFixed(digits));
@@ -164,7 +165,7 @@ export function generateScenario(options: ScenarioOptions): Scenario {
     const phi = rng.uniform(0, 2 * Math.PI);
     if (mag > o.magLimit) continue;
     // Circularised R: u = R cos(phi)/sqrt(q), v = R sin(phi) sqrt(q) gives q u^2 + v^2/q = R^2.
-    const s = galaxyToSkyArcsec((r * Math.cos(phi)) / sqrtQ, r * Math.sin(phi) * sqrtQ, galaxy.paDeg);
+    const s = galaxyToSkyArcsec((r * PMath.cos(phi)) / sqrtQ, r * PMath.sin(phi) * sqrtQ, galaxy.paDeg);
     rows.push({ xi: s.xiArcsec, eta: s.etaArcsec, mag, color, role: 'tracer', kind: blue ? 'gc-blue' : 'gc-red' });
   }
   for (let i = 0; i < nField; i++) {

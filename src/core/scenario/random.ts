@@ -3,6 +3,7 @@
  * sequence on every machine (32-bit integer arithmetic only). Generator: mulberry32 (public-domain
  * 32-bit mixer, common practice for reproducible test data; not for cryptography).
  */
+import { PMath } from '../numeric/portableMath';
 
 /** A stream of uniform numbers in [0, 1) plus derived draws. */
 export interface Rng {
@@ -51,9 +52,9 @@ export function makeRng(seed: number | string): Rng {
       let u = 0;
       while (u <= 1e-300) u = next();
       const v = next();
-      const r = Math.sqrt(-2 * Math.log(u));
-      spare = r * Math.sin(2 * Math.PI * v);
-      return mean + sigma * r * Math.cos(2 * Math.PI * v);
+      const r = Math.sqrt(-2 * PMath.log(u));
+      spare = r * PMath.sin(2 * Math.PI * v);
+      return mean + sigma * r * PMath.cos(2 * Math.PI * v);
     },
   };
 }

@@ -5,6 +5,7 @@
  * Galaxy frame at major-axis PA theta: u along the major axis, v along the minor axis.
  */
 import { DEG_PER_RAD, RAD_PER_DEG } from './angles';
+import { PMath } from '../numeric/portableMath';
 
 export interface MaskPointArcsec {
   xArcsec: number;
@@ -18,19 +19,19 @@ export interface GalaxyPointArcsec {
 
 /** Sky (xi East, eta North) to mask frame at paDeg: y = xi sinPA + eta cosPA, x = xi cosPA - eta sinPA (arcsec). */
 export function skyToMaskArcsec(xiArcsec: number, etaArcsec: number, paDeg: number): MaskPointArcsec {
-  const s = Math.sin(paDeg * RAD_PER_DEG), c = Math.cos(paDeg * RAD_PER_DEG);
+  const s = PMath.sin(paDeg * RAD_PER_DEG), c = PMath.cos(paDeg * RAD_PER_DEG);
   return { xArcsec: xiArcsec * c - etaArcsec * s, yArcsec: xiArcsec * s + etaArcsec * c };
 }
 
 /** Mask frame at paDeg back to sky (xi East, eta North), arcsec; the inverse of skyToMaskArcsec. */
 export function maskToSkyArcsec(xArcsec: number, yArcsec: number, paDeg: number): { xiArcsec: number; etaArcsec: number } {
-  const s = Math.sin(paDeg * RAD_PER_DEG), c = Math.cos(paDeg * RAD_PER_DEG);
+  const s = PMath.sin(paDeg * RAD_PER_DEG), c = PMath.cos(paDeg * RAD_PER_DEG);
   return { xiArcsec: xArcsec * c + yArcsec * s, etaArcsec: -xArcsec * s + yArcsec * c };
 }
 
 /** Sky (xi East, eta North) to galaxy frame at major-axis PA thetaDeg: u = xi sin + eta cos, v = xi cos - eta sin (arcsec). */
 export function skyToGalaxyArcsec(xiArcsec: number, etaArcsec: number, thetaDeg: number): GalaxyPointArcsec {
-  const s = Math.sin(thetaDeg * RAD_PER_DEG), c = Math.cos(thetaDeg * RAD_PER_DEG);
+  const s = PMath.sin(thetaDeg * RAD_PER_DEG), c = PMath.cos(thetaDeg * RAD_PER_DEG);
   return { uArcsec: xiArcsec * s + etaArcsec * c, vArcsec: xiArcsec * c - etaArcsec * s };
 }
 
@@ -54,5 +55,5 @@ export function semiMajorRadiusArcsec(uArcsec: number, vArcsec: number, axisRati
 /** Azimuth in degrees from the major axis, phi = atan2(v, u), in (-180, 180]. */
 export function galaxyAzimuthDeg(uArcsec: number, vArcsec: number): number {
   // `+ 0` turns a negative zero v into +0, so a point on the negative major axis gives +180, not -180.
-  return Math.atan2(vArcsec + 0, uArcsec) * DEG_PER_RAD;
+  return PMath.atan2(vArcsec + 0, uArcsec) * DEG_PER_RAD;
 }

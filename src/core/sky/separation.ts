@@ -1,5 +1,6 @@
 /** Great-circle separation and position angle between two sky positions (degrees, ICRS). */
 import { DEG_PER_RAD, RAD_PER_DEG, wrap360Deg } from './angles';
+import { PMath } from '../numeric/portableMath';
 
 /**
  * Angular separation in degrees between (ra1, dec1) and (ra2, dec2), all in degrees.
@@ -10,13 +11,13 @@ export function separationDeg(ra1Deg: number, dec1Deg: number, ra2Deg: number, d
   const d1 = dec1Deg * RAD_PER_DEG;
   const d2 = dec2Deg * RAD_PER_DEG;
   const dra = (ra2Deg - ra1Deg) * RAD_PER_DEG;
-  const s1 = Math.sin(d1), c1 = Math.cos(d1), s2 = Math.sin(d2), c2 = Math.cos(d2);
-  const sdra = Math.sin(dra), cdra = Math.cos(dra);
+  const s1 = PMath.sin(d1), c1 = PMath.cos(d1), s2 = PMath.sin(d2), c2 = PMath.cos(d2);
+  const sdra = PMath.sin(dra), cdra = PMath.cos(dra);
   const a = c2 * sdra;
   const b = c1 * s2 - s1 * c2 * cdra;
-  const num = Math.hypot(a, b);
+  const num = PMath.hypot(a, b);
   const den = s1 * s2 + c1 * c2 * cdra;
-  return Math.atan2(num, den) * DEG_PER_RAD;
+  return PMath.atan2(num, den) * DEG_PER_RAD;
 }
 
 /**
@@ -27,7 +28,7 @@ export function positionAngleDeg(ra1Deg: number, dec1Deg: number, ra2Deg: number
   const d1 = dec1Deg * RAD_PER_DEG;
   const d2 = dec2Deg * RAD_PER_DEG;
   const dra = (ra2Deg - ra1Deg) * RAD_PER_DEG;
-  const y = Math.sin(dra) * Math.cos(d2);
-  const x = Math.cos(d1) * Math.sin(d2) - Math.sin(d1) * Math.cos(d2) * Math.cos(dra);
-  return wrap360Deg(Math.atan2(y, x) * DEG_PER_RAD);
+  const y = PMath.sin(dra) * PMath.cos(d2);
+  const x = PMath.cos(d1) * PMath.sin(d2) - PMath.sin(d1) * PMath.cos(d2) * PMath.cos(dra);
+  return wrap360Deg(PMath.atan2(y, x) * DEG_PER_RAD);
 }

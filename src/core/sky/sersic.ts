@@ -3,8 +3,9 @@
  * b_n is solved exactly from Gamma(2n) = 2 gamma(2n, b_n), i.e. P(2n, b_n) = 1/2 for the
  * regularised lower incomplete gamma function P.
  */
+import { PMath } from '../numeric/portableMath';
 
-const LN10 = Math.log(10);
+const LN10 = PMath.log(10);
 
 /** Natural log of the gamma function for x > 0 (Lanczos approximation, g = 7, 9 terms; ~1e-15 relative). */
 export function lnGamma(x: number): number {
@@ -13,18 +14,18 @@ export function lnGamma(x: number): number {
     0.99999999999980993, 676.5203681218851, -1259.1392167224028, 771.32342877765313, -176.61502916214059,
     12.507343278686905, -0.13857109526572012, 9.9843695780195716e-6, 1.5056327351493116e-7,
   ];
-  if (x < 0.5) return Math.log(Math.PI / Math.sin(Math.PI * x)) - lnGamma(1 - x);
+  if (x < 0.5) return PMath.log(Math.PI / PMath.sin(Math.PI * x)) - lnGamma(1 - x);
   const xx = x - 1;
   let a = c[0];
   const t = xx + g + 0.5;
   for (let i = 1; i < g + 2; i++) a += c[i] / (xx + i);
-  return 0.5 * Math.log(2 * Math.PI) + (xx + 0.5) * Math.log(t) - t + Math.log(a);
+  return 0.5 * PMath.log(2 * Math.PI) + (xx + 0.5) * PMath.log(t) - t + PMath.log(a);
 }
 
 /** Regularised lower incomplete gamma P(a, x) for a > 0, x >= 0 (series below a+1, continued fraction above). */
 export function regularisedLowerGamma(a: number, x: number): number {
   if (x <= 0) return 0;
-  const lnPre = a * Math.log(x) - x - lnGamma(a);
+  const lnPre = a * PMath.log(x) - x - lnGamma(a);
   if (x < a + 1) {
     let sum = 1 / a, term = 1 / a;
     for (let n = 1; n < 10000; n++) {
@@ -32,7 +33,7 @@ export function regularisedLowerGamma(a: number, x: number): number {
       sum += term;
       if (Math.abs(term) < Math.abs(sum) * 1e-16) break;
     }
-    return Math.exp(lnPre) * sum;
+    return PMath.exp(lnPre) * sum;
   }
   // Lentz's continued fraction for Q(a, x).
   const tiny = 1e-300;
@@ -49,7 +50,7 @@ export function regularisedLowerGamma(a: number, x: number): number {
     h *= delta;
     if (Math.abs(delta - 1) < 1e-16) break;
   }
-  return 1 - Math.exp(lnPre) * h;
+  return 1 - PMath.exp(lnPre) * h;
 }
 
 /**
@@ -75,7 +76,7 @@ export function sersicBn(n: number): number {
   let b = 0.5 * (lo + hi);
   // Newton polish: dP/dx = x^(a-1) e^-x / Gamma(a).
   for (let i = 0; i < 3; i++) {
-    const deriv = Math.exp((a - 1) * Math.log(b) - b - lnGamma(a));
+    const deriv = PMath.exp((a - 1) * PMath.log(b) - b - lnGamma(a));
     if (deriv > 0) b -= f(b) / deriv;
   }
   return b;
@@ -83,11 +84,11 @@ export function sersicBn(n: number): number {
 
 /** Sérsic surface brightness in mag/arcsec^2 at circularised radius R: mu(R) = muE + (2.5 b_n / ln 10)[(R/Re)^(1/n) - 1]. */
 export function sersicMuMagPerArcsec2(radiusArcsec: number, reArcsec: number, sersicN: number, muEMagPerArcsec2: number, bn = sersicBn(sersicN)): number {
-  return muEMagPerArcsec2 + ((2.5 * bn) / LN10) * (Math.pow(radiusArcsec / reArcsec, 1 / sersicN) - 1);
+  return muEMagPerArcsec2 + ((2.5 * bn) / LN10) * (PMath.pow(radiusArcsec / reArcsec, 1 / sersicN) - 1);
 }
 
 /** Radius in arcsec where the Sérsic profile reaches surface brightness mu (mag/arcsec^2); inverse of sersicMuMagPerArcsec2. */
 export function sersicRadiusAtMuArcsec(muMagPerArcsec2: number, reArcsec: number, sersicN: number, muEMagPerArcsec2: number, bn = sersicBn(sersicN)): number {
   const t = 1 + ((muMagPerArcsec2 - muEMagPerArcsec2) * LN10) / (2.5 * bn);
-  return t <= 0 ? 0 : reArcsec * Math.pow(t, sersicN);
+  return t <= 0 ? 0 : reArcsec * PMath.pow(t, sersicN);
 }

@@ -7,6 +7,7 @@
  */
 import { fail, ok, type Result } from '../result';
 import { wrap360Deg } from './angles';
+import { PMath } from '../numeric/portableMath';
 
 interface Fields {
   negative: boolean;
@@ -129,7 +130,7 @@ export function parseDecDeg(input: number | string): Result<number> {
 
 /** Split |value| into integer units, minutes and seconds rounded to `decimals`, carrying 60s upward. */
 function toSexagesimalParts(value: number, decimals: number): [number, number, string] {
-  const scale = 10 ** decimals;
+  const scale = PMath.pow(10, decimals);
   const totalUnits = Math.round(Math.abs(value) * 3600 * scale);
   const perUnit = 3600 * scale;
   const a = Math.floor(totalUnits / perUnit);

@@ -4,6 +4,7 @@
  * (Calabretta & Greisen 2002, A&A 395, 1077: R = (180/pi) cot(theta)).
  */
 import { ARCSEC_PER_RAD, DEG_PER_RAD, RAD_PER_DEG, wrap360Deg } from './angles';
+import { PMath } from '../numeric/portableMath';
 
 export interface TangentPointArcsec {
   xiArcsec: number;
@@ -26,7 +27,7 @@ export interface TangentCentre {
 /** Make a projection centre from (ra0, dec0) in degrees. */
 export function tangentCentre(ra0Deg: number, dec0Deg: number): TangentCentre {
   const d0 = dec0Deg * RAD_PER_DEG;
-  return { ra0Deg, dec0Deg, sinDec0: Math.sin(d0), cosDec0: Math.cos(d0) };
+  return { ra0Deg, dec0Deg, sinDec0: PMath.sin(d0), cosDec0: PMath.cos(d0) };
 }
 
 /**
@@ -36,11 +37,11 @@ export function tangentCentre(ra0Deg: number, dec0Deg: number): TangentCentre {
 export function skyToTangentArcsec(centre: TangentCentre, raDeg: number, decDeg: number): TangentPointArcsec | null {
   const d = decDeg * RAD_PER_DEG;
   const dra = (raDeg - centre.ra0Deg) * RAD_PER_DEG;
-  const sd = Math.sin(d), cd = Math.cos(d);
-  const cdra = Math.cos(dra);
+  const sd = PMath.sin(d), cd = PMath.cos(d);
+  const cdra = PMath.cos(dra);
   const cosC = centre.sinDec0 * sd + centre.cosDec0 * cd * cdra;
   if (!(cosC > 1e-12)) return null;
-  const xi = (cd * Math.sin(dra)) / cosC;
+  const xi = (cd * PMath.sin(dra)) / cosC;
   const eta = (centre.cosDec0 * sd - centre.sinDec0 * cd * cdra) / cosC;
   return { xiArcsec: xi * ARCSEC_PER_RAD, etaArcsec: eta * ARCSEC_PER_RAD };
 }
@@ -50,7 +51,7 @@ export function tangentToSkyDeg(centre: TangentCentre, xiArcsec: number, etaArcs
   const xi = xiArcsec / ARCSEC_PER_RAD;
   const eta = etaArcsec / ARCSEC_PER_RAD;
   const den = centre.cosDec0 - eta * centre.sinDec0;
-  const raDeg = wrap360Deg(centre.ra0Deg + Math.atan2(xi, den) * DEG_PER_RAD);
-  const decDeg = Math.atan2(centre.sinDec0 + eta * centre.cosDec0, Math.hypot(xi, den)) * DEG_PER_RAD;
+  const raDeg = wrap360Deg(centre.ra0Deg + PMath.atan2(xi, den) * DEG_PER_RAD);
+  const decDeg = PMath.atan2(centre.sinDec0 + eta * centre.cosDec0, PMath.hypot(xi, den)) * DEG_PER_RAD;
   return { raDeg, decDeg };
 }

@@ -5,6 +5,7 @@
  * centres plus a small term for the sum of pairwise distances (so that collinear sets are still ranked).
  */
 import type { Corner } from '../geometry/polygon';
+import { PMath } from '../numeric/portableMath';
 
 export interface AlignmentCandidate {
   /** Index of the object in the caller's target list. */
@@ -47,11 +48,11 @@ export function alignmentSpreadScore(set: readonly AlignmentCandidate[]): number
     // Fast path (the common minCount): the hull of three points is their triangle.
     const [a, b, c] = set;
     const area = Math.abs((b.xArcsec - a.xArcsec) * (c.yArcsec - a.yArcsec) - (c.xArcsec - a.xArcsec) * (b.yArcsec - a.yArcsec)) / 2;
-    const per = Math.hypot(a.xArcsec - b.xArcsec, a.yArcsec - b.yArcsec) + Math.hypot(a.xArcsec - c.xArcsec, a.yArcsec - c.yArcsec) + Math.hypot(b.xArcsec - c.xArcsec, b.yArcsec - c.yArcsec);
+    const per = PMath.hypot(a.xArcsec - b.xArcsec, a.yArcsec - b.yArcsec) + PMath.hypot(a.xArcsec - c.xArcsec, a.yArcsec - c.yArcsec) + PMath.hypot(b.xArcsec - c.xArcsec, b.yArcsec - c.yArcsec);
     return area + 1e-3 * per;
   }
   let d = 0;
-  for (let i = 0; i < set.length; i++) for (let j = i + 1; j < set.length; j++) d += Math.hypot(set[i].xArcsec - set[j].xArcsec, set[i].yArcsec - set[j].yArcsec);
+  for (let i = 0; i < set.length; i++) for (let j = i + 1; j < set.length; j++) d += PMath.hypot(set[i].xArcsec - set[j].xArcsec, set[i].yArcsec - set[j].yArcsec);
   return convexHullAreaArcsec2(set.map((c) => [c.xArcsec, c.yArcsec] as Corner)) + 1e-3 * d;
 }
 
@@ -91,7 +92,7 @@ export function chooseAlignmentBoxes(candidates: readonly AlignmentCandidate[], 
     rec(0);
     return { ok: true, chosen: best! };
   }
-  let chosen = improveBySwaps(greedyStart(byY, byY.reduce((a, b) => (Math.hypot(b.xArcsec, b.yArcsec) > Math.hypot(a.xArcsec, a.yArcsec) ? b : a)), count, compatible) ?? maxSet.slice(0, count), byY, compatible);
+  let chosen = improveBySwaps(greedyStart(byY, byY.reduce((a, b) => (PMath.hypot(b.xArcsec, b.yArcsec) > PMath.hypot(a.xArcsec, a.yArcsec) ? b : a)), count, compatible) ?? maxSet.slice(0, count), byY, compatible);
   // A second start from the lowest candidate in y, keeping the better of the two.
   const alt = greedyStart(byY, byY[0], count, compatible);
   if (alt) {
@@ -116,7 +117,7 @@ function greedyStart(byY: readonly AlignmentCandidate[], first: AlignmentCandida
     let best: AlignmentCandidate | null = null, bestD = -1;
     for (const c of byY) {
       if (chosen.includes(c) || !compatible(c, chosen)) continue;
-      const d = Math.min(...chosen.map((s) => Math.hypot(c.xArcsec - s.xArcsec, c.yArcsec - s.yArcsec)));
+      const d = Math.min(...chosen.map((s) => PMath.hypot(c.xArcsec - s.xArcsec, c.yArcsec - s.yArcsec)));
       if (d > bestD) { bestD = d; best = c; }
     }
     if (!best) return null;

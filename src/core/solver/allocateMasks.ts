@@ -15,6 +15,7 @@ import { allocateJoint, maskCandidateSet, resolveOneMask, jointObjective, type J
 import { maskPointToSkyDeg, projectIndicesToMaskArcsec, unitVectors, type UnitVectors } from './maskTargets';
 import { polygonBounds } from '../geometry/polygon';
 import type { MaskPointing, MaskSolution, Slit } from './types';
+import { PMath } from '../numeric/portableMath';
 
 /** Everything about the targets and the instrument that does not depend on the pointings. */
 export interface AllocationContext {
@@ -51,7 +52,7 @@ export function allocationContext(profile: InstrumentProfile, galaxy: GalaxyMode
     rules: eligibilityRules(profile, linesA, galaxy.vsysKms),
     raDeg, decDeg,
     unit: unitVectors(raDeg, decDeg),
-    footprintRadiusArcsec: Math.hypot(Math.max(-b.minX, b.maxX), Math.max(-b.minY, b.maxY)) + 1,
+    footprintRadiusArcsec: PMath.hypot(Math.max(-b.minX, b.maxX), Math.max(-b.minY, b.maxY)) + 1,
     tracerIndices: Int32Array.from(tracers),
     alignmentIndices: Int32Array.from(aligns),
   };

@@ -6,6 +6,7 @@ import { skyToMaskArcsec, maskToSkyArcsec } from '../sky/frames';
 import { skyToTangentArcsec, tangentCentre, tangentToSkyDeg } from '../sky/tangentPlane';
 import type { MaskPointing } from './types';
 import { ARCSEC_PER_RAD, RAD_PER_DEG } from '../sky/angles';
+import { PMath } from '../numeric/portableMath';
 
 /** Mask-frame positions (arcsec) of many sky positions (degrees); NaN where a point has no gnomonic image. */
 export function projectToMaskArcsec(
@@ -45,8 +46,8 @@ export function unitVectors(raDeg: ArrayLike<number>, decDeg: ArrayLike<number>)
   const x = new Float64Array(n), y = new Float64Array(n), z = new Float64Array(n);
   for (let i = 0; i < n; i++) {
     const a = raDeg[i] * RAD_PER_DEG, d = decDeg[i] * RAD_PER_DEG;
-    const cd = Math.cos(d);
-    x[i] = cd * Math.cos(a); y[i] = cd * Math.sin(a); z[i] = Math.sin(d);
+    const cd = PMath.cos(d);
+    x[i] = cd * PMath.cos(a); y[i] = cd * PMath.sin(a); z[i] = PMath.sin(d);
   }
   return { x, y, z };
 }
@@ -65,12 +66,12 @@ export interface MaskBasis {
 /** The tangent-plane basis of a mask centred at (raDeg, decDeg) with position angle paDeg (East of North). */
 export function maskBasis(mask: Pick<MaskPointing, 'raDeg' | 'decDeg' | 'paDeg'>): MaskBasis {
   const a0 = mask.raDeg * RAD_PER_DEG, d0 = mask.decDeg * RAD_PER_DEG;
-  const ca = Math.cos(a0), sa = Math.sin(a0), cd = Math.cos(d0), sd = Math.sin(d0);
+  const ca = PMath.cos(a0), sa = PMath.sin(a0), cd = PMath.cos(d0), sd = PMath.sin(d0);
   return {
     cx: cd * ca, cy: cd * sa, cz: sd,
     ex: -sa, ey: ca,
     nx: -sd * ca, ny: -sd * sa, nz: cd,
-    sinPa: Math.sin(mask.paDeg * RAD_PER_DEG), cosPa: Math.cos(mask.paDeg * RAD_PER_DEG),
+    sinPa: PMath.sin(mask.paDeg * RAD_PER_DEG), cosPa: PMath.cos(mask.paDeg * RAD_PER_DEG),
   };
 }
 

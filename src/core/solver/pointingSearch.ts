@@ -33,6 +33,7 @@ import { chooseSlots, freeSlots, galaxyOnMask, placeStarlightAndSky, starlightSe
 import { addStarlight, addTracer, emptyTally, mergeTallies, objectiveContext, objectiveValue, type ObjectiveContext, type ObjectiveValue, type SearchRules, type Tally } from './objective';
 import { makeRng } from '../scenario/random';
 import type { MaskPointing, MaskSolution } from './types';
+import { PMath } from '../numeric/portableMath';
 
 /**
  * The naive layout: the plan's placed masks kept; the k-th unplaced mask (k = 0, 1, ...) goes in direction
@@ -222,8 +223,8 @@ export function proxyModel(env: SearchEnv): (p: MaskPointing, liberal?: boolean)
     const pc = skyToTangentArcsec(gc, p.raDeg, p.decDeg);
     // The mask's +y direction as seen in the galaxy's tangent plane (North turns between the two tangent points).
     const up = maskPointToSkyDeg(p, 0, 60), pu = skyToTangentArcsec(gc, up.raDeg, up.decDeg);
-    const upA = pc && pu ? Math.atan2(pu.xiArcsec - pc.xiArcsec, pu.etaArcsec - pc.etaArcsec) : p.paDeg * RAD_PER_DEG;
-    const gsp = Math.sin(upA), gcp = Math.cos(upA);
+    const upA = pc && pu ? PMath.atan2(pu.xiArcsec - pc.xiArcsec, pu.etaArcsec - pc.etaArcsec) : p.paDeg * RAD_PER_DEG;
+    const gsp = PMath.sin(upA), gcp = PMath.cos(upA);
     // Candidates in y order (so that the interval index's sort by end is a single pass), no allocation per target.
     let n = 0;
     for (const c of cellList) {
@@ -318,7 +319,7 @@ export function searchPointings(env: SearchEnv, start: readonly MaskPointing[], 
   const g = ctx.galaxy, profile = ctx.profile;
   const gc = tangentCentre(g.raDeg, g.decDeg);
   const b = polygonBounds(profile.footprint);
-  const halfDiag = Math.hypot(Math.max(-b.minX, b.maxX), Math.max(-b.minY, b.maxY));
+  const halfDiag = PMath.hypot(Math.max(-b.minX, b.maxX), Math.max(-b.minY, b.maxY));
   const halfLong = Math.max(b.maxY - b.minY, b.maxX - b.minX) / 2;
   const proxyMask = proxyModel(env);
 
@@ -376,15 +377,15 @@ export function searchPointings(env: SearchEnv, start: readonly MaskPointing[], 
   let done = 0;
   const maxCentreArcsec = (env.objective.tracerReachRe * g.reArcsec) / Math.sqrt(g.axisRatio) + halfDiag;
   for (let level = 0; level < levels; level++) {
-    const step = halfLong * 0.5 * Math.pow(0.5, level);
-    const stepPa = 24 * Math.pow(0.5, level);
+    const step = halfLong * 0.5 * PMath.pow(0.5, level);
+    const stepPa = 24 * PMath.pow(0.5, level);
     for (let pass = 0; pass < passes; pass++) {
       const acceptedBefore = accepted;
       for (const m of free) {
         const p = plane[m];
-        const r = Math.hypot(p.xi, p.eta);
+        const r = PMath.hypot(p.xi, p.eta);
         // Radial unit vector (from the galaxy centre), or the mask's own +y direction at the centre.
-        const ux = r > 1e-6 ? p.xi / r : Math.sin(p.paDeg * RAD_PER_DEG), uy = r > 1e-6 ? p.eta / r : Math.cos(p.paDeg * RAD_PER_DEG);
+        const ux = r > 1e-6 ? p.xi / r : PMath.sin(p.paDeg * RAD_PER_DEG), uy = r > 1e-6 ? p.eta / r : PMath.cos(p.paDeg * RAD_PER_DEG);
         const moves: PlanePointing[] = [
           { xi: p.xi + step * ux, eta: p.eta + step * uy, paDeg: p.paDeg },
           { xi: p.xi - step * ux, eta: p.eta - step * uy, paDeg: p.paDeg },
@@ -397,7 +398,7 @@ export function searchPointings(env: SearchEnv, start: readonly MaskPointing[], 
         for (const mv of moves) {
           done++;
           // Keep the mask over the galaxy's field: its centre within tracerReachRe (semi-major) + half the footprint.
-          if (Math.hypot(mv.xi, mv.eta) > maxCentreArcsec) continue;
+          if (PMath.hypot(mv.xi, mv.eta) > maxCentreArcsec) continue;
           tryMove(m, mv);
         }
         onProgress(Math.min(0.95, done / totalTrials), `pointing search: step level ${level + 1}/${levels}, objective ${current.toFixed(1)}`);
@@ -457,9 +458,9 @@ function proxyTally(env: SearchEnv, pointing: MaskPointing, p: ProxyMask, chosen
   const g = ctx.galaxy;
   const om = galaxyOnMask(pointing, g, env.bn);
   const b = polygonBounds(ctx.profile.footprint);
-  const halfDiag = Math.hypot(Math.max(-b.minX, b.maxX), Math.max(-b.minY, b.maxY));
+  const halfDiag = PMath.hypot(Math.max(-b.minX, b.maxX), Math.max(-b.minY, b.maxY));
   // No starlight possible when even the nearest footprint point lies beyond the reach (R >= sqrt(q) x distance).
-  if (Math.sqrt(g.axisRatio) * (Math.hypot(om.gxArcsec, om.gyArcsec) - halfDiag) > env.starlight.reachRe * g.reArcsec) return t;
+  if (Math.sqrt(g.axisRatio) * (PMath.hypot(om.gxArcsec, om.gyArcsec) - halfDiag) > env.starlight.reachRe * g.reArcsec) return t;
   const L = ctx.profile.slits.minLengthArcsec;
   const rows: RowSpan[] = chosenK.map((k) => ({ role: 'tracer' as const, yArcsec: p.y[k], lenBelowArcsec: L / 2, lenAboveArcsec: L / 2, widthArcsec: ctx.profile.slits.widthArcsec, tiltDeg: 0 }));
   const slots = freeSlots(rows, ctx.rules, ctx.profile.slits.gapArcsec, env.starlight.slitLengthArcsec);

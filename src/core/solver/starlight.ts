@@ -27,6 +27,7 @@ import { sersicBn, sersicMuMagPerArcsec2 } from '../sky/sersic';
 import { electronsPerAFromSurfaceBrightness, signalToNoisePerA, type SpectroSetup } from '../spectro/signalToNoise';
 import { maskPointToSkyDeg } from './maskTargets';
 import { observedWavelengthA } from '../geometry/wavelength';
+import { PMath } from '../numeric/portableMath';
 
 /** The plan's `starlight` section (docs/signal-to-noise.md lists every setting and its default). */
 export const starlightSchema = z.looseObject({
@@ -117,7 +118,7 @@ export function galaxyOnMask(mask: { raDeg: number; decDeg: number; paDeg: numbe
   const rad = Math.PI / 180;
   return {
     gxArcsec: m.xArcsec, gyArcsec: m.yArcsec, maskPaDeg: mask.paDeg, galaxy, bn,
-    sinMask: Math.sin(mask.paDeg * rad), cosMask: Math.cos(mask.paDeg * rad), sinGal: Math.sin(galaxy.paDeg * rad), cosGal: Math.cos(galaxy.paDeg * rad),
+    sinMask: PMath.sin(mask.paDeg * rad), cosMask: PMath.cos(mask.paDeg * rad), sinGal: PMath.sin(galaxy.paDeg * rad), cosGal: PMath.cos(galaxy.paDeg * rad),
   };
 }
 
@@ -149,9 +150,9 @@ export function slitMeanMu(g: GalaxyOnMask, xArcsec: number, y0Arcsec: number, y
   let f = 0;
   for (let i = 0; i < samples; i++) {
     const y = samples === 1 ? 0.5 * (y0Arcsec + y1Arcsec) : y0Arcsec + ((i + 0.5) / samples) * (y1Arcsec - y0Arcsec);
-    f += Math.pow(10, -0.4 * sersicMuMagPerArcsec2(radiusAt(g, xArcsec, y), g.galaxy.reArcsec, g.galaxy.sersicN, g.galaxy.muE, g.bn));
+    f += PMath.pow(10, -0.4 * sersicMuMagPerArcsec2(radiusAt(g, xArcsec, y), g.galaxy.reArcsec, g.galaxy.sersicN, g.galaxy.muE, g.bn));
   }
-  return -2.5 * Math.log10(f / samples);
+  return -2.5 * PMath.log10(f / samples);
 }
 
 /** S/N per A of the galaxy light through a slit of length `lengthArcsec` with mean surface brightness mu. */
@@ -171,8 +172,8 @@ function coreSpan(slit: RowSpan, minHalf: number): Span {
   const below = slit.role === 'tracer' ? Math.min(slit.lenBelowArcsec, minHalf) : slit.lenBelowArcsec;
   const above = slit.role === 'tracer' ? Math.min(slit.lenAboveArcsec, minHalf) : slit.lenAboveArcsec;
   const t = Math.abs(slit.tiltDeg) * Math.PI / 180;
-  const halfW = (slit.widthArcsec / 2) * Math.sin(t);
-  return { lo: slit.yArcsec - below * Math.cos(t) - halfW, hi: slit.yArcsec + above * Math.cos(t) + halfW };
+  const halfW = (slit.widthArcsec / 2) * PMath.sin(t);
+  return { lo: slit.yArcsec - below * PMath.cos(t) - halfW, hi: slit.yArcsec + above * PMath.cos(t) + halfW };
 }
 
 /** One possible new slit: a y slot and the chosen x, with its radius, azimuth and S/N. */

@@ -20,6 +20,7 @@ import { parseDecDeg, parseRaDeg } from '../sky/sexagesimal';
 import { tangentCentre, skyToTangentArcsec } from '../sky/tangentPlane';
 import { circularisedRadiusArcsec, galaxyAzimuthDeg } from '../sky/frames';
 import { RAD_PER_DEG } from '../sky/angles';
+import { PMath, sq } from '../numeric/portableMath';
 
 const pair = (what: string) =>
   z.tuple([z.number(), z.number()]).refine(([a, b]) => a <= b, `must be [low, high] with low <= high (${what})`);
@@ -125,7 +126,7 @@ function regionCentreSkyArcsec(r: ExclusionRegion, galaxy: GalaxyModel): { xi: n
   if (r.xiArcsec !== undefined) return { xi: r.xiArcsec, eta: r.etaArcsec ?? 0 };
   // Galaxy frame u (major), v (minor) back to sky: xi = u sin(theta) + v cos(theta), eta = u cos(theta) - v sin(theta).
   const t = galaxy.paDeg * RAD_PER_DEG, u = r.uArcsec ?? 0, v = r.vArcsec ?? 0;
-  return { xi: u * Math.sin(t) + v * Math.cos(t), eta: u * Math.cos(t) - v * Math.sin(t) };
+  return { xi: u * PMath.sin(t) + v * PMath.cos(t), eta: u * PMath.cos(t) - v * PMath.sin(t) };
 }
 
 /** True when a sky-frame offset (xi East, eta North, arcsec from the galaxy centre) lies inside the region (boundary inclusive). */
@@ -134,8 +135,8 @@ export function insideRegion(xiArcsec: number, etaArcsec: number, centre: { xi: 
   const q = r.axisRatio ?? 1;
   // Along the ellipse's major axis (PA East of North) and across it.
   const t = (r.paDeg ?? 0) * RAD_PER_DEG;
-  const a = dxi * Math.sin(t) + deta * Math.cos(t);
-  const b = dxi * Math.cos(t) - deta * Math.sin(t);
+  const a = dxi * PMath.sin(t) + deta * PMath.cos(t);
+  const b = dxi * PMath.cos(t) - deta * PMath.sin(t);
   return (a * a) + (b / q) * (b / q) <= r.radiusArcsec * r.radiusArcsec;
 }
 
@@ -157,14 +158,14 @@ function median(values: number[]): number {
 
 /** Formula weight W_mag * W_col * W_rad for one tracer (see the module comment). */
 export function formulaWeight(mag: number, color: number | null, radiusRe: number, f: WeightingResult['formula']): number {
-  const wMag = Math.pow(10, -0.4 * f.magSlope * (mag - f.magPivot));
+  const wMag = PMath.pow(10, -0.4 * f.magSlope * (mag - f.magPivot));
   let wCol = 1;
   if (color !== null && f.colorPeaks.length) {
     let best = 0;
-    for (const c of f.colorPeaks) best = Math.max(best, Math.exp(-((color - c) ** 2) / (2 * f.colorSigma ** 2)));
+    for (const c of f.colorPeaks) best = Math.max(best, PMath.exp(-sq(color - c) / (2 * sq(f.colorSigma))));
     wCol = f.colorFloor + (1 - f.colorFloor) * best;
   }
-  const wRad = Math.pow(1 + radiusRe, f.radiusExponent);
+  const wRad = PMath.pow(1 + radiusRe, f.radiusExponent);
   return wMag * wCol * wRad;
 }
 
@@ -191,7 +192,7 @@ export function weighTargets(targets: readonly Target[], galaxy: GalaxyModel, ru
   const excluded: ExcludedTarget[] = [];
   const ov = overrides ?? {};
   const hasOverrides = Object.keys(ov).length > 0;
-  const s0 = Math.sin(galaxy.paDeg * RAD_PER_DEG), c0 = Math.cos(galaxy.paDeg * RAD_PER_DEG);
+  const s0 = PMath.sin(galaxy.paDeg * RAD_PER_DEG), c0 = PMath.cos(galaxy.paDeg * RAD_PER_DEG);
   // Plain loops without closures: this runs once per catalog row.
   for (const t of targets) {
     const p = skyToTangentArcsec(centre, t.raDeg, t.decDeg);

@@ -10,6 +10,7 @@
  * f_nu / (h lambda) per unit wavelength (Oke & Gunn 1983 definition of AB; closed form, no table).
  * All functions are pure; units are in the names (S = seconds, A = Angstrom, cm2 = square centimetres).
  */
+import { PMath } from '../numeric/portableMath';
 
 /** Planck constant in erg s (SI 2019 exact value 6.62607015e-34 J s). */
 export const PLANCK_ERG_S = 6.62607015e-27;
@@ -19,7 +20,7 @@ export const AB_ZERO_FNU_CGS = 3631e-23;
 /** Photons s^-1 cm^-2 A^-1 of a source of AB magnitude `mag` at `wavelengthA` (air ~ vacuum here): f_nu/(h lambda) * 1e-8. */
 export function abPhotonFluxPerSCm2A(mag: number, wavelengthA: number): number {
   const lambdaCm = wavelengthA * 1e-8;
-  return ((AB_ZERO_FNU_CGS * Math.pow(10, -0.4 * mag)) / (PLANCK_ERG_S * lambdaCm)) * 1e-8;
+  return ((AB_ZERO_FNU_CGS * PMath.pow(10, -0.4 * mag)) / (PLANCK_ERG_S * lambdaCm)) * 1e-8;
 }
 
 /** Collecting area in cm^2 of a circular aperture of diameter `apertureM`, less a central obstruction given as a fraction of the area. */
@@ -139,13 +140,13 @@ export function limitingSurfaceBrightness(targetSn: number, extractionArcsec: nu
   const noise = skyElectronsPerPixel(skyMagPerArcsec2, slitWidthArcsec, s, exposureS) + s.darkEPerPixelPerS * exposureS + s.readNoiseE * s.readNoiseE;
   const need = requiredSourceElectrons(targetSn, nPix, noise);
   const zeroMagPerArcsec2 = electronsPerAFromSurfaceBrightness(0, slitWidthArcsec * extractionArcsec, s, exposureS);
-  return -2.5 * Math.log10(need / zeroMagPerArcsec2);
+  return -2.5 * PMath.log10(need / zeroMagPerArcsec2);
 }
 
 /** Mean surface brightness (mag/arcsec^2) of a set of samples, averaged in flux: -2.5 log10(mean 10^(-0.4 mu)). */
 export function fluxMeanSurfaceBrightness(muSamples: readonly number[]): number {
   if (!muSamples.length) return Infinity;
   let f = 0;
-  for (const mu of muSamples) f += Math.pow(10, -0.4 * mu);
-  return -2.5 * Math.log10(f / muSamples.length);
+  for (const mu of muSamples) f += PMath.pow(10, -0.4 * mu);
+  return -2.5 * PMath.log10(f / muSamples.length);
 }
