@@ -25,13 +25,9 @@ interface Anchor { id: string; x: number; y: number; pa: number }
 
 type Numbers = Awaited<ReturnType<typeof shownNumbers>>;
 
-/**
- * Slit counts must be equal; reach (a float from the same formulas) to 1e-9 Re, since the browser's V8 and
- * node's V8 may round transcendental functions differently in the last bits.
- */
+/** Slit counts and reach must be equal to the bit: core's math is engine-independent (src/core/numeric/portableMath.ts). */
 function expectSameNumbers(actual: Numbers, expected: Numbers): void {
-  expect(actual.counts).toStrictEqual(expected.counts);
-  for (const r of Object.keys(expected.reach)) expect(actual.reach[r], `reach of ${r}`).toBeCloseTo(expected.reach[r], 9);
+  expect(actual).toStrictEqual(expected);
 }
 
 async function anchors(page: Page): Promise<Anchor[]> {
