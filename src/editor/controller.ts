@@ -244,7 +244,14 @@ export class EditorController {
       this.notify('error', `${file.name}: no row of the catalog is usable; nothing to solve`);
       return;
     }
-    this.sendInputs(true);
+    // A plan opened before its catalog (nothing solved yet) may still have masks to place: place them now and adopt
+    // the placements, as when the plan and its catalog are opened together (an allocation alone would place them
+    // unseen: solved and counted, but neither drawn nor listed). A catalog replacing another keeps the layout.
+    const fresh = !this.session.solution;
+    this.sendInputs(false);
+    const doc = this.store.doc;
+    if (fresh && needsPlacement(doc.plan)) this.adoptRequestId = this.requestFor(doc, 'plan');
+    else this.requestFor(doc, 'allocate');
     this.scheduleAutosave();
   }
 
@@ -424,6 +431,12 @@ function placementsOf(plan: PlanFile, solved: PlanFile): PlanMask[] | null {
     const g = given.get(s.id);
     return { ...(g ?? {}), ...s, locked: g?.locked ?? false };
   });
+}
+
+/** True when the plan lists fewer masks than its goal, or a listed mask has no centre or PA yet. */
+function needsPlacement(plan: PlanFile): boolean {
+  const masks = plan.masks ?? [];
+  return masks.length < plan.goals.masks || masks.some((m) => m.raDeg === undefined || m.decDeg === undefined || m.paDeg === undefined);
 }
 
 function withoutPlacement(m: PlanMask): Omit<PlanMask, 'id'> {

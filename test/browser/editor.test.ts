@@ -9,7 +9,7 @@ import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { writeFileSync } from 'node:fs';
 import { fitsImageBytes } from './fitsImage';
-import { demoOnDisk, numbersOfOutput, openEditor, runCli, shownNumbers, startHarness, waitSolved, type Harness } from './harness';
+import { anchors, demoOnDisk, dragMask, maskCounts, numbersOfOutput, openEditor, runCli, shownNumbers, startHarness, waitSolved, type Harness } from './harness';
 
 let h: Harness;
 
@@ -21,42 +21,11 @@ afterAll(async () => {
   await h?.close();
 });
 
-interface Anchor { id: string; x: number; y: number; pa: number }
-
 type Numbers = Awaited<ReturnType<typeof shownNumbers>>;
 
 /** Slit counts and reach must be equal to the bit: core's math is engine-independent (src/core/numeric/portableMath.ts). */
 function expectSameNumbers(actual: Numbers, expected: Numbers): void {
   expect(actual).toStrictEqual(expected);
-}
-
-async function anchors(page: Page): Promise<Anchor[]> {
-  return page.$$eval('[data-testid="mask-anchors"] li', (lis) =>
-    lis.map((li) => ({ id: li.getAttribute('data-mask-id')!, x: Number(li.getAttribute('data-x')), y: Number(li.getAttribute('data-y')), pa: Number(li.getAttribute('data-pa')) })));
-}
-
-async function maskCounts(page: Page, id: string): Promise<Record<string, number>> {
-  return page.evaluate((mid) => {
-    const out: Record<string, number> = {};
-    for (const r of ['tracer', 'starlight', 'sky', 'alignment']) out[r] = Number(document.querySelector(`[data-testid="mask-${mid}-${r}"]`)?.textContent);
-    return out;
-  }, id);
-}
-
-/** Drag mask `id` by (dx, dy) screen pixels with real mouse events on the canvas. */
-async function dragMask(page: Page, id: string, dx: number, dy: number): Promise<void> {
-  const box = (await page.locator('[data-testid="sky-view"]').boundingBox())!;
-  const a = (await anchors(page)).find((m) => m.id === id)!;
-  // Grab a point a little off the centre (labels sit at the centre but do not take the mouse).
-  const x0 = box.x + a.x, y0 = box.y + a.y;
-  await page.mouse.move(x0, y0);
-  await page.mouse.down();
-  for (let i = 1; i <= 12; i++) {
-    await page.mouse.move(x0 + (dx * i) / 12, y0 + (dy * i) / 12);
-    await page.waitForTimeout(16);
-  }
-  await page.mouse.up();
-  await page.waitForTimeout(50); // let the page render the commit before anyone waits for its solve
 }
 
 async function clickExport(page: Page, testId: string, dir: string): Promise<string> {

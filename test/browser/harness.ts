@@ -62,6 +62,39 @@ export async function waitSolved(page: Page, timeoutMs = 90_000): Promise<void> 
   }, undefined, { timeout: timeoutMs });
 }
 
+/** A mask's centre on the screen (px relative to the sky-view box) and its PA, from the hidden mask-anchors list. */
+export interface Anchor { id: string; x: number; y: number; pa: number }
+
+/** Every mask's screen anchor, in the order the sky view lists them. */
+export async function anchors(page: Page): Promise<Anchor[]> {
+  return page.$$eval('[data-testid="mask-anchors"] li', (lis) =>
+    lis.map((li) => ({ id: li.getAttribute('data-mask-id')!, x: Number(li.getAttribute('data-x')), y: Number(li.getAttribute('data-y')), pa: Number(li.getAttribute('data-pa')) })));
+}
+
+/** Slits per role on mask `id`, as the Masks panel shows them. */
+export async function maskCounts(page: Page, id: string): Promise<Record<string, number>> {
+  return page.evaluate((mid) => {
+    const out: Record<string, number> = {};
+    for (const r of ['tracer', 'starlight', 'sky', 'alignment']) out[r] = Number(document.querySelector(`[data-testid="mask-${mid}-${r}"]`)?.textContent);
+    return out;
+  }, id);
+}
+
+/** Drag mask `id` by (dx, dy) screen pixels with real mouse events on the canvas, one step per frame. */
+export async function dragMask(page: Page, id: string, dx: number, dy: number): Promise<void> {
+  const box = (await page.locator('[data-testid="sky-view"]').boundingBox())!;
+  const a = (await anchors(page)).find((m) => m.id === id)!;
+  const x0 = box.x + a.x, y0 = box.y + a.y;
+  await page.mouse.move(x0, y0);
+  await page.mouse.down();
+  for (let i = 1; i <= 12; i++) {
+    await page.mouse.move(x0 + (dx * i) / 12, y0 + (dy * i) / 12);
+    await page.waitForTimeout(16);
+  }
+  await page.mouse.up();
+  await page.waitForTimeout(50); // let the page render the commit before anyone waits for its solve
+}
+
 /** The numbers the editor shows: slits and reach per role. */
 export async function shownNumbers(page: Page): Promise<{ counts: Record<string, number>; reach: Record<string, number> }> {
   return page.evaluate(() => {

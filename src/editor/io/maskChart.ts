@@ -38,18 +38,20 @@ export function maskChartSvg(ms: MaskSolution, galaxy: GalaxyModel, profile: Ins
   const g = skyToTangentArcsec(centre, galaxy.raDeg, galaxy.decDeg);
   if (g) {
     const sq = Math.sqrt(galaxy.axisRatio);
-    out.push(`<g clip-path="url(#plot)" fill="none" stroke="#777" stroke-width="0.8">`);
+    out.push(`<g class="isophotes" clip-path="url(#plot)" fill="none" stroke="#777" stroke-width="0.8">`);
     const rot = -(90 + galaxy.paDeg);
     for (let k = 1; k <= Math.ceil(reachRe); k++) {
-      out.push(`<ellipse cx="${f(ox - g.xiArcsec * s)}" cy="${f(oy - g.etaArcsec * s)}" rx="${f((k * galaxy.reArcsec * s) / sq)}" ry="${f(k * galaxy.reArcsec * s * sq)}" transform="rotate(${f(rot)} ${f(ox - g.xiArcsec * s)} ${f(oy - g.etaArcsec * s)})" stroke-dasharray="${k % 5 === 0 ? '' : '3 3'}"/>`);
+      out.push(`<ellipse class="isophote" data-re="${k}" cx="${f(ox - g.xiArcsec * s)}" cy="${f(oy - g.etaArcsec * s)}" rx="${f((k * galaxy.reArcsec * s) / sq)}" ry="${f(k * galaxy.reArcsec * s * sq)}" transform="rotate(${f(rot)} ${f(ox - g.xiArcsec * s)} ${f(oy - g.etaArcsec * s)})" stroke-dasharray="${k % 5 === 0 ? '' : '3 3'}"/>`);
     }
     out.push(`</g>`);
-    out.push(`<circle cx="${f(ox - g.xiArcsec * s)}" cy="${f(oy - g.etaArcsec * s)}" r="3" fill="#444" clip-path="url(#plot)"/>`);
+    out.push(`<circle class="galaxy-centre" cx="${f(ox - g.xiArcsec * s)}" cy="${f(oy - g.etaArcsec * s)}" r="3" fill="#444" clip-path="url(#plot)"/>`);
   }
-  out.push(`<polygon points="${corners.map((c) => px(c.xiArcsec, c.etaArcsec)).join(' ')}" fill="none" stroke="#111" stroke-width="1.5"/>`);
+  out.push(`<polygon class="footprint" points="${corners.map((c) => px(c.xiArcsec, c.etaArcsec)).join(' ')}" fill="none" stroke="#111" stroke-width="1.5"/>`);
   // Slits: from the slit's mask-frame extent, turned by the PA about the mask centre.
+  // One group per slit or box, carrying its id and role, with its shape and its label.
   for (const sl of ms.slits) {
     const colour = PRINT_ROLE_COLOUR[sl.role];
+    out.push(`<g class="slit slit-${sl.role}" data-slit-id="${esc(sl.slitId)}" data-role="${sl.role}">`);
     if (sl.role === 'alignment') {
       const h = Math.max(sl.widthArcsec / 2, 3 / s);
       const pts = [[-h, -h], [h, -h], [h, h], [-h, h]].map(([dx, dy]) => {
@@ -65,18 +67,23 @@ export function maskChartSvg(ms: MaskSolution, galaxy: GalaxyModel, profile: Ins
     }
     const c = maskToSkyArcsec(sl.xArcsec, sl.yArcsec, m.paDeg);
     out.push(`<text x="${f(ox - c.xiArcsec * s + 4)}" y="${f(oy - c.etaArcsec * s + 3)}" font-size="7" fill="#333">${esc(sl.slitId)}</text>`);
+    out.push(`</g>`);
   }
   // Compass (North up, East left) and scale bar.
   const cx = sizePx - 80, cy = 130;
-  out.push(`<g stroke="#111" stroke-width="1.6" fill="#111"><line x1="${cx}" y1="${cy}" x2="${cx}" y2="${cy - 40}"/><polygon points="${cx - 5},${cy - 34} ${cx + 5},${cy - 34} ${cx},${cy - 44}"/>`);
-  out.push(`<line x1="${cx}" y1="${cy}" x2="${cx - 40}" y2="${cy}"/><polygon points="${cx - 34},${cy - 5} ${cx - 34},${cy + 5} ${cx - 44},${cy}"/></g>`);
-  out.push(`<text x="${cx - 4}" y="${cy - 50}" font-size="14" font-weight="bold">N</text><text x="${cx - 60}" y="${cy + 5}" font-size="14" font-weight="bold">E</text>`);
+  out.push(`<g class="compass">`);
+  out.push(`<g class="arrow-north" stroke="#111" stroke-width="1.6" fill="#111"><line x1="${cx}" y1="${cy}" x2="${cx}" y2="${cy - 40}"/><polygon points="${cx - 5},${cy - 34} ${cx + 5},${cy - 34} ${cx},${cy - 44}"/></g>`);
+  out.push(`<g class="arrow-east" stroke="#111" stroke-width="1.6" fill="#111"><line x1="${cx}" y1="${cy}" x2="${cx - 40}" y2="${cy}"/><polygon points="${cx - 34},${cy - 5} ${cx - 34},${cy + 5} ${cx - 44},${cy}"/></g>`);
+  out.push(`<text class="label-north" x="${cx - 4}" y="${cy - 50}" font-size="14" font-weight="bold">N</text><text class="label-east" x="${cx - 60}" y="${cy + 5}" font-size="14" font-weight="bold">E</text>`);
+  out.push(`</g>`);
   const bar = scaleBarArcmin(s, 160);
   const barPx = bar * 60 * s;
   const by = 70 + plot - 24;
+  out.push(`<g class="scale-bar" data-arcmin="${bar}" data-px-per-arcsec="${s}">`);
   out.push(`<rect x="32" y="${by - 22}" width="${f(barPx + 16)}" height="34" fill="#fff" fill-opacity="0.85"/>`);
   out.push(`<line x1="40" y1="${by}" x2="${f(40 + barPx)}" y2="${by}" stroke="#111" stroke-width="2.5"/>`);
   out.push(`<text x="${f(40 + barPx / 2)}" y="${by - 7}" font-size="13" text-anchor="middle">${bar >= 1 ? `${bar} arcmin` : `${Math.round(bar * 60)} arcsec`}</text>`);
+  out.push(`</g>`);
   // Legend: colour and line style per role.
   const ly = 70 + plot + 30;
   ROLES.forEach((r, i) => {

@@ -56,11 +56,11 @@ export function BackdropPanel({ backdrop }: { c: EditorController; backdrop: Bac
         <div className="backdrop-controls" data-testid="backdrop-controls">
           <div className="kv"><span>image</span><span data-testid="backdrop-name">{backdrop.name}</span></div>
           <label className="slider">black at {s.lowPct.toFixed(1)} %
-            <input type="range" min={0} max={50} step={0.5} value={s.lowPct} onChange={(e) => set({ lowPct: Number(e.target.value) })} /></label>
+            <input type="range" data-testid="backdrop-low" min={0} max={50} step={0.5} value={s.lowPct} onChange={(e) => set({ lowPct: Number(e.target.value) })} /></label>
           <label className="slider">white at {s.highPct.toFixed(1)} %
-            <input type="range" min={50} max={100} step={0.1} value={s.highPct} onChange={(e) => set({ highPct: Number(e.target.value) })} /></label>
+            <input type="range" data-testid="backdrop-high" min={50} max={100} step={0.1} value={s.highPct} onChange={(e) => set({ highPct: Number(e.target.value) })} /></label>
           <label className="slider">show {Math.round(s.opacity * 100)} %
-            <input type="range" min={0.1} max={1} step={0.05} value={s.opacity} onChange={(e) => set({ opacity: Number(e.target.value) })} /></label>
+            <input type="range" data-testid="backdrop-opacity" min={0.1} max={1} step={0.05} value={s.opacity} onChange={(e) => set({ opacity: Number(e.target.value) })} /></label>
           <label className="field"><span className="field-label">stretch</span>
             <select value={s.stretch} data-testid="backdrop-stretch" onChange={(e) => set({ stretch: e.target.value as Stretch })}>
               <option value="linear">linear</option><option value="sqrt">square root</option><option value="asinh">asinh</option><option value="log">log</option>

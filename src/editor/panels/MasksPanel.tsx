@@ -26,7 +26,7 @@ export function MasksPanel({ c, solved }: { c: EditorController; solved: readonl
                 onClick={() => c.store!.updateSession((s) => ({ ...s, activeMaskId: m.id }))}
                 title={m.raDeg !== undefined ? `${formatRaHms(m.raDeg, 1)} ${formatDecDms(m.decDeg ?? 0, 0)}` : 'not placed yet'}>
                 <td>{m.id}</td>
-                <td className="num">{m.paDeg !== undefined ? m.paDeg.toFixed(1) : '–'}</td>
+                <td className="num" data-testid={`mask-${m.id}-pa`}>{m.paDeg !== undefined ? m.paDeg.toFixed(1) : '–'}</td>
                 {ROLES.map((r) => <td key={r} className="num" data-testid={`mask-${m.id}-${r}`}>{counts ? counts[r] : '–'}</td>)}
                 <td>
                   <button
@@ -42,6 +42,14 @@ export function MasksPanel({ c, solved }: { c: EditorController; solved: readonl
           })}
         </tbody>
       </table>
+      {(() => {
+        const missing = c.store!.doc.plan.goals.masks - masks.length;
+        return missing > 0 ? (
+          <p className="small short" data-testid="masks-unplaced">
+            {missing} more mask{missing === 1 ? '' : 's'} for the goal of {c.store!.doc.plan.goals.masks}: place {missing === 1 ? 'it' : 'them'} with the pointing search.
+          </p>
+        ) : null;
+      })()}
       <p className="dim small">Drag a mask on the sky to move it, its round handle to turn it. A mask moved by hand is locked.</p>
     </Panel>
   );

@@ -22,25 +22,31 @@ export function NumberField({ label, unit, value, onCommit, step, testId, min, m
 }) {
   const [text, setText] = useState<string | null>(null);
   const shown = text ?? String(value);
-  const commit = () => {
+  // A blank field is no number (Number('') would read it as 0 and commit a zero).
+  const parse = (t: string) => (t.trim() === '' ? NaN : Number(t));
+  const valid = (v: number) => Number.isFinite(v) && (min === undefined || v >= min) && (max === undefined || v <= max);
+  /** Enter keeps a refused text in the field, marked bad; leaving the field puts the value in effect back. */
+  const commit = (keepRefused: boolean) => {
     if (text === null) return;
-    const v = Number(text);
+    const v = parse(text);
+    if (!valid(v) && keepRefused) return;
     setText(null);
-    if (Number.isFinite(v) && v !== value && (min === undefined || v >= min) && (max === undefined || v <= max)) onCommit(v);
+    if (valid(v) && v !== value) onCommit(v);
   };
-  const bad = text !== null && (!Number.isFinite(Number(text)) || (min !== undefined && Number(text) < min) || (max !== undefined && Number(text) > max));
+  const bad = text !== null && !valid(parse(text));
   return (
     <label className={`field ${bad ? 'bad' : ''}`}>
       <span className="field-label">{label}</span>
       <input
         data-testid={testId}
+        aria-invalid={bad}
         type="text"
         inputMode="decimal"
         value={shown}
         step={step}
         onChange={(e) => setText(e.target.value)}
-        onBlur={commit}
-        onKeyDown={(e) => { if (e.key === 'Enter') commit(); if (e.key === 'Escape') setText(null); }}
+        onBlur={() => commit(false)}
+        onKeyDown={(e) => { if (e.key === 'Enter') commit(true); if (e.key === 'Escape') setText(null); }}
       />
       {unit && <span className="field-unit">{unit}</span>}
     </label>

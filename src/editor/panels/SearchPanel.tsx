@@ -10,9 +10,12 @@ export function SearchPanel({ c }: { c: EditorController }) {
     <Panel title="Pointing search" testId="panel-search">
       {s?.running ? (
         <div className="search-run">
-          <progress data-testid="search-progress" value={s.fraction} max={1} />
-          <div className="small">{Math.round(s.fraction * 100)} % · {s.message}</div>
-          <button data-testid="search-cancel" onClick={() => c.cancelSearch()}>Cancel</button>
+          {/* Cancel sits beside the bar, above the message: a message that wraps to another line must not move it. */}
+          <div className="search-bar">
+            <progress data-testid="search-progress" value={s.fraction} max={1} />
+            <button data-testid="search-cancel" onClick={() => c.cancelSearch()}>Cancel</button>
+          </div>
+          <div className="small" data-testid="search-message">{Math.round(s.fraction * 100)} % · {s.message}</div>
         </div>
       ) : (
         <button className="primary" data-testid="search-start" disabled={!c.session.catalog || free === 0} onClick={() => c.startSearch()}>

@@ -6,16 +6,25 @@
 import { solvePlan } from '../../core/plan/pipeline';
 import type { CatalogReadResult } from '../../core/catalog/types';
 import type { InstrumentProfile } from '../../core/profile/schema';
-import type { PlanFile } from '../../core/plan/schema';
+import type { PlanFile, PlanMask } from '../../core/plan/schema';
 import type { FromWorker, SolveMode, SolveResult, ToWorker } from './protocol';
 import { InputError } from '../../core/result';
 import { liveSolve, resetLiveSolve } from './liveSolve';
 
 let inputs: { version: number; profile: InstrumentProfile; catalog: CatalogReadResult } | null = null;
 
-/** The plan with every placed mask locked, so the pipeline only allocates (no pointing search). */
+/**
+ * The plan with every placed mask locked, so the pipeline only allocates (no pointing search). When every listed mask
+ * is placed but the goal asks for more, the goal is cut to the listed masks: the solve then shows the masks the
+ * editor draws and lists, and the missing ones wait for the pointing search (the Search panel offers them), instead
+ * of being placed afresh, unseen, by every allocation.
+ */
 function lockedPlan(plan: PlanFile): PlanFile {
-  return { ...plan, masks: (plan.masks ?? []).map((m) => (m.raDeg !== undefined && m.paDeg !== undefined ? { ...m, locked: true } : m)) };
+  const placed = (m: PlanMask) => m.raDeg !== undefined && m.paDeg !== undefined;
+  const masks = (plan.masks ?? []).map((m) => (placed(m) ? { ...m, locked: true } : m));
+  const allPlaced = masks.length > 0 && masks.every(placed);
+  const goals = allPlaced && plan.goals.masks > masks.length ? { ...plan.goals, masks: masks.length } : plan.goals;
+  return { ...plan, masks, goals };
 }
 
 function post(msg: FromWorker): void {
