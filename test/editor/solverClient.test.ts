@@ -66,3 +66,51 @@ describe('solver client', () => {
     expect(results).toHaveLength(1);
   });
 });
+
+describe('kept masks between results', () => {
+  it('the client restores the masks a result leaves out, from the previous result, through a structured clone', async () => {
+    const { elideKeptMasks } = await import('../../src/editor/worker/keptMasks');
+    const mk = (id: string, n: number) => ({ mask: { id }, slits: Array.from({ length: n }, (_, i) => ({ slitId: `${id}-${i}` })) }) as never;
+    const a = mk('m1', 3), b = mk('m2', 2), c = mk('m3', 4), b2 = mk('m2', 5);
+    const workers: FakeWorker[] = [];
+    const results: SolveOutcome[] = [];
+    const errors: string[] = [];
+    const client = new SolverClient({ onResult: (o) => results.push(o), onError: (m) => errors.push(m) }, () => {
+      const w = new FakeWorker();
+      workers.push(w);
+      return w as unknown as Worker;
+    });
+    client.setInputs({} as never, {} as never);
+    // The worker side: what it posted last decides what it leaves out.
+    let lastPosted: never[] | null = null;
+    const answerWith = (masks: never[]) => {
+      const w = workers[workers.length - 1];
+      const req = w.solves().at(-1)!;
+      const e = elideKeptMasks(masks, lastPosted);
+      lastPosted = masks;
+      w.onmessage!({ data: structuredClone({ type: 'result', requestId: req.requestId, mode: req.mode, computeMs: 1, keptMasks: e.kept, result: { plan: req.plan, galaxy: null, masks: e.masks, coverage: null, warnings: [], extra: {} } }) } as MessageEvent);
+      return e;
+    };
+    client.request(plan('first'), 'preview');
+    expect(answerWith([a, b, c]).kept).toStrictEqual([]);
+    client.request(plan('drag'), 'preview');
+    const e = answerWith([a, b2, c]);
+    expect(e.kept).toStrictEqual([0, 2]);
+    expect(e.masks[0]).toBeNull();
+    const got = results[1].result.masks as unknown as { mask: { id: string }; slits: unknown[] }[];
+    expect(got.map((m) => [m.mask.id, m.slits.length])).toStrictEqual([['m1', 3], ['m2', 5], ['m3', 4]]);
+    // Unchanged masks are the client's own objects of the previous result, not copies.
+    expect(got[0]).toBe(results[0].result.masks[0]);
+    expect(got[1]).not.toBe(results[0].result.masks[1]);
+    // After a cancel the fresh worker starts from nothing: a result that refers to old masks is an error, not a guess,
+    // and the client goes on (the next request is sent).
+    client.cancel();
+    client.request(plan('after'), 'preview');
+    answerWith([a, b2, c]);
+    expect(errors).toHaveLength(1);
+    expect(errors[0]).toMatch(/previous result/);
+    expect(results).toHaveLength(2);
+    client.request(plan('again'), 'preview');
+    expect(workers[1].solves().map((q) => (q.plan as { galaxy: { id: string } }).galaxy.id)).toStrictEqual(['after', 'again']);
+  });
+});

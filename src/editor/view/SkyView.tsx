@@ -1,6 +1,6 @@
 /**
  * The sky view: tangent plane about the galaxy centre, North up and East left. Layers, bottom to top:
- * backdrop image, catalog (one Shape drawing every target in batches), galaxy isophotes and masks
+ * backdrop image, catalog (one Shape drawing every target in batches), galaxy isophotes, masks
  * (footprints, slits by role, rotate handles), and a fixed overlay with compass and scale bar.
  * Mouse: drag empty sky to pan, wheel to zoom (pinch or Ctrl+wheel on a trackpad; two-finger scroll pans),
  * drag a mask to move it, drag its round handle to rotate it, click a target to select it,
@@ -341,7 +341,8 @@ export function SkyView(props: SkyViewProps) {
         onMouseUp={(e) => endGesture(e)}
         onMouseLeave={() => endGesture(null)}
       >
-        <Layer>
+        {/* Isophotes on their own layer: a drag redraws only the masks' layer. */}
+        <Layer listening={false}>
           {rings.map((k) => {
             const goalTracer = k === Math.round(props.tracerReachRe);
             const goalStar = k === Math.round(props.starlightReachRe);
@@ -370,6 +371,10 @@ export function SkyView(props: SkyViewProps) {
                 text={`${k} Re`} fontSize={11} fill={INK.textDim} />
             );
           })}
+        </Layer>
+        {/* While a mask is dragged or turned (a preview is shown) nothing on this layer needs the mouse: the gesture
+            follows the stage's pointer, so Konva skips redrawing the hit canvas on every frame. */}
+        <Layer listening={!preview}>
           {shownMasks.map((m) => {
             const c = maskXiEta(m);
             const sp = skyToScreen(cam, c.xiArcsec, c.etaArcsec);

@@ -31,7 +31,12 @@ export interface SolveResult {
   extra: Record<string, unknown>;
 }
 
+/**
+ * A result's `keptMasks` lists the indices of masks that are the very same solution as in the previous result this
+ * worker posted (a drag re-solves one mask): their entries in `result.masks` are sent as null and the client puts
+ * its own copy back (masks.ts `restoreKeptMasks`), so a live update clones one mask's slits, not every mask's.
+ */
 export type FromWorker =
   | { type: 'progress'; requestId: number; fraction: number; message: string }
-  | { type: 'result'; requestId: number; mode: SolveMode; result: SolveResult; computeMs: number }
+  | { type: 'result'; requestId: number; mode: SolveMode; result: SolveResult; computeMs: number; keptMasks?: number[] }
   | { type: 'error'; requestId: number; message: string; problems?: { where: string; what: string; fix?: string }[] };

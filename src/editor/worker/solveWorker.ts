@@ -10,6 +10,8 @@ import type { PlanFile, PlanMask } from '../../core/plan/schema';
 import type { FromWorker, SolveMode, SolveResult, ToWorker } from './protocol';
 import { InputError } from '../../core/result';
 import { liveSolve, resetLiveSolve } from './liveSolve';
+import { elideKeptMasks } from './keptMasks';
+import type { MaskSolution } from '../../core/solver/types';
 
 let inputs: { version: number; profile: InstrumentProfile; catalog: CatalogReadResult } | null = null;
 
@@ -31,13 +33,23 @@ function post(msg: FromWorker): void {
   (self as unknown as DedicatedWorkerGlobalScope).postMessage(msg);
 }
 
+/** The masks of the last result posted (the client holds its copy of them). */
+let lastPosted: MaskSolution[] | null = null;
+
+/** Post a result, leaving out the masks that are the same objects as in the last one posted. */
+function postResult(requestId: number, mode: SolveMode, result: SolveResult, computeMs: number): void {
+  const { masks, kept } = elideKeptMasks(result.masks, lastPosted);
+  lastPosted = result.masks;
+  post({ type: 'result', requestId, mode, result: { ...result, masks: masks as MaskSolution[] }, computeMs, keptMasks: kept });
+}
+
 /** Solve and keep only cloneable data. */
 function solve(plan: PlanFile, mode: SolveMode, requestId: number): void {
   if (!inputs) throw new Error('the worker has no catalog and profile yet');
   const t0 = performance.now();
   if (mode === 'preview') {
     const result = liveSolve(lockedPlan(plan), inputs.profile, inputs.catalog, inputs);
-    post({ type: 'result', requestId, mode, result, computeMs: performance.now() - t0 });
+    postResult(requestId, mode, result, performance.now() - t0);
     return;
   }
   const sol = solvePlan(
@@ -49,7 +61,7 @@ function solve(plan: PlanFile, mode: SolveMode, requestId: number): void {
   const extra: Record<string, unknown> = {};
   for (const [k, v] of Object.entries(rest)) if (typeof v !== 'function') extra[k] = v;
   const result = { plan: solved, galaxy, masks, coverage, warnings: (warnings as string[]) ?? [], extra } as SolveResult;
-  post({ type: 'result', requestId, mode, result, computeMs });
+  postResult(requestId, mode, result, computeMs);
 }
 
 self.onmessage = (ev: MessageEvent<ToWorker>) => {

@@ -7,6 +7,8 @@ import type { CatalogReadResult } from '../../core/catalog/types';
 import type { PlanFile } from '../../core/plan/schema';
 import type { InstrumentProfile } from '../../core/profile/schema';
 import type { FromWorker, SolveMode, SolveResult } from './protocol';
+import type { MaskSolution } from '../../core/solver/types';
+import { restoreKeptMasks } from './keptMasks';
 
 export interface SolveOutcome {
   requestId: number;
@@ -40,6 +42,8 @@ export class SolverClient {
   private inFlight: { id: number; postedAt: number; mode: SolveMode } | null = null;
   private pending: { plan: PlanFile; mode: SolveMode } | null = null;
   private inputs: { version: number; profile: InstrumentProfile; catalog: CatalogReadResult } | null = null;
+  /** The masks of the last result received from the current worker (a result may refer to them, protocol.ts keptMasks). */
+  private lastMasks: MaskSolution[] | null = null;
   /** Requests made, requests actually sent to the worker, and requests dropped because a newer one came. */
   readonly stats = { requested: 0, sent: 0, dropped: 0 };
 
@@ -49,6 +53,7 @@ export class SolverClient {
 
   private start(): Worker {
     const w = this.make();
+    this.lastMasks = null;
     w.onmessage = (ev: MessageEvent<FromWorker>) => this.receive(ev.data);
     w.onerror = (ev) => {
       ev.preventDefault();
@@ -105,12 +110,22 @@ export class SolverClient {
     const flight = this.inFlight;
     if (!flight || flight.id !== msg.requestId) return; // from a cancelled worker
     this.inFlight = null;
+    let masks: MaskSolution[] | null = null;
     if (msg.type === 'result') {
+      try {
+        masks = restoreKeptMasks(msg.result.masks, msg.keptMasks, this.lastMasks);
+      } catch (e) {
+        this.lastMasks = null;
+        this.cb.onError((e as Error).message, undefined, msg.requestId);
+      }
+    }
+    if (msg.type === 'result' && masks) {
+      this.lastMasks = masks;
       this.cb.onResult({
-        requestId: msg.requestId, mode: msg.mode, result: msg.result, computeMs: msg.computeMs,
+        requestId: msg.requestId, mode: msg.mode, result: { ...msg.result, masks }, computeMs: msg.computeMs,
         roundTripMs: performance.now() - flight.postedAt, superseded: this.pending !== null,
       });
-    } else {
+    } else if (msg.type === 'error') {
       this.cb.onError(msg.message, msg.problems, msg.requestId);
     }
     this.pump();
