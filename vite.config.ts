@@ -6,9 +6,11 @@ import react from '@vitejs/plugin-react';
 export default defineConfig({
   plugins: [react()],
   worker: { format: 'es' },
-  // The engine-independent math of src/core (CommonJS packages): bundled up front, so neither the page nor the solver
-  // worker finds a new dependency after start-up (which would make the dev server reload the page).
+  // Every dependency is found and bundled at start-up, the workers' too (the scan follows index.html only unless told),
+  // so no page finds a new one after loading: the dev server would then reload the page under the user's (or a
+  // test's) hands. The engine-independent math of src/core is CommonJS and is named as well.
   optimizeDeps: {
+    entries: ['index.html', 'src/editor/worker/*Worker.ts'],
     include: ['sin', 'cos', 'tan', 'asin', 'acos', 'atan', 'atan2', 'exp', 'ln', 'log10', 'pow', 'hypot'].map((f) => `@stdlib/math-base-special-${f}`),
   },
   server: { port: 5173, strictPort: false },

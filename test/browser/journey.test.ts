@@ -40,6 +40,9 @@ afterAll(async () => {
 describe('a first session through `npm start`', () => {
   it('shows the solved demo, follows a drag live, undoes it exactly, exports, and keeps the work over a reload', async () => {
     const { context, page } = await openEditor({ browser: browser!, url } as unknown as Harness);
+    // Loaded once: the dev server found every dependency at start-up (vite.config.ts optimizeDeps) and did not reload
+    // the page under the user's hands (on a fresh clone it otherwise would, for the workers' dependencies).
+    expect(await page.evaluate(() => (performance.getEntriesByType('navigation')[0] as PerformanceNavigationTiming).type)).toBe('navigate');
     const masks = await anchors(page);
     expect(masks.length).toBeGreaterThanOrEqual(4);
     const before = await shownNumbers(page);
