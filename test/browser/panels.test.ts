@@ -8,7 +8,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import type { Dialog, Page } from 'playwright-core';
+import type { Dialog, Download, Page } from 'playwright-core';
 import { XMLParser, XMLValidator } from 'fast-xml-parser';
 import { fitsImageBytes } from './fitsImage';
 import { anchors, demoOnDisk, dragMask, maskCounts, openEditor, shownNumbers, startHarness, waitSolved, type Anchor, type Harness } from './harness';
@@ -681,17 +681,21 @@ describe('editor panels in chromium', () => {
     const reachRe = Number(await page.inputValue(sel('goal-tracer-reach')));
     const dir = mkdtempSync(join(tmpdir(), 'hw-charts-'));
     const files: string[] = [];
+    let onDownload: (d: Download) => Promise<void> = async () => {};
     const got = new Promise<void>((resolve) => {
-      page.on('download', async (d) => {
+      onDownload = async (d) => {
         const p = join(dir, d.suggestedFilename());
         await d.saveAs(p);
         files.push(p);
         if (files.length === masks.length) resolve();
-      });
+      };
+      page.on('download', onDownload);
     });
     await page.click(sel('export-menu'));
     await page.click(sel('export-charts'));
     await got;
+    // Stop collecting: the single-chart download below must not overwrite these files while they are read.
+    page.off('download', onDownload);
     expect(files.map((f) => f.split('/').pop()).sort()).toStrictEqual(masks.map((m) => `mask-${m.id}.svg`).sort());
 
     // preserveOrder keeps attributes apart from child elements: each node is { tag: children, ':@': attributes }.
