@@ -6,7 +6,7 @@
  * drag a mask to move it, drag its round handle to rotate it, click a target to select it,
  * Shift+click to add, Shift+drag for a box selection. Keys: arrows pan, + and - zoom, 0 fits.
  */
-import { useCallback, useEffect, useMemo, useRef, useState, type KeyboardEvent as ReactKeyboardEvent } from 'react';
+import { memo, useCallback, useEffect, useMemo, useRef, useState, type KeyboardEvent as ReactKeyboardEvent } from 'react';
 import { Stage, Layer, Shape, Group, Line, Ellipse, Text, Circle, Rect } from 'react-konva';
 import type Konva from 'konva';
 import type { GalaxyModel } from '../../core/plan/schema';
@@ -201,8 +201,8 @@ export function SkyView(props: SkyViewProps) {
   }, [centre]);
 
   const shownMasks = props.masks.map((m) => (preview && preview.id === m.id ? preview : m));
-  const footprintYMax = Math.max(...profile.footprint.map((c) => c[1]));
-  const footprintPoints = profile.footprint.flatMap((c) => [c[0], c[1]]);
+  const footprintYMax = useMemo(() => Math.max(...profile.footprint.map((c) => c[1])), [profile.footprint]);
+  const footprintPoints = useMemo(() => profile.footprint.flatMap((c) => [c[0], c[1]]), [profile.footprint]);
 
   // ---- pointer gestures ----
   const stagePointer = (e: Konva.KonvaEventObject<MouseEvent>) => e.target.getStage()!.getPointerPosition() ?? { x: 0, y: 0 };
@@ -312,9 +312,6 @@ export function SkyView(props: SkyViewProps) {
   // ---- drawing ----
   const gc = skyToScreen(cam, 0, 0);
   const galaxyRot = -(90 + galaxy.paDeg);
-  const maxRing = Math.max(1, Math.ceil(props.tracerReachRe));
-  const rings = Array.from({ length: maxRing }, (_, i) => i + 1);
-  const sq = Math.sqrt(galaxy.axisRatio);
   const activePose = shownMasks.find((m) => m.id === props.activeMaskId) ?? null;
 
   return (
@@ -341,36 +338,10 @@ export function SkyView(props: SkyViewProps) {
         onMouseUp={(e) => endGesture(e)}
         onMouseLeave={() => endGesture(null)}
       >
-        {/* Isophotes on their own layer: a drag redraws only the masks' layer. */}
+        {/* Isophotes on their own layer, drawn again only when the view or the galaxy changes: a drag redraws only the masks' layer. */}
         <Layer listening={false}>
-          {rings.map((k) => {
-            const goalTracer = k === Math.round(props.tracerReachRe);
-            const goalStar = k === Math.round(props.starlightReachRe);
-            return (
-              <Ellipse
-                key={k}
-                listening={false}
-                x={gc.x}
-                y={gc.y}
-                radiusX={(k * galaxy.reArcsec * cam.pxPerArcsec) / sq}
-                radiusY={k * galaxy.reArcsec * cam.pxPerArcsec * sq}
-                rotation={galaxyRot}
-                stroke={goalStar ? ROLE_STYLE.starlight.colour : goalTracer ? INK.isophoteGoal : INK.isophote}
-                strokeWidth={goalTracer || goalStar ? 1.4 : 0.8}
-                dash={goalStar ? [8, 5] : k % 5 === 0 ? [] : [2, 4]}
-                opacity={goalTracer || goalStar ? 0.95 : 0.55}
-                perfectDrawEnabled={false}
-              />
-            );
-          })}
-          {rings.filter((k) => k <= 3 || k % 5 === 0 || k === maxRing).map((k) => {
-            const r = (k * galaxy.reArcsec * cam.pxPerArcsec) / sq;
-            const a = (galaxyRot * Math.PI) / 180;
-            return (
-              <Text key={`l${k}`} listening={false} x={gc.x + Math.cos(a) * r + 3} y={gc.y + Math.sin(a) * r - 12}
-                text={`${k} Re`} fontSize={11} fill={INK.textDim} />
-            );
-          })}
+          <Isophotes xPx={gc.x} yPx={gc.y} pxPerRe={galaxy.reArcsec * cam.pxPerArcsec} axisRatio={galaxy.axisRatio} rotationDeg={galaxyRot}
+            tracerReachRe={props.tracerReachRe} starlightReachRe={props.starlightReachRe} />
         </Layer>
         {/* While a mask is dragged or turned (a preview is shown) nothing on this layer needs the mouse: the gesture
             follows the stage's pointer, so Konva skips redrawing the hit canvas on every frame. */}
@@ -378,41 +349,9 @@ export function SkyView(props: SkyViewProps) {
           {shownMasks.map((m) => {
             const c = maskXiEta(m);
             const sp = skyToScreen(cam, c.xiArcsec, c.etaArcsec);
-            const active = m.id === props.activeMaskId;
-            const slits = props.slitsByMask.get(m.id) ?? [];
-            const s = cam.pxPerArcsec;
             return (
-              <Group key={m.id} x={sp.x} y={sp.y} rotation={maskGroupRotationDeg(m.paDeg)} scaleX={s} scaleY={s}>
-                <Line
-                  name="mask-body"
-                  id={`body:${m.id}`}
-                  points={footprintPoints}
-                  closed
-                  fill={active ? 'rgba(255,255,255,0.09)' : INK.footprintFill}
-                  stroke={active ? INK.footprintActive : INK.footprint}
-                  strokeWidth={active ? 2 : 1.2}
-                  strokeScaleEnabled={false}
-                  dash={m.locked ? [] : [10, 5]}
-                  opacity={0.9}
-                  perfectDrawEnabled={false}
-                />
-                <Shape
-                  listening={false}
-                  sceneFunc={(ctx) => drawSlits(ctx._context as CanvasRenderingContext2D, slits, s)}
-                />
-                <Line listening={false} points={[0, footprintYMax, 0, footprintYMax + 26 / s]} stroke={INK.footprint} strokeWidth={1} strokeScaleEnabled={false} />
-                <Circle
-                  name="mask-handle"
-                  id={`handle:${m.id}`}
-                  x={0}
-                  y={footprintYMax + (26 + HANDLE_PX) / s}
-                  radius={HANDLE_PX / s}
-                  fill={active ? INK.footprintActive : '#aab4c2'}
-                  stroke="#000"
-                  strokeWidth={1}
-                  strokeScaleEnabled={false}
-                />
-              </Group>
+              <MaskShape key={m.id} id={m.id} xPx={sp.x} yPx={sp.y} paDeg={m.paDeg} locked={m.locked} pxPerArcsec={cam.pxPerArcsec}
+                active={m.id === props.activeMaskId} slits={props.slitsByMask.get(m.id) ?? NO_SLITS} footprintPoints={footprintPoints} footprintYMax={footprintYMax} />
             );
           })}
           {shownMasks.map((m) => {
@@ -444,6 +383,98 @@ export function SkyView(props: SkyViewProps) {
     </div>
   );
 }
+
+const NO_SLITS: readonly Slit[] = [];
+const DASH_NONE: number[] = [];
+const DASH_FREE_MASK = [10, 5];
+const DASH_STARLIGHT_GOAL = [8, 5];
+const DASH_RING = [2, 4];
+
+/**
+ * Isophotes at 1, 2, ... ceil(tracer goal) Re about the galaxy centre (screen px), labelled at 1-3 Re, every 5 Re and
+ * the last; memoised on plain numbers, so a render that changes neither the view nor the galaxy leaves the layer alone.
+ */
+const Isophotes = memo(function Isophotes({ xPx, yPx, pxPerRe, axisRatio, rotationDeg, tracerReachRe, starlightReachRe }: {
+  xPx: number; yPx: number; pxPerRe: number; axisRatio: number; rotationDeg: number; tracerReachRe: number; starlightReachRe: number;
+}) {
+  const maxRing = Math.max(1, Math.ceil(tracerReachRe));
+  const rings = Array.from({ length: maxRing }, (_, i) => i + 1);
+  const sq = Math.sqrt(axisRatio);
+  const a = (rotationDeg * Math.PI) / 180;
+  return (
+    <>
+      {rings.map((k) => {
+        const goalTracer = k === Math.round(tracerReachRe);
+        const goalStar = k === Math.round(starlightReachRe);
+        return (
+          <Ellipse
+            key={k}
+            listening={false}
+            x={xPx}
+            y={yPx}
+            radiusX={(k * pxPerRe) / sq}
+            radiusY={k * pxPerRe * sq}
+            rotation={rotationDeg}
+            stroke={goalStar ? ROLE_STYLE.starlight.colour : goalTracer ? INK.isophoteGoal : INK.isophote}
+            strokeWidth={goalTracer || goalStar ? 1.4 : 0.8}
+            dash={goalStar ? DASH_STARLIGHT_GOAL : k % 5 === 0 ? DASH_NONE : DASH_RING}
+            opacity={goalTracer || goalStar ? 0.95 : 0.55}
+            perfectDrawEnabled={false}
+          />
+        );
+      })}
+      {rings.filter((k) => k <= 3 || k % 5 === 0 || k === maxRing).map((k) => {
+        const r = (k * pxPerRe) / sq;
+        return (
+          <Text key={`l${k}`} listening={false} x={xPx + Math.cos(a) * r + 3} y={yPx + Math.sin(a) * r - 12}
+            text={`${k} Re`} fontSize={11} fill={INK.textDim} />
+        );
+      })}
+    </>
+  );
+});
+
+/**
+ * One mask: footprint, slits by role and the rotate handle, drawn in the mask frame (arcsec) about its centre at
+ * (xPx, yPx); memoised, so while one mask is dragged the others are not touched.
+ */
+const MaskShape = memo(function MaskShape({ id, xPx, yPx, paDeg, locked, pxPerArcsec: s, active, slits, footprintPoints, footprintYMax }: {
+  id: string; xPx: number; yPx: number; paDeg: number; locked: boolean; pxPerArcsec: number; active: boolean;
+  slits: readonly Slit[]; footprintPoints: number[]; footprintYMax: number;
+}) {
+  const drawScene = useCallback((ctx: Konva.Context) => drawSlits(ctx._context as CanvasRenderingContext2D, slits, s), [slits, s]);
+  const stem = useMemo(() => [0, footprintYMax, 0, footprintYMax + 26 / s], [footprintYMax, s]);
+  return (
+    <Group x={xPx} y={yPx} rotation={maskGroupRotationDeg(paDeg)} scaleX={s} scaleY={s}>
+      <Line
+        name="mask-body"
+        id={`body:${id}`}
+        points={footprintPoints}
+        closed
+        fill={active ? 'rgba(255,255,255,0.09)' : INK.footprintFill}
+        stroke={active ? INK.footprintActive : INK.footprint}
+        strokeWidth={active ? 2 : 1.2}
+        strokeScaleEnabled={false}
+        dash={locked ? DASH_NONE : DASH_FREE_MASK}
+        opacity={0.9}
+        perfectDrawEnabled={false}
+      />
+      <Shape listening={false} sceneFunc={drawScene} />
+      <Line listening={false} points={stem} stroke={INK.footprint} strokeWidth={1} strokeScaleEnabled={false} />
+      <Circle
+        name="mask-handle"
+        id={`handle:${id}`}
+        x={0}
+        y={footprintYMax + (26 + HANDLE_PX) / s}
+        radius={HANDLE_PX / s}
+        fill={active ? INK.footprintActive : '#aab4c2'}
+        stroke="#000"
+        strokeWidth={1}
+        strokeScaleEnabled={false}
+      />
+    </Group>
+  );
+});
 
 /** Slits and boxes of one mask in the mask frame (ctx already carries the mask transform at `scale` px/arcsec). */
 function drawSlits(ctx: CanvasRenderingContext2D, slits: readonly Slit[], scale: number): void {
