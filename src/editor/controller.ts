@@ -5,6 +5,7 @@
 import type { CatalogReadResult } from '../core/catalog/types';
 import type { PlanFile, PlanMask } from '../core/plan/schema';
 import { parsePlanText } from '../core/plan/validate';
+import { planFullyPlaced } from '../core/plan/pipeline';
 import { parseProfileText } from '../core/profile/load';
 import type { InstrumentProfile } from '../core/profile/schema';
 import { InputError, type Problem } from '../core/result';
@@ -250,7 +251,7 @@ export class EditorController {
     const fresh = !this.session.solution;
     this.sendInputs(false);
     const doc = this.store.doc;
-    if (fresh && needsPlacement(doc.plan)) this.adoptRequestId = this.requestFor(doc, 'plan');
+    if (fresh && !planFullyPlaced(doc.plan)) this.adoptRequestId = this.requestFor(doc, 'plan');
     else this.requestFor(doc, 'allocate');
     this.scheduleAutosave();
   }
@@ -431,12 +432,6 @@ function placementsOf(plan: PlanFile, solved: PlanFile): PlanMask[] | null {
     const g = given.get(s.id);
     return { ...(g ?? {}), ...s, locked: g?.locked ?? false };
   });
-}
-
-/** True when the plan lists fewer masks than its goal, or a listed mask has no centre or PA yet. */
-function needsPlacement(plan: PlanFile): boolean {
-  const masks = plan.masks ?? [];
-  return masks.length < plan.goals.masks || masks.some((m) => m.raDeg === undefined || m.decDeg === undefined || m.paDeg === undefined);
 }
 
 function withoutPlacement(m: PlanMask): Omit<PlanMask, 'id'> {

@@ -2,31 +2,16 @@
 // the demo loads solved, a mask drag changes the slits, undo restores them exactly, a bad catalog shows its
 // row report, reload restores the work, exported files pass `haloweave check` and load again, and the editor's
 // numbers equal those of `haloweave plan` on the same plan.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { copyFileSync, mkdtempSync, readFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { writeFileSync } from 'node:fs';
 import { fitsImageBytes } from './fitsImage';
-import { anchors, demoOnDisk, dragMask, maskCounts, numbersOfOutput, openEditor, runCli, shownNumbers, startHarness, waitSolved, type Harness } from './harness';
+import { anchors, demoOnDisk, dragMask, maskCounts, numbersOfOutput, openEditor, runCli, shownNumbers, harnessForFile, waitSolved } from './harness';
 
-let h: Harness;
-
-beforeAll(async () => {
-  h = await startHarness();
-}, 180_000);
-
-afterAll(async () => {
-  await h?.close();
-});
-
-type Numbers = Awaited<ReturnType<typeof shownNumbers>>;
-
-/** Slit counts and reach must be equal to the bit: core's math is engine-independent (src/core/numeric/portableMath.ts). */
-function expectSameNumbers(actual: Numbers, expected: Numbers): void {
-  expect(actual).toStrictEqual(expected);
-}
+const harness = harnessForFile();
 
 async function clickExport(page: Page, testId: string, dir: string): Promise<string> {
   if (!(await page.locator(`[data-testid="${testId}"]`).isVisible())) await page.click('[data-testid="export-menu"]');
@@ -38,7 +23,7 @@ async function clickExport(page: Page, testId: string, dir: string): Promise<str
 
 describe('editor in chromium', () => {
   it('loads the demo solved, drags a mask (slits change), undoes exactly, and restores the work after a reload', async () => {
-    const { context, page } = await openEditor(h);
+    const { context, page } = await openEditor(harness());
     const masks = await anchors(page);
     expect(masks.length).toBeGreaterThanOrEqual(4);
     const before = await shownNumbers(page);
@@ -94,7 +79,7 @@ describe('editor in chromium', () => {
   });
 
   it('shows every bad row of a dropped catalog with its line, column and reason', async () => {
-    const { context, page } = await openEditor(h);
+    const { context, page } = await openEditor(harness());
     const csv = [
       'id,ra,dec,mag',
       'ok1,161.80,-21.40,21.0',
@@ -134,13 +119,14 @@ describe('editor in chromium', () => {
     const r = runCli(['plan', demo.planPath, '--out', out, '--quiet']);
     expect(r.status, r.stderr).toBe(0);
     const cli = numbersOfOutput(readFileSync(join(out, 'slits.csv'), 'utf8'), readFileSync(join(out, 'coverage.json'), 'utf8'));
-    const { context, page } = await openEditor(h);
-    expectSameNumbers(await shownNumbers(page), cli);
+    const { context, page } = await openEditor(harness());
+    // Counts and reach equal to the bit: core's math is engine-independent (src/core/numeric/portableMath.ts).
+    expect(await shownNumbers(page)).toStrictEqual(cli);
     await context.close();
   });
 
   it('draws the per-sector coverage rose whole at 1600 x 1000 (its caption beside it does not squeeze it)', async () => {
-    const { context, page } = await openEditor(h, { width: 1600, height: 1000 });
+    const { context, page } = await openEditor(harness(), { width: 1600, height: 1000 });
     const svg = page.locator('[data-testid="sector-plot"]');
     await svg.scrollIntoViewIfNeeded();
     const shown = (await svg.boundingBox())!;
@@ -154,7 +140,7 @@ describe('editor in chromium', () => {
 
   it('exports files that pass `haloweave check`, give the same numbers under `haloweave plan`, and load again', async () => {
     const demo = demoOnDisk();
-    const { context, page } = await openEditor(h);
+    const { context, page } = await openEditor(harness());
     const ids = (await anchors(page)).map((m) => m.id);
     await dragMask(page, ids[1], 70, -40);
     await waitSolved(page);
@@ -187,17 +173,17 @@ describe('editor in chromium', () => {
     });
     expect(JSON.parse(readFileSync(saved, 'utf8')).format).toBe('haloweave.plan/1');
     await context.close();
-    const fresh = await openEditor(h);
+    const fresh = await openEditor(harness());
     fresh.page.on('dialog', (d) => void d.accept());
     await fresh.page.setInputFiles('[data-testid="open-input"]', [join(dir, 'solved.plan.json'), join(dir, demo.catalogName)]);
     await fresh.page.waitForFunction(() => document.querySelector('[data-testid="doc-name"]')?.textContent?.startsWith('solved.plan.json'));
     await waitSolved(fresh.page);
-    expectSameNumbers(await shownNumbers(fresh.page), shown);
+    expect(await shownNumbers(fresh.page)).toStrictEqual(shown);
     await fresh.context.close();
   });
 
   it('shows a FITS image under the plan where its TAN WCS puts it, and says clearly when an image has no usable WCS', async () => {
-    const { context, page } = await openEditor(h);
+    const { context, page } = await openEditor(harness());
     const galaxy = await page.evaluate(() => {
       const w = (window as unknown as { haloweave: { session: { solution: { result: { galaxy: { raDeg: number; decDeg: number } } } } } }).haloweave;
       return w.session.solution.result.galaxy;

@@ -2,6 +2,7 @@
  * Browser test harness: Vite's dev server started in-process on a free port, and Debian's chromium
  * driven by playwright-core in a fresh context (nothing downloads a browser).
  */
+import { afterAll, beforeAll } from 'vitest';
 import { createServer, type ViteDevServer } from 'vite';
 import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
 import { fileURLToPath } from 'node:url';
@@ -39,6 +40,17 @@ export async function startHarness(): Promise<Harness> {
       await server.close().catch(() => {});
     },
   };
+}
+
+/**
+ * One harness for the calling test file: started before its tests, closed after them. Returns a getter, since the
+ * harness exists only once the file's tests run.
+ */
+export function harnessForFile(): () => Harness {
+  let h: Harness | undefined;
+  beforeAll(async () => { h = await startHarness(); }, 180_000);
+  afterAll(async () => { await h?.close(); });
+  return () => h!;
 }
 
 /** A fresh context (its own storage) and page at the editor, waiting until the demo is solved. */

@@ -4,24 +4,16 @@
 // hour-angle windows, the SVG mask charts, the question before discarding edits, the masks goal, a catalog opened
 // after its plan, keyboard pan and zoom, and the brightness scaling of a FITS backdrop. Edits are undone and the
 // shown numbers compared exactly.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Dialog, Download, Page } from 'playwright-core';
 import { XMLParser, XMLValidator } from 'fast-xml-parser';
 import { fitsImageBytes } from './fitsImage';
-import { anchors, demoOnDisk, dragMask, maskCounts, openEditor, shownNumbers, startHarness, waitSolved, type Anchor, type Harness } from './harness';
+import { anchors, demoOnDisk, dragMask, maskCounts, openEditor, shownNumbers, harnessForFile, waitSolved, type Anchor } from './harness';
 
-let h: Harness;
-
-beforeAll(async () => {
-  h = await startHarness();
-}, 180_000);
-
-afterAll(async () => {
-  await h?.close();
-});
+const harness = harnessForFile();
 
 const T = 150_000; // per-test timeout: two cores shared with other work
 
@@ -180,7 +172,7 @@ async function solvedAfter(page: Page, before: string): Promise<void> {
 
 describe('editor panels in chromium', () => {
   it('turns a mask with its round handle: PA and that mask\'s slits change, Ctrl+Z restores both exactly', async () => {
-    const { context, page } = await openEditor(h);
+    const { context, page } = await openEditor(harness());
     const fp = await footprint(page);
     const yMax = Math.max(...fp.map((c) => c[1]));
     const box = await skyBox(page);
@@ -254,7 +246,7 @@ describe('editor panels in chromium', () => {
   }, T);
 
   it('locks and unlocks masks from the Masks panel; the search offers the free ones; undo and redo follow', async () => {
-    const { context, page } = await openEditor(h);
+    const { context, page } = await openEditor(harness());
     const ids = (await anchors(page)).map((a) => a.id);
     const numbers = await shownNumbers(page);
     const lockText = (id: string) => page.textContent(sel(`lock-${id}`));
@@ -295,7 +287,7 @@ describe('editor panels in chromium', () => {
   }, T);
 
   it('links the target table and the sky view both ways; filters and sorts the table', async () => {
-    const { context, page } = await openEditor(h);
+    const { context, page } = await openEditor(harness());
     const box = await skyBox(page);
     const fp = await footprint(page);
     const cam = await camera(page);
@@ -399,7 +391,7 @@ describe('editor panels in chromium', () => {
   }, T);
 
   it('sets weights and forces targets out and in from the table; undo restores every number exactly', async () => {
-    const { context, page } = await openEditor(h);
+    const { context, page } = await openEditor(harness());
     const numbers0 = await shownNumbers(page);
     const fp = await footprint(page);
     const cam = await camera(page);
@@ -487,7 +479,7 @@ describe('editor panels in chromium', () => {
   }, T);
 
   it('edits the galaxy and the goals: numbers change, undo restores them exactly, bad input is refused', async () => {
-    const { context, page } = await openEditor(h);
+    const { context, page } = await openEditor(harness());
     const numbers0 = await shownNumbers(page);
     expect(numbers0.counts.starlight).toBeGreaterThan(0);
     const name = await page.textContent(sel('doc-name'));
@@ -548,7 +540,7 @@ describe('editor panels in chromium', () => {
   }, T);
 
   it('runs the pointing search with a moving progress bar; cancel changes nothing; a full run is one undoable step', async () => {
-    const { context, page } = await openEditor(h);
+    const { context, page } = await openEditor(harness());
     const ids = (await anchors(page)).map((a) => a.id);
     // Free every mask first (the search keeps locked ones).
     for (const id of ids) if ((await page.textContent(sel(`lock-${id}`))) === 'locked') await page.click(sel(`lock-${id}`));
@@ -630,7 +622,7 @@ describe('editor panels in chromium', () => {
   }, T);
 
   it('shows the nights of the semester and an hour-angle window for every mask', async () => {
-    const { context, page } = await openEditor(h);
+    const { context, page } = await openEditor(harness());
     const ids = (await anchors(page)).map((a) => a.id);
     const nightsOf = (label: string) => {
       // "2026 Aug–2027 Jan" or "2027 Feb–Jul": the days from the first day of the first month to the last of the last.
@@ -675,7 +667,7 @@ describe('editor panels in chromium', () => {
   }, T);
 
   it('exports an SVG chart per mask with its footprint, every slit by id, isophotes, N and E, and a true scale bar', async () => {
-    const { context, page } = await openEditor(h);
+    const { context, page } = await openEditor(harness());
     const masks = await anchors(page);
     const fp = await footprint(page);
     const reachRe = Number(await page.inputValue(sel('goal-tracer-reach')));
@@ -789,7 +781,7 @@ describe('editor panels in chromium', () => {
   }, T);
 
   it('asks before opening another file over unsaved edits: dismissing keeps them, accepting replaces them', async () => {
-    const { context, page } = await openEditor(h);
+    const { context, page } = await openEditor(harness());
     const numbers0 = await shownNumbers(page);
     const name0 = (await page.textContent(sel('doc-name')))!;
     const starlight0 = await page.inputValue(sel('goal-starlight-reach'));
@@ -854,7 +846,7 @@ describe('editor panels in chromium', () => {
   }, T);
 
   it('raises the masks goal: the listed masks keep the yield until the search places the new one; fewer than listed is refused', async () => {
-    const { context, page } = await openEditor(h);
+    const { context, page } = await openEditor(harness());
     const ids = (await anchors(page)).map((a) => a.id);
     const numbers0 = await shownNumbers(page);
     expect(await panelTotals(page)).toStrictEqual(numbers0.counts);
@@ -901,7 +893,7 @@ describe('editor panels in chromium', () => {
   }, T);
 
   it('places and shows the masks of a plan whose catalog is opened after it', async () => {
-    const { context, page } = await openEditor(h);
+    const { context, page } = await openEditor(harness());
     const numbers0 = await shownNumbers(page);
     const ids = (await anchors(page)).map((a) => a.id);
     // The demo plan naming a catalog that is not loaded yet.
@@ -929,7 +921,7 @@ describe('editor panels in chromium', () => {
   }, T);
 
   it('pans with the arrow keys and zooms with + and - on the focused sky view; 0 fits the view again', async () => {
-    const { context, page } = await openEditor(h);
+    const { context, page } = await openEditor(harness());
     const box = await skyBox(page);
     const cam0 = await camera(page);
     const a0 = await anchors(page);
@@ -981,7 +973,7 @@ describe('editor panels in chromium', () => {
   }, T);
 
   it('changes the brightness of a FITS backdrop with its stretch, black point and opacity controls', async () => {
-    const { context, page } = await openEditor(h);
+    const { context, page } = await openEditor(harness());
     const galaxy = await page.evaluate(() => (window as unknown as { haloweave: { session: { solution: { result: { galaxy: { raDeg: number; decDeg: number } } } } } }).haloweave.session.solution.result.galaxy);
     const dir = mkdtempSync(join(tmpdir(), 'hw-fits-scale-'));
     // A ramp along FITS x (10 per pixel, 10..1000) with 2 arcsec pixels and East to the left (CD1_1 < 0), centred on the galaxy.

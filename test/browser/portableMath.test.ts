@@ -2,26 +2,24 @@
 // the same slits from the same plan. PMath (src/core/numeric/portableMath.ts) is evaluated on a seeded argument set in
 // Debian's chromium (through the Vite dev server, as the editor loads it) and here; every result must be bit-identical.
 // The engines' own Math is compared too and the differences are printed: that is the reason PMath exists.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { PMath } from '../../src/core/numeric/portableMath';
 import { bitsHex, evaluateProbe, probeArguments } from '../numeric/probeArguments';
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { solveChain, type ProbeSolve } from '../numeric/pipelineProbe';
-import { demoOnDisk, ROOT, startHarness, type Harness } from './harness';
+import { demoOnDisk, ROOT, harnessForFile } from './harness';
 
-let h: Harness;
-beforeAll(async () => { h = await startHarness(); }, 180_000);
-afterAll(async () => { await h?.close(); });
+const harness = harnessForFile();
 
 const N = 20_000;
 
 describe('PMath in chromium', () => {
   it('gives the same bits as in node for every probe argument', async () => {
-    const context = await h.browser.newContext();
+    const context = await harness().browser.newContext();
     await context.addInitScript({ content: 'window.__name = (f) => f;' });
     const page = await context.newPage();
-    await page.goto(`${h.url}index.html`);
+    await page.goto(`${harness().url}index.html`);
     // A string, not a function: vitest rewrites import() in this file's own code, and the page must do its own.
     const browser = (await page.evaluate(`(async () => {
       const pm = await import('/src/core/numeric/portableMath.ts');
@@ -52,9 +50,9 @@ describe('the planning pipeline in chromium', () => {
     const profileText = readFileSync(join(ROOT, 'instrument-profiles', `${JSON.parse(planText).instrument}.json`), 'utf8');
     const catalogText = readFileSync(demo.catalogPath, 'utf8');
     const edits = 8;
-    const context = await h.browser.newContext();
+    const context = await harness().browser.newContext();
     const page = await context.newPage();
-    await page.goto(`${h.url}index.html`);
+    await page.goto(`${harness().url}index.html`);
     await page.evaluate((a) => { (window as unknown as { __probe: unknown }).__probe = a; }, { planText, profileText, catalogText, name: demo.catalogName, edits });
     const browser = (await page.evaluate(`(async () => {
       const probe = await import('/test/numeric/pipelineProbe.ts');

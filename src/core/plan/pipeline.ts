@@ -105,6 +105,12 @@ export function weighPlanTargets(plan: PlanFile, targets: readonly Target[]): We
 
 // ---- stage 2: mask placement ---------------------------------------------------------------------------
 
+/** True when the plan lists every mask its goal asks for, each with a centre and a PA (nothing left to place). */
+export function planFullyPlaced(plan: PlanFile): boolean {
+  const masks = plan.masks ?? [];
+  return masks.length >= plan.goals.masks && masks.every((m) => m.raDeg !== undefined && m.decDeg !== undefined && m.paDeg !== undefined);
+}
+
 /**
  * Every mask placed: locked masks kept; the others by the pointing search (solver/pointingSearch.ts), which starts
  * from the naive cross layout (or the plan's own positions) and never ends worse than it on the objective.

@@ -313,6 +313,11 @@ export function SkyView(props: SkyViewProps) {
   const gc = skyToScreen(cam, 0, 0);
   const galaxyRot = -(90 + galaxy.paDeg);
   const activePose = shownMasks.find((m) => m.id === props.activeMaskId) ?? null;
+  // Each shown mask's centre on the screen, once per render (masks, labels and the test anchors use it).
+  const onScreen = shownMasks.map((m) => {
+    const c = maskXiEta(m);
+    return { m, sp: skyToScreen(cam, c.xiArcsec, c.etaArcsec) };
+  });
 
   return (
     <div
@@ -346,19 +351,13 @@ export function SkyView(props: SkyViewProps) {
         {/* While a mask is dragged or turned (a preview is shown) nothing on this layer needs the mouse: the gesture
             follows the stage's pointer, so Konva skips redrawing the hit canvas on every frame. */}
         <Layer listening={!preview}>
-          {shownMasks.map((m) => {
-            const c = maskXiEta(m);
-            const sp = skyToScreen(cam, c.xiArcsec, c.etaArcsec);
-            return (
+          {onScreen.map(({ m, sp }) => (
               <MaskShape key={m.id} id={m.id} xPx={sp.x} yPx={sp.y} paDeg={m.paDeg} locked={m.locked} pxPerArcsec={cam.pxPerArcsec}
                 active={m.id === props.activeMaskId} slits={props.slitsByMask.get(m.id) ?? NO_SLITS} footprintPoints={footprintPoints} footprintYMax={footprintYMax} />
-            );
-          })}
-          {shownMasks.map((m) => {
-            const c = maskXiEta(m);
-            const sp = skyToScreen(cam, c.xiArcsec, c.etaArcsec);
-            return <Text key={`t${m.id}`} listening={false} x={sp.x + 6} y={sp.y + 4} text={`${m.id}${m.locked ? ' (locked)' : ''}`} fontSize={12} fill={INK.text} />;
-          })}
+          ))}
+          {onScreen.map(({ m, sp }) => (
+            <Text key={`t${m.id}`} listening={false} x={sp.x + 6} y={sp.y + 4} text={`${m.id}${m.locked ? ' (locked)' : ''}`} fontSize={12} fill={INK.text} />
+          ))}
           {boxSel && (
             <Rect x={Math.min(boxSel.x0, boxSel.x1)} y={Math.min(boxSel.y0, boxSel.y1)} width={Math.abs(boxSel.x1 - boxSel.x0)}
               height={Math.abs(boxSel.y1 - boxSel.y0)} stroke={INK.selection} dash={[4, 3]} strokeWidth={1} />
@@ -373,11 +372,9 @@ export function SkyView(props: SkyViewProps) {
       )}
       <div className="sky-readout" data-testid="sky-readout" ref={readoutRef}>{HINT}</div>
       <ul className="test-anchors" data-testid="mask-anchors" hidden>
-        {shownMasks.map((m) => {
-          const c = maskXiEta(m);
-          const sp = skyToScreen(cam, c.xiArcsec, c.etaArcsec);
-          return <li key={m.id} data-mask-id={m.id} data-x={sp.x.toFixed(1)} data-y={sp.y.toFixed(1)} data-pa={m.paDeg.toFixed(2)} />;
-        })}
+        {onScreen.map(({ m, sp }) => (
+          <li key={m.id} data-mask-id={m.id} data-x={sp.x.toFixed(1)} data-y={sp.y.toFixed(1)} data-pa={m.paDeg.toFixed(2)} />
+        ))}
       </ul>
       <div hidden data-testid="camera" ref={cameraTestRef} data-renders={renderCount.current} />
     </div>

@@ -12,7 +12,7 @@ import type { PlanFile } from '../../core/plan/schema';
 import type { InstrumentProfile } from '../../core/profile/schema';
 import { galaxyModel } from '../../core/plan/validate';
 import { wrap360Deg } from '../../core/sky/angles';
-import { addStarlightAndSky, lengthenMasks, placeMasks, solvedPlanFile, targetWeights } from '../../core/plan/pipeline';
+import { addStarlightAndSky, lengthenMasks, placeMasks, planFullyPlaced, solvedPlanFile, targetWeights } from '../../core/plan/pipeline';
 import { allocateForPointings, allocationContext, reallocateOneMask, type AllocationContext, type PointingsAllocation } from '../../core/solver/allocateMasks';
 import { coverageReport } from '../../core/coverage/coverage';
 import { objectiveContext } from '../../core/solver/objective';
@@ -50,7 +50,7 @@ const samePointing = (a: MaskPointing, b: MaskPointing) => a.raDeg === b.raDeg &
 /** The plan's masks as pointings when every one is placed (a drag never has unplaced masks), else null. */
 function givenPointings(plan: PlanFile): MaskPointing[] | null {
   const masks = plan.masks ?? [];
-  if (masks.length < plan.goals.masks || masks.some((m) => m.raDeg === undefined || m.decDeg === undefined || m.paDeg === undefined)) return null;
+  if (!planFullyPlaced(plan)) return null;
   return masks.map((m) => ({ id: m.id, raDeg: m.raDeg!, decDeg: m.decDeg!, paDeg: wrap360Deg(m.paDeg!), locked: true }));
 }
 

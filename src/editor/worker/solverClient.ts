@@ -38,7 +38,6 @@ export const makeSolveWorker: MakeWorker = () => new Worker(new URL('./solveWork
 export class SolverClient {
   private worker: Worker;
   private nextId = 1;
-  private latestId = 0;
   private inFlight: { id: number; postedAt: number; mode: SolveMode } | null = null;
   private pending: { plan: PlanFile; mode: SolveMode } | null = null;
   private inputs: { version: number; profile: InstrumentProfile; catalog: CatalogReadResult } | null = null;
@@ -79,7 +78,6 @@ export class SolverClient {
     if (this.pending) this.stats.dropped++;
     this.pending = { plan, mode };
     const id = this.nextId; // the id this request will get when it is sent
-    this.latestId = id;
     this.pump();
     return id;
   }
