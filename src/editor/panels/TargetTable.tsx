@@ -102,7 +102,10 @@ export const TargetTable = memo(function TargetTable({ c, data, selection, overr
     const first = rows.findIndex((i) => selection.has(i));
     if (first < 0) return;
     const top = first * ROW_PX, el = box.current;
-    if (top < el.scrollTop || top > el.scrollTop + el.clientHeight - ROW_PX * 2) el.scrollTop = Math.max(0, top - ROW_PX * 2);
+    if (top < el.scrollTop || top > el.scrollTop + el.clientHeight - ROW_PX * 2) {
+      el.scrollTop = Math.max(0, top - ROW_PX * 2);
+      setScrollTop(el.scrollTop);
+    }
   }, [selection, rows]);
 
   const select = (rowPos: number, e: React.MouseEvent) => {
@@ -133,7 +136,10 @@ export const TargetTable = memo(function TargetTable({ c, data, selection, overr
     setWeightText('');
   };
 
-  const first = Math.max(0, Math.floor(scrollTop / ROW_PX) - 5);
+  // The scroll offset last reported, clamped to the current rows: when a filter shortens the list the browser
+  // clamps the element's scrollTop too, but its scroll event comes later, and a stale offset would show no rows.
+  const topPx = Math.min(scrollTop, Math.max(0, rows.length * ROW_PX - height));
+  const first = Math.max(0, Math.floor(topPx / ROW_PX) - 5);
   const last = Math.min(rows.length, first + Math.ceil(height / ROW_PX) + 10);
   const head = (key: SortKey, label: string, cls = '') => (
     <div className={`th ${cls} ${sort.key === key ? 'sorted' : ''}`} data-testid={`sort-${key}`}
