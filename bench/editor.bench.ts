@@ -95,7 +95,7 @@ export default async function editorBench(): Promise<void> {
     });
     const t0 = Date.now();
     let k = 0;
-    while (Date.now() - t0 < 4000) {
+    while (Date.now() - t0 < 8000) {
       k++;
       await p.mouse.move(box.x + a.x + 120 * Math.sin(k / 30), box.y + a.y + 80 * Math.sin(k / 47));
       await p.waitForTimeout(8);
@@ -109,9 +109,29 @@ export default async function editorBench(): Promise<void> {
     const preview = previewAll.slice(1);
     const full = times.filter((t) => t.mode !== 'preview').map((t) => t.ms);
     const drag = frameStats(frames);
+    // The same kind of moves once more, one update at a time: each preview is sent only after the last result was
+    // drawn and two frames passed, so the worker computes while the page is idle. On a machine with few cores this
+    // separates the worker's own compute from its waits for a core while the page redraws the drag.
+    const isolated = await p.evaluate(async (n) => {
+      const c = (window as unknown as { haloweave: { solveTimes: { mode: string; ms: number }[]; store: { doc: { plan: { masks: { id: string; raDeg: number; decDeg: number; paDeg: number }[] } } }; previewMask(pose: object): void } }).haloweave;
+      const m = c.store.doc.plan.masks[0];
+      const frame = () => new Promise((r) => requestAnimationFrame(r));
+      const out: number[] = [];
+      for (let k = 1; k <= n; k++) {
+        const seen = c.solveTimes.length;
+        const dxArcsec = 150 * Math.sin(k / 30), dyArcsec = 100 * Math.sin(k / 47);
+        c.previewMask({ id: m.id, raDeg: m.raDeg + dxArcsec / 3600 / Math.cos((m.decDeg * Math.PI) / 180), decDeg: m.decDeg + dyArcsec / 3600, paDeg: m.paDeg });
+        while (c.solveTimes.length === seen) await frame();
+        out.push(c.solveTimes[c.solveTimes.length - 1].ms);
+        await frame(); await frame();
+      }
+      return out;
+    }, 150);
     rows.push({ name: `view while dragging a mask, demo with ${demoRows} catalog rows`, value: drag.fps, unit: 'fps', goal: 57, lowerIsBetter: false, note: `60 Hz display: >= 57 means no frames lost beyond timer jitter; ${k} mouse moves, p95 frame ${drag.p95FrameMs.toFixed(1)} ms` });
     rows.push({ name: 'worker time per live re-solve (median)', value: pct(preview, 0.5), unit: 'ms', goal: 16, note: `${preview.length} updates` });
     rows.push({ name: 'worker time per live re-solve (p95)', value: pct(preview, 0.95), unit: 'ms', goal: 16 });
+    rows.push({ name: 'worker time per live re-solve, one update at a time (median)', value: pct(isolated, 0.5), unit: 'ms', goal: 16, note: `${isolated.length} updates, page idle while the worker computes` });
+    rows.push({ name: 'worker time per live re-solve, one update at a time (p95)', value: pct(isolated, 0.95), unit: 'ms', goal: 16 });
     rows.push({ name: 'worker time, first update of the drag (builds the live cache)', value: previewAll[0] ?? NaN, unit: 'ms' });
     rows.push({ name: 'worker time, full solve after the drag', value: pct(full, 0.5), unit: 'ms', note: 'exact pipeline solve of the committed plan' });
     await demo.context.close();

@@ -6,6 +6,7 @@ import type { CatalogReadResult } from '../core/catalog/types';
 import type { PlanFile, PlanMask } from '../core/plan/schema';
 import { parsePlanText } from '../core/plan/validate';
 import { planFullyPlaced } from '../core/plan/pipeline';
+import { withoutSolveOutputs } from '../core/observe/refractionReport';
 import { parseProfileText } from '../core/profile/load';
 import type { InstrumentProfile } from '../core/profile/schema';
 import { InputError, type Problem } from '../core/result';
@@ -55,6 +56,9 @@ export class EditorController {
   private lastInputs: { profile: InstrumentProfile; catalog: CatalogReadResult } | null = null;
   /** The request whose 'plan' result should place the masks of a freshly opened plan. */
   private adoptRequestId = -1;
+  /** The plan the placing solve (adoptRequestId) and the running pointing search were asked for. */
+  private adoptFrom: PlanFile | null = null;
+  private searchFrom: PlanFile | null = null;
   private autosaveTimer: ReturnType<typeof setTimeout> | null = null;
   private readonly confirm: (q: string) => boolean;
   private readonly autosaveDelayMs: number;
@@ -194,7 +198,7 @@ export class EditorController {
     if (opts.ask && !this.mayDiscard()) return false;
     let plan: PlanFile;
     try {
-      plan = parsePlanText(String(planFile.content), planFile.name);
+      plan = withoutSolveOutputs(parsePlanText(String(planFile.content), planFile.name));
     } catch (e) {
       this.notify('error', `${planFile.name} could not be opened`, problemsOf(e, planFile.name));
       return false;
@@ -251,7 +255,7 @@ export class EditorController {
     const fresh = !this.session.solution;
     this.sendInputs(false);
     const doc = this.store.doc;
-    if (fresh && !planFullyPlaced(doc.plan)) this.adoptRequestId = this.requestFor(doc, 'plan');
+    if (fresh && !planFullyPlaced(doc.plan)) this.requestPlacement(doc);
     else this.requestFor(doc, 'allocate');
     this.scheduleAutosave();
   }
@@ -268,7 +272,8 @@ export class EditorController {
     if (catalog) {
       this.sendInputs(false);
       // A fresh plan: the solver places masks that have no position yet; the result is adopted below.
-      this.adoptRequestId = this.requestFor(this.store!.doc, o.place ? 'plan' : 'allocate');
+      if (o.place) this.requestPlacement(this.store!.doc);
+      else this.requestFor(this.store!.doc, 'allocate');
     }
     this.scheduleAutosave();
     this.emit();
@@ -315,6 +320,12 @@ export class EditorController {
     return id;
   }
 
+  /** Ask for the solve that places the masks without a position; its placements are adopted (onSolved). */
+  private requestPlacement(doc: EditorDoc): void {
+    this.adoptRequestId = this.requestFor(doc, 'plan');
+    this.adoptFrom = doc.plan;
+  }
+
   /** True when the shown solution is the exact solve of the current document and nothing is pending. */
   get solutionIsCurrent(): boolean {
     return !!this.store && !this.session.solving && this.session.solvedDoc === this.store.doc;
@@ -325,9 +336,10 @@ export class EditorController {
     this.solveTimes.push({ mode: o.mode, ms: o.computeMs });
     if (this.solveTimes.length > 2000) this.solveTimes.splice(0, 1000);
     if (o.requestId === this.adoptRequestId && o.mode === 'plan') {
-      // Adopt the solver's placements as the opened document (not an edit: nothing to undo or save).
+      // Adopt the solver's placements as the opened document (not an edit: nothing to undo or save; the opening
+      // ends here). A mask the user moved or turned while it ran stays where the user put it.
       this.adoptRequestId = -1;
-      const placed = placementsOf(this.store.doc.plan, o.result.plan);
+      const placed = placementsOf(this.store.doc.plan, o.result.plan, this.adoptFrom);
       if (placed) {
         const doc = { ...this.store.doc, plan: { ...this.store.doc.plan, masks: placed } };
         const wasDirty = this.store.dirty;
@@ -335,6 +347,11 @@ export class EditorController {
         this.lastDoc = this.store.doc;
         this.scheduleAutosave();
       }
+    } else if (o.requestId === this.adoptRequestId) {
+      // The placing request was replaced, before it was sent, by the solve of a later edit (a request id goes to
+      // the request actually sent). Masks still without a position need placing: ask again.
+      this.adoptRequestId = -1;
+      if (!planFullyPlaced(this.store.doc.plan)) this.requestPlacement(this.store.doc);
     }
     const forDoc = o.mode === 'preview' ? null : this.requestedFor.get(o.requestId) ?? null;
     this.patch({ solution: o, solveError: null, solvedDoc: forDoc });
@@ -373,6 +390,7 @@ export class EditorController {
     const plan = this.store.doc.plan;
     const masks = (plan.masks ?? []).map((m) => (m.locked ? m : { id: m.id, ...withoutPlacement(m) }));
     this.searcher.setInputs(this.store.doc.profile, this.session.catalog);
+    this.searchFrom = plan;
     this.searcher.request({ ...plan, masks }, 'plan');
     this.patch({ search: { running: true, fraction: 0, message: 'starting' } });
   }
@@ -386,7 +404,7 @@ export class EditorController {
   private onSearched(o: SolveOutcome): void {
     if (!this.store) return;
     this.patch({ search: null });
-    const placed = placementsOf(this.store.doc.plan, o.result.plan);
+    const placed = placementsOf(this.store.doc.plan, o.result.plan, this.searchFrom);
     if (placed) this.store.dispatch(setMasksCommand(this.store.doc, placed, 'pointing search'));
   }
 
@@ -424,13 +442,20 @@ export class EditorController {
 }
 
 /** Mask placements of a solved plan merged into the document's masks (each mask's other keys and lock kept). */
-function placementsOf(plan: PlanFile, solved: PlanFile): PlanMask[] | null {
+/**
+ * The mask list to adopt from a solve that placed masks: the solved placements, except for a mask that was changed
+ * in `plan` since `askedFor` (the plan the solve was asked for): the user moved or turned it meanwhile, and keeps it.
+ */
+function placementsOf(plan: PlanFile, solved: PlanFile, askedFor: PlanFile | null): PlanMask[] | null {
   const solvedMasks = solved.masks ?? [];
   if (!solvedMasks.length) return null;
   const given = new Map((plan.masks ?? []).map((m) => [m.id, m]));
+  const asked = new Map((askedFor?.masks ?? []).map((m) => [m.id, m]));
   return solvedMasks.map((s) => {
     const g = given.get(s.id);
-    return { ...(g ?? {}), ...s, locked: g?.locked ?? false };
+    if (g && askedFor && g !== asked.get(s.id) && g.raDeg !== undefined && g.decDeg !== undefined && g.paDeg !== undefined) return g;
+    // The placement only: what else the solve wrote on a mask (its hour-angle window) is output, not plan input.
+    return { ...(g ?? {}), id: s.id, raDeg: s.raDeg, decDeg: s.decDeg, paDeg: s.paDeg, locked: g?.locked ?? false };
   });
 }
 

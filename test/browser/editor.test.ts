@@ -179,6 +179,16 @@ describe('editor in chromium', () => {
     await fresh.page.waitForFunction(() => document.querySelector('[data-testid="doc-name"]')?.textContent?.startsWith('solved.plan.json'));
     await waitSolved(fresh.page);
     expect(await shownNumbers(fresh.page)).toStrictEqual(shown);
+    // The solved plan carries the solve's observing report; opened for editing, the document keeps the inputs only
+    // (a stale report would otherwise be saved after the masks move), and the panels show the fresh solve's.
+    const solvedFile = JSON.parse(readFileSync(join(dir, 'solved.plan.json'), 'utf8'));
+    expect(solvedFile.observingReport).toBeDefined();
+    expect(solvedFile.masks.every((m: object) => 'hourAngleWindowH' in m)).toBe(true);
+    const opened = await fresh.page.evaluate(() => {
+      const c = (window as unknown as { haloweave: { store: { doc: { plan: { observingReport?: unknown; masks: object[] } } }; session: { solution: { result: { plan: { observingReport?: unknown } } } } } }).haloweave;
+      return { report: 'observingReport' in c.store.doc.plan, windows: c.store.doc.plan.masks.some((m) => 'hourAngleWindowH' in m), solvedReport: c.session.solution.result.plan.observingReport !== undefined };
+    });
+    expect(opened).toStrictEqual({ report: false, windows: false, solvedReport: true });
     await fresh.context.close();
   });
 

@@ -934,6 +934,58 @@ describe('editor panels in chromium', () => {
     await context.close();
   }, T);
 
+  it('finishes placing the masks of a newly opened plan when an edit comes first, and keeps a mask moved meanwhile', async () => {
+    const { context, page } = await openEditor(harness());
+    const demo = demoOnDisk();
+    const planText = readFileSync(demo.planPath, 'utf8'), catText = readFileSync(demo.catalogPath, 'utf8');
+    const plan = JSON.parse(planText);
+    const nMasks = plan.goals.masks as number;
+    type Pose = { id: string; raDeg?: number; decDeg?: number; paDeg?: number; locked?: boolean };
+    type C = {
+      store: { doc: { plan: { masks?: Pose[]; targetOverrides?: Record<string, unknown> } }; canUndo: boolean };
+      previewMask(p: object): void; commitMask(p: object, how: string): void;
+      openPlanText(p: object, c: object, o: object): boolean; run(make: (d: unknown) => object): void;
+    };
+    const docMasks = () => page.evaluate(() => (window as unknown as { haloweave: C }).haloweave.store.doc.plan.masks ?? []);
+    const placedCount = (ms: Pose[]) => ms.filter((m) => m.raDeg !== undefined && m.decDeg !== undefined && m.paDeg !== undefined).length;
+
+    // 1. The worker is busy with a drag preview when the plan opens, so its placing solve waits in the single pending
+    //    slot; an edit made at once (a weight) takes that slot before it is sent. The masks must still be placed.
+    const firstId = String(catText.split('\n')[1].split(',')[0]);
+    await page.evaluate(({ planText, catText, firstId }) => {
+      const c = (window as unknown as { haloweave: C }).haloweave;
+      const m = c.store.doc.plan.masks![0];
+      c.previewMask({ id: m.id, raDeg: m.raDeg! + 0.002, decDeg: m.decDeg, paDeg: m.paDeg });
+      c.openPlanText({ name: 'again.plan.json', content: planText }, { name: 'halo-demo.catalog.csv', content: catText }, { ask: false });
+      c.run(() => ({
+        label: 'weight',
+        do: (d: { plan: object }) => ({ ...d, plan: { ...d.plan, targetOverrides: { [firstId]: { weight: 3 } } } }),
+        undo: (d: { plan: { targetOverrides?: unknown } }) => ({ ...d, plan: { ...d.plan, targetOverrides: undefined } }),
+      }));
+    }, { planText, catText, firstId });
+    await expect.poll(async () => placedCount(await docMasks()), { timeout: 60_000 }).toBe(nMasks);
+    await expect.poll(() => anchors(page).then((a) => a.length)).toBe(nMasks);
+    await waitSolved(page);
+    expect(await page.evaluate(() => (window as unknown as { haloweave: C }).haloweave.store.doc.plan.targetOverrides)).toStrictEqual({ [firstId]: { weight: 3 } });
+    const placed = await docMasks();
+
+    // 2. A plan with its first mask placed but free and the others to place: the user moves that mask while the
+    //    placing solve runs (the search would move it too). The move stands; the other masks are placed.
+    const partial = { ...plan, masks: placed.map((m, i) => (i === 0 ? { id: m.id, raDeg: m.raDeg, decDeg: m.decDeg, paDeg: m.paDeg } : { id: m.id })) };
+    const target = { id: placed[0].id, raDeg: placed[0].raDeg! + 0.01, decDeg: placed[0].decDeg! - 0.005, paDeg: placed[0].paDeg! };
+    await page.evaluate(({ text, catText, target }) => {
+      const c = (window as unknown as { haloweave: C }).haloweave;
+      c.openPlanText({ name: 'partial.plan.json', content: text }, { name: 'halo-demo.catalog.csv', content: catText }, { ask: false });
+      c.commitMask(target, 'move');
+    }, { text: JSON.stringify(partial), catText, target });
+    await expect.poll(async () => placedCount(await docMasks()), { timeout: 60_000 }).toBe(nMasks);
+    await waitSolved(page);
+    const after = await docMasks();
+    expect(after[0]).toMatchObject({ id: target.id, raDeg: target.raDeg, decDeg: target.decDeg, paDeg: target.paDeg, locked: true });
+    expect((await anchors(page)).map((a) => a.id)).toStrictEqual(after.map((m) => m.id));
+    await context.close();
+  }, T);
+
   it('pans with the arrow keys and zooms with + and - on the focused sky view; 0 fits the view again', async () => {
     const { context, page } = await openEditor(harness());
     const box = await skyBox(page);

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
-import { refractionReport, withObservingReport, observingReportForPlan, formatRefractionSummary, compactObservingReport } from '../../src/core/observe/refractionReport';
+import { refractionReport, withObservingReport, withoutSolveOutputs, observingReportForPlan, formatRefractionSummary, compactObservingReport } from '../../src/core/observe/refractionReport';
 import { resolveObservingSettings } from '../../src/core/observe/observingSettings';
 import { parseProfileText } from '../../src/core/profile/load';
 import { parsePlan, galaxyModel } from '../../src/core/plan/validate';
@@ -63,6 +63,8 @@ describe('refraction report of a plan', () => {
     const text = JSON.stringify(solved);
     expect(JSON.parse(text).observingReport.masks[0].maskId).toBe('m1');
     expect(parsePlan(JSON.parse(text)).masks![0].designHourAngleH).toBe(1); // loads again as a plan
+    // Opened again for editing: the solve's outputs go, every input stays (the design hour angle too).
+    expect(withoutSolveOutputs(solved)).toStrictEqual({ ...plan, masks: plan.masks!.map((m) => ({ ...m, designHourAngleH: m.designHourAngleH ?? 0 })) });
     const compact = compactObservingReport(r);
     expect(compact.masks[0].rows[10].maxLossFraction).toBeCloseTo(r.masks[0].rows[10].maxLossFraction!, 4);
   });

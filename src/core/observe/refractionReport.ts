@@ -112,6 +112,17 @@ export function withObservingReport(plan: PlanFile, report: ObservingReport): Pl
   return { ...plan, masks, observingReport: compactObservingReport(report) };
 }
 
+/**
+ * The plan without what a solve wrote into it (the inverse of withObservingReport): no `observingReport` and no mask
+ * `hourAngleWindowH`. A mask's `designHourAngleH` stays: a plan may set it by hand. Used when a solved plan is opened
+ * for editing, so a stale report is not carried along (or saved) once masks move.
+ */
+export function withoutSolveOutputs(plan: PlanFile): PlanFile {
+  const { observingReport: _report, ...rest } = plan as PlanFile & { observingReport?: unknown };
+  if (!plan.masks) return rest;
+  return { ...rest, masks: plan.masks.map(({ hourAngleWindowH: _window, ...m }) => m) };
+}
+
 const fmtH = (h: number) => `${h >= 0 ? '+' : ''}${h.toFixed(2)} h`;
 
 /** Plain-text lines for the plan report: each mask's design hour angle and recommended window. */
