@@ -5,7 +5,7 @@
 import type { CatalogReadResult } from '../core/catalog/types';
 import type { PlanFile, PlanMask } from '../core/plan/schema';
 import { parsePlanText } from '../core/plan/validate';
-import { planFullyPlaced } from '../core/plan/pipeline';
+import { maskPlaced, planFullyPlaced } from '../core/plan/pipeline';
 import { withoutSolveOutputs } from '../core/observe/refractionReport';
 import { parseProfileText } from '../core/profile/load';
 import type { InstrumentProfile } from '../core/profile/schema';
@@ -441,7 +441,6 @@ export class EditorController {
   }
 }
 
-/** Mask placements of a solved plan merged into the document's masks (each mask's other keys and lock kept). */
 /**
  * The mask list to adopt from a solve that placed masks: the solved placements, except for a mask that was changed
  * in `plan` since `askedFor` (the plan the solve was asked for): the user moved or turned it meanwhile, and keeps it.
@@ -453,8 +452,9 @@ function placementsOf(plan: PlanFile, solved: PlanFile, askedFor: PlanFile | nul
   const asked = new Map((askedFor?.masks ?? []).map((m) => [m.id, m]));
   return solvedMasks.map((s) => {
     const g = given.get(s.id);
-    if (g && askedFor && g !== asked.get(s.id) && g.raDeg !== undefined && g.decDeg !== undefined && g.paDeg !== undefined) return g;
-    // The placement only: what else the solve wrote on a mask (its hour-angle window) is output, not plan input.
+    if (g && askedFor && g !== asked.get(s.id) && maskPlaced(g)) return g;
+    // The placement only (the mask's other keys and lock kept): what else the solve wrote on a mask (its hour-angle
+    // window) is output, not plan input.
     return { ...(g ?? {}), id: s.id, raDeg: s.raDeg, decDeg: s.decDeg, paDeg: s.paDeg, locked: g?.locked ?? false };
   });
 }

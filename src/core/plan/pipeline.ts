@@ -105,10 +105,15 @@ export function weighPlanTargets(plan: PlanFile, targets: readonly Target[]): We
 
 // ---- stage 2: mask placement ---------------------------------------------------------------------------
 
+/** True when a plan mask has a centre and a PA. */
+export function maskPlaced(m: PlanMask): boolean {
+  return m.raDeg !== undefined && m.decDeg !== undefined && m.paDeg !== undefined;
+}
+
 /** True when the plan lists every mask its goal asks for, each with a centre and a PA (nothing left to place). */
 export function planFullyPlaced(plan: PlanFile): boolean {
   const masks = plan.masks ?? [];
-  return masks.length >= plan.goals.masks && masks.every((m) => m.raDeg !== undefined && m.decDeg !== undefined && m.paDeg !== undefined);
+  return masks.length >= plan.goals.masks && masks.every(maskPlaced);
 }
 
 /**

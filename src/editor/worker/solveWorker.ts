@@ -3,10 +3,10 @@
  * The solver worker: runs the planning pipeline off the main thread and reports its own compute time.
  * It keeps the latest catalog and profile; each solve request carries only the plan.
  */
-import { solvePlan } from '../../core/plan/pipeline';
+import { maskPlaced, solvePlan } from '../../core/plan/pipeline';
 import type { CatalogReadResult } from '../../core/catalog/types';
 import type { InstrumentProfile } from '../../core/profile/schema';
-import type { PlanFile, PlanMask } from '../../core/plan/schema';
+import type { PlanFile } from '../../core/plan/schema';
 import type { FromWorker, SolveMode, SolveResult, ToWorker } from './protocol';
 import { InputError } from '../../core/result';
 import { liveSolve, resetLiveSolve } from './liveSolve';
@@ -22,9 +22,8 @@ let inputs: { version: number; profile: InstrumentProfile; catalog: CatalogReadR
  * of being placed afresh, unseen, by every allocation.
  */
 function lockedPlan(plan: PlanFile): PlanFile {
-  const placed = (m: PlanMask) => m.raDeg !== undefined && m.paDeg !== undefined;
-  const masks = (plan.masks ?? []).map((m) => (placed(m) ? { ...m, locked: true } : m));
-  const allPlaced = masks.length > 0 && masks.every(placed);
+  const masks = (plan.masks ?? []).map((m) => (maskPlaced(m) ? { ...m, locked: true } : m));
+  const allPlaced = masks.length > 0 && masks.every(maskPlaced);
   const goals = allPlaced && plan.goals.masks > masks.length ? { ...plan.goals, masks: masks.length } : plan.goals;
   return { ...plan, masks, goals };
 }
