@@ -983,6 +983,18 @@ describe('editor panels in chromium', () => {
     const after = await docMasks();
     expect(after[0]).toMatchObject({ id: target.id, raDeg: target.raDeg, decDeg: target.decDeg, paDeg: target.paDeg, locked: true });
     expect((await anchors(page)).map((a) => a.id)).toStrictEqual(after.map((m) => m.id));
+
+    // 3. The same during a pointing search: a free mask turned while the search runs keeps the user's PA.
+    const free = after.find((m) => !m.locked)!;
+    const turned = { id: free.id, raDeg: free.raDeg, decDeg: free.decDeg, paDeg: (free.paDeg! + 40) % 360 };
+    await page.evaluate((turned) => {
+      const c = (window as unknown as { haloweave: C & { startSearch(): void } }).haloweave;
+      c.startSearch();
+      c.commitMask(turned, 'rotate');
+    }, turned);
+    await expect.poll(() => undoTitle(page), { timeout: 60_000 }).toContain('pointing search');
+    const searched = (await docMasks()).find((m) => m.id === free.id)!;
+    expect(searched).toMatchObject({ raDeg: turned.raDeg, decDeg: turned.decDeg, paDeg: turned.paDeg, locked: true });
     await context.close();
   }, T);
 
