@@ -361,12 +361,17 @@ export class EditorController {
     this.patch({ solveError: { message, problems } });
   }
 
-  /** Show a mask at a pose it is being dragged to, and re-solve for it (not yet an edit). */
+  /** Show a mask at a pose it is being dragged to, and re-solve for it (not yet an edit) unless live drag is off. */
   previewMask(pose: MaskPose): void {
-    if (!this.store || !this.session.catalog) return;
+    if (!this.store || !this.session.catalog || !this.session.liveDrag) return;
     const plan = this.store.doc.plan;
     const masks = (plan.masks ?? []).map((m) => (m.id === pose.id ? { ...m, raDeg: pose.raDeg, decDeg: pose.decDeg, paDeg: pose.paDeg } : m));
     this.solver.request({ ...plan, masks }, 'preview');
+  }
+
+  /** Turn the re-solve on every step of a drag on or off (a view setting, not an edit). */
+  setLiveDrag(on: boolean): void {
+    this.patch({ liveDrag: on });
   }
 
   /** Commit a drag or rotation as one undoable command. */

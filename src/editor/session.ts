@@ -47,11 +47,14 @@ export interface Session {
   backdropName: string | null;
   /** When the document was last written to the browser's storage (ISO time), or null. */
   autosavedAt: string | null;
+  /** Re-solve the moved mask on every step of a drag (true), or only when it is dropped (false: for slow machines). */
+  liveDrag: boolean;
 }
 
 export function emptySession(): Session {
   return {
     catalog: null, catalogFile: null, planName: 'untitled.plan.json', solution: null, solvedDoc: null, solving: false, solveError: null,
     selection: new Set(), activeMaskId: null, preview: null, search: null, notices: [], backdropName: null, autosavedAt: null,
+    liveDrag: true,
   };
 }

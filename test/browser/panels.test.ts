@@ -934,6 +934,32 @@ describe('editor panels in chromium', () => {
     await context.close();
   }, T);
 
+  it('with "re-solve while dragging" off, solves a dragged mask only when it is dropped, to the same numbers', async () => {
+    const { context, page } = await openEditor(harness());
+    const times = () => page.evaluate(() => (window as unknown as { haloweave: { solveTimes: { mode: string }[] } }).haloweave.solveTimes.map((t) => t.mode));
+    const start = await anchors(page);
+    const id = start[0].id;
+    await page.uncheck(sel('live-drag'));
+    const n0 = (await times()).length;
+    await dragMask(page, id, 70, -40);
+    await waitSolved(page);
+    const off = await shownNumbers(page);
+    const modes = (await times()).slice(n0);
+    expect(modes).not.toContain('preview'); // nothing solved during the drag
+    expect(modes.length).toBeGreaterThan(0); // the drop was solved
+    // The same drag again with the setting on, from the same start (undo): live previews, then the same numbers.
+    await page.click(sel('undo'));
+    await waitSolved(page);
+    expect(await anchors(page)).toStrictEqual(start);
+    await page.check(sel('live-drag'));
+    const n1 = (await times()).length;
+    await dragMask(page, id, 70, -40);
+    await waitSolved(page);
+    expect((await times()).slice(n1)).toContain('preview');
+    expect(await shownNumbers(page)).toStrictEqual(off);
+    await context.close();
+  }, T);
+
   it('finishes placing the masks of a newly opened plan when an edit comes first, and keeps a mask moved meanwhile', async () => {
     const { context, page } = await openEditor(harness());
     const demo = demoOnDisk();

@@ -51,6 +51,9 @@ export function MasksPanel({ c, solved }: { c: EditorController; solved: readonl
         ) : null;
       })()}
       <p className="dim small">Drag a mask on the sky to move it, its round handle to turn it. A mask moved by hand is locked.</p>
+      <label className="small" title="Off: the slits and coverage are solved when the mask is dropped, not on every step of the drag (for slow machines)">
+        <input type="checkbox" data-testid="live-drag" checked={c.session.liveDrag} onChange={(e) => c.setLiveDrag(e.target.checked)} /> re-solve while dragging
+      </label>
     </Panel>
   );
 }
