@@ -39,9 +39,9 @@ interface LiveCache {
 
 let cache: LiveCache | null = null;
 
-/** Everything of the plan except the mask placements and a solve's report (a change there needs a full rebuild). */
+/** Everything of the plan except the mask placements (a change there needs a full rebuild). */
 function planKey(plan: PlanFile): string {
-  const { masks, observingReport: _report, ...rest } = plan as PlanFile & { observingReport?: unknown };
+  const { masks, ...rest } = plan;
   return JSON.stringify([rest, (masks ?? []).map((m) => m.id)]);
 }
 
