@@ -352,8 +352,8 @@ export function SkyView(props: SkyViewProps) {
             follows the stage's pointer, so Konva skips redrawing the hit canvas on every frame. */}
         <Layer listening={!preview}>
           {onScreen.map(({ m, sp }) => (
-              <MaskShape key={m.id} id={m.id} xPx={sp.x} yPx={sp.y} paDeg={m.paDeg} locked={m.locked} pxPerArcsec={cam.pxPerArcsec}
-                active={m.id === props.activeMaskId} slits={props.slitsByMask.get(m.id) ?? NO_SLITS} footprintPoints={footprintPoints} footprintYMax={footprintYMax} />
+            <MaskShape key={m.id} id={m.id} xPx={sp.x} yPx={sp.y} paDeg={m.paDeg} locked={m.locked} pxPerArcsec={cam.pxPerArcsec}
+              active={m.id === props.activeMaskId} slits={props.slitsByMask.get(m.id) ?? NO_SLITS} footprintPoints={footprintPoints} footprintYMax={footprintYMax} />
           ))}
           {onScreen.map(({ m, sp }) => (
             <Text key={`t${m.id}`} listening={false} x={sp.x + 6} y={sp.y + 4} text={`${m.id}${m.locked ? ' (locked)' : ''}`} fontSize={12} fill={INK.text} />

@@ -34,7 +34,7 @@ export interface SolveResult {
 /**
  * A result's `keptMasks` lists the indices of masks that are the very same solution as in the previous result this
  * worker posted (a drag re-solves one mask): their entries in `result.masks` are sent as null and the client puts
- * its own copy back (masks.ts `restoreKeptMasks`), so a live update clones one mask's slits, not every mask's.
+ * its own copy back (keptMasks.ts `restoreKeptMasks`), so a live update clones one mask's slits, not every mask's.
  */
 export type FromWorker =
   | { type: 'progress'; requestId: number; fraction: number; message: string }
