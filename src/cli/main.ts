@@ -1,6 +1,7 @@
 /** The `haloweave` command line: dispatches to one module per command. */
 import { processIO, type CliIO, type Command } from './io';
-import { InputError } from '../core/result';
+import { InputError, formatProblem } from '../core/result';
+import { isSystemError, systemErrorProblem } from './fsProblems';
 
 interface CommandEntry {
   usage: string;
@@ -75,6 +76,11 @@ export async function main(argv: string[], io: CliIO = processIO): Promise<numbe
   } catch (e) {
     if (e instanceof InputError) {
       for (const line of e.message.split('\n')) io.err(`haloweave ${name}: ${line}`);
+      return 2;
+    }
+    // A file-system fault no command turned into a problem of its own: still one line, never a stack trace.
+    if (isSystemError(e)) {
+      io.err(`haloweave ${name}: ${formatProblem(systemErrorProblem(e, e.path ?? 'a file', `cannot ${e.syscall ?? 'use'} ${e.path ?? 'a file'}`))}`);
       return 2;
     }
     io.err(`haloweave ${name}: internal error: ${(e as Error).stack ?? e}`);

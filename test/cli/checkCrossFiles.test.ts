@@ -8,6 +8,7 @@ import { cpSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { FIXTURES, cli } from './runCli';
+import { resealManifest } from './sealFolder';
 
 
 let work: string;
@@ -20,11 +21,12 @@ beforeAll(() => {
   good = join(work, 'good');
 }, 60_000);
 
-/** A copy of the good folder with one file edited; returns the folder name (relative to work). */
+/** A copy of the good folder with one file edited and its manifest re-hashed; returns the folder name (relative to work). */
 function corrupt(name: string, file: string, edit: (text: string) => string): string {
   cpSync(good, join(work, name), { recursive: true });
   const p = join(work, name, file);
   writeFileSync(p, edit(readFileSync(p, 'utf8')));
+  resealManifest(join(work, name)); // the manifest made to match, so that the rule itself must catch the edit
   return name;
 }
 

@@ -9,7 +9,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { main } from '../../src/cli/main';
 
-const OUTPUTS = ['catalog-report.csv', 'coverage.json', 'excluded-targets.csv', 'masks.csv', 'slits.csv', 'solved.plan.json'];
+const OUTPUTS = ['catalog-report.csv', 'coverage.json', 'excluded-targets.csv', 'manifest.json', 'masks.csv', 'slits.csv', 'solved.plan.json'];
 const INPUTS = ['halo-demo.catalog.csv', 'halo-demo.plan.json'];
 
 function capture() {

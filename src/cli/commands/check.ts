@@ -20,6 +20,7 @@ import { checkCoverage } from '../../core/check/coverageRecount';
 import { checkCatalogUse, checkPlanMasks, type ReportRow } from '../../core/check/consistency';
 import { loadProfile } from '../loadPlanInputs';
 import { readCatalogFile } from '../readCatalogFile';
+import { checkFolderManifest, checkProfileFiles } from '../folderManifest';
 
 function readIn(dir: string, name: string): string {
   const p = join(dir, name);
@@ -67,14 +68,15 @@ export async function run(argv: string[], io: CliIO): Promise<number> {
   // A masks.csv instrument is a profile id: the profile solved.plan.json names (id or file relative to the folder) when
   // its id matches, else the package profile of that id.
   const cache = new Map<string, InstrumentProfile | null>();
+  const profilePaths = new Map<string, string>();
   const profileFor = (instrument: string): InstrumentProfile | null => {
     if (cache.has(instrument)) return cache.get(instrument)!;
     let found: InstrumentProfile | null = null;
     // The plan's own profile first (a file may reuse a package id with other numbers), then the package's.
     for (const ref of [plan.instrument, instrument]) {
       try {
-        const p = loadProfile(ref, dir, `${planSource}: instrument`).profile;
-        if (p.id === instrument || (ref === instrument && ref !== plan.instrument)) { found = p; break; }
+        const { profile: p, path } = loadProfile(ref, dir, `${planSource}: instrument`);
+        if (p.id === instrument || (ref === instrument && ref !== plan.instrument)) { found = p; profilePaths.set(instrument, path); break; }
       } catch {
         // try the next reference
       }
@@ -83,10 +85,14 @@ export async function run(argv: string[], io: CliIO): Promise<number> {
     return found;
   };
   const src = (name: string) => join(shown, name);
+  // The manifest first: a folder whose run did not finish, or whose files were changed since, is not a valid output.
+  const folderManifest = checkFolderManifest(dir, shown);
   const violations = checkOutput({
     masks, slits, profileFor, linesRestA: plan.goals.linesA, vsysKms: plan.galaxy.vsysKms,
     slitsSource: src('slits.csv'), masksSource: src('masks.csv'), slitLines, maskLines,
   });
+  violations.unshift(...folderManifest.violations);
+  if (folderManifest.manifest) violations.push(...checkProfileFiles(folderManifest.manifest, profilePaths, shown));
   violations.push(...checkPlanMasks(plan.masks ?? [], masks, { planSource: src('solved.plan.json'), masksSource: src('masks.csv'), maskLines }));
 
   // coverage.json against a recount from slits.csv.
@@ -127,6 +133,6 @@ export async function run(argv: string[], io: CliIO): Promise<number> {
     io.err(`haloweave check: ${violations.length} violation${violations.length > 1 ? 's' : ''} in ${shown}`);
     return 1;
   }
-  io.out(`haloweave check: ${shown} passes: ${slits.length} rows on ${masks.length} masks (footprint, gap, lengths, wavelength, objects once, sky positions, alignment boxes, coverage recount, solved.plan.json masks, ${catalogNote})`);
+  io.out(`haloweave check: ${shown} passes: ${slits.length} rows on ${masks.length} masks (manifest and file hashes, profile identity, footprint, gap, lengths, wavelength, objects once, sky positions, alignment boxes, coverage recount, solved.plan.json masks, ${catalogNote})`);
   return 0;
 }

@@ -4,7 +4,8 @@ import { optionText, parseArgs, unknownOptions } from '../args';
 import { InputError } from '../../core/result';
 import { solvePlan } from '../../core/plan/pipeline';
 import { loadPlanInputs, type LoadedPlan } from '../loadPlanInputs';
-import { planOutputFiles, writeOutputFolder, type OutputFolderOptions } from '../outputFolder';
+import { OutputFolder, planOutputFiles, type OutputFolderOptions } from '../outputFolder';
+import { CONTRACT_OUTPUT_FILES } from '../../core/check/manifest';
 import { excludedTargetsCsv, planSummaryLines } from '../../core/coverage/summary';
 
 const USAGE = 'usage: haloweave plan PLAN --out DIR [--quiet]';
@@ -20,6 +21,25 @@ export interface SolveAndWriteOptions extends OutputFolderOptions {
 
 /** Solve loaded plan inputs, write the output folder `out` atomically (outputs plus extra files) and print the summary. */
 export function solveAndWrite(loaded: LoadedPlan, out: string, io: CliIO, opts: SolveAndWriteOptions = {}): number {
+  // The output place is checked, and its temporary folder made, before the solve.
+  const folder = OutputFolder.open(out, [...CONTRACT_OUTPUT_FILES, 'excluded-targets.csv', ...Object.keys(opts.extraFiles ?? {})], {
+    ...opts,
+    profiles: [{ id: loaded.profile.id, path: loaded.profilePath }, ...(opts.profiles ?? [])],
+  });
+  for (const note of folder.notes) io.err(`haloweave plan: note: ${note}`);
+  try {
+    const files = solveToFiles(loaded, out, io, opts);
+    folder.commit(files);
+    io.out(`wrote ${out}/: ${[...Object.keys(files), 'manifest.json'].join(', ')}`);
+    return 0;
+  } catch (e) {
+    folder.abandon();
+    throw e;
+  }
+}
+
+/** Solve loaded plan inputs and return the files of the output folder (outputs plus extra files); prints the summary. */
+function solveToFiles(loaded: LoadedPlan, out: string, io: CliIO, opts: SolveAndWriteOptions): Record<string, string> {
   const c = loaded.catalog;
   io.err(`haloweave plan: catalog ${c.source} (${c.format}): ${c.rowsRead} rows read, ${c.targets.length} used, ${c.rowsRead - c.targets.length} rejected${c.rejects.length ? ` (${c.rejects.length} problems listed in ${out}/catalog-report.csv)` : ''}`);
   let lastShown = -1;
@@ -41,10 +61,8 @@ export function solveAndWrite(loaded: LoadedPlan, out: string, io: CliIO, opts: 
     if (name in files) throw new Error(`extra file ${name} would replace an output file`);
     files[name] = text;
   }
-  writeOutputFolder(out, files, opts);
   for (const line of planSummaryLines(solution)) io.out(line);
-  io.out(`wrote ${out}/: ${Object.keys(files).join(', ')}`);
-  return 0;
+  return files;
 }
 
 export async function run(argv: string[], io: CliIO): Promise<number> {
