@@ -6,7 +6,7 @@
 import { existsSync, readFileSync, statSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Violation } from '../core/check/checkOutput';
-import { MANIFEST_FILE, checkManifestFiles, checkManifestProfile, parseManifest, type Manifest } from '../core/check/manifest';
+import { MANIFEST_FILE, checkManifestFiles, checkManifestProfile, parseManifest, profileDigest, type Manifest } from '../core/check/manifest';
 import { sha256Hex } from './outputFolder';
 
 /** The folder's manifest and the violations found reading it and comparing the files with it. */
@@ -33,7 +33,7 @@ export function checkProfileFiles(manifest: Manifest, profilePaths: ReadonlyMap<
   for (const [id, path] of profilePaths) {
     let sha: string | null = null;
     try {
-      sha = sha256Hex(readFileSync(path));
+      sha = profileDigest(JSON.parse(readFileSync(path, 'utf8')));
     } catch {
       sha = null;
     }

@@ -18,7 +18,7 @@ import { InputError } from '../core/result';
 import type { PlanSolution } from '../core/plan/pipeline';
 import { masksToCsv, slitsToCsv } from '../core/export/slitsCsv';
 import { catalogReportCsv } from '../core/export/catalogReport';
-import { MANIFEST_FILE, buildManifest, manifestText, parseManifest, type ManifestProfile } from '../core/check/manifest';
+import { MANIFEST_FILE, buildManifest, manifestText, parseManifest, profileDigest, type ManifestProfile } from '../core/check/manifest';
 import type { LoadedPlan } from './loadPlanInputs';
 import { looksLikePath } from './loadPlanInputs';
 import { isSystemError, systemErrorProblem, withFsProblems } from './fsProblems';
@@ -188,7 +188,7 @@ export class OutputFolder {
     const where = `--out ${this.shown}`;
     const bytes = new Map<string, Uint8Array>();
     for (const [name, content] of Object.entries(files)) bytes.set(name, typeof content === 'string' ? Buffer.from(content, 'utf8') : content);
-    const profiles: ManifestProfile[] = (this.opts.profiles ?? []).map((p) => ({ id: p.id, sha256: sha256Hex(readFileSync(p.path)) }));
+    const profiles: ManifestProfile[] = (this.opts.profiles ?? []).map((p) => ({ id: p.id, sha256: profileDigest(JSON.parse(readFileSync(p.path, 'utf8'))) }));
     const manifest = buildManifest(bytes, sha256Hex, { writtenBy: 'haloweave 0.1.0', writtenUtc: new Date().toISOString(), profiles });
     withFsProblems(where, 'cannot write the output files', () => {
       for (const [name, b] of bytes) writeFileSync(join(this.tmp, name), b);

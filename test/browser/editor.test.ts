@@ -148,7 +148,7 @@ describe('editor in chromium', () => {
     await waitSolved(page);
     const shown = await shownNumbers(page);
     const dir = mkdtempSync(join(tmpdir(), 'hw-export-'));
-    for (const f of ['masks.csv', 'slits.csv', 'coverage.json', 'solved.plan.json', 'catalog-report.csv']) await clickExport(page, `export-${f}`, dir);
+    for (const f of ['masks.csv', 'slits.csv', 'coverage.json', 'solved.plan.json', 'catalog-report.csv', 'manifest.json']) await clickExport(page, `export-${f}`, dir);
     await page.keyboard.press('Escape');
     // The CLI's folder layout: the plan's catalog beside it.
     copyFileSync(demo.catalogPath, join(dir, demo.catalogName));

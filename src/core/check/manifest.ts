@@ -1,10 +1,11 @@
 /**
  * The manifest of an output folder (manifest.json, format `haloweave.manifest/1`): written last, after every other
  * file of the folder, it lists each file with its size in bytes and SHA-256, and the instrument profiles the masks
- * were designed with (id and SHA-256 of the profile file). A folder without it is incomplete (a run that stopped
+ * were designed with (id and SHA-256 of the profile's content, keys sorted). A folder without it is incomplete (a run that stopped
  * before its end); a file whose bytes differ from its entry was altered after the run. Pure: the caller hashes.
  */
 import type { Violation } from './checkOutput';
+import { sha256HexOf } from './sha256';
 
 export const MANIFEST_FILE = 'manifest.json';
 export const MANIFEST_FORMAT = 'haloweave.manifest/1';
@@ -13,7 +14,7 @@ export const CONTRACT_OUTPUT_FILES = ['masks.csv', 'slits.csv', 'coverage.json',
 
 /** One file of the folder: name (relative to the folder), size in bytes, SHA-256 as 64 lowercase hex digits. */
 export interface ManifestFile { name: string; bytes: number; sha256: string }
-/** A profile the masks were designed with: its id, and the SHA-256 of the profile file's bytes. */
+/** A profile the masks were designed with: its id, and the SHA-256 of its canonical JSON (profileDigest). */
 export interface ManifestProfile { id: string; sha256: string }
 
 export interface Manifest {
@@ -24,6 +25,21 @@ export interface Manifest {
   writtenUtc: string;
   files: ManifestFile[];
   profiles: ManifestProfile[];
+}
+
+/** JSON text of a value with every object's keys sorted, no spaces: the same for the same content in any key order. */
+export function canonicalJson(v: unknown): string {
+  if (Array.isArray(v)) return `[${v.map(canonicalJson).join(',')}]`;
+  if (v && typeof v === 'object') {
+    const o = v as Record<string, unknown>;
+    return `{${Object.keys(o).filter((k) => o[k] !== undefined).sort().map((k) => `${JSON.stringify(k)}:${canonicalJson(o[k])}`).join(',')}}`;
+  }
+  return JSON.stringify(v) ?? 'null';
+}
+
+/** SHA-256 of a profile's canonical JSON (a file's layout and key order do not count, every value does). */
+export function profileDigest(profileJson: unknown): string {
+  return sha256HexOf(new TextEncoder().encode(canonicalJson(profileJson)));
 }
 
 /** The manifest of `files` (name -> bytes), each hashed with `sha256Hex`, in name order. */

@@ -1,6 +1,6 @@
 /**
  * Everything the editor exports: the files `haloweave plan` writes into its output folder (masks.csv,
- * slits.csv, coverage.json, solved.plan.json, catalog-report.csv), the slit list in the other table
+ * slits.csv, coverage.json, solved.plan.json, catalog-report.csv, and manifest.json), the slit list in the other table
  * formats, and an SVG chart per mask.
  */
 import type { CatalogReadResult } from '../../core/catalog/types';
@@ -9,6 +9,8 @@ import { masksToCsv, slitsToCsv } from '../../core/export/slitsCsv';
 import { catalogReportCsv } from '../../core/export/catalogReport';
 import type { SolveResult } from '../worker/protocol';
 import { maskChartSvg } from './maskChart';
+import { MANIFEST_FILE, buildManifest, manifestText, profileDigest } from '../../core/check/manifest';
+import { sha256HexOf } from '../../core/check/sha256';
 
 export interface ExportFile {
   name: string;
@@ -27,17 +29,21 @@ export function outputFolderFiles(result: SolveResult, profile: InstrumentProfil
   // Rows of each mask in order of y, as `haloweave plan` writes them.
   const slits = result.masks.flatMap((m) => [...m.slits].sort((a, b) => a.yArcsec - b.yArcsec));
   const maskRows = result.masks.map((m) => ({ maskId: m.mask.id, instrument: profile.id, raDeg: m.mask.raDeg, decDeg: m.mask.decDeg, paDeg: m.mask.paDeg }));
-  return [
+  const files: ExportFile[] = [
     { name: 'masks.csv', content: masksToCsv(maskRows), mime: 'text/csv' },
     { name: 'slits.csv', content: slitsToCsv(slits), mime: 'text/csv' },
     { name: 'coverage.json', content: JSON.stringify(result.coverage, null, 2) + '\n', mime: 'application/json' },
     { name: 'solved.plan.json', content: solvedPlanText(result), mime: 'application/json' },
     { name: 'catalog-report.csv', content: catalogReportCsv(catalog.rejects), mime: 'text/csv' },
   ];
+  // The manifest `haloweave check` requires of a complete folder: these files' sizes and hashes, and the profile.
+  const bytes = new Map(files.map((f) => [f.name, typeof f.content === 'string' ? new TextEncoder().encode(f.content) : f.content]));
+  const manifest = buildManifest(bytes, sha256HexOf, { writtenBy: 'haloweave editor 0.1.0', writtenUtc: new Date().toISOString(), profiles: [{ id: profile.id, sha256: profileDigest(profile) }] });
+  return [...files, { name: MANIFEST_FILE, content: manifestText(manifest), mime: 'application/json' }];
 }
 
 /** Names of the output-folder files, in the order outputFolderFiles gives them. */
-export const FOLDER_FILES = ['masks.csv', 'slits.csv', 'coverage.json', 'solved.plan.json', 'catalog-report.csv'] as const;
+export const FOLDER_FILES = ['masks.csv', 'slits.csv', 'coverage.json', 'solved.plan.json', 'catalog-report.csv', 'manifest.json'] as const;
 
 /** File name of a mask's SVG chart. */
 export function maskChartName(maskId: string): string {
