@@ -21,6 +21,11 @@ import { checkCatalogUse, checkPlanMasks, type ReportRow } from '../../core/chec
 import { loadProfile } from '../loadPlanInputs';
 import { readCatalogFile } from '../readCatalogFile';
 import { checkFolderManifest, checkProfileFiles } from '../folderManifest';
+import { checkCatalogValues, checkColumnOrder, checkProfileValues, checkSectorConvention } from '../../core/check/derivedValues';
+import { MASK_COLUMNS, SLIT_COLUMNS } from '../../core/export/slitsCsv';
+import { targetWeights } from '../../core/plan/pipeline';
+import type { Slit } from '../../core/solver/types';
+import type { Target } from '../../core/catalog/types';
 
 function readIn(dir: string, name: string): string {
   const p = join(dir, name);
@@ -92,6 +97,11 @@ export async function run(argv: string[], io: CliIO): Promise<number> {
     slitsSource: src('slits.csv'), masksSource: src('masks.csv'), slitLines, maskLines,
   });
   violations.unshift(...folderManifest.violations);
+  // Values re-derived from the profile, and the contract's column order.
+  const rowWhere = (i: number, s: Slit) => `${src('slits.csv')} line ${slitLines[i] ?? i + 2} (mask ${s.maskId}, slit ${s.slitId})`;
+  violations.push(...checkProfileValues(masks, slits, profileFor, rowWhere));
+  violations.push(...checkColumnOrder(parseCsvRecords(slitsText)[0]?.cells ?? [], SLIT_COLUMNS, src('slits.csv')));
+  violations.push(...checkColumnOrder(parseCsvRecords(masksText)[0]?.cells ?? [], MASK_COLUMNS, src('masks.csv')));
   if (folderManifest.manifest) violations.push(...checkProfileFiles(folderManifest.manifest, profilePaths, shown));
   violations.push(...checkPlanMasks(plan.masks ?? [], masks, { planSource: src('solved.plan.json'), masksSource: src('masks.csv'), maskLines }));
 
@@ -105,6 +115,7 @@ export async function run(argv: string[], io: CliIO): Promise<number> {
     } catch (e) {
       violations.push({ where: src('coverage.json'), rule: 'coverage', what: `not valid JSON: ${(e as Error).message}` });
     }
+    if (coverage !== null) violations.push(...checkSectorConvention(coverage, src('coverage.json')));
     if (coverage !== null) violations.push(...checkCoverage({ coverage, galaxy: galaxyModel(plan), goals: plan.goals, slits, coverageSource: src('coverage.json'), slitsSource: src('slits.csv') }));
   }
 
@@ -121,7 +132,13 @@ export async function run(argv: string[], io: CliIO): Promise<number> {
       const linesById = new Map<string, number[]>();
       for (const t of catalog.targets) linesById.set(t.id, [...(linesById.get(t.id) ?? []), t.line]);
       violations.push(...checkCatalogUse(slits, linesById, report.rows, { slitsSource: src('slits.csv'), catalogSource: plan.catalog, reportSource: src('catalog-report.csv'), slitLines }));
-      catalogNote = `objects against ${plan.catalog} and catalog-report.csv`;
+      // Position, mag, role and weight of every used object, from its catalog row and the plan's weighting rules.
+      const targetsById = new Map<string, Target[]>();
+      for (const t of catalog.targets) targetsById.set(t.id, [...(targetsById.get(t.id) ?? []), t]);
+      const weights = targetWeights(plan, catalog.targets, []);
+      const indexOf = new Map(catalog.targets.map((t, k) => [t, k]));
+      violations.push(...checkCatalogValues(slits, targetsById, (t) => weights[indexOf.get(t)!] ?? null, rowWhere, plan.catalog));
+      catalogNote = `objects, positions, mags and weights against ${plan.catalog} and catalog-report.csv`;
     } catch (e) {
       if (!(e instanceof InputError)) throw e;
       catalogNote = `catalog not cross-checked (${plan.catalog} could not be read from ${shown}: ${e.problems[0]?.what ?? e.message})`;
