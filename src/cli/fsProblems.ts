@@ -2,6 +2,7 @@
  * File-system faults in the user's words: a Node system error (EACCES, ENOTDIR, EROFS...) turned into one Problem
  * saying what failed, where, and how to fix it, so no file-system fault ever reaches the user as a stack trace.
  */
+import { existsSync, lstatSync, statSync } from 'node:fs';
 import { dirname } from 'node:path';
 import { InputError, type Problem } from '../core/result';
 
@@ -33,7 +34,7 @@ const CODES: Record<string, { what: string; fix: string }> = {
 export function systemErrorProblem(e: NodeJS.ErrnoException, where: string, action: string): Problem {
   const known = CODES[e.code ?? ''];
   // A temporary name of ours means nothing to the user: name the folder it was to be made in.
-  const path = e.path && /(\.tmp-|\.old-|\.haloweave-partial-)\d+-[0-9a-z]+$/.test(e.path) ? dirname(e.path) : e.path;
+  const path = e.path && /((\.tmp-|\.old-|\.haloweave-partial-)\d+-[0-9a-z]+|\.\d+\.[0-9a-z]+\.tmp)$/.test(e.path) ? dirname(e.path) : e.path;
   const at = path && !where.endsWith(path) ? ` (in ${path})` : '';
   if (known) return { where, what: `${action}: ${known.what}${at}`, fix: known.fix };
   return { where, what: `${action}: ${e.code} ${e.syscall ?? ''}${at}`.trim(), fix: 'choose another place, or check the disk' };
@@ -46,5 +47,20 @@ export function withFsProblems<T>(where: string, action: string, f: () => T): T 
   } catch (e) {
     if (isSystemError(e)) throw new InputError([systemErrorProblem(e, where, action)]);
     throw e;
+  }
+}
+
+/** The nearest existing folder-or-file on the way up from `path` when it is a file (nothing can be made under it), else null. */
+export function fileOnPath(path: string): string | null {
+  for (let p = path; ; p = dirname(p)) {
+    let isDir: boolean;
+    try {
+      const st = lstatSync(p);
+      isDir = st.isDirectory() || (st.isSymbolicLink() && existsSync(p) && statSync(p).isDirectory());
+    } catch {
+      if (dirname(p) === p) return null;
+      continue;
+    }
+    return isDir ? null : p;
   }
 }

@@ -12,7 +12,7 @@
  * of the user's is ever deleted.
  */
 import { createHash } from 'node:crypto';
-import { existsSync, lstatSync, mkdirSync, readdirSync, readFileSync, renameSync, rmdirSync, rmSync, statSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdirSync, readdirSync, readFileSync, renameSync, rmdirSync, rmSync, writeFileSync } from 'node:fs';
 import { basename, dirname, join, relative, resolve, sep } from 'node:path';
 import { InputError } from '../core/result';
 import type { PlanSolution } from '../core/plan/pipeline';
@@ -21,7 +21,7 @@ import { catalogReportCsv } from '../core/export/catalogReport';
 import { MANIFEST_FILE, buildManifest, manifestText, parseManifest, profileDigest, type ManifestProfile } from '../core/check/manifest';
 import type { LoadedPlan } from './loadPlanInputs';
 import { looksLikePath } from './loadPlanInputs';
-import { isSystemError, systemErrorProblem, withFsProblems } from './fsProblems';
+import { fileOnPath, isSystemError, systemErrorProblem, withFsProblems } from './fsProblems';
 
 /** Options of an output folder: entries of an existing DIR that may be replaced besides the files being written. */
 export interface OutputFolderOptions {
@@ -99,22 +99,11 @@ export class OutputFolder {
   private checkPath(): void {
     const where = `--out ${this.shown}`;
     // The nearest existing ancestor must be a folder (an --out under a file can never be made).
-    for (let p = this.dir; ; p = dirname(p)) {
-      let st;
-      try {
-        st = lstatSync(p);
-      } catch (e) {
-        if (isSystemError(e) && (e.code === 'ENOENT' || e.code === 'ENOTDIR')) { if (dirname(p) === p) break; continue; }
-        if (isSystemError(e)) throw new InputError([systemErrorProblem(e, where, 'cannot use this place for the output folder')]);
-        throw e;
-      }
-      const isDir = st.isDirectory() || (st.isSymbolicLink() && existsSync(p) && statSync(p).isDirectory());
-      if (!isDir) {
-        throw new InputError([p === this.dir
-          ? { where, what: 'exists and is a file', fix: 'choose a folder name for --out' }
-          : { where, what: `${p} is a file, so no folder can be made under it`, fix: 'choose a path whose parent folders are folders' }]);
-      }
-      break;
+    const file = fileOnPath(this.dir);
+    if (file !== null) {
+      throw new InputError([file === this.dir
+        ? { where, what: 'exists and is a file', fix: 'choose a folder name for --out' }
+        : { where, what: `${file} is a file, so no folder can be made under it`, fix: 'choose a path whose parent folders are folders' }]);
     }
     if (existsSync(this.dir)) {
       const foreign = withFsProblems(where, 'cannot read the existing output folder', () => foreignEntries(this.dir, this.names, this.opts));

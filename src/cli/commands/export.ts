@@ -3,8 +3,9 @@
  * (DIR/slits.csv with the mask centre, PA and instrument of DIR/masks.csv on every row) in another table format.
  * The file is written atomically (temporary file, then rename).
  */
-import { existsSync, readFileSync, statSync } from 'node:fs';
-import { join } from 'node:path';
+import { existsSync, readdirSync, readFileSync, statSync } from 'node:fs';
+import { join, resolve } from 'node:path';
+import { fileOnPath, withFsProblems } from '../fsProblems';
 import type { CliIO } from '../io';
 import { optionText, parseArgs, unknownOptions } from '../args';
 import { writeFileAtomic } from '../atomicWrite';
@@ -37,6 +38,36 @@ export function readOutputFolderTable(dir: string): OutputTable {
   return slitTable(slits, masks);
 }
 
+/** Same file on disk (also through links): same device and inode. */
+function sameFile(a: string, b: string): boolean {
+  try {
+    const sa = statSync(a), sb = statSync(b);
+    return sa.dev === sb.dev && sa.ino === sb.ino;
+  } catch {
+    return false;
+  }
+}
+
+/**
+ * Why `--out` cannot be written: a folder, or a file the output folder holds (an input of this export: it is never
+ * overwritten) or the catalog or profile its plan names.
+ */
+export function outProblems(out: string, dir: string): string[] {
+  if (existsSync(out) && statSync(out).isDirectory()) return [`--out ${out} is a folder; give the name of the file to write (e.g. ${join(out, 'slits.fits')})`];
+  const file = fileOnPath(resolve(out));
+  if (file !== null && file !== resolve(out)) return [`--out ${out}: ${file} is a file, so nothing can be written under it (choose a path whose parent folders are folders)`];
+  if (!existsSync(out)) return [];
+  const inputs = readdirSync(dir).map((e) => join(dir, e));
+  try {
+    const plan = JSON.parse(readFileSync(join(dir, 'solved.plan.json'), 'utf8')) as { catalog?: unknown; instrument?: unknown };
+    for (const ref of [plan.catalog, plan.instrument]) if (typeof ref === 'string' && ref !== '') inputs.push(resolve(dir, ref));
+  } catch {
+    // no readable plan: the folder's own files are the inputs
+  }
+  const hit = inputs.find((f) => sameFile(out, f));
+  return hit ? [`--out ${out} is ${hit}, an input of this export; it is never overwritten (choose another file name, e.g. ${join(dir, 'slits.fits')})`] : [];
+}
+
 export async function run(argv: string[], io: CliIO): Promise<number> {
   const args = parseArgs(argv);
   const errors: string[] = [];
@@ -59,6 +90,7 @@ export async function run(argv: string[], io: CliIO): Promise<number> {
       }
     }
   }
+  if (out !== undefined && dir && errors.length === 0) errors.push(...outProblems(out, dir));
   if (errors.length > 0) {
     for (const e of errors) io.err(`haloweave export: ${e}`);
     io.err(USAGE);
@@ -66,7 +98,7 @@ export async function run(argv: string[], io: CliIO): Promise<number> {
   }
   const table = readOutputFolderTable(dir!);
   const content = EXPORT_FORMATS[format!.toLowerCase()](table);
-  writeFileAtomic(out!, content);
+  withFsProblems(`--out ${out}`, 'cannot write the exported file', () => writeFileAtomic(out!, content));
   io.out(`wrote ${table.rows.length} slits of ${table.meta.find((m) => m.key === 'masks')?.value ?? 0} masks to ${out} (${format!.toLowerCase()})`);
   return 0;
 }
