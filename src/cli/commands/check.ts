@@ -85,6 +85,7 @@ export async function run(argv: string[], io: CliIO): Promise<number> {
   const src = (name: string) => join(shown, name);
   const violations = checkOutput({
     masks, slits, profileFor, linesRestA: plan.goals.linesA, vsysKms: plan.galaxy.vsysKms,
+    velocityHalfRangeKms: plan.goals.velocityHalfRangeKms, lineHalfWindowA: plan.goals.lineHalfWindowA,
     slitsSource: src('slits.csv'), masksSource: src('masks.csv'), slitLines, maskLines,
   });
   violations.push(...checkPlanMasks(plan.masks ?? [], masks, { planSource: src('solved.plan.json'), masksSource: src('masks.csv'), maskLines }));

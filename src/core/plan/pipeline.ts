@@ -18,6 +18,7 @@ import { placeStarlightAndSky } from '../solver/starlight';
 import { naiveCrossLayout, searchEnv, searchPointings, starlightTrade, type SearchReport } from '../solver/pointingSearch';
 import { objectiveContext } from '../solver/objective';
 import { observingReportForPlan, withObservingReport, type ObservingReport } from '../observe/refractionReport';
+import { lineWindowSettings } from '../geometry/wavelength';
 
 export interface PlanInputs {
   plan: PlanFile;
@@ -172,7 +173,7 @@ export function solvePlan(inputs: PlanInputs, opts: SolveOptions = {}): PlanSolu
   progress(0, 'weighting targets');
   const weighting = weighPlanTargets(plan, catalog.targets);
   const weights = targetWeights(plan, catalog.targets, warnings, weighting);
-  const ctx = allocationContext(profile, galaxy, plan.goals.linesA, catalog.targets, weights);
+  const ctx = allocationContext(profile, galaxy, plan.goals.linesA, catalog.targets, weights, lineWindowSettings(plan.goals));
 
   progress(0.1, 'placing masks');
   const placed = placeMasks(plan, galaxy, profile, ctx, (f, message) => progress(0.1 + 0.6 * f, message));
