@@ -64,7 +64,7 @@ export function observingReportForPlan(plan: PlanFile, profile: InstrumentProfil
   const report = refractionReport({ galaxy, masks, site: profile.site, settings, designHourAnglesH: designHourAnglesH(plan, settings) });
   const model = {
     setup: starlight.setup, skyMagPerArcsec2: starlight.skyMagPerArcsec2, seeingFwhmArcsec: settings.seeingFwhmArcsec,
-    exposureTimeS: settings.exposureTimeS, targetSnPerA: settings.targetSnPerA,
+    exposureTimeS: settings.exposureTimeS, targetSnPerA: settings.targetSnPerA, catalogToAbMag: starlight.catalogToAbMag,
   };
   return { ...report, exposures: masks.map((m) => maskExposureReport(m, galaxy, model)) };
 }

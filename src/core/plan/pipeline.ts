@@ -19,6 +19,7 @@ import { naiveCrossLayout, searchEnv, searchPointings, starlightTrade, type Sear
 import { objectiveContext } from '../solver/objective';
 import { observingReportForPlan, withObservingReport, type ObservingReport } from '../observe/refractionReport';
 import { lineWindowSettings } from '../geometry/wavelength';
+import { spectralReport, type SpectralReport } from '../spectro/spectralReport';
 
 export interface PlanInputs {
   plan: PlanFile;
@@ -56,6 +57,8 @@ export interface PlanSolution {
   search: SearchReport;
   /** Refraction rows and recommended hour-angle window per mask, exposure estimates per slit (observe/refractionReport.ts). */
   observingReport?: ObservingReport;
+  /** Photometry, line windows, resolving power and instrumental dispersion, OH-line flags, usable x per mask (spectro/spectralReport.ts). */
+  spectralReport?: SpectralReport;
   stats: {
     masks: MaskStats[];
     /** Total tracer weight allocated, and the Lagrangian upper bound on the optimum for these pointings. */
@@ -213,6 +216,7 @@ export function solvePlan(inputs: PlanInputs, opts: SolveOptions = {}): PlanSolu
     observingReport = observingReportForPlan(plan, profile, galaxy, masks);
     solved = withObservingReport(solved, observingReport);
   }
+  const spectral = spectralReport(plan, profile, pointings.map((p) => p.id));
   progress(1, 'done');
-  return { plan: solved, galaxy, masks, coverage, warnings, problems: alloc.problems, weighting, search: placed.search, observingReport, stats };
+  return { plan: solved, galaxy, masks, coverage, warnings, problems: alloc.problems, weighting, search: placed.search, observingReport, spectralReport: spectral, stats };
 }
