@@ -361,16 +361,23 @@ def detector_pixel(x_arcsec, wavelength_a, det):
         (wavelength_a - det["centralWavelengthA"]) / det["dispersionAPerPixel"]
 
 
-def wavelength_problem(x_arcsec, lines_obs_a, det):
-    """Why a science slit at mask x fails the wavelength rule, or None."""
+def line_windows_a(lines_rest_a, vsys_kms, dv_kms, half_window_a):
+    """Observed window of each rest line over v_sys +- dv, widened by the half-window (contract revision 2)."""
+    return [(L, L * (1.0 + (vsys_kms - dv_kms) / C_KMS) - half_window_a,
+             L * (1.0 + (vsys_kms + dv_kms) / C_KMS) + half_window_a) for L in lines_rest_a]
+
+
+def wavelength_problem(x_arcsec, windows, det):
+    """Why a science slit at mask x fails the wavelength rule, or None. windows: (rest, lo, hi) in Angstrom."""
     m = det["edgeMarginPixels"]
-    for L in lines_obs_a:
-        p = detector_pixel(x_arcsec, L, det)
-        if p < m - PIXEL_TOL or p > det["pixels"] - m + PIXEL_TOL:
-            return f"line at {L:.3f} A lands at pixel {p:.2f}, outside [{m}, {det['pixels'] - m}]"
+    for rest, lo, hi in windows:
+        p0, p1 = detector_pixel(x_arcsec, lo, det), detector_pixel(x_arcsec, hi, det)
+        what = f"line {rest} A, window {lo:.3f}-{hi:.3f} A, lands on pixels {p0:.2f}-{p1:.2f}"
+        if p0 < m - PIXEL_TOL or p1 > det["pixels"] - m + PIXEL_TOL:
+            return f"{what}, outside [{m}, {det['pixels'] - m}]"
         for g0, g1 in det.get("gapsPixels", []):
-            if g0 - m + PIXEL_TOL < p < g1 + m - PIXEL_TOL:
-                return f"line at {L:.3f} A lands at pixel {p:.2f}, closer than {m} pixels to the gap [{g0}, {g1}]"
+            if p1 > g0 - m + PIXEL_TOL and p0 < g1 + m - PIXEL_TOL:
+                return f"{what}, closer than {m} pixels to the gap [{g0}, {g1}]"
     return None
 
 
@@ -671,7 +678,12 @@ def check_folder(out_dir, profile_dir):
                     report.add(f"masks.csv line {mc['line']} (mask {mid})", "plan", "mask is missing from solved.plan.json")
 
     # slits.csv, row by row
-    lines_obs = [L * (1.0 + (vsys or 0.0) / C_KMS) for L in lines_rest]
+    dv_kms = goals.get("velocityHalfRangeKms", 500)
+    half_window_a = goals.get("lineHalfWindowA", 10)
+    if not isinstance(dv_kms, (int, float)) or not isinstance(half_window_a, (int, float)) or dv_kms < 0 or half_window_a < 0:
+        report.add("solved.plan.json goals", "plan", "velocityHalfRangeKms and lineHalfWindowA must be numbers >= 0")
+        dv_kms, half_window_a = 500, 10
+    lines_obs = line_windows_a(lines_rest, vsys or 0.0, dv_kms, half_window_a)
     slit_rows = []
     per_mask = {}
     for line, r in slit_rows_raw:
@@ -836,10 +848,20 @@ def self_test():
     det = {"pixels": 1000, "xArcsecPerPixel": 0.5, "centralWavelengthA": 8000, "dispersionAPerPixel": 1.0,
            "gapsPixels": [[600, 610]], "edgeMarginPixels": 10}
     expect(detector_pixel(10, 8050, det) == 500 + 20 + 50, "pixel formula")
-    expect(wavelength_problem(0, [8080.0], det) is None, "line at pixel 580 is 20 px from the gap: fine")
-    expect(wavelength_problem(0, [8095.0], det) is not None, "line at pixel 595 is within 10 px of the gap")
-    expect(wavelength_problem(0, [7510.0], det) is None, "line at pixel 10 (= margin) is fine")
-    expect(wavelength_problem(0, [7509.0], det) is not None, "line at pixel 9 is inside the edge margin")
+    bare = lambda L: line_windows_a([L], 0.0, 0.0, 0.0)
+    expect(wavelength_problem(0, bare(8080.0), det) is None, "line at pixel 580 is 20 px from the gap: fine")
+    expect(wavelength_problem(0, bare(8095.0), det) is not None, "line at pixel 595 is within 10 px of the gap")
+    expect(wavelength_problem(0, bare(7510.0), det) is None, "line at pixel 10 (= margin) is fine")
+    expect(wavelength_problem(0, bare(7509.0), det) is not None, "line at pixel 9 is inside the edge margin")
+    # windows: 8000 A at +-500 km/s is 7986.66-8013.34 A, +-10 A gives 7976.66-8023.34 A (pixels 476.7-523.3)
+    win = line_windows_a([8000.0], 0.0, 500.0, 10.0)
+    expect(abs(win[0][1] - (8000 * (1 - 500 / 299792.458) - 10)) < 1e-9, "window low end")
+    expect(wavelength_problem(0, win, det) is None, "a window in mid-detector is fine")
+    # at x = 100 arcsec (+200 px) the window spans 676.7-723.3: clear of the gap band (590, 620)
+    expect(wavelength_problem(100, win, det) is None, "window beyond the gap is fine")
+    # at x = 60 arcsec (+120 px) it spans 596.7-643.3: its low part is in the gap band though the line centre (620) is not
+    expect(wavelength_problem(60, bare(8000.0), det) is None and wavelength_problem(60, win, det) is not None,
+           "the window catches a line whose velocity range reaches the gap")
     # projection: East is +xi, North is +eta, across RA 0/360 and near a pole
     for ra0, dec0 in ((359.999, 0.0), (0.0005, -80.0), (180.0, 80.0)):
         w = tan_wcs(ra0, dec0)

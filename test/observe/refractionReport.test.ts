@@ -40,7 +40,12 @@ describe('refraction report of a plan', () => {
   it('gives one report per mask with its design hour angle and a window', () => {
     const settings = resolveObservingSettings(plan.observing, profile);
     const r = refractionReport({ galaxy, masks, site: profile.site, settings, designHourAnglesH: { m1: 1 } });
-    expect(r.masks.map((m) => [m.maskId, m.designHourAngleH])).toEqual([['m1', 1], ['m2', 0]]);
+    // m1 keeps its own design hour angle; m2 gives none, so the report chooses the candidate with the longest window.
+    expect(r.masks[0].designHourAngleH).toBe(1);
+    const m2 = r.masks[1];
+    const fixed = (h: number) => refractionReport({ galaxy, masks, site: profile.site, settings: { ...settings, designHourAngleChosen: false, designHourAngleH: h } }).masks[1];
+    const len = (w: [number, number] | null) => (w ? w[1] - w[0] : 0);
+    for (const h of [-2, -1, 0, 1, 2]) expect(len(m2.hourAngleWindowH)).toBeGreaterThanOrEqual(len(fixed(h).hourAngleWindowH) - 1e-9);
     for (const m of r.masks) {
       expect(m.windowSlitCount).toBe(17);
       expect(m.hourAngleWindowH).not.toBeNull();
@@ -49,7 +54,8 @@ describe('refraction report of a plan', () => {
       expect(m.rows).toHaveLength(33);
     }
     const lines = formatRefractionSummary(r);
-    expect(lines[0]).toMatch(/^Differential refraction \(seeing 0.7" FWHM, guide 6500 A, science 7800-9000 A/);
+    // Slits are cut for the middle of the science range, the guider works at its own wavelength.
+    expect(lines[0]).toMatch(/^Differential refraction \(seeing 0.7" FWHM, slits cut for 8400 A, guide 6500 A, science 7800-9000 A/);
     expect(lines[1]).toMatch(/m1: designed for HA \+1.00 h; hour-angle window/);
   });
 
@@ -64,7 +70,7 @@ describe('refraction report of a plan', () => {
     expect(JSON.parse(text).observingReport.masks[0].maskId).toBe('m1');
     expect(parsePlan(JSON.parse(text)).masks![0].designHourAngleH).toBe(1); // loads again as a plan
     // Opened again for editing: the solve's outputs go, every input stays (the design hour angle too).
-    expect(withoutSolveOutputs(solved)).toStrictEqual({ ...plan, masks: plan.masks!.map((m) => ({ ...m, designHourAngleH: m.designHourAngleH ?? 0 })) });
+    expect(withoutSolveOutputs(solved)).toStrictEqual({ ...plan, masks: plan.masks!.map((m, i) => ({ ...m, designHourAngleH: m.designHourAngleH ?? r.masks[i].designHourAngleH })) });
     const compact = compactObservingReport(r);
     expect(compact.masks[0].rows[10].maxLossFraction).toBeCloseTo(r.masks[0].rows[10].maxLossFraction!, 4);
   });

@@ -94,6 +94,7 @@ export async function run(argv: string[], io: CliIO): Promise<number> {
   const folderManifest = checkFolderManifest(dir, shown);
   const violations = checkOutput({
     masks, slits, profileFor, linesRestA: plan.goals.linesA, vsysKms: plan.galaxy.vsysKms,
+    velocityHalfRangeKms: plan.goals.velocityHalfRangeKms, lineHalfWindowA: plan.goals.lineHalfWindowA,
     slitsSource: src('slits.csv'), masksSource: src('masks.csv'), slitLines, maskLines,
   });
   violations.unshift(...folderManifest.violations);

@@ -9,6 +9,7 @@ import { separationDeg } from '../sky/separation';
 import { maskToSkyArcsec } from '../sky/frames';
 import { tangentCentre, tangentToSkyDeg } from '../sky/tangentPlane';
 import { quadInside, rowCorners, type Pt } from './geometry';
+import { wavelengthRuleProblems } from './wavelengthRule';
 
 /** One row of masks.csv as the checker needs it. */
 export interface CheckedMask {
@@ -27,6 +28,9 @@ export interface CheckInput {
   /** Required rest wavelengths (Angstrom) and the galaxy's systemic velocity (km/s), from solved.plan.json. */
   linesRestA: readonly number[];
   vsysKms: number;
+  /** The wavelength rule's velocity half-range (km/s, default 500) and line half-window (A, default 10): solved.plan.json goals. */
+  velocityHalfRangeKms?: number;
+  lineHalfWindowA?: number;
   /** File names used in messages. */
   slitsSource?: string;
   masksSource?: string;
@@ -45,7 +49,6 @@ export interface Violation {
 export const LENGTH_TOL_ARCSEC = 1e-6;
 /** Tolerance for "ra/dec is the point (x, y) on the sky" (arcsec). */
 export const SKY_TOL_ARCSEC = 1e-3;
-const C_KMS = 299792.458; // speed of light, SI definition
 
 export function formatViolation(v: Violation): string {
   return `${v.where}: [${v.rule}] ${v.what}`;
@@ -73,7 +76,6 @@ export function checkOutput(input: CheckInput): Violation[] {
   });
   if (input.masks.length === 0) out.push({ where: masksSrc, rule: 'masks', what: 'no mask rows' });
 
-  const observed = input.linesRestA.map((l) => l * (1 + input.vsysKms / C_KMS));
   const seenObject = new Map<string, number>();
   const seenSlit = new Set<string>();
   const spansByMask = new Map<string, { lo: number; hi: number; i: number }[]>();
@@ -119,14 +121,7 @@ export function checkOutput(input: CheckInput): Violation[] {
       out.push({ where, rule: 'footprint', what: `not every corner of the ${s.role === 'alignment' ? 'box' : 'slit'} lies inside the footprint (corners ${corners.map(([x, y]) => `(${x.toFixed(3)}, ${y.toFixed(3)})`).join(' ')})` });
     }
     if (s.role === 'tracer' || s.role === 'starlight') {
-      const d = prof.detector;
-      for (const [j, l] of observed.entries()) {
-        const px = d.pixels / 2 + s.xArcsec / d.xArcsecPerPixel + (l - d.centralWavelengthA) / d.dispersionAPerPixel;
-        const m = d.edgeMarginPixels;
-        const nearGap = d.gapsPixels.find(([g0, g1]) => px > g0 - m && px < g1 + m);
-        if (px < m || px > d.pixels - m) out.push({ where, rule: 'wavelength', what: `line ${input.linesRestA[j]} A (observed ${l.toFixed(2)} A) falls at pixel ${px.toFixed(1)}, outside [${m}, ${d.pixels - m}]` });
-        else if (nearGap) out.push({ where, rule: 'wavelength', what: `line ${input.linesRestA[j]} A (observed ${l.toFixed(2)} A) falls at pixel ${px.toFixed(1)}, within ${m} pixels of the gap [${nearGap[0]}, ${nearGap[1]}]` });
-      }
+      for (const what of wavelengthRuleProblems(prof.detector, s.xArcsec, input)) out.push({ where, rule: 'wavelength', what });
     }
     const ys = corners.map((c) => c[1]);
     const list = spansByMask.get(s.maskId) ?? [];

@@ -3,7 +3,8 @@
  * per role, the tracer weight against its upper bound, then per role the counts per radial bin of 1 Re and per
  * 45-degree sector (from the major axis towards +v, not folded), the reach in Re against the goal and the goal
  * bins and sectors left empty; then the weighting rules and what they excluded, the pointing search against its
- * starting (naive cross) layout, and the refraction window and exposure lines. Also the CSV of excluded targets
+ * starting (naive cross) layout, the spectral report (photometry, line windows, resolving power, OH lines, usable x
+ * per mask), and the refraction window and exposure lines. Also the CSV of excluded targets
  * (`id,line,role,rule,reason`).
  */
 import type { CoverageReport } from './coverage';
@@ -14,6 +15,7 @@ import type { MaskSolution } from '../solver/types';
 import type { ObservingReport } from '../observe/refractionReport';
 import { formatRefractionSummary } from '../observe/refractionReport';
 import { toCsv } from '../export/csvText';
+import { spectralSummaryLines, type SpectralReport } from '../spectro/spectralReport';
 
 /** What the coverage part of the summary needs from a plan solution (a subset of PlanSolution). */
 export interface SummaryInput {
@@ -27,6 +29,7 @@ export interface PlanSummaryInput extends SummaryInput {
   masks: readonly MaskSolution[];
   stats: { masks: readonly { maskId: string; eligibleTracers: number }[]; tracerWeight: number; tracerWeightUpperBound: number };
   observingReport?: ObservingReport;
+  spectralReport?: SpectralReport;
 }
 
 const f2 = (v: number) => v.toFixed(2);
@@ -83,7 +86,11 @@ export function coverageSummaryLines(s: SummaryInput): string[] {
 
 /** The whole summary of a solved plan, in the order of the module comment. */
 export function planSummaryLines(s: PlanSummaryInput): string[] {
-  return [...maskSummaryLines(s), ...coverageSummaryLines(s), ...(s.observingReport ? formatRefractionSummary(s.observingReport) : [])];
+  return [
+    ...maskSummaryLines(s), ...coverageSummaryLines(s),
+    ...(s.spectralReport ? spectralSummaryLines(s.spectralReport) : []),
+    ...(s.observingReport ? formatRefractionSummary(s.observingReport) : []),
+  ];
 }
 
 /** The excluded targets as CSV: id,line,role,rule,reason (line as in the catalog report). */

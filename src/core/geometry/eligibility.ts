@@ -1,11 +1,14 @@
 /**
  * Eligibility of a target on a mask (mask frame, arcsec): its minimal slit (centred on the target, minLengthArcsec
- * long, widthArcsec wide, tilt 0) lies inside the footprint, and for a science slit every required line, redshifted
- * by the galaxy's systemic velocity, obeys the wavelength rule. Alignment boxes need only fit in the footprint.
+ * long, widthArcsec wide, tilt 0) lies inside the footprint, and for a science slit every required line's observed
+ * window (v_sys +- velocityHalfRangeKms, widened by lineHalfWindowA) obeys the wavelength rule. Alignment boxes need only fit in the footprint.
  */
 import type { InstrumentProfile } from '../profile/schema';
 import { polygonBounds, stripFreeYRange, type Corner } from './polygon';
-import { observedWavelengthA, usableXIntervalsArcsec } from './wavelength';
+import { DEFAULT_LINE_WINDOW, observedLineWindowsA, observedWavelengthA, usableXIntervalsForWindowsArcsec, type LineWindowA, type LineWindowSettings } from './wavelength';
+
+/** Half a unit of the 4th decimal in which slits.csv writes x (arcsec), with room to spare. */
+const X_ROUNDING_GUARD_ARCSEC = 1e-4;
 
 /** Everything needed to test many targets against one profile and one set of lines. */
 export interface EligibilityRules {
@@ -14,15 +17,18 @@ export interface EligibilityRules {
   minLengthArcsec: number;
   widthArcsec: number;
   boxSizeArcsec: number;
-  /** Observed (redshifted) required lines, Angstrom. */
+  /** Observed (redshifted at v_sys) required lines, Angstrom. */
   observedLinesA: number[];
-  /** Mask-x intervals (arcsec) where every observed line is usable. */
+  /** Observed window of each line over the velocity range, widened by the line half-window (Angstrom). */
+  lineWindowsA: LineWindowA[];
+  /** Mask-x intervals (arcsec) where every line window is usable. */
   usableXArcsec: [number, number][];
 }
 
-/** Precompute the rules for a profile, rest-frame lines (Angstrom) and systemic velocity (km/s). */
-export function eligibilityRules(profile: InstrumentProfile, linesRestA: readonly number[], vsysKms: number): EligibilityRules {
+/** Precompute the rules for a profile, rest-frame lines (Angstrom), systemic velocity (km/s) and line windows (plan goals). */
+export function eligibilityRules(profile: InstrumentProfile, linesRestA: readonly number[], vsysKms: number, window: LineWindowSettings = DEFAULT_LINE_WINDOW): EligibilityRules {
   const observedLinesA = linesRestA.map((l) => observedWavelengthA(l, vsysKms));
+  const lineWindowsA = observedLineWindowsA(linesRestA, vsysKms, window);
   return {
     footprint: profile.footprint,
     bounds: polygonBounds(profile.footprint),
@@ -30,7 +36,10 @@ export function eligibilityRules(profile: InstrumentProfile, linesRestA: readonl
     widthArcsec: profile.slits.widthArcsec,
     boxSizeArcsec: profile.alignment.boxSizeArcsec,
     observedLinesA,
-    usableXArcsec: usableXIntervalsArcsec(profile.detector, observedLinesA),
+    lineWindowsA,
+    // Shrunk by the rounding of written x (4 decimals) so a slit on an interval's end still passes an outside check.
+    usableXArcsec: usableXIntervalsForWindowsArcsec(profile.detector, lineWindowsA)
+      .map(([a, b]) => [a + X_ROUNDING_GUARD_ARCSEC, b - X_ROUNDING_GUARD_ARCSEC] as [number, number]).filter(([a, b]) => a <= b),
   };
 }
 

@@ -2,9 +2,11 @@
  * Exposure estimates per slit with the CCD equation (Howell, Handbook of CCD Astronomy, 2nd ed. 2006), on the
  * same model as the integrated-starlight slits (spectro/signalToNoise.ts; solver/starlight.ts settings: throughput,
  * sky brightness, detector scales, read noise, dark, wavelength). Per Angstrom of spectrum at the setup's wavelength.
- * Tracers are point sources of their catalog magnitude (taken as AB at that wavelength) seen through the slit
- * width in Gaussian seeing and extracted over 2 FWHM along the slit; starlight slits take the Sérsic model's
- * flux-mean surface brightness over the whole slit length. Sky and alignment rows get no estimate.
+ * Tracers are point sources of their catalog magnitude (made AB by the plan's photometry offset) seen through the
+ * slit width in Gaussian seeing and extracted over 2 FWHM along the slit; the galaxy's own light under the tracer
+ * adds to the background, and the sky is estimated from the rest of the tracer's slit (Howell's 1 + n_pix/n_B term).
+ * Starlight slits take the Sérsic model's flux-mean surface brightness over the whole slit length, their sky
+ * estimated from the mask's sky slits. Sky and alignment rows get no estimate.
  */
 import type { MaskSolution, Slit } from '../solver/types';
 import type { GalaxyModel } from '../plan/schema';
@@ -22,6 +24,16 @@ export interface ExposureModel {
   seeingFwhmArcsec: number;
   exposureTimeS: number;
   targetSnPerA: number;
+  /** Added to catalog magnitudes and the galaxy's surface brightness to make them AB (spectro/photometry.ts; default 0). */
+  catalogToAbMag?: number;
+}
+
+/** Where a slit's sky estimate comes from and what lies under it (optional parts of an estimate). */
+export interface SlitBackground {
+  /** Length (arcsec) of slit the sky is estimated from; absent: the sky is known without error. */
+  skyLengthArcsec?: number;
+  /** Galaxy surface brightness under the source, catalog band mag/arcsec^2; absent: none. */
+  galaxyMuMagPerArcsec2?: number;
 }
 
 export interface SlitExposure {
@@ -61,23 +73,32 @@ function estimate(o: SlitObservation, m: ExposureModel) {
   return { snPerA: signalToNoisePerA(o, m.setup, m.exposureTimeS), timeForTargetSnS: Number.isFinite(t) ? t : null };
 }
 
-/** Exposure estimate of a tracer slit (point source of magnitude mag, AB). */
-export function tracerExposure(slit: Pick<Slit, 'slitId' | 'objectId' | 'widthArcsec'>, mag: number, m: ExposureModel): SlitExposure {
-  const extraction = POINT_EXTRACTION_FWHM * m.seeingFwhmArcsec;
+/** Extraction length (arcsec) of a point source along its slit: POINT_EXTRACTION_FWHM seeing FWHM. */
+export function pointExtractionArcsec(seeingFwhmArcsec: number): number {
+  return POINT_EXTRACTION_FWHM * seeingFwhmArcsec;
+}
+
+/** Exposure estimate of a tracer slit (point source of catalog magnitude mag), with its sky estimate and the galaxy under it. */
+export function tracerExposure(slit: Pick<Slit, 'slitId' | 'objectId' | 'widthArcsec'>, mag: number, m: ExposureModel, bg: SlitBackground = {}): SlitExposure {
+  const extraction = pointExtractionArcsec(m.seeingFwhmArcsec);
   const fraction = pointSourceApertureFraction(slit.widthArcsec, extraction, m.seeingFwhmArcsec);
+  const ab = m.catalogToAbMag ?? 0;
   const o: SlitObservation = {
-    sourceEPerAPerS: electronsPerAFromMag(mag, m.setup, 1, fraction),
+    sourceEPerAPerS: electronsPerAFromMag(mag + ab, m.setup, 1, fraction),
     extractionArcsec: extraction, slitWidthArcsec: slit.widthArcsec, skyMagPerArcsec2: m.skyMagPerArcsec2,
+    skyLengthArcsec: bg.skyLengthArcsec,
+    galaxyMagPerArcsec2: bg.galaxyMuMagPerArcsec2 === undefined ? undefined : bg.galaxyMuMagPerArcsec2 + ab,
   };
   return { slitId: slit.slitId, objectId: slit.objectId, role: 'tracer', mag, muMagPerArcsec2: null, apertureFraction: fraction, ...estimate(o, m) };
 }
 
-/** Exposure estimate of a starlight slit of mean surface brightness mu (AB mag/arcsec^2) over its full length. */
-export function starlightExposure(slit: Pick<Slit, 'slitId' | 'objectId' | 'widthArcsec' | 'lenBelowArcsec' | 'lenAboveArcsec'>, muMagPerArcsec2: number, m: ExposureModel): SlitExposure {
+/** Exposure estimate of a starlight slit of mean surface brightness mu (catalog band mag/arcsec^2) over its full length. */
+export function starlightExposure(slit: Pick<Slit, 'slitId' | 'objectId' | 'widthArcsec' | 'lenBelowArcsec' | 'lenAboveArcsec'>, muMagPerArcsec2: number, m: ExposureModel, bg: SlitBackground = {}): SlitExposure {
   const length = slit.lenBelowArcsec + slit.lenAboveArcsec;
   const o: SlitObservation = {
-    sourceEPerAPerS: electronsPerAFromSurfaceBrightness(muMagPerArcsec2, length * slit.widthArcsec, m.setup, 1),
+    sourceEPerAPerS: electronsPerAFromSurfaceBrightness(muMagPerArcsec2 + (m.catalogToAbMag ?? 0), length * slit.widthArcsec, m.setup, 1),
     extractionArcsec: length, slitWidthArcsec: slit.widthArcsec, skyMagPerArcsec2: m.skyMagPerArcsec2,
+    skyLengthArcsec: bg.skyLengthArcsec,
   };
   return { slitId: slit.slitId, objectId: slit.objectId, role: 'starlight', mag: null, muMagPerArcsec2, apertureFraction: null, ...estimate(o, m) };
 }
@@ -86,9 +107,19 @@ export function starlightExposure(slit: Pick<Slit, 'slitId' | 'objectId' | 'widt
 export function maskExposureReport(ms: MaskSolution, galaxy: GalaxyModel, m: ExposureModel, bn = sersicBn(galaxy.sersicN)): MaskExposureReport {
   const g = galaxyOnMask(ms.mask, galaxy, bn);
   const slits: SlitExposure[] = [];
+  const extraction = pointExtractionArcsec(m.seeingFwhmArcsec);
+  // Starlight slits are filled with galaxy light: their sky comes from the mask's sky slits (none: no sky estimate).
+  const skySlitsArcsec = ms.slits.filter((s) => s.role === 'sky').reduce((a, s) => a + s.lenBelowArcsec + s.lenAboveArcsec, 0);
   for (const s of ms.slits) {
-    if (s.role === 'tracer' && s.mag !== null) slits.push(tracerExposure(s, s.mag, m));
-    else if (s.role === 'starlight') slits.push(starlightExposure(s, slitMeanMu(g, s.xArcsec, s.yArcsec - s.lenBelowArcsec, s.yArcsec + s.lenAboveArcsec), m));
+    if (s.role === 'tracer' && s.mag !== null) {
+      const bg = {
+        skyLengthArcsec: Math.max(0, s.lenBelowArcsec + s.lenAboveArcsec - extraction),
+        galaxyMuMagPerArcsec2: slitMeanMu(g, s.xArcsec, s.yArcsec - extraction / 2, s.yArcsec + extraction / 2),
+      };
+      slits.push(tracerExposure(s, s.mag, m, bg));
+    } else if (s.role === 'starlight') {
+      slits.push(starlightExposure(s, slitMeanMu(g, s.xArcsec, s.yArcsec - s.lenBelowArcsec, s.yArcsec + s.lenAboveArcsec), m, { skyLengthArcsec: skySlitsArcsec }));
+    }
   }
   const tracerSn = slits.filter((s) => s.role === 'tracer').map((s) => s.snPerA).sort((a, b) => a - b);
   const median = tracerSn.length === 0 ? null : tracerSn.length % 2 ? tracerSn[(tracerSn.length - 1) / 2] : (tracerSn[tracerSn.length / 2 - 1] + tracerSn[tracerSn.length / 2]) / 2;

@@ -3,7 +3,8 @@
  * Model: the telescope guides at guideWavelengthA on the mask centre (translation removed) and holds the mask's
  * PA fixed on the sky, North taken at the true (unrefracted) mask centre. Each target's image at wavelength L is
  * lifted toward the zenith (sky PA = its parallactic angle) by the plane-parallel refraction at its own zenith
- * distance; the slits were cut where the targets' images were at guideWavelengthA at the design hour angle.
+ * distance; the slits were cut where the targets' images were at designWavelengthA (default guideWavelengthA) at the
+ * design hour angle, the telescope guiding at guideWavelengthA.
  * Offsets are in the mask frame (x across the slits, along the dispersion; y along the slits), arcsec.
  * Slit tilt is not applied to the projection (x is taken as the across-slit direction).
  * Hour angles are of the mask centre, hours, positive West; target hour angles follow from their RA offsets (J2000).
@@ -25,6 +26,8 @@ export interface RefractionSettings {
   /** A slit fails when its light lost to refraction, relative to a centred image, reaches this fraction. */
   maxLossFraction: number;
   guideWavelengthA: number;
+  /** Wavelength at which the slits are cut (default: the guide wavelength). */
+  designWavelengthA?: number;
   /** Science wavelength range [blue, red], Angstrom (air). */
   scienceRangeA: [number, number];
   hourAngleRangeH: [number, number];
@@ -83,6 +86,9 @@ export interface MaskRefractionReport {
   windowNote: string | null;
   /** Number of slits that count for the window (point-source roles). */
   windowSlitCount: number;
+  /** Whether the planned exposure fits in the window, and whether the design hour angle was chosen (set by the plan's observing report). */
+  exposureFitsWindow?: boolean;
+  designHourAngleChosen?: boolean;
   rows: MaskHourAngleRow[];
 }
 
@@ -118,7 +124,7 @@ interface SlitGeometry {
 export interface MaskRefractionContext {
   input: MaskRefractionInput;
   /** Refraction constants ARCSEC_PER_RAD (n - 1) per wavelength, arcsec per unit tan z. */
-  kArcsec: { guide: number; blue: number; red: number };
+  kArcsec: { guide: number; design: number; blue: number; red: number };
   sinLat: number;
   cosLat: number;
   centreSinDec: number;
@@ -171,7 +177,7 @@ export function maskRefractionContext(input: MaskRefractionInput): MaskRefractio
   const k = (l: number) => ARCSEC_PER_RAD * edlenRefractivity(l, input.air);
   const ctx: MaskRefractionContext = {
     input,
-    kArcsec: { guide: k(s.guideWavelengthA), blue: k(s.scienceRangeA[0]), red: k(s.scienceRangeA[1]) },
+    kArcsec: { guide: k(s.guideWavelengthA), design: k(s.designWavelengthA ?? s.guideWavelengthA), blue: k(s.scienceRangeA[0]), red: k(s.scienceRangeA[1]) },
     sinLat: PMath.sin(input.latDeg * RAD_PER_DEG), cosLat: PMath.cos(input.latDeg * RAD_PER_DEG),
     centreSinDec: PMath.sin(input.mask.decDeg * RAD_PER_DEG), centreCosDec: PMath.cos(input.mask.decDeg * RAD_PER_DEG),
     slits: [],
@@ -198,7 +204,7 @@ export function maskRefractionContext(input: MaskRefractionInput): MaskRefractio
       design: { xArcsec: 0, yArcsec: 0 },
     };
     const u = liftPerUnitRefractivity(ctx, input.designHourAngleH * 15 - g.dRaDeg, g.sinDec, g.cosDec);
-    if (u) g.design = slitLift(g, u, ctx.kArcsec.guide, c0);
+    if (u) g.design = slitLift(g, u, ctx.kArcsec.design, c0);
     ctx.slits.push(g);
   }
   return ctx;

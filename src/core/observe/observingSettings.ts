@@ -21,6 +21,19 @@ export const observingSchema = z.looseObject({
   maxLossFraction: z.number().gt(0, 'must be in (0, 1)').lt(1, 'must be in (0, 1)').optional(),
   /** Effective wavelength of the guider, Angstrom. */
   guideWavelengthA: z.number().min(3000).max(25000).optional(),
+  /** Wavelength at which the slits are cut (the images' positions at the design hour angle), Angstrom. */
+  designWavelengthA: z.number().min(3000).max(25000).optional(),
+  /** Moon at the time of observation, for the sky brightness (Krisciunas & Schaefer 1991; observe/moonSky.ts). */
+  moon: z.looseObject({
+    /** Lunar phase angle, degrees (0 full, 180 new). */
+    phaseAngleDeg: z.number().min(0, 'must be in [0, 180] degrees (0 = full Moon)').max(180, 'must be in [0, 180] degrees (0 = full Moon)'),
+    /** Moon-galaxy separation, degrees. */
+    separationDeg: z.number().gt(0, 'must be in (0, 180] degrees').max(180, 'must be in (0, 180] degrees'),
+    /** Altitude of the Moon, degrees (below 0: no moonlight). */
+    altitudeDeg: z.number().min(-90).max(90),
+    /** V-band extinction, mag per airmass (default 0.15). */
+    extinctionV: z.number().min(0).max(1).optional(),
+  }).optional(),
   /** Science wavelength range [blue, red], Angstrom. */
   scienceRangeA: range(3000, 25000, 'Angstrom').optional(),
   /** Planned exposure time per mask, seconds. */
@@ -38,6 +51,8 @@ export type ObservingSection = z.infer<typeof observingSchema>;
 /** Every observing setting with its value (defaults filled). */
 export interface ObservingSettings extends RefractionSettings {
   designHourAngleH: number;
+  /** True when no design hour angle was given and the report chooses one per mask (chooseDesignHourAngleH). */
+  designHourAngleChosen: boolean;
   exposureTimeS: number;
   targetSnPerA: number;
 }
@@ -59,19 +74,30 @@ export function detectorRangeA(profile: InstrumentProfile): [number, number] {
   return [profile.detector.centralWavelengthA - half, profile.detector.centralWavelengthA + half];
 }
 
+/** Span (Angstrom) of the required lines' observed windows: the science range by default. */
+export function lineWindowsRangeA(windows: readonly { loA: number; hiA: number }[]): [number, number] | undefined {
+  if (windows.length === 0) return undefined;
+  return [Math.min(...windows.map((w) => w.loA)), Math.max(...windows.map((w) => w.hiA))];
+}
+
 /**
- * The plan's observing settings with defaults: science range = the detector's range at the mask centre,
- * guide wavelength = the middle of the science range (set the guider's own effective wavelength when known);
- * exposure time and target S/N fall back to `fallback` (the starlight settings) and then to OBSERVING_DEFAULTS.
+ * The plan's observing settings with defaults: science range = `fallback.scienceRangeA` (the span of the required
+ * lines' windows), else the detector's range at the mask centre; design wavelength (where slits are cut) = the middle
+ * of the science range; guide wavelength = the design wavelength unless set (set the guider's own effective wavelength
+ * when known); exposure time and target S/N fall back to `fallback` (the starlight settings) and then to
+ * OBSERVING_DEFAULTS. Without a design hour angle the report chooses one per mask.
  */
-export function resolveObservingSettings(section: ObservingSection | undefined, profile: InstrumentProfile, fallback: { exposureTimeS?: number; targetSnPerA?: number } = {}): ObservingSettings {
+export function resolveObservingSettings(section: ObservingSection | undefined, profile: InstrumentProfile, fallback: { exposureTimeS?: number; targetSnPerA?: number; scienceRangeA?: [number, number] } = {}): ObservingSettings {
   const s = section ?? {};
-  const scienceRangeA = (s.scienceRangeA as [number, number] | undefined) ?? detectorRangeA(profile);
+  const scienceRangeA = (s.scienceRangeA as [number, number] | undefined) ?? fallback.scienceRangeA ?? detectorRangeA(profile);
+  const designWavelengthA = s.designWavelengthA ?? (scienceRangeA[0] + scienceRangeA[1]) / 2;
   return {
     designHourAngleH: s.designHourAngleH ?? OBSERVING_DEFAULTS.designHourAngleH,
+    designHourAngleChosen: s.designHourAngleH === undefined,
+    designWavelengthA,
     seeingFwhmArcsec: s.seeingFwhmArcsec ?? OBSERVING_DEFAULTS.seeingFwhmArcsec,
     maxLossFraction: s.maxLossFraction ?? OBSERVING_DEFAULTS.maxLossFraction,
-    guideWavelengthA: s.guideWavelengthA ?? (scienceRangeA[0] + scienceRangeA[1]) / 2,
+    guideWavelengthA: s.guideWavelengthA ?? designWavelengthA,
     scienceRangeA,
     exposureTimeS: s.exposureTimeS ?? fallback.exposureTimeS ?? OBSERVING_DEFAULTS.exposureTimeS,
     targetSnPerA: s.targetSnPerA ?? fallback.targetSnPerA ?? OBSERVING_DEFAULTS.targetSnPerA,
@@ -81,9 +107,12 @@ export function resolveObservingSettings(section: ObservingSection | undefined, 
   };
 }
 
-/** Design hour angle (hours) of each plan mask: its own designHourAngleH, else the observing default. */
+/** Design hour angle (hours) of each plan mask that gives one, else the observing value when the plan sets it. */
 export function designHourAnglesH(plan: PlanFile, settings: ObservingSettings): Record<string, number> {
   const out: Record<string, number> = {};
-  for (const m of plan.masks ?? []) out[m.id] = m.designHourAngleH ?? settings.designHourAngleH;
+  for (const m of plan.masks ?? []) {
+    if (m.designHourAngleH !== undefined) out[m.id] = m.designHourAngleH;
+    else if (!settings.designHourAngleChosen) out[m.id] = settings.designHourAngleH;
+  }
   return out;
 }

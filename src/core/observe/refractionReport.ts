@@ -7,6 +7,12 @@ import type { MaskSolution } from '../solver/types';
 import type { GalaxyModel, PlanFile } from '../plan/schema';
 import type { InstrumentProfile } from '../profile/schema';
 import { maskRefractionReport, type MaskRefractionReport } from './maskRefraction';
+import { chooseDesignHourAngle, designHourAngleCandidatesH, exposureFit } from './designHourAngle';
+import { lineWindowsRangeA } from './observingSettings';
+import { lineWindowSettings, observedLineWindowsA } from '../geometry/wavelength';
+import { moonlitSkyMagPerArcsec2 } from './moonSky';
+import { AB_MINUS_VEGA_MAG, resolvePhotometry } from '../spectro/photometry';
+import { altitudeDeg } from './horizon';
 import { designHourAnglesH, resolveObservingSettings, type ObservingSection, type ObservingSettings } from './observingSettings';
 import { maskExposureReport, type MaskExposureReport } from './exposure';
 import { starlightSettings, type StarlightRules } from '../solver/starlight';
@@ -16,7 +22,7 @@ export interface RefractionReportInput {
   masks: MaskSolution[];
   site: InstrumentProfile['site'];
   settings: ObservingSettings;
-  /** Per-mask design hour angles (hours); masks not listed use settings.designHourAngleH. */
+  /** Per-mask design hour angles (hours); masks not listed get the one with the longest window (settings.designHourAngleChosen) or settings.designHourAngleH. */
   designHourAnglesH?: Record<string, number>;
 }
 
@@ -38,16 +44,16 @@ export function refractionReport(input: RefractionReportInput): ObservingReport 
   return {
     galaxyId: input.galaxy.id,
     settings: input.settings,
-    masks: input.masks.map((m) =>
-      maskRefractionReport({
-        mask: m.mask,
-        slits: m.slits,
-        designHourAngleH: input.designHourAnglesH?.[m.mask.id] ?? input.settings.designHourAngleH,
-        latDeg: input.site.latDeg,
-        air,
-        settings: input.settings,
-      }),
-    ),
+    masks: input.masks.map((m) => {
+      const base = { mask: m.mask, slits: m.slits, latDeg: input.site.latDeg, air, settings: input.settings };
+      const given = input.designHourAnglesH?.[m.mask.id];
+      const s = input.settings;
+      const chosen = given === undefined && s.designHourAngleChosen;
+      const r = chosen
+        ? chooseDesignHourAngle(base, designHourAngleCandidatesH(s.hourAngleRangeH, s.hourAngleStepH), s.exposureTimeS)
+        : maskRefractionReport({ ...base, designHourAngleH: given ?? s.designHourAngleH });
+      return { ...r, designHourAngleChosen: chosen, exposureFitsWindow: exposureFit(r.hourAngleWindowH, s.exposureTimeS).fits };
+    }),
   };
 }
 
@@ -60,13 +66,29 @@ export function observingReportForPlan(plan: PlanFile, profile: InstrumentProfil
   const starlight = starlightSettings(plan.starlight as StarlightRules | undefined, profile, plan);
   const settings = resolveObservingSettings(plan.observing as ObservingSection | undefined, profile, {
     exposureTimeS: starlight.exposureS,
+    scienceRangeA: lineWindowsRangeA(observedLineWindowsA(plan.goals.linesA, galaxy.vsysKms, lineWindowSettings(plan.goals))),
   });
   const report = refractionReport({ galaxy, masks, site: profile.site, settings, designHourAnglesH: designHourAnglesH(plan, settings) });
   const model = {
-    setup: starlight.setup, skyMagPerArcsec2: starlight.skyMagPerArcsec2, seeingFwhmArcsec: settings.seeingFwhmArcsec,
-    exposureTimeS: settings.exposureTimeS, targetSnPerA: settings.targetSnPerA,
+    setup: starlight.setup, skyMagPerArcsec2: skyWithMoon(plan, profile, galaxy, starlight.skyMagPerArcsec2), seeingFwhmArcsec: settings.seeingFwhmArcsec,
+    exposureTimeS: settings.exposureTimeS, targetSnPerA: settings.targetSnPerA, catalogToAbMag: starlight.catalogToAbMag,
   };
   return { ...report, exposures: masks.map((m) => maskExposureReport(m, galaxy, model)) };
+}
+
+/**
+ * The sky (AB mag/arcsec^2) the exposure estimates use: the dark sky of the starlight settings, brightened by the Moon
+ * of observing.moon (Krisciunas & Schaefer 1991) with the galaxy at its transit altitude.
+ */
+export function skyWithMoon(plan: PlanFile, profile: InstrumentProfile, galaxy: GalaxyModel, darkSkyAbMagPerArcsec2: number): number {
+  const moon = (plan.observing as ObservingSection | undefined)?.moon;
+  if (!moon) return darkSkyAbMagPerArcsec2;
+  const ph = resolvePhotometry(plan.photometry);
+  const bandAbMinusVega = ph.system === 'Vega' ? ph.catalogToAbMag : AB_MINUS_VEGA_MAG[ph.band] ?? AB_MINUS_VEGA_MAG.I;
+  return moonlitSkyMagPerArcsec2(darkSkyAbMagPerArcsec2, {
+    phaseAngleDeg: moon.phaseAngleDeg, separationDeg: moon.separationDeg, moonZenithDeg: 90 - moon.altitudeDeg,
+    targetZenithDeg: Math.min(89, 90 - altitudeDeg(0, galaxy.decDeg, profile.site.latDeg)), extinctionV: moon.extinctionV ?? 0.15,
+  }, bandAbMinusVega);
 }
 
 const r4 = (v: number) => Math.round(v * 1e4) / 1e4;
@@ -129,13 +151,14 @@ const fmtH = (h: number) => `${h >= 0 ? '+' : ''}${h.toFixed(2)} h`;
 export function formatRefractionSummary(report: ObservingReport): string[] {
   const s = report.settings;
   const lines = [
-    `Differential refraction (seeing ${s.seeingFwhmArcsec}" FWHM, guide ${s.guideWavelengthA.toFixed(0)} A, ` +
+    `Differential refraction (seeing ${s.seeingFwhmArcsec}" FWHM, slits cut for ${(s.designWavelengthA ?? s.guideWavelengthA).toFixed(0)} A, guide ${s.guideWavelengthA.toFixed(0)} A, ` +
       `science ${s.scienceRangeA[0].toFixed(0)}-${s.scienceRangeA[1].toFixed(0)} A, tracer slits losing < ${(s.maxLossFraction * 100).toFixed(0)} %, airmass <= ${s.maxAirmass}):`,
   ];
   for (const m of report.masks) {
     const w = m.hourAngleWindowH;
     const where = (w === null ? 'no hour-angle window' : `hour-angle window ${fmtH(w[0])} to ${fmtH(w[1])}`) + (m.windowNote ? ` (${m.windowNote})` : '');
-    lines.push(`  ${m.maskId}: designed for HA ${fmtH(m.designHourAngleH)}; ${where}; ${m.windowSlitCount} tracer slits`);
+    const fit = exposureFit(w, s.exposureTimeS).text;
+    lines.push(`  ${m.maskId}: designed for HA ${fmtH(m.designHourAngleH)}${m.designHourAngleChosen ? ' (chosen for the longest window)' : ''}; ${where}; ${fit}; ${m.windowSlitCount} tracer slits`);
   }
   if (report.exposures?.length) {
     const e0 = report.exposures[0];

@@ -18,6 +18,8 @@ import { placeStarlightAndSky } from '../solver/starlight';
 import { naiveCrossLayout, searchEnv, searchPointings, starlightTrade, type SearchReport } from '../solver/pointingSearch';
 import { objectiveContext } from '../solver/objective';
 import { observingReportForPlan, withObservingReport, type ObservingReport } from '../observe/refractionReport';
+import { lineWindowSettings } from '../geometry/wavelength';
+import { spectralReport, type SpectralReport } from '../spectro/spectralReport';
 
 export interface PlanInputs {
   plan: PlanFile;
@@ -55,6 +57,8 @@ export interface PlanSolution {
   search: SearchReport;
   /** Refraction rows and recommended hour-angle window per mask, exposure estimates per slit (observe/refractionReport.ts). */
   observingReport?: ObservingReport;
+  /** Photometry, line windows, resolving power and instrumental dispersion, OH-line flags, usable x per mask (spectro/spectralReport.ts). */
+  spectralReport?: SpectralReport;
   stats: {
     masks: MaskStats[];
     /** Total tracer weight allocated, and the Lagrangian upper bound on the optimum for these pointings. */
@@ -172,7 +176,7 @@ export function solvePlan(inputs: PlanInputs, opts: SolveOptions = {}): PlanSolu
   progress(0, 'weighting targets');
   const weighting = weighPlanTargets(plan, catalog.targets);
   const weights = targetWeights(plan, catalog.targets, warnings, weighting);
-  const ctx = allocationContext(profile, galaxy, plan.goals.linesA, catalog.targets, weights);
+  const ctx = allocationContext(profile, galaxy, plan.goals.linesA, catalog.targets, weights, lineWindowSettings(plan.goals));
 
   progress(0.1, 'placing masks');
   const placed = placeMasks(plan, galaxy, profile, ctx, (f, message) => progress(0.1 + 0.6 * f, message));
@@ -212,6 +216,7 @@ export function solvePlan(inputs: PlanInputs, opts: SolveOptions = {}): PlanSolu
     observingReport = observingReportForPlan(plan, profile, galaxy, masks);
     solved = withObservingReport(solved, observingReport);
   }
+  const spectral = spectralReport(plan, profile, pointings.map((p) => p.id));
   progress(1, 'done');
-  return { plan: solved, galaxy, masks, coverage, warnings, problems: alloc.problems, weighting, search: placed.search, observingReport, stats };
+  return { plan: solved, galaxy, masks, coverage, warnings, problems: alloc.problems, weighting, search: placed.search, observingReport, spectralReport: spectral, stats };
 }

@@ -10,6 +10,7 @@ import { weightingSchema } from '../solver/weighting';
 import { starlightSchema } from '../solver/starlight';
 import { searchSchema } from '../solver/objective';
 import { observingSchema } from '../observe/observingSettings';
+import { photometrySchema } from '../spectro/photometry';
 
 export const PLAN_FORMAT = 'haloweave.plan/1';
 
@@ -43,6 +44,10 @@ export const goalsSchema = z.looseObject({
   tracerReachRe: z.number().positive(),
   starlightReachRe: z.number().min(0),
   linesA: z.array(z.number().positive()).min(1, 'list at least one rest wavelength in Angstrom'),
+  /** Wavelength rule: line-of-sight velocities v_sys +- this (km/s) must keep every line on the detector (default 500). */
+  velocityHalfRangeKms: z.number().min(0, 'must be 0 or more (km/s about the systemic velocity)').max(5000, 'must be at most 5000 km/s').optional(),
+  /** Wavelength rule: half-width (Angstrom) kept around each redshifted line for the line and its continuum (default 10). */
+  lineHalfWindowA: z.number().min(0, 'must be 0 or more (Angstrom on each side of the line)').max(500, 'must be at most 500 Angstrom').optional(),
 });
 
 export const planMaskSchema = z.looseObject({
@@ -99,6 +104,8 @@ export const planSchema = z.looseObject({
   observing: observingSchema.optional(),
   /** Slit allocation settings (see allocationSchema). */
   allocation: allocationSchema.optional(),
+  /** Band and magnitude system of the catalog (spectro/photometry); absent: AB assumed. */
+  photometry: photometrySchema.optional(),
 });
 
 export type PlanFile = z.infer<typeof planSchema>;

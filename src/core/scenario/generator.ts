@@ -216,6 +216,8 @@ function scenarioPlan(galaxy: GalaxyModel, o: Scenario['options']): Record<strin
       radiusRangeRe: [0, o.maxRadiusRe],
     },
     starlight: { exposureS: 10800, targetSnPerA: 5, skyMagPerArcsec2: 19.6 },
+    // The generated magnitudes are Vega I (Cousins); AB - Vega from Blanton & Roweis 2007, AJ 133, 734, Table 1.
+    photometry: { band: 'I', system: 'Vega', abMinusVegaMag: 0.45, source: 'Blanton & Roweis 2007, AJ 133, 734, Table 1' },
     search: { seed: typeof o.seed === 'number' ? o.seed : 1 },
   };
 }

@@ -14,6 +14,7 @@ import { chooseAlignmentBoxes, type AlignmentCandidate } from './alignment';
 import { allocateJoint, maskCandidateSet, resolveOneMask, jointObjective, type JointOptions, type JointProblem, type JointSolution, type MaskCandidateSet } from './jointAllocation';
 import { maskPointToSkyDeg, projectIndicesToMaskArcsec, unitVectors, type UnitVectors } from './maskTargets';
 import { polygonBounds } from '../geometry/polygon';
+import type { LineWindowSettings } from '../geometry/wavelength';
 import type { MaskPointing, MaskSolution, Slit } from './types';
 import { PMath } from '../numeric/portableMath';
 
@@ -37,7 +38,7 @@ export interface AllocationContext {
 }
 
 /** Build the allocation context; linesA are rest wavelengths (Angstrom), redshifted by galaxy.vsysKms. */
-export function allocationContext(profile: InstrumentProfile, galaxy: GalaxyModel, linesA: readonly number[], targets: readonly Target[], weights: Float64Array): AllocationContext {
+export function allocationContext(profile: InstrumentProfile, galaxy: GalaxyModel, linesA: readonly number[], targets: readonly Target[], weights: Float64Array, lineWindow?: LineWindowSettings): AllocationContext {
   const [bright, faint] = profile.alignment.magRange;
   const tracers: number[] = [], aligns: number[] = [];
   targets.forEach((t, i) => {
@@ -49,7 +50,7 @@ export function allocationContext(profile: InstrumentProfile, galaxy: GalaxyMode
   const b = polygonBounds(profile.footprint);
   return {
     profile, galaxy, targets, weights,
-    rules: eligibilityRules(profile, linesA, galaxy.vsysKms),
+    rules: eligibilityRules(profile, linesA, galaxy.vsysKms, lineWindow),
     raDeg, decDeg,
     unit: unitVectors(raDeg, decDeg),
     footprintRadiusArcsec: PMath.hypot(Math.max(-b.minX, b.maxX), Math.max(-b.minY, b.maxY)) + 1,

@@ -26,8 +26,9 @@ import { skyToTangentArcsec, tangentCentre } from '../sky/tangentPlane';
 import { sersicBn, sersicMuMagPerArcsec2 } from '../sky/sersic';
 import { electronsPerAFromSurfaceBrightness, signalToNoisePerA, type SpectroSetup } from '../spectro/signalToNoise';
 import { maskPointToSkyDeg } from './maskTargets';
-import { observedWavelengthA } from '../geometry/wavelength';
+import { lineWindowSettings, observedWavelengthA } from '../geometry/wavelength';
 import { PMath } from '../numeric/portableMath';
+import { resolvePhotometry } from '../spectro/photometry';
 
 /** The plan's `starlight` section (docs/signal-to-noise.md lists every setting and its default). */
 export const starlightSchema = z.looseObject({
@@ -60,6 +61,8 @@ export interface StarlightSettings {
   maxPerMask: number;
   skyPerMask: number;
   skyContrastMag: number;
+  /** Added to a catalog-band magnitude (the galaxy's muE) to make it AB (plan key photometry; spectro/photometry.ts). */
+  catalogToAbMag: number;
   /** Goal radius (goals.starlightReachRe; 0 turns starlight off) and the outer limit of placement, in Re. */
   reachRe: number;
   maxRe: number;
@@ -70,7 +73,7 @@ export interface StarlightSettings {
 export const STARLIGHT_DEFAULTS = { exposureS: 7200, skyMagPerArcsec2: 19.6, targetSnPerA: 5, throughput: 0.15, maxPerMask: 8, skyPerMask: 2, skyContrastMag: 3 } as const;
 
 /** Resolve the plan's starlight settings against the profile (throughput, detector scales, noise) and goals. */
-export function starlightSettings(rules: StarlightRules | undefined, profile: InstrumentProfile, plan: Pick<PlanFile, 'goals' | 'galaxy'>): StarlightSettings {
+export function starlightSettings(rules: StarlightRules | undefined, profile: InstrumentProfile, plan: Pick<PlanFile, 'goals' | 'galaxy'> & { photometry?: PlanFile['photometry'] }): StarlightSettings {
   const r = rules ?? {};
   const lines = plan.goals.linesA.map((l) => observedWavelengthA(l, plan.galaxy.vsysKms));
   const det = profile.detector;
@@ -82,6 +85,7 @@ export function starlightSettings(rules: StarlightRules | undefined, profile: In
     maxPerMask: r.maxPerMask ?? STARLIGHT_DEFAULTS.maxPerMask,
     skyPerMask: r.skyPerMask ?? STARLIGHT_DEFAULTS.skyPerMask,
     skyContrastMag: r.skyContrastMag ?? STARLIGHT_DEFAULTS.skyContrastMag,
+    catalogToAbMag: resolvePhotometry(plan.photometry).catalogToAbMag,
     reachRe: plan.goals.starlightReachRe,
     maxRe: plan.goals.starlightReachRe > 0 ? plan.goals.starlightReachRe + (r.reachMarginRe ?? 0.5) : 0,
     setup: {
@@ -157,7 +161,7 @@ export function slitMeanMu(g: GalaxyOnMask, xArcsec: number, y0Arcsec: number, y
 
 /** S/N per A of the galaxy light through a slit of length `lengthArcsec` with mean surface brightness mu. */
 export function starlightSignalToNoise(muMagPerArcsec2: number, lengthArcsec: number, widthArcsec: number, s: StarlightSettings): number {
-  const perS = electronsPerAFromSurfaceBrightness(muMagPerArcsec2, lengthArcsec * widthArcsec, s.setup, 1);
+  const perS = electronsPerAFromSurfaceBrightness(muMagPerArcsec2 + s.catalogToAbMag, lengthArcsec * widthArcsec, s.setup, 1);
   return signalToNoisePerA({ sourceEPerAPerS: perS, extractionArcsec: lengthArcsec, slitWidthArcsec: widthArcsec, skyMagPerArcsec2: s.skyMagPerArcsec2 }, s.setup, s.exposureS);
 }
 
@@ -403,7 +407,7 @@ export interface StarlightStage {
 /** Prepare the stage once for a plan (reused for every mask and, in the editor, for every drag update). */
 export function starlightStage(galaxy: GalaxyModel, profile: InstrumentProfile, plan: Pick<PlanFile, 'goals' | 'galaxy' | 'starlight'>, trade?: StarlightTrade): StarlightStage {
   const s = starlightSettings(plan.starlight as StarlightRules | undefined, profile, plan);
-  const rules = eligibilityRules(profile, plan.goals.linesA, galaxy.vsysKms);
+  const rules = eligibilityRules(profile, plan.goals.linesA, galaxy.vsysKms, lineWindowSettings(plan.goals));
   const displace = !!trade && (plan.starlight as StarlightRules | undefined)?.displaceTracers !== false && s.reachRe > 0 && s.maxPerMask > 0;
   return { galaxy, s, rules, bn: sersicBn(galaxy.sersicN), gapArcsec: profile.slits.gapArcsec, trade: displace ? trade! : null };
 }

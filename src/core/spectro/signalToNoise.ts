@@ -1,9 +1,10 @@
 /**
  * Signal-to-noise model of a slit spectrum (docs/signal-to-noise.md).
- * CCD equation (Howell, Handbook of CCD Astronomy, 2nd ed. 2006):
- *   S/N = N* / sqrt(N* + n_pix (N_S + N_D + N_R^2))
- * with N* the source electrons, n_pix the pixels summed, N_S sky electrons per pixel, N_D dark electrons
- * per pixel, N_R read noise in electrons per pixel. Here everything is taken "per Angstrom" of spectrum:
+ * CCD equation (Howell, Handbook of CCD Astronomy, 2nd ed. 2006, sec. 4.4; Howell 1989, PASP 101, 616):
+ *   S/N = N* / sqrt(N* + n_pix (1 + n_pix/n_B) (N_S + N_D + N_R^2))
+ * with N* the source electrons, n_pix the pixels summed, n_B the pixels the sky is estimated from, N_S background
+ * (sky, plus the galaxy's own light under a tracer) electrons per pixel, N_D dark electrons per pixel, N_R read noise
+ * in electrons per pixel. Without n_B (sky known perfectly) the factor (1 + n_pix/n_B) is 1. Here everything is taken "per Angstrom" of spectrum:
  * N* is the source electrons in a 1 A wide slice summed along the slit, and n_pix the pixels of that slice
  * (extraction length / yArcsecPerPixel along the slit times 1 / dispersionAPerPixel along the dispersion).
  * Magnitudes are AB: a source of m_AB has f_nu = 3631 Jy * 10^(-0.4 m), i.e. a photon flux density
@@ -73,11 +74,23 @@ export interface CcdTerms {
   skyEPerPixel: number;
   darkEPerPixel: number;
   readNoiseE: number;
+  /** Pixels the sky is estimated from (n_B); absent: the sky is known without error. */
+  skyPixels?: number;
+  /** Light of the galaxy under the source, electrons per pixel (a background like the sky; absent: 0). */
+  galaxyEPerPixel?: number;
 }
 
-/** Howell's CCD equation: S/N = N* / sqrt(N* + n_pix (N_S + N_D + N_R^2)). */
+/** Noise factor of the sky estimate, 1 + n_pix/n_B (Howell 2006, sec. 4.4); 1 without n_B, Infinity with n_B <= 0. */
+export function skyEstimateFactor(nPix: number, skyPixels: number | undefined): number {
+  if (skyPixels === undefined) return 1;
+  return skyPixels > 0 ? 1 + nPix / skyPixels : Infinity;
+}
+
+/** Howell's CCD equation: S/N = N* / sqrt(N* + n_pix (1 + n_pix/n_B) (N_S + N_G + N_D + N_R^2)); 0 without a sky estimate. */
 export function ccdSignalToNoise(t: CcdTerms): number {
-  const variance = t.sourceE + t.nPix * (t.skyEPerPixel + t.darkEPerPixel + t.readNoiseE * t.readNoiseE);
+  const k = skyEstimateFactor(t.nPix, t.skyPixels);
+  if (!Number.isFinite(k)) return 0;
+  const variance = t.sourceE + t.nPix * k * (t.skyEPerPixel + (t.galaxyEPerPixel ?? 0) + t.darkEPerPixel + t.readNoiseE * t.readNoiseE);
   return variance > 0 ? t.sourceE / Math.sqrt(variance) : 0;
 }
 
@@ -89,6 +102,10 @@ export interface SlitObservation {
   extractionArcsec: number;
   slitWidthArcsec: number;
   skyMagPerArcsec2: number;
+  /** Length along the slit(s) the sky is estimated from (arcsec, same width); absent: the sky is known without error. */
+  skyLengthArcsec?: number;
+  /** Surface brightness of the galaxy under the source (AB mag/arcsec^2), a background like the sky; absent: none. */
+  galaxyMagPerArcsec2?: number;
 }
 
 /** CCD terms per A of spectrum for a slit observation exposed `exposureS` seconds. */
@@ -99,6 +116,8 @@ export function ccdTermsPerA(o: SlitObservation, s: SpectroSetup, exposureS: num
     skyEPerPixel: skyElectronsPerPixel(o.skyMagPerArcsec2, o.slitWidthArcsec, s, exposureS),
     darkEPerPixel: s.darkEPerPixelPerS * exposureS,
     readNoiseE: s.readNoiseE,
+    skyPixels: o.skyLengthArcsec === undefined ? undefined : pixelsPerA(o.skyLengthArcsec, s),
+    galaxyEPerPixel: o.galaxyMagPerArcsec2 === undefined ? 0 : skyElectronsPerPixel(o.galaxyMagPerArcsec2, o.slitWidthArcsec, s, exposureS),
   };
 }
 
@@ -108,14 +127,18 @@ export function signalToNoisePerA(o: SlitObservation, s: SpectroSetup, exposureS
 }
 
 /**
- * Exposure (s) that reaches `targetSn` per A. With N* = a t and noise per pixel (b + d) t + R^2, the CCD equation
- * gives a^2 t^2 - S^2 (a + n (b + d)) t - S^2 n R^2 = 0; the positive root. Infinity when there is no signal.
+ * Exposure (s) that reaches `targetSn` per A. With N* = a t and noise per pixel (b + d) t + R^2, and n standing for
+ * n_pix (1 + n_pix/n_B), the CCD equation gives a^2 t^2 - S^2 (a + n (b + d)) t - S^2 n R^2 = 0; the positive root.
+ * Infinity when there is no signal or no sky estimate.
  */
 export function exposureForSignalToNoiseS(o: SlitObservation, s: SpectroSetup, targetSn: number): number {
   const a = o.sourceEPerAPerS;
   if (!(a > 0)) return Infinity;
-  const n = pixelsPerA(o.extractionArcsec, s);
-  const bd = skyElectronsPerPixel(o.skyMagPerArcsec2, o.slitWidthArcsec, s, 1) + s.darkEPerPixelPerS;
+  const nPix = pixelsPerA(o.extractionArcsec, s);
+  const n = nPix * skyEstimateFactor(nPix, o.skyLengthArcsec === undefined ? undefined : pixelsPerA(o.skyLengthArcsec, s));
+  if (!Number.isFinite(n)) return Infinity;
+  const galaxy = o.galaxyMagPerArcsec2 === undefined ? 0 : skyElectronsPerPixel(o.galaxyMagPerArcsec2, o.slitWidthArcsec, s, 1);
+  const bd = skyElectronsPerPixel(o.skyMagPerArcsec2, o.slitWidthArcsec, s, 1) + galaxy + s.darkEPerPixelPerS;
   const S2 = targetSn * targetSn;
   const B = S2 * (a + n * bd);
   const C = S2 * n * s.readNoiseE * s.readNoiseE;

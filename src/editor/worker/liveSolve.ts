@@ -14,6 +14,7 @@ import { galaxyModel } from '../../core/plan/validate';
 import { wrap360Deg } from '../../core/sky/angles';
 import { addStarlightAndSky, lengthenMasks, placeMasks, planFullyPlaced, solvedPlanFile, targetWeights } from '../../core/plan/pipeline';
 import { allocateForPointings, allocationContext, reallocateOneMask, type AllocationContext, type PointingsAllocation } from '../../core/solver/allocateMasks';
+import { lineWindowSettings } from '../../core/geometry/wavelength';
 import { coverageReport } from '../../core/coverage/coverage';
 import { objectiveContext } from '../../core/solver/objective';
 import { starlightTrade } from '../../core/solver/pointingSearch';
@@ -63,7 +64,7 @@ export function liveSolve(plan: PlanFile, profile: InstrumentProfile, catalog: C
     const galaxy = galaxyModel(plan);
     const weightWarnings: string[] = [];
     const weights = targetWeights(plan, catalog.targets, weightWarnings);
-    const ctx = allocationContext(profile, galaxy, plan.goals.linesA, catalog.targets, weights);
+    const ctx = allocationContext(profile, galaxy, plan.goals.linesA, catalog.targets, weights, lineWindowSettings(plan.goals));
     // Every mask placed (the case while dragging): allocate for the pointings as given, without a search.
     const given = givenPointings(plan);
     const placed = given ? { pointings: given, allocation: allocateForPointings(ctx, given) } : placeMasks(plan, galaxy, profile, ctx);

@@ -1,0 +1,42 @@
+/**
+ * Refraction cost of a mask position angle over an hour-angle window: the mean, over the window, of the spread of a
+ * star's image across the slits (mask x) between the ends of the science range,
+ *   |R(blue) - R(red)| |sin(q - PA)|   (arcsec),
+ * with R the refraction at the mask centre's zenith distance and q its parallactic angle (Filippenko 1982, PASP 94,
+ * 715: a slit along the parallactic angle, PA = q or q + 180, loses nothing to the spread). Hour angles in hours of
+ * the mask centre (positive West), angles in degrees. Meant for the pointing search of free masks: it weighs a PA
+ * against the light it loses, so the result is small where the PA follows the parallactic angle through the window.
+ */
+import { differentialRefractionArcsec } from './refraction';
+import { parallacticAngleDeg } from './parallactic';
+import { altitudeDeg } from './horizon';
+import type { AirConditions } from './refractiveIndex';
+import { PMath } from '../numeric/portableMath';
+
+export interface PaRefractionInput {
+  decDeg: number;
+  latDeg: number;
+  air: AirConditions;
+  /** Science range [blue, red], Angstrom (air). */
+  scienceRangeA: [number, number];
+  /** Hour-angle window [start, end], hours. */
+  windowH: [number, number];
+  /** Hour-angle samples over the window (default 9). */
+  samples?: number;
+}
+
+/** Mean across-slit spread (arcsec) of the science range over the window at mask PA paDeg; Infinity if the centre sets. */
+export function paRefractionCostArcsec(paDeg: number, input: PaRefractionInput): number {
+  const n = Math.max(2, input.samples ?? 9);
+  const [h0, h1] = input.windowH;
+  let sum = 0;
+  for (let i = 0; i < n; i++) {
+    const haDeg = (h0 + ((h1 - h0) * i) / (n - 1)) * 15;
+    const alt = altitudeDeg(haDeg, input.decDeg, input.latDeg);
+    if (!(alt > 0)) return Infinity;
+    const spread = Math.abs(differentialRefractionArcsec(90 - alt, input.scienceRangeA[0], input.scienceRangeA[1], input.air));
+    const q = parallacticAngleDeg(haDeg, input.decDeg, input.latDeg);
+    sum += spread * Math.abs(PMath.sin(((q - paDeg) * Math.PI) / 180));
+  }
+  return sum / n;
+}
