@@ -15,7 +15,7 @@ import { coverageReport, type CoverageReport } from '../coverage/coverage';
 import type { MaskPointing, MaskSolution } from '../solver/types';
 import { weighTargets, type WeightingResult, type WeightingRules } from '../solver/weighting';
 import { placeStarlightAndSky } from '../solver/starlight';
-import { naiveCrossLayout, searchEnv, searchPointings, starlightTrade, type SearchReport } from '../solver/pointingSearch';
+import { startLayouts, searchEnv, searchPointings, starlightTrade, type SearchReport } from '../solver/pointingSearch';
 import { objectiveContext } from '../solver/objective';
 import { observingReportForPlan, withObservingReport, type ObservingReport } from '../observe/refractionReport';
 
@@ -122,8 +122,8 @@ export function planFullyPlaced(plan: PlanFile): boolean {
  * Returns the pointings, the search report, and the full allocation of the result for stage 3 to reuse.
  */
 export function placeMasks(plan: PlanFile, galaxy: GalaxyModel, profile: InstrumentProfile, ctx: AllocationContext, onProgress?: (fraction: number, message: string) => void): { pointings: MaskPointing[]; search: SearchReport; allocation: PointingsAllocation; withStarlight: MaskSolution[]; starlightWarnings: string[] } {
-  const start = naiveCrossLayout(plan, galaxy, profile);
-  const r = searchPointings(searchEnv(plan, ctx), start, onProgress);
+  const starts = startLayouts(plan, galaxy, profile);
+  const r = searchPointings(searchEnv(plan, ctx), starts[0].pointings, onProgress, starts);
   return { pointings: r.pointings, search: r.report, allocation: r.allocation, withStarlight: r.masks, starlightWarnings: r.starlightWarnings };
 }
 

@@ -33,6 +33,12 @@ export const searchSchema = z.looseObject({
   passes: z.number().int().min(1).max(10).optional(),
   /** Random trial moves per mask and pass, besides the 6 axis moves (default 1). */
   randomTrials: z.number().int().min(0).max(50).optional(),
+  /** Effort of the search (default 1): scales step levels, random trials, kicks and starts searched; 10 is about ten times longer. */
+  effort: z.number().min(0.1).max(100).optional(),
+  /** Jumps of one mask to a random place followed by a local search, kept only when the layout ends better (default effort x free masks). */
+  kicks: z.number().int().min(0).max(1000).optional(),
+  /** Starting layouts searched, best first (default 1, 3 from effort 4). */
+  starts: z.number().int().min(1).max(8).optional(),
   /** false: keep the naive cross layout for unplaced masks (no search). */
   enabled: z.boolean().optional(),
   objective: objectiveWeightsSchema.optional(),
