@@ -193,6 +193,8 @@ export interface SearchReport {
   acceptedMoves: number;
   /** true when the search's own best was not better than the start and the start was kept. */
   keptStart: boolean;
+  /** Alignment boxes the naive starting layout lacks (then it is not a valid layout and was not evaluated in full). */
+  startAlignmentShort?: number;
   /** Name of the starting layout the returned search began from (startLayouts). */
   startLayout?: string;
 }
@@ -549,6 +551,9 @@ export function searchPointings(env: SearchEnv, start: readonly MaskPointing[], 
   // A proven bound on the start's objective often settles the comparison without allocating the start in full:
   // with no alignment problem left, beating the bound beats the start whatever its problems.
   const finalProblems = final.allocation.problems.length;
+  // The search's alignment rule is the allocation's (alignmentCapacity), so a start short of boxes has problems in full.
+  const startShort = start.reduce((a, p) => a + shortOf(proxyMask(p)), 0);
+  if (finalProblems === 0 && startShort > 0) return won({ startAlignmentShort: startShort });
   if (finalProblems === 0) {
     const upperBound = objectiveUpperBound(env, start.map((p) => proxyMask(p, true).set));
     if (final.value.total > upperBound) return won({ startObjectiveUpperBound: upperBound });
