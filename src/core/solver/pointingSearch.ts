@@ -161,14 +161,14 @@ export function planObjective(env: SearchEnv, masks: readonly MaskSolution[]): O
     if (s.role !== 'tracer' && s.role !== 'starlight') continue;
     const r = galaxyRadiusAndAzimuth(g, s.raDeg, s.decDeg);
     if (s.role === 'tracer') addTracer(t, s.priority, r.rRe, r.phiDeg);
-    else addStarlight(t, r.rRe);
+    else addStarlight(t, r.rRe, r.phiDeg);
   }
   return objectiveValue(env.objective, t);
 }
 
 /** The objective's price of a starlight slit in tracer weight (for the starlight stage's trades). */
 export function starlightTrade(o: ObjectiveContext): StarlightTrade {
-  return { unitWeight: o.unitWeight, aStarlightBin: o.weights.aStarlightBin, aStarlightReach: o.weights.aStarlightReach };
+  return { unitWeight: o.unitWeight, aStarlightBin: o.weights.aStarlightBin, aStarlightReach: o.weights.aStarlightReach, aStarlightSector: o.weights.aStarlightSector };
 }
 
 /** Full evaluation of pointings: joint allocation then starlight and sky slits, and the objective of the result. */
@@ -580,7 +580,7 @@ export function objectiveUpperBound(env: SearchEnv, supersets: readonly MaskCand
   }
   const o = env.objective, W = o.unitWeight, a = o.weights;
   const t = emptyTally(o);
-  return y + W * (a.aBin * t.tracerBins.length + a.aSector * t.tracerSectors.length + (o.starlightReachRe > 0 ? a.aStarlightBin * t.starlightBins.length + a.aStarlightReach : 0));
+  return y + W * (a.aBin * t.tracerBins.length + a.aSector * t.tracerSectors.length + (o.starlightReachRe > 0 ? a.aStarlightBin * t.starlightBins.length + a.aStarlightSector * t.starlightSectors.length + a.aStarlightReach : 0));
 }
 
 /** Tally of one proxy mask with a selection: its tracers, and its starlight slits estimated on the free space. */
@@ -601,7 +601,7 @@ function proxyTally(env: SearchEnv, pointing: MaskPointing, p: ProxyMask, chosen
   const L = ctx.profile.slits.minLengthArcsec;
   const rows: RowSpan[] = chosenK.map((k) => ({ role: 'tracer' as const, yArcsec: p.y[k], lenBelowArcsec: L / 2, lenAboveArcsec: L / 2, widthArcsec: ctx.profile.slits.widthArcsec, tiltDeg: 0 }));
   const slots = freeSlots(rows, ctx.rules, ctx.profile.slits.gapArcsec, env.starlight.slitLengthArcsec);
-  const { starlight } = chooseSlots(om, ctx.rules, slots, { ...env.starlight, skyPerMask: 0 }, new Set(), 1, 25);
-  for (const c of starlight) addStarlight(t, c.rRe);
+  const { starlight } = chooseSlots(om, ctx.rules, slots, { ...env.starlight, skyPerMask: 0 }, new Set(), 1, 25, ctx.profile.slits.gapArcsec);
+  for (const c of starlight) addStarlight(t, c.rRe, c.azimuthDeg);
   return t;
 }
