@@ -6,12 +6,15 @@ import { solvePlan } from '../../core/plan/pipeline';
 import { loadPlanInputs, type LoadedPlan } from '../loadPlanInputs';
 import { planOutputFiles, writeOutputFolder, type OutputFolderOptions } from '../outputFolder';
 import { excludedTargetsCsv, planSummaryLines } from '../../core/coverage/summary';
+import { unmetGoalLines } from '../../core/coverage/goals';
 
-const USAGE = 'usage: haloweave plan PLAN --out DIR [--quiet]';
+const USAGE = 'usage: haloweave plan PLAN --out DIR [--quiet] [--strict]';
 
 /** How solveAndWrite runs: progress shown or not, and files written into the same atomic folder as the outputs. */
 export interface SolveAndWriteOptions extends OutputFolderOptions {
   quiet?: boolean;
+  /** Exit 3 (after writing the valid output) when a goal is not met. */
+  strict?: boolean;
   /** Extra files (name -> text) written into the output folder with the outputs, e.g. the demo's own inputs. */
   extraFiles?: Record<string, string>;
   /** The name, among extraFiles, of the plan's catalog copied into the folder: solved.plan.json then names it. */
@@ -44,12 +47,19 @@ export function solveAndWrite(loaded: LoadedPlan, out: string, io: CliIO, opts: 
   writeOutputFolder(out, files, opts);
   for (const line of planSummaryLines(solution)) io.out(line);
   io.out(`wrote ${out}/: ${Object.keys(files).join(', ')}`);
+  // Unmet goals do not stop a valid output: each is named with its cause (also in coverage.json `goals`).
+  const unmet = unmetGoalLines(solution.goals);
+  for (const line of unmet) io.err(`haloweave plan: ${line}`);
+  if (unmet.length && opts.strict) {
+    io.err(`haloweave plan: --strict: ${unmet.length} goal(s) not met (exit 3); the output in ${out}/ is complete and valid`);
+    return 3;
+  }
   return 0;
 }
 
 export async function run(argv: string[], io: CliIO): Promise<number> {
-  const args = parseArgs(argv, ['quiet']);
-  const bad = unknownOptions(args, ['out', 'quiet']);
+  const args = parseArgs(argv, ['quiet', 'strict']);
+  const bad = unknownOptions(args, ['out', 'quiet', 'strict']);
   const out = optionText(args, 'out');
   if (args.positionals.length !== 1 || !out || bad.length) {
     if (bad.length) io.err(`haloweave plan: unknown option${bad.length > 1 ? 's' : ''} ${bad.map((b) => `--${b}`).join(', ')}`);
@@ -58,5 +68,5 @@ export async function run(argv: string[], io: CliIO): Promise<number> {
     io.err(USAGE);
     return 2;
   }
-  return solveAndWrite(loadPlanInputs(args.positionals[0]), out, io, { quiet: args.options.quiet === true });
+  return solveAndWrite(loadPlanInputs(args.positionals[0]), out, io, { quiet: args.options.quiet === true, strict: args.options.strict === true });
 }

@@ -11,10 +11,11 @@ import type { GalaxyModel, PlanFile, PlanMask } from './schema';
 import { galaxyModel } from './validate';
 import { allocationContext, type AllocationContext, type PointingsAllocation } from '../solver/allocateMasks';
 import { lengthenSlits } from '../solver/lengthen';
-import { coverageReport, type CoverageReport } from '../coverage/coverage';
+import { coverageReport, galaxyRadiusAndAzimuth, type CoverageReport } from '../coverage/coverage';
+import { planGoals, type GoalStatus } from '../coverage/goals';
 import type { MaskPointing, MaskSolution } from '../solver/types';
 import { weighTargets, type WeightingResult, type WeightingRules } from '../solver/weighting';
-import { placeStarlightAndSky } from '../solver/starlight';
+import { placeStarlightAndSky, starlightSettings } from '../solver/starlight';
 import { startLayouts, searchEnv, searchPointings, starlightTrade, type SearchReport } from '../solver/pointingSearch';
 import { objectiveContext } from '../solver/objective';
 import { observingReportForPlan, withObservingReport, type ObservingReport } from '../observe/refractionReport';
@@ -46,6 +47,8 @@ export interface PlanSolution {
   galaxy: GalaxyModel;
   masks: MaskSolution[];
   coverage: CoverageReport;
+  /** Every goal with its target, what was achieved, met or not and why (also in coverage.goals). */
+  goals: GoalStatus[];
   warnings: string[];
   /** Problems that make the plan unusable as it stands (e.g. a mask with too few alignment stars). */
   problems: Problem[];
@@ -190,6 +193,10 @@ export function solvePlan(inputs: PlanInputs, opts: SolveOptions = {}): PlanSolu
   progress(0.9, 'measuring coverage');
   const allSlits = masks.flatMap((m) => m.slits);
   const coverage = coverageReport(galaxy, plan.goals, allSlits);
+  let candidateReachRe = 0;
+  for (const i of ctx.tracerIndices) candidateReachRe = Math.max(candidateReachRe, galaxyRadiusAndAzimuth(galaxy, ctx.raDeg[i], ctx.decDeg[i]).rRe);
+  const goals = planGoals(plan, galaxy, profile, masks, coverage, candidateReachRe, starlightSettings(plan.starlight, profile, plan).maxSlitLengthArcsec);
+  coverage.goals = goals;
 
   const stats = {
     masks: alloc.prepared.map((p, m) => ({
@@ -213,5 +220,5 @@ export function solvePlan(inputs: PlanInputs, opts: SolveOptions = {}): PlanSolu
     solved = withObservingReport(solved, observingReport);
   }
   progress(1, 'done');
-  return { plan: solved, galaxy, masks, coverage, warnings, problems: alloc.problems, weighting, search: placed.search, observingReport, stats };
+  return { plan: solved, galaxy, masks, coverage, goals, warnings, problems: alloc.problems, weighting, search: placed.search, observingReport, stats };
 }

@@ -543,6 +543,12 @@ export function searchPointings(env: SearchEnv, start: readonly MaskPointing[], 
   if (!moved) return keep(evaluations, 0);
   const final = evaluatePointings(env, pointings);
   evaluations++;
+  // A mask still short after the repair moves has no valid pointing the search could find: say so in its problem.
+  const reachArcmin = (maxCentreArcsec / 60).toFixed(1);
+  final.allocation.problems = final.allocation.problems.map((pr) => {
+    const m = free.find((i) => pr.where === `mask ${start[i].id}`);
+    return m === undefined ? pr : { ...pr, what: `${pr.what}; no pointing tried (shifts, turns and a grid over the field within ${reachArcmin}' of the galaxy) holds ${minAlign} boxes clear of each other` };
+  });
   onProgress(1, 'pointing search done');
   const won = (report: Partial<SearchReport>): SearchResult => ({
     pointings, masks: final.masks, allocation: final.allocation, starlightWarnings: final.warnings,
