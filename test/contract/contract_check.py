@@ -698,7 +698,7 @@ def check_folder(out_dir, profile_dir):
         mag = number(r, "mag", where, report, allow_empty=True)
         if vals["ra_deg"] is not None and vals["dec_deg"] is not None:
             # coverage and the catalog cross-check need only the sky position
-            slit_rows.append({"line": line, "where": where, "object": oid, "role": role,
+            slit_rows.append({"line": line, "where": where, "mask": mid, "object": oid, "role": role,
                               "ra": vals["ra_deg"], "dec": vals["dec_deg"]})
         mask = masks.get(mid)
         if mask is None:
@@ -788,14 +788,22 @@ def check_folder(out_dir, profile_dir):
             report.add(f"masks.csv line {mask['line']} (mask {mid})", "alignment-count",
                        f"0 alignment boxes, alignment.minCount is {mask['profile']['alignment']['minCount']}")
 
-    # each object at most once over all masks (rows with an empty object_id name no object), in file order
+    # each object at most once over all masks (rows with an empty object_id name no object), in file order;
+    # revision 2: an alignment star may serve several masks (each mask is its own exposure), once per mask, and
+    # an object used as an alignment star is not also a tracer, starlight or sky row
     seen_objects = {}
+    seen_alignment = {}
+    seen_other = {}
     for r in sorted(slit_rows, key=lambda z: z["line"]):
         if r["object"] != "":
-            if r["object"] in seen_objects:
-                report.add(r["where"], "duplicate-object", f"object {r['object']} also on {seen_objects[r['object']]['where']}")
+            is_align = r["role"] == "alignment"
+            key = (r["mask"], r["object"]) if is_align else r["object"]
+            first = seen_objects.get(key) or (seen_other.get(r["object"]) if is_align else seen_alignment.get(r["object"]))
+            if first is not None:
+                report.add(r["where"], "duplicate-object", f"object {r['object']} also on {first['where']}")
             else:
-                seen_objects[r["object"]] = r
+                seen_objects[key] = r
+                (seen_alignment if is_align else seen_other).setdefault(r["object"], r)
         elif r["role"] in ("tracer", "alignment"):
             report.add(r["where"], "object", f"a {r['role']} row must name its catalog object")
 

@@ -7,12 +7,15 @@ import { loadPlanInputs, type LoadedPlan } from '../loadPlanInputs';
 import { OutputFolder, planOutputFiles, type OutputFolderOptions } from '../outputFolder';
 import { CONTRACT_OUTPUT_FILES } from '../../core/check/manifest';
 import { excludedTargetsCsv, planSummaryLines } from '../../core/coverage/summary';
+import { unmetGoalLines } from '../../core/coverage/goals';
 
-const USAGE = 'usage: haloweave plan PLAN --out DIR [--quiet]';
+const USAGE = 'usage: haloweave plan PLAN --out DIR [--quiet] [--strict]';
 
 /** How solveAndWrite runs: progress shown or not, and files written into the same atomic folder as the outputs. */
 export interface SolveAndWriteOptions extends OutputFolderOptions {
   quiet?: boolean;
+  /** Exit 3 (after writing the valid output) when a goal is not met. */
+  strict?: boolean;
   /** Extra files (name -> text) written into the output folder with the outputs, e.g. the demo's own inputs. */
   extraFiles?: Record<string, string>;
   /** The name, among extraFiles, of the plan's catalog copied into the folder: solved.plan.json then names it. */
@@ -28,9 +31,15 @@ export function solveAndWrite(loaded: LoadedPlan, out: string, io: CliIO, opts: 
   });
   for (const note of folder.notes) io.err(`haloweave plan: note: ${note}`);
   try {
-    const files = solveToFiles(loaded, out, io, opts);
+    const { files, unmet } = solveToFiles(loaded, out, io, opts);
     folder.commit(files);
     io.out(`wrote ${out}/: ${[...Object.keys(files), 'manifest.json'].join(', ')}`);
+    // Unmet goals do not stop a valid output: each is named with its cause (also in coverage.json `goals`).
+    for (const line of unmet) io.err(`haloweave plan: ${line}`);
+    if (unmet.length && opts.strict) {
+      io.err(`haloweave plan: --strict: ${unmet.length} goal(s) not met (exit 3); the output in ${out}/ is complete and valid`);
+      return 3;
+    }
     return 0;
   } catch (e) {
     folder.abandon();
@@ -39,7 +48,7 @@ export function solveAndWrite(loaded: LoadedPlan, out: string, io: CliIO, opts: 
 }
 
 /** Solve loaded plan inputs and return the files of the output folder (outputs plus extra files); prints the summary. */
-function solveToFiles(loaded: LoadedPlan, out: string, io: CliIO, opts: SolveAndWriteOptions): Record<string, string> {
+function solveToFiles(loaded: LoadedPlan, out: string, io: CliIO, opts: SolveAndWriteOptions): { files: Record<string, string>; unmet: string[] } {
   const c = loaded.catalog;
   io.err(`haloweave plan: catalog ${c.source} (${c.format}): ${c.rowsRead} rows read, ${c.targets.length} used, ${c.rowsRead - c.targets.length} rejected${c.rejects.length ? ` (${c.rejects.length} problems listed in ${out}/catalog-report.csv)` : ''}`);
   let lastShown = -1;
@@ -62,12 +71,12 @@ function solveToFiles(loaded: LoadedPlan, out: string, io: CliIO, opts: SolveAnd
     files[name] = text;
   }
   for (const line of planSummaryLines(solution)) io.out(line);
-  return files;
+  return { files, unmet: unmetGoalLines(solution.goals) };
 }
 
 export async function run(argv: string[], io: CliIO): Promise<number> {
-  const args = parseArgs(argv, ['quiet']);
-  const bad = unknownOptions(args, ['out', 'quiet']);
+  const args = parseArgs(argv, ['quiet', 'strict']);
+  const bad = unknownOptions(args, ['out', 'quiet', 'strict']);
   const out = optionText(args, 'out');
   if (args.positionals.length !== 1 || !out || bad.length) {
     if (bad.length) io.err(`haloweave plan: unknown option${bad.length > 1 ? 's' : ''} ${bad.map((b) => `--${b}`).join(', ')}`);
@@ -76,5 +85,5 @@ export async function run(argv: string[], io: CliIO): Promise<number> {
     io.err(USAGE);
     return 2;
   }
-  return solveAndWrite(loadPlanInputs(args.positionals[0]), out, io, { quiet: args.options.quiet === true });
+  return solveAndWrite(loadPlanInputs(args.positionals[0]), out, io, { quiet: args.options.quiet === true, strict: args.options.strict === true });
 }

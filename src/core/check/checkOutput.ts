@@ -77,6 +77,7 @@ export function checkOutput(input: CheckInput): Violation[] {
   if (input.masks.length === 0) out.push({ where: masksSrc, rule: 'masks', what: 'no mask rows' });
 
   const seenObject = new Map<string, number>();
+  const seenAlignment = new Map<string, number>(), seenNonAlignment = new Map<string, number>();
   const seenSlit = new Set<string>();
   const spansByMask = new Map<string, { lo: number; hi: number; i: number }[]>();
   const boxesByMask = new Map<string, number>();
@@ -89,9 +90,15 @@ export function checkOutput(input: CheckInput): Violation[] {
     if (seenSlit.has(key)) out.push({ where, rule: 'unique slit id', what: `slit id "${s.slitId}" appears twice on mask ${s.maskId}` });
     seenSlit.add(key);
     if (s.objectId !== '') {
-      const first = seenObject.get(s.objectId);
+      // Contract revision 2: an alignment star may serve several masks (each mask is its own exposure), once per mask;
+      // every other object appears at most once over all masks.
+      const key = s.role === 'alignment' ? `${s.maskId}\u0000${s.objectId}` : s.objectId;
+      const first = seenObject.get(key) ?? (s.role === 'alignment' ? seenNonAlignment.get(s.objectId) : seenAlignment.get(s.objectId));
       if (first !== undefined) out.push({ where, rule: 'object once', what: `object "${s.objectId}" already has ${rowWhere(first, input.slits[first])}` });
-      else seenObject.set(s.objectId, i);
+      else {
+        seenObject.set(key, i);
+        if (s.role === 'alignment') { if (!seenAlignment.has(s.objectId)) seenAlignment.set(s.objectId, i); } else seenNonAlignment.set(s.objectId, i);
+      }
     } else if (s.role === 'tracer' || s.role === 'alignment') out.push({ where, rule: 'object id', what: `a ${s.role} row needs an object_id` });
 
     // ra/dec is the point (x, y) of the mask frame on the sky.

@@ -9,6 +9,7 @@ import { skyToTangentArcsec, tangentCentre } from '../sky/tangentPlane';
 import { wrap360Deg } from '../sky/angles';
 import type { GalaxyModel } from '../plan/schema';
 import type { Slit, SlitRole } from '../solver/types';
+import type { GoalStatus } from './goals';
 
 export const COVERAGE_FORMAT = 'haloweave.coverage/1';
 export const SECTOR_COUNT = 8;
@@ -38,6 +39,8 @@ export interface CoverageReport {
   radius: string;
   sectorConvention: { count: number; widthDeg: number; zero: string; direction: string; folded: boolean };
   roles: Record<SlitRole, RoleCoverage>;
+  /** The plan's goals against the result (coverage/goals.ts), set by the pipeline: [{name, target, achieved, met, reason}]. */
+  goals?: GoalStatus[];
 }
 
 const ROLES: SlitRole[] = ['tracer', 'starlight', 'sky', 'alignment'];

@@ -78,8 +78,10 @@ export function coverageSummaryLines(s: SummaryInput): string[] {
     const r = s.search;
     const against = r.startObjective
       ? `against ${f2(r.startObjective.total)} for the naive starting layout (tracer weight ${f2(r.objective.yieldWeight)} vs ${f2(r.startObjective.yieldWeight)})`
+      : r.startAlignmentShort
+      ? `(the naive starting layout lacks ${r.startAlignmentShort} alignment box(es): not a valid layout)`
       : `against at most ${f2(r.startObjectiveUpperBound ?? NaN)} for the naive starting layout (a proven upper bound; tracer weight ${f2(r.objective.yieldWeight)})`;
-    lines.push(`pointing search: objective ${f2(r.objective.total)} ${against}; ${r.evaluations} evaluations, ${r.acceptedMoves} moves kept${r.keptStart ? '; starting layout kept' : ''}`);
+    lines.push(`pointing search: objective ${f2(r.objective.total)} ${against}; ${r.evaluations} evaluations, ${r.acceptedMoves} moves kept${r.keptStart ? '; starting layout kept' : ''}${r.startLayout && !r.keptStart ? `; searched from the "${r.startLayout}" layout` : ''}`);
   }
   return lines;
 }

@@ -11,11 +11,12 @@ import type { GalaxyModel, PlanFile, PlanMask } from './schema';
 import { galaxyModel } from './validate';
 import { allocationContext, type AllocationContext, type PointingsAllocation } from '../solver/allocateMasks';
 import { lengthenSlits } from '../solver/lengthen';
-import { coverageReport, type CoverageReport } from '../coverage/coverage';
+import { coverageReport, galaxyRadiusAndAzimuth, type CoverageReport } from '../coverage/coverage';
+import { planGoals, type GoalStatus } from '../coverage/goals';
 import type { MaskPointing, MaskSolution } from '../solver/types';
 import { weighTargets, type WeightingResult, type WeightingRules } from '../solver/weighting';
-import { placeStarlightAndSky } from '../solver/starlight';
-import { naiveCrossLayout, searchEnv, searchPointings, starlightTrade, type SearchReport } from '../solver/pointingSearch';
+import { placeStarlightAndSky, starlightSettings } from '../solver/starlight';
+import { startLayouts, searchEnv, searchPointings, starlightTrade, type SearchReport } from '../solver/pointingSearch';
 import { objectiveContext } from '../solver/objective';
 import { observingReportForPlan, withObservingReport, type ObservingReport } from '../observe/refractionReport';
 import { lineWindowSettings } from '../geometry/wavelength';
@@ -48,6 +49,8 @@ export interface PlanSolution {
   galaxy: GalaxyModel;
   masks: MaskSolution[];
   coverage: CoverageReport;
+  /** Every goal with its target, what was achieved, met or not and why (also in coverage.goals). */
+  goals: GoalStatus[];
   warnings: string[];
   /** Problems that make the plan unusable as it stands (e.g. a mask with too few alignment stars). */
   problems: Problem[];
@@ -126,8 +129,8 @@ export function planFullyPlaced(plan: PlanFile): boolean {
  * Returns the pointings, the search report, and the full allocation of the result for stage 3 to reuse.
  */
 export function placeMasks(plan: PlanFile, galaxy: GalaxyModel, profile: InstrumentProfile, ctx: AllocationContext, onProgress?: (fraction: number, message: string) => void): { pointings: MaskPointing[]; search: SearchReport; allocation: PointingsAllocation; withStarlight: MaskSolution[]; starlightWarnings: string[] } {
-  const start = naiveCrossLayout(plan, galaxy, profile);
-  const r = searchPointings(searchEnv(plan, ctx), start, onProgress);
+  const starts = startLayouts(plan, galaxy, profile);
+  const r = searchPointings(searchEnv(plan, ctx), starts[0].pointings, onProgress, starts);
   return { pointings: r.pointings, search: r.report, allocation: r.allocation, withStarlight: r.masks, starlightWarnings: r.starlightWarnings };
 }
 
@@ -194,6 +197,10 @@ export function solvePlan(inputs: PlanInputs, opts: SolveOptions = {}): PlanSolu
   progress(0.9, 'measuring coverage');
   const allSlits = masks.flatMap((m) => m.slits);
   const coverage = coverageReport(galaxy, plan.goals, allSlits);
+  let candidateReachRe = 0;
+  for (const i of ctx.tracerIndices) candidateReachRe = Math.max(candidateReachRe, galaxyRadiusAndAzimuth(galaxy, ctx.raDeg[i], ctx.decDeg[i]).rRe);
+  const goals = planGoals(plan, galaxy, profile, masks, coverage, candidateReachRe, starlightSettings(plan.starlight, profile, plan).maxSlitLengthArcsec);
+  coverage.goals = goals;
 
   const stats = {
     masks: alloc.prepared.map((p, m) => ({
@@ -218,5 +225,5 @@ export function solvePlan(inputs: PlanInputs, opts: SolveOptions = {}): PlanSolu
   }
   const spectral = spectralReport(plan, profile, pointings.map((p) => p.id));
   progress(1, 'done');
-  return { plan: solved, galaxy, masks, coverage, warnings, problems: alloc.problems, weighting, search: placed.search, observingReport, spectralReport: spectral, stats };
+  return { plan: solved, galaxy, masks, coverage, goals, warnings, problems: alloc.problems, weighting, search: placed.search, observingReport, spectralReport: spectral, stats };
 }

@@ -69,6 +69,10 @@ export interface ScenarioOptions {
   instrument?: string;
   /** Catalog file name written into the plan (default `halo-demo.catalog.csv`). */
   catalogFile?: string;
+  /** Half-size (arcsec) of the square about the galaxy over which alignment stars are spread (default: the field's). */
+  alignmentFieldHalfSizeArcsec?: number;
+  /** Masks asked for in the plan's goals (default 4). */
+  masks?: number;
 }
 
 /** One generated object with its true kind (kept as an extra catalog column `kind`). */
@@ -139,6 +143,8 @@ export function generateScenario(options: ScenarioOptions): Scenario {
     blueFraction: options.blueFraction ?? 0.6,
     instrument: options.instrument ?? 'ridge10-narrow',
     catalogFile: options.catalogFile ?? 'halo-demo.catalog.csv',
+    alignmentFieldHalfSizeArcsec: options.alignmentFieldHalfSizeArcsec ?? (options.fieldHalfSizeRe ?? options.maxRadiusRe ?? 15) * galaxy.reArcsec,
+    masks: options.masks ?? 4,
     magLimit: 0,
     galaxy,
   };
@@ -172,8 +178,9 @@ export function generateScenario(options: ScenarioOptions): Scenario {
     rows.push({ xi: rng.uniform(-half, half), eta: rng.uniform(-half, half), mag: countsMag(rng, o.magLimit - 4, o.magLimit), color: rng.uniform(0.2, 2.2), role: 'tracer', kind: 'field' });
   }
   const [mb, mf] = o.alignmentMagRange;
+  const starHalf = o.alignmentFieldHalfSizeArcsec;
   for (let i = 0; i < nStars; i++) {
-    rows.push({ xi: rng.uniform(-half, half), eta: rng.uniform(-half, half), mag: rng.uniform(mb + 0.1, mf - 0.1), color: rng.uniform(0.4, 1.6), role: 'alignment', kind: 'star' });
+    rows.push({ xi: rng.uniform(-starHalf, starHalf), eta: rng.uniform(-starHalf, starHalf), mag: rng.uniform(mb + 0.1, mf - 0.1), color: rng.uniform(0.4, 1.6), role: 'alignment', kind: 'star' });
   }
   // Catalog order: by RA offset (a survey catalog is not sorted by kind), ids assigned in that order.
   rows.sort((a, b) => a.xi - b.xi || a.eta - b.eta);
@@ -209,7 +216,7 @@ function scenarioPlan(galaxy: GalaxyModel, o: Scenario['options']): Record<strin
     },
     instrument: o.instrument,
     catalog: o.catalogFile,
-    goals: { masks: 4, tracerReachRe: 10, starlightReachRe: 3, linesA: [8498.0, 8542.1, 8662.1] },
+    goals: { masks: o.masks, tracerReachRe: 10, starlightReachRe: 3, linesA: [8498.0, 8542.1, 8662.1] },
     weighting: {
       magRange: [round(o.magLimit - 5, 2), o.magLimit],
       colorRange: [0.75, 1.4],

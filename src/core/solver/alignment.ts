@@ -65,10 +65,8 @@ export function chooseAlignmentBoxes(candidates: readonly AlignmentCandidate[], 
   if (count <= 0) return { ok: true, chosen: [] };
   const compatible = (a: AlignmentCandidate, set: readonly AlignmentCandidate[], skip?: AlignmentCandidate) =>
     set.every((b) => b === skip || Math.abs(a.yArcsec - b.yArcsec) >= minSepArcsec);
-  // Largest compatible set size: unweighted interval scheduling by earliest end (optimal greedy).
   const byY = [...candidates].sort((a, b) => a.yArcsec - b.yArcsec || a.object - b.object);
-  const maxSet: AlignmentCandidate[] = [];
-  for (const c of byY) if (!maxSet.length || c.yArcsec - maxSet[maxSet.length - 1].yArcsec >= minSepArcsec) maxSet.push(c);
+  const maxSet = largestClearSet(byY, minSepArcsec);
   if (maxSet.length < count) return { ok: false, available: candidates.length, compatibleMax: maxSet.length, chosen: maxSet };
 
   // Small sets: every combination (exact). Larger: greedy farthest-point starts, then single swaps.
@@ -100,6 +98,17 @@ export function chooseAlignmentBoxes(candidates: readonly AlignmentCandidate[], 
     if (alignmentSpreadScore(other) > alignmentSpreadScore(chosen)) chosen = other;
   }
   return { ok: true, chosen: chosen.sort((a, b) => a.yArcsec - b.yArcsec) };
+}
+
+/**
+ * A largest set of boxes whose centres are at least minSepArcsec apart along y (mask frame), from candidates sorted
+ * by y: unweighted interval scheduling by earliest end, which is optimal. Its size decides whether a mask can hold
+ * alignment.minCount boxes, for the allocation and the pointing search alike.
+ */
+export function largestClearSet(byY: readonly AlignmentCandidate[], minSepArcsec: number): AlignmentCandidate[] {
+  const maxSet: AlignmentCandidate[] = [];
+  for (const c of byY) if (!maxSet.length || c.yArcsec - maxSet[maxSet.length - 1].yArcsec >= minSepArcsec) maxSet.push(c);
+  return maxSet;
 }
 
 type Compatible = (a: AlignmentCandidate, set: readonly AlignmentCandidate[], skip?: AlignmentCandidate) => boolean;

@@ -1,6 +1,7 @@
 /**
  * The allocation stage for a set of mask pointings: project the targets into each mask frame, choose the
- * alignment boxes (masks in order, an alignment star used at most once), find the tracers eligible on each mask
+ * alignment boxes (each mask on its own: an alignment star may serve several masks, each mask being its own
+ * exposure; contract revision 2), find the tracers eligible on each mask
  * whose minimal slit keeps the gap to every box, allocate tracers jointly over all masks, and build the
  * minimal slit rows (tilt 0, centred on their targets). Mask frame: x along dispersion, y along slits, arcsec.
  * The pointing search calls `allocateForPointings` inside its loop.
@@ -10,7 +11,7 @@ import type { GalaxyModel } from '../plan/schema';
 import type { InstrumentProfile } from '../profile/schema';
 import type { Problem } from '../result';
 import { alignmentBoxFits, eligibilityRules, scienceSlitEligible, type EligibilityRules } from '../geometry/eligibility';
-import { chooseAlignmentBoxes, type AlignmentCandidate } from './alignment';
+import { chooseAlignmentBoxes, largestClearSet, type AlignmentCandidate } from './alignment';
 import { allocateJoint, maskCandidateSet, resolveOneMask, jointObjective, type JointOptions, type JointProblem, type JointSolution, type MaskCandidateSet } from './jointAllocation';
 import { maskPointToSkyDeg, projectIndicesToMaskArcsec, unitVectors, type UnitVectors } from './maskTargets';
 import { polygonBounds } from '../geometry/polygon';
@@ -59,6 +60,25 @@ export function allocationContext(profile: InstrumentProfile, galaxy: GalaxyMode
   };
 }
 
+/** Alignment stars whose box fits on the mask (mask frame, arcsec): every star in the context, shared ones included. */
+export function alignmentCandidates(ctx: AllocationContext, mask: Pick<MaskPointing, 'raDeg' | 'decDeg' | 'paDeg'>): AlignmentCandidate[] {
+  const al = ctx.alignmentIndices;
+  const ap = projectIndicesToMaskArcsec(mask, ctx.unit, al, ctx.footprintRadiusArcsec);
+  const out: AlignmentCandidate[] = [];
+  for (let k = 0; k < al.length; k++) if (alignmentBoxFits(ctx.rules, ap.xArcsec[k], ap.yArcsec[k])) out.push({ object: al[k], xArcsec: ap.xArcsec[k], yArcsec: ap.yArcsec[k] });
+  return out;
+}
+
+/**
+ * The alignment rule of a mask pointing, the one the allocation applies and the pointing search keeps as a hard
+ * constraint: how many stars' boxes fit, and how many of them at most are clear of each other along y
+ * (boxSize + gap apart). The mask can be aligned exactly when compatibleMax >= alignment.minCount.
+ */
+export function alignmentCapacity(ctx: AllocationContext, mask: Pick<MaskPointing, 'raDeg' | 'decDeg' | 'paDeg'>): { available: number; compatibleMax: number } {
+  const c = alignmentCandidates(ctx, mask).sort((a, b) => a.yArcsec - b.yArcsec || a.object - b.object);
+  return { available: c.length, compatibleMax: largestClearSet(c, ctx.profile.alignment.boxSizeArcsec + ctx.profile.slits.gapArcsec).length };
+}
+
 /** One mask ready for allocation: its alignment boxes and its tracer candidates (mask-frame positions). */
 export interface PreparedMask {
   mask: MaskPointing;
@@ -70,15 +90,11 @@ export interface PreparedMask {
   candidateY: Float64Array;
 }
 
-/** Prepare one mask: alignment boxes (stars in `usedAlignment` are skipped) and eligible tracer candidates. */
-export function prepareMask(ctx: AllocationContext, mask: MaskPointing, usedAlignment: ReadonlySet<number> = new Set()): PreparedMask {
+/** Prepare one mask: alignment boxes (from every alignment star on it, shared stars included) and eligible tracer candidates. */
+export function prepareMask(ctx: AllocationContext, mask: MaskPointing): PreparedMask {
   const { profile, rules } = ctx;
   const L = profile.slits.minLengthArcsec, g = profile.slits.gapArcsec, box = profile.alignment.boxSizeArcsec;
-  const al = ctx.alignmentIndices.filter((i) => !usedAlignment.has(i));
-  const ap = projectIndicesToMaskArcsec(mask, ctx.unit, al, ctx.footprintRadiusArcsec);
-  const alCands: AlignmentCandidate[] = [];
-  for (let k = 0; k < al.length; k++) if (alignmentBoxFits(rules, ap.xArcsec[k], ap.yArcsec[k])) alCands.push({ object: al[k], xArcsec: ap.xArcsec[k], yArcsec: ap.yArcsec[k] });
-  const choice = chooseAlignmentBoxes(alCands, profile.alignment.minCount, box + g);
+  const choice = chooseAlignmentBoxes(alignmentCandidates(ctx, mask), profile.alignment.minCount, box + g);
   const boxes = choice.chosen;
   const tp = projectIndicesToMaskArcsec(mask, ctx.unit, ctx.tracerIndices, ctx.footprintRadiusArcsec);
   const objects: number[] = [], xs: number[] = [], ys: number[] = [];
@@ -99,14 +115,9 @@ export function prepareMask(ctx: AllocationContext, mask: MaskPointing, usedAlig
   };
 }
 
-/** Prepare every mask in order, so that an alignment star serves one mask only. */
+/** Prepare every mask, each on its own (the same alignment rule the pointing search keeps: alignmentCapacity). */
 export function prepareMasks(ctx: AllocationContext, pointings: readonly MaskPointing[]): PreparedMask[] {
-  const used = new Set<number>();
-  return pointings.map((m) => {
-    const p = prepareMask(ctx, m, used);
-    for (const b of p.boxes) used.add(b.object);
-    return p;
-  });
+  return pointings.map((m) => prepareMask(ctx, m));
 }
 
 /** The joint problem over prepared masks (weights indexed by target). */
@@ -165,14 +176,12 @@ export function allocateForPointings(ctx: AllocationContext, pointings: readonly
 }
 
 /**
- * Re-solve one mask after it moved (the editor's drag): re-prepare mask m at its new pointing (alignment stars of
- * the other masks stay theirs) and re-allocate it exactly with the other masks' tracers fixed.
+ * Re-solve one mask after it moved (the editor's drag): re-prepare mask m at its new pointing (alignment stars may
+ * be shared with the other masks) and re-allocate it exactly with the other masks' tracers fixed.
  */
 export function reallocateOneMask(ctx: AllocationContext, previous: PointingsAllocation, m: number, pointing: MaskPointing): PointingsAllocation {
-  const used = new Set<number>();
-  previous.prepared.forEach((p, i) => { if (i !== m) for (const b of p.boxes) used.add(b.object); });
   const prepared = previous.prepared.slice();
-  prepared[m] = prepareMask(ctx, pointing, used);
+  prepared[m] = prepareMask(ctx, pointing);
   const problem = jointProblemOf(ctx, prepared);
   const start = previous.joint.chosen.map((s, i) => (i === m ? [] : s.slice()));
   const chosen = resolveOneMask(problem, start, m);

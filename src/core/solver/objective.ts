@@ -4,6 +4,7 @@
  *   J = Y + W * [ aBin * sum_b min(n_b, kBin) / kBin            (tracer radial bins of 1 Re, b < tracerReachRe)
  *               + aSector * sum_s min(n_s, kSector) / kSector   (8 sectors of 45 degrees from the major axis)
  *               + aStarlightBin * (starlight bins of 1 Re, b < starlightReachRe, holding at least one slit)
+ *               + aStarlightSector * (starlight sectors of 45 degrees holding at least one slit inside the goal)
  *               + aStarlightReach * min(Rsl / starlightReachRe, 1) ]
  *
  * Y is the summed weight of the allocated tracers; W is the mean weight of the usable tracer candidates, so each
@@ -22,6 +23,7 @@ export const objectiveWeightsSchema = z.looseObject({
   kSector: z.number().int().positive().optional(),
   aStarlightBin: z.number().min(0).optional(),
   aStarlightReach: z.number().min(0).optional(),
+  aStarlightSector: z.number().min(0).optional(),
 });
 
 /** The plan's `search` section. */
@@ -33,13 +35,19 @@ export const searchSchema = z.looseObject({
   passes: z.number().int().min(1).max(10).optional(),
   /** Random trial moves per mask and pass, besides the 6 axis moves (default 1). */
   randomTrials: z.number().int().min(0).max(50).optional(),
+  /** Effort of the search (default 1): scales step levels, random trials, kicks and starts searched; 10 is about ten times longer. */
+  effort: z.number().min(0.1).max(100).optional(),
+  /** Jumps of one mask to a random place followed by a local search, kept only when the layout ends better (default effort x free masks). */
+  kicks: z.number().int().min(0).max(1000).optional(),
+  /** Starting layouts searched, best first (default 1, 3 from effort 4). */
+  starts: z.number().int().min(1).max(8).optional(),
   /** false: keep the naive cross layout for unplaced masks (no search). */
   enabled: z.boolean().optional(),
   objective: objectiveWeightsSchema.optional(),
 });
 export type SearchRules = z.infer<typeof searchSchema>;
 
-export const OBJECTIVE_DEFAULTS = { aBin: 5, kBin: 5, aSector: 4, kSector: 10, aStarlightBin: 10, aStarlightReach: 10 } as const;
+export const OBJECTIVE_DEFAULTS = { aBin: 5, kBin: 5, aSector: 4, kSector: 10, aStarlightBin: 10, aStarlightReach: 10, aStarlightSector: 4 } as const;
 export type ObjectiveWeights = { -readonly [K in keyof typeof OBJECTIVE_DEFAULTS]: number };
 
 export const SECTORS = 8;
@@ -77,6 +85,8 @@ export interface Tally {
   tracerBins: Float64Array;
   tracerSectors: Float64Array;
   starlightBins: Float64Array;
+  /** Starlight slits per 45-degree sector, counted inside the starlight goal radius (plus its placement margin of 1 Re). */
+  starlightSectors: Float64Array;
   starlightReachRe: number;
 }
 
@@ -87,6 +97,7 @@ export function emptyTally(ctx: ObjectiveContext): Tally {
     tracerBins: new Float64Array(Math.max(0, Math.ceil(ctx.tracerReachRe - 1e-12))),
     tracerSectors: new Float64Array(SECTORS),
     starlightBins: new Float64Array(Math.max(0, Math.ceil(ctx.starlightReachRe - 1e-12))),
+    starlightSectors: new Float64Array(SECTORS),
     starlightReachRe: 0,
   };
 }
@@ -101,9 +112,10 @@ export function addTracer(t: Tally, weight: number, rRe: number, azimuthDeg: num
   t.tracerSectors[sectorOf(azimuthDeg)]++;
 }
 
-/** Add one starlight slit at R/Re. */
-export function addStarlight(t: Tally, rRe: number): void {
+/** Add one starlight slit at R/Re and azimuth (degrees from the major axis). */
+export function addStarlight(t: Tally, rRe: number, azimuthDeg: number): void {
   if (rRe < t.starlightBins.length) t.starlightBins[Math.floor(rRe)]++;
+  if (rRe < t.starlightBins.length + 1) t.starlightSectors[sectorOf(azimuthDeg)]++;
   if (rRe > t.starlightReachRe) t.starlightReachRe = rRe;
 }
 
@@ -115,6 +127,7 @@ export function mergeTallies(ctx: ObjectiveContext, tallies: readonly Tally[]): 
     t.tracerBins.forEach((v, i) => (out.tracerBins[i] += v));
     t.tracerSectors.forEach((v, i) => (out.tracerSectors[i] += v));
     t.starlightBins.forEach((v, i) => (out.starlightBins[i] += v));
+    t.starlightSectors.forEach((v, i) => (out.starlightSectors[i] += v));
     out.starlightReachRe = Math.max(out.starlightReachRe, t.starlightReachRe);
   }
   return out;
@@ -138,8 +151,10 @@ export function objectiveValue(ctx: ObjectiveContext, t: Tally): ObjectiveValue 
   for (const n of t.tracerSectors) sectors += Math.min(n, w.kSector) / w.kSector;
   let slBins = 0;
   for (const n of t.starlightBins) if (n > 0) slBins++;
+  let slSectors = 0;
+  if (t.starlightBins.length) for (const n of t.starlightSectors) if (n > 0) slSectors++;
   const slReach = ctx.starlightReachRe > 0 ? Math.min(t.starlightReachRe / ctx.starlightReachRe, 1) : 0;
   const binTerm = W * w.aBin * bins, sectorTerm = W * w.aSector * sectors;
-  const starlightTerm = W * (w.aStarlightBin * slBins + w.aStarlightReach * slReach);
+  const starlightTerm = W * (w.aStarlightBin * slBins + w.aStarlightSector * slSectors + w.aStarlightReach * slReach);
   return { total: t.yieldWeight + binTerm + sectorTerm + starlightTerm, yieldWeight: t.yieldWeight, binTerm, sectorTerm, starlightTerm };
 }

@@ -23,7 +23,7 @@ import { galaxyToSkyArcsec } from '../sky/frames';
 import { skyToTangentArcsec, tangentCentre, tangentToSkyDeg } from '../sky/tangentPlane';
 import { sersicBn } from '../sky/sersic';
 import { galaxyRadiusAndAzimuth } from '../coverage/coverage';
-import { allocateForPointings, type AllocationContext, type PointingsAllocation } from './allocateMasks';
+import { alignmentCapacity, allocateForPointings, type AllocationContext, type PointingsAllocation } from './allocateMasks';
 import { solveIntervalIndex } from './intervalScheduling';
 import { allocateGreedyMaskByMask, improveByBestResponse, maskCandidateSet, resolveOneMask, type JointProblem, type MaskCandidateSet } from './jointAllocation';
 import { wavelengthOk } from '../geometry/eligibility';
@@ -35,13 +35,30 @@ import { makeRng } from '../scenario/random';
 import type { MaskPointing, MaskSolution } from './types';
 import { PMath } from '../numeric/portableMath';
 
+/** Where a start layout puts its k-th free mask (of nFree): offset (u major, v minor, arcsec) and the long side's direction (degrees from the major axis). */
+type FreePlacement = (k: number, nFree: number, halfLongArcsec: number) => { uArcsec: number; vArcsec: number; longDirDeg: number };
+
+/** The cross: directions +u, -u, +v, -v in ring floor(k/4) + 1, long side along the direction, turned by turnDeg about the centre. */
+const crossPlacement = (turnDeg: number): FreePlacement => (k, nFree, halfLong) => {
+  if (nFree <= 1) return { uArcsec: 0, vArcsec: 0, longDirDeg: turnDeg };
+  const ring = Math.floor(k / 4) + 1, dirDeg = [0, 180, 90, 270][k % 4] + turnDeg;
+  return { uArcsec: ring * halfLong * PMath.cos(dirDeg * RAD_PER_DEG), vArcsec: ring * halfLong * PMath.sin(dirDeg * RAD_PER_DEG), longDirDeg: dirDeg };
+};
+
+/** A ring: nFree masks at equal azimuths from turnDeg, centred half the long side out, long side radial. */
+const ringPlacement = (turnDeg: number, radiusFactor: number): FreePlacement => (k, nFree, halfLong) => {
+  const dirDeg = turnDeg + (360 * k) / Math.max(1, nFree);
+  return { uArcsec: radiusFactor * halfLong * PMath.cos(dirDeg * RAD_PER_DEG), vArcsec: radiusFactor * halfLong * PMath.sin(dirDeg * RAD_PER_DEG), longDirDeg: dirDeg };
+};
+
+/** Masks on the galaxy centre, turned by 180/nFree degrees from each other (a star: suits a galaxy small against the footprint). */
+const centredPlacement: FreePlacement = (k, nFree) => ({ uArcsec: 0, vArcsec: 0, longDirDeg: (180 * k) / Math.max(1, nFree) });
+
 /**
- * The naive layout: the plan's placed masks kept; the k-th unplaced mask (k = 0, 1, ...) goes in direction
- * +u, -u, +v, -v (galaxy frame, u major axis) in ring floor(k/4) + 1, its long side along that direction, centred
- * ring x half the long side from the galaxy centre so the first four masks form a cross from the centre outwards.
- * A plan of one mask is centred on the galaxy with its long side on the major axis.
+ * Masks for a plan with free masks put by `place`: the plan's placed masks kept (locked or not); masks m1, m2, ...
+ * added up to goals.masks. The galaxy frame's azimuth is measured from +u (major axis) towards +v.
  */
-export function naiveCrossLayout(plan: PlanFile, galaxy: GalaxyModel, profile: InstrumentProfile): MaskPointing[] {
+function layoutWith(plan: PlanFile, galaxy: GalaxyModel, profile: InstrumentProfile, place: FreePlacement): MaskPointing[] {
   const given = plan.masks ?? [];
   const ids = new Set(given.map((m) => m.id));
   const all = given.map((m) => ({ ...m }));
@@ -53,26 +70,51 @@ export function naiveCrossLayout(plan: PlanFile, galaxy: GalaxyModel, profile: I
   const longIsY = b.maxY - b.minY >= b.maxX - b.minX;
   const halfLong = (longIsY ? b.maxY - b.minY : b.maxX - b.minX) / 2;
   const centre = tangentCentre(galaxy.raDeg, galaxy.decDeg);
+  const nFree = all.filter((m) => m.raDeg === undefined || m.decDeg === undefined).length;
   let k = 0;
   return all.map((m) => {
     if (m.raDeg !== undefined && m.decDeg !== undefined) {
       return { id: m.id, raDeg: wrap360Deg(m.raDeg), decDeg: m.decDeg, paDeg: wrap360Deg(m.paDeg ?? galaxy.paDeg), locked: m.locked ?? false };
     }
-    let u = 0, v = 0, alongMajor = true;
-    if (plan.goals.masks > 1) {
-      const ring = Math.floor(k / 4) + 1, dir = k % 4;
-      alongMajor = dir < 2;
-      if (alongMajor) u = (dir === 0 ? 1 : -1) * ring * halfLong;
-      else v = (dir === 2 ? 1 : -1) * ring * halfLong;
-      k++;
-    }
-    // Mask +y points at PA; mask +x at PA + 90. Long side along the direction of the offset.
-    const dirPa = alongMajor ? galaxy.paDeg : galaxy.paDeg + 90;
+    const at = place(k++, plan.goals.masks > 1 ? nFree : 1, halfLong);
+    // The galaxy-frame direction d (from +u towards +v) points at PA theta + d (+u is at PA theta, +v at theta + 90);
+    // a mask turned by 180 degrees covers the same field, so the long side takes d modulo 180.
+    const dirPa = galaxy.paDeg + (((at.longDirDeg % 180) + 180) % 180);
+    // Mask +y points at PA; mask +x at PA + 90. Long side along the direction.
     const paDeg = wrap360Deg(m.paDeg ?? (longIsY ? dirPa : dirPa - 90));
-    const s = galaxyToSkyArcsec(u, v, galaxy.paDeg);
+    const s = galaxyToSkyArcsec(at.uArcsec, at.vArcsec, galaxy.paDeg);
     const p = tangentToSkyDeg(centre, s.xiArcsec, s.etaArcsec);
     return { id: m.id, raDeg: p.raDeg, decDeg: p.decDeg, paDeg, locked: m.locked ?? false };
   });
+}
+
+/**
+ * The naive layout: the plan's placed masks kept; the k-th unplaced mask (k = 0, 1, ...) goes in direction
+ * +u, -u, +v, -v (galaxy frame, u major axis) in ring floor(k/4) + 1, its long side along that direction, centred
+ * ring x half the long side from the galaxy centre so the first four masks form a cross from the centre outwards.
+ * A plan of one mask is centred on the galaxy with its long side on the major axis.
+ */
+export function naiveCrossLayout(plan: PlanFile, galaxy: GalaxyModel, profile: InstrumentProfile): MaskPointing[] {
+  return layoutWith(plan, galaxy, profile, crossPlacement(0));
+}
+
+/**
+ * The search's starting layouts (docs/search.md): the naive cross first, the cross turned by 45 and 22.5 degrees
+ * about the galaxy centre, rings of the free masks at equal azimuths (half and one long side out), and every free mask
+ * on the centre turned by 180/n degrees from the next. Placed masks stay in every layout.
+ */
+export function startLayouts(plan: PlanFile, galaxy: GalaxyModel, profile: InstrumentProfile): { name: string; pointings: MaskPointing[] }[] {
+  const layouts: [string, FreePlacement][] = [
+    ['cross', crossPlacement(0)],
+    ['cross turned 45', crossPlacement(45)],
+    ['cross turned 22.5', crossPlacement(22.5)],
+    ['ring', ringPlacement(0, 1)],
+    ['ring turned', ringPlacement(180 / Math.max(1, plan.goals.masks), 1)],
+    ['inner ring', ringPlacement(0, 0.5)],
+    ['outer ring', ringPlacement(90 / Math.max(1, plan.goals.masks), 1.6)],
+    ['centred star', centredPlacement],
+  ];
+  return layouts.map(([name, place]) => ({ name, pointings: layoutWith(plan, galaxy, profile, place) }));
 }
 
 /** Objective evaluation shared by the search, the pipeline report and the benchmark. */
@@ -119,14 +161,14 @@ export function planObjective(env: SearchEnv, masks: readonly MaskSolution[]): O
     if (s.role !== 'tracer' && s.role !== 'starlight') continue;
     const r = galaxyRadiusAndAzimuth(g, s.raDeg, s.decDeg);
     if (s.role === 'tracer') addTracer(t, s.priority, r.rRe, r.phiDeg);
-    else addStarlight(t, r.rRe);
+    else addStarlight(t, r.rRe, r.phiDeg);
   }
   return objectiveValue(env.objective, t);
 }
 
 /** The objective's price of a starlight slit in tracer weight (for the starlight stage's trades). */
 export function starlightTrade(o: ObjectiveContext): StarlightTrade {
-  return { unitWeight: o.unitWeight, aStarlightBin: o.weights.aStarlightBin, aStarlightReach: o.weights.aStarlightReach };
+  return { unitWeight: o.unitWeight, aStarlightBin: o.weights.aStarlightBin, aStarlightReach: o.weights.aStarlightReach, aStarlightSector: o.weights.aStarlightSector };
 }
 
 /** Full evaluation of pointings: joint allocation then starlight and sky slits, and the objective of the result. */
@@ -151,6 +193,10 @@ export interface SearchReport {
   acceptedMoves: number;
   /** true when the search's own best was not better than the start and the start was kept. */
   keptStart: boolean;
+  /** Alignment boxes the naive starting layout lacks (then it is not a valid layout and was not evaluated in full). */
+  startAlignmentShort?: number;
+  /** Name of the starting layout the returned search began from (startLayouts). */
+  startLayout?: string;
 }
 
 export interface SearchResult {
@@ -183,22 +229,22 @@ function equalLengthCandidateSet(objects: Int32Array, starts: Float64Array, ends
 export interface ProxyMask {
   set: MaskCandidateSet;
   y: Float64Array;
-  alignmentAvailable: number;
+  /** Largest number of alignment boxes the mask can hold (alignmentCapacity: the allocation's rule); 0 for a liberal set. */
+  alignmentMax: number;
 }
 
 /**
  * The search's fast model of masks for an environment: `proxy(pointing)` gives a mask's tracer candidates (exact
  * gnomonic projection by dot products of cached unit vectors, the wavelength rule exactly, the footprint by a
- * conservative column raster; no alignment boxes) and a count of alignment stars whose box fits. With `liberal`
+ * conservative column raster; no alignment boxes) and how many alignment boxes it can hold (the allocation's rule). With `liberal`
  * the footprint test is only the bounds box: every truly eligible tracer is then in the set (for upper bounds).
  */
 export function proxyModel(env: SearchEnv): (p: MaskPointing, liberal?: boolean) => ProxyMask {
   const { ctx } = env;
   const profile = ctx.profile;
   const b = polygonBounds(profile.footprint);
-  const L = profile.slits.minLengthArcsec, gap = profile.slits.gapArcsec, box = profile.alignment.boxSizeArcsec;
+  const L = profile.slits.minLengthArcsec, gap = profile.slits.gapArcsec;
   const slitRaster = footprintRaster(profile.footprint, profile.slits.widthArcsec / 2, L / 2);
-  const boxRaster = footprintRaster(profile.footprint, box / 2, box / 2);
   const { x: ux, y: uy, z: uz } = ctx.unit;
   const bufObj = new Int32Array(ctx.tracerIndices.length), bufY = new Float64Array(ctx.tracerIndices.length);
   // Tracers binned in square cells of the galaxy's tangent plane, so a trial only visits cells near the mask.
@@ -254,16 +300,10 @@ export function proxyModel(env: SearchEnv): (p: MaskPointing, liberal?: boolean)
       objects[k] = bufObj[j]; y[k] = bufY[j];
       starts[k] = y[k] - L / 2; ends[k] = y[k] + L / 2 + gap;
     }
-    let alignmentAvailable = 0;
-    for (const i of ctx.alignmentIndices) {
-      const px = ux[i], py = uy[i], pz = uz[i];
-      const cosC = maskCosC(basis, px, py, pz);
-      if (cosC < 0.9) continue;
-      unitToMaskArcsec(basis, px, py, pz, cosC, at);
-      if (rasterFits(boxRaster, at.xArcsec, at.yArcsec)) alignmentAvailable++;
-    }
+    // The allocation's own alignment rule (shared stars allowed; boxes clear of each other along y).
+    const alignmentMax = liberal ? 0 : alignmentCapacity(ctx, p).compatibleMax;
     // The liberal set feeds a proven bound: its interval index is built exactly (sorted by end), not from the packed keys.
-    return { set: liberal ? maskCandidateSet(objects, starts, ends) : equalLengthCandidateSet(objects, starts, ends), y, alignmentAvailable };
+    return { set: liberal ? maskCandidateSet(objects, starts, ends) : equalLengthCandidateSet(objects, starts, ends), y, alignmentMax };
   };
 }
 
@@ -296,127 +336,230 @@ export function orderByKey(keys: Float64Array): Int32Array {
   return out;
 }
 
+/** The search's working state: plane pointings, proxy masks, joint selection over the proxies, per-mask tallies. */
+interface SearchState {
+  plane: PlanePointing[];
+  pointings: MaskPointing[];
+  proxies: ProxyMask[];
+  chosen: number[][];
+  tallies: Tally[];
+  value: number;
+  /** Summed alignment shortfall (boxes missing below alignment.minCount over all masks): 0 is a valid layout. */
+  short: number;
+}
+
+/** A trial move's outcome, committed only when kept. */
+interface MoveTrial { m: number; pp: PlanePointing; pointing: MaskPointing; prox: ProxyMask; chosen: number[][]; tally: Tally; value: number; short: number }
+
+/** Effort settings after defaults (plan `search`; `effort` scales every count, 10 gives the "10x longer search"). */
+export interface SearchBudget { levels: number; passes: number; randomTrials: number; kicks: number; starts: number }
+
+/** The search's budget from the plan's `search` section: explicit counts win over those derived from `effort` (default 1). */
+export function searchBudget(rules: SearchRules, freeMasks: number): SearchBudget {
+  const effort = rules.effort ?? 1;
+  const log2 = effort > 1 ? Math.round(PMath.log(effort) / PMath.log(2)) : 0;
+  return {
+    levels: rules.levels ?? 3 + log2,
+    passes: rules.passes ?? (effort > 1 ? 3 : 2),
+    randomTrials: rules.randomTrials ?? Math.max(1, Math.round(effort)),
+    kicks: rules.kicks ?? Math.round(effort * freeMasks),
+    starts: rules.starts ?? (effort >= 4 ? 3 : 1),
+  };
+}
+
 /**
  * Search the unlocked masks' pointings (see the module comment). Deterministic for a given plan and `search.seed`.
  * onProgress receives fractions in [0, 1].
  */
-export function searchPointings(env: SearchEnv, start: readonly MaskPointing[], onProgress: (fraction: number, message: string) => void = () => {}): SearchResult {
+export function searchPointings(env: SearchEnv, start: readonly MaskPointing[], onProgress: (fraction: number, message: string) => void = () => {}, starts: readonly { name: string; pointings: readonly MaskPointing[] }[] = [{ name: 'cross', pointings: start }]): SearchResult {
   const { ctx } = env;
   const rules = (env.plan.search ?? {}) as SearchRules;
   const free = start.map((p, i) => (p.locked ? -1 : i)).filter((i) => i >= 0);
   let startEvalCache: ReturnType<typeof evaluatePointings> | null = null;
   const startEval = () => (startEvalCache ??= evaluatePointings(env, start));
-  const keep = (evaluations: number, accepted: number): SearchResult => {
+  const keep = (evaluations: number, accepted: number, startName = 'cross'): SearchResult => {
     const e = startEval();
     return {
       pointings: start.slice(), masks: e.masks, allocation: e.allocation, starlightWarnings: e.warnings,
-      report: { startObjective: e.value, objective: e.value, evaluations, acceptedMoves: accepted, keptStart: true },
+      report: { startObjective: e.value, objective: e.value, evaluations, acceptedMoves: accepted, keptStart: true, startLayout: startName },
     };
   };
   if (rules.enabled === false || free.length === 0) return keep(1, 0);
   const rng = makeRng(rules.seed ?? 1);
-  const levels = rules.levels ?? 3, passes = rules.passes ?? 2, randomTrials = rules.randomTrials ?? 1;
+  const budget = searchBudget(rules, free.length);
   const g = ctx.galaxy, profile = ctx.profile;
   const gc = tangentCentre(g.raDeg, g.decDeg);
   const b = polygonBounds(profile.footprint);
   const halfDiag = PMath.hypot(Math.max(-b.minX, b.maxX), Math.max(-b.minY, b.maxY));
   const halfLong = Math.max(b.maxY - b.minY, b.maxX - b.minX) / 2;
   const proxyMask = proxyModel(env);
-
-  // Current state: plane pointings, proxy masks, joint selection over the proxies, per-mask tallies.
-  const plane: PlanePointing[] = start.map((p) => {
-    const t = skyToTangentArcsec(gc, p.raDeg, p.decDeg)!;
-    return { xi: t.xiArcsec, eta: t.etaArcsec, paDeg: p.paDeg };
-  });
-  const pointings = start.map((p) => ({ ...p }));
-  let proxies = pointings.map((p) => proxyMask(p));
-  const problemOf = (ps: readonly ProxyMask[]): JointProblem => ({ weights: ctx.weights, masks: ps.map((p) => p.set) });
-  let chosen = improveByBestResponse(problemOf(proxies), allocateGreedyMaskByMask(problemOf(proxies)).chosen, 3);
-  const tallies = proxies.map((p, m) => proxyTally(env, pointings[m], p, chosen[m]));
-  let current = objectiveValue(env.objective, mergeTallies(env.objective, tallies)).total;
   const minAlign = profile.alignment.minCount;
-  // Masks short of alignment stars (proxy count: one box per star); fewer is always better, then the objective.
-  const short = (p: ProxyMask) => (p.alignmentAvailable < minAlign ? 1 : 0);
-  let shortNow = proxies.reduce((a, p) => a + short(p), 0);
+  const shortOf = (p: ProxyMask) => Math.max(0, minAlign - p.alignmentMax);
+  const problemOf = (ps: readonly ProxyMask[]): JointProblem => ({ weights: ctx.weights, masks: ps.map((p) => p.set) });
+  // Keep the mask over the galaxy's field: its centre within tracerReachRe (semi-major) + half the footprint's diagonal.
+  const maxCentreArcsec = (env.objective.tracerReachRe * g.reArcsec) / Math.sqrt(g.axisRatio) + halfDiag;
+  let evaluations = 0, accepted = 0;
 
   const toPointing = (m: number, pp: PlanePointing): MaskPointing => {
-    const s = tangentToSkyDeg(gc, pp.xi, pp.eta);
-    return { id: start[m].id, raDeg: s.raDeg, decDeg: s.decDeg, paDeg: wrap360Deg(pp.paDeg), locked: false };
+    const sky = tangentToSkyDeg(gc, pp.xi, pp.eta);
+    return { id: start[m].id, raDeg: sky.raDeg, decDeg: sky.decDeg, paDeg: wrap360Deg(pp.paDeg), locked: start[m].locked };
   };
-
-  let evaluations = 1, accepted = 0;
-  const tryMove = (m: number, pp: PlanePointing): boolean => {
+  const init = (ps: readonly MaskPointing[]): SearchState => {
+    const plane = ps.map((p) => {
+      const t = skyToTangentArcsec(gc, p.raDeg, p.decDeg)!;
+      return { xi: t.xiArcsec, eta: t.etaArcsec, paDeg: p.paDeg };
+    });
+    const pointings = ps.map((p) => ({ ...p }));
+    const proxies = pointings.map((p) => proxyMask(p));
+    const chosen = improveByBestResponse(problemOf(proxies), allocateGreedyMaskByMask(problemOf(proxies)).chosen, 3);
+    const tallies = proxies.map((p, m) => proxyTally(env, pointings[m], p, chosen[m]));
+    evaluations++;
+    return { plane, pointings, proxies, chosen, tallies, value: objectiveValue(env.objective, mergeTallies(env.objective, tallies)).total, short: proxies.reduce((a, p) => a + shortOf(p), 0) };
+  };
+  const copy = (st: SearchState): SearchState => ({ ...st, plane: st.plane.slice(), pointings: st.pointings.slice(), proxies: st.proxies.slice(), chosen: st.chosen.slice(), tallies: st.tallies.slice() });
+  /** Evaluate moving mask m to pp: the moved mask re-solved exactly with the others fixed (null when off the field). */
+  const trial = (st: SearchState, m: number, pp: PlanePointing): MoveTrial | null => {
+    if (PMath.hypot(pp.xi, pp.eta) > maxCentreArcsec) return null;
     evaluations++;
     const pointing = toPointing(m, pp);
     const prox = proxyMask(pointing);
-    const shortNext = shortNow - short(proxies[m]) + short(prox);
-    if (shortNext > shortNow) return false;
-    const next = proxies.slice();
+    const next = st.proxies.slice();
     next[m] = prox;
-    const base = chosen.map((c, i) => (i === m ? [] : c));
-    const nextChosen = resolveOneMask(problemOf(next), base, m);
-    const tally = proxyTally(env, pointing, prox, nextChosen[m]);
-    const nextTallies = tallies.slice();
-    nextTallies[m] = tally;
-    const value = objectiveValue(env.objective, mergeTallies(env.objective, nextTallies)).total;
-    if (shortNext < shortNow || value > current * (1 + 1e-9) + 1e-9) {
-      current = value;
-      shortNow = shortNext;
-      proxies = next;
-      chosen = nextChosen;
-      tallies[m] = tally;
-      plane[m] = pp;
-      pointings[m] = pointing;
-      accepted++;
-      return true;
-    }
-    return false;
+    const short = st.short - shortOf(st.proxies[m]) + shortOf(prox);
+    if (short > st.short) return { m, pp, pointing, prox, chosen: st.chosen, tally: st.tallies[m], value: -Infinity, short };
+    const chosen = resolveOneMask(problemOf(next), st.chosen.map((c, i) => (i === m ? [] : c)), m);
+    const tally = proxyTally(env, pointing, prox, chosen[m]);
+    const tallies = st.tallies.slice();
+    tallies[m] = tally;
+    return { m, pp, pointing, prox, chosen, tally, value: objectiveValue(env.objective, mergeTallies(env.objective, tallies)).total, short };
+  };
+  /** Alignment first (fewer boxes missing always wins), then the objective. */
+  const better = (t: { short: number; value: number }, st: { short: number; value: number }) => t.short < st.short || (t.short === st.short && t.value > st.value * (1 + 1e-9) + 1e-9);
+  const commit = (st: SearchState, t: MoveTrial) => {
+    st.plane[t.m] = t.pp; st.pointings[t.m] = t.pointing; st.proxies[t.m] = t.prox; st.chosen = t.chosen; st.tallies[t.m] = t.tally;
+    st.value = t.value; st.short = t.short;
+    accepted++;
+  };
+  const tryMove = (st: SearchState, m: number, pp: PlanePointing): boolean => {
+    const t = trial(st, m, pp);
+    if (!t || !better(t, st)) return false;
+    commit(st, t);
+    return true;
   };
 
-  const totalTrials = Math.max(1, levels * passes * free.length * (6 + randomTrials));
-  let done = 0;
-  const maxCentreArcsec = (env.objective.tracerReachRe * g.reArcsec) / Math.sqrt(g.axisRatio) + halfDiag;
-  for (let level = 0; level < levels; level++) {
-    const step = halfLong * 0.5 * PMath.pow(0.5, level);
-    const stepPa = 24 * PMath.pow(0.5, level);
-    for (let pass = 0; pass < passes; pass++) {
-      const acceptedBefore = accepted;
-      for (const m of free) {
-        const p = plane[m];
-        const r = PMath.hypot(p.xi, p.eta);
-        // Radial unit vector (from the galaxy centre), or the mask's own +y direction at the centre.
-        const ux = r > 1e-6 ? p.xi / r : PMath.sin(p.paDeg * RAD_PER_DEG), uy = r > 1e-6 ? p.eta / r : PMath.cos(p.paDeg * RAD_PER_DEG);
-        const moves: PlanePointing[] = [
-          { xi: p.xi + step * ux, eta: p.eta + step * uy, paDeg: p.paDeg },
-          { xi: p.xi - step * ux, eta: p.eta - step * uy, paDeg: p.paDeg },
-          { xi: p.xi - step * uy, eta: p.eta + step * ux, paDeg: p.paDeg },
-          { xi: p.xi + step * uy, eta: p.eta - step * ux, paDeg: p.paDeg },
-          { xi: p.xi, eta: p.eta, paDeg: p.paDeg + stepPa },
-          { xi: p.xi, eta: p.eta, paDeg: p.paDeg - stepPa },
-        ];
-        for (let k = 0; k < randomTrials; k++) moves.push({ xi: p.xi + step * rng.uniform(-1, 1), eta: p.eta + step * rng.uniform(-1, 1), paDeg: p.paDeg + stepPa * rng.uniform(-1, 1) });
-        for (const mv of moves) {
-          done++;
-          // Keep the mask over the galaxy's field: its centre within tracerReachRe (semi-major) + half the footprint.
-          if (PMath.hypot(mv.xi, mv.eta) > maxCentreArcsec) continue;
-          tryMove(m, mv);
-        }
-        onProgress(Math.min(0.95, done / totalTrials), `pointing search: step level ${level + 1}/${levels}, objective ${current.toFixed(1)}`);
+  /**
+   * Repair of a mask short of alignment stars: shifts on rings around it, turns, and pulls towards the galaxy
+   * centre, tested first by the alignment rule alone (cheap); of the pointings that hold enough boxes, the nearest
+   * few are evaluated in full and the best kept. When none is near, a grid over the whole field is tried.
+   */
+  const repair = (st: SearchState, m: number): void => {
+    if (shortOf(st.proxies[m]) === 0) return;
+    const p = st.plane[m];
+    const local: PlanePointing[] = [];
+    for (const f of [0.25, 0.5, 0.75, 1]) local.push({ xi: p.xi * (1 - f), eta: p.eta * (1 - f), paDeg: p.paDeg });
+    for (const rf of [0.1, 0.2, 0.35, 0.5, 0.75, 1, 1.4, 2]) {
+      for (let d = 0; d < 8; d++) {
+        const a = (d * 45 + rf * 10) * RAD_PER_DEG;
+        for (const dPa of [0, 20, -20, 45, -45, 90]) local.push({ xi: p.xi + rf * halfLong * PMath.sin(a), eta: p.eta + rf * halfLong * PMath.cos(a), paDeg: p.paDeg + dPa });
       }
-      if (accepted === acceptedBefore) { done += (passes - pass - 1) * free.length * (6 + randomTrials); break; }
     }
+    for (const dPa of [10, -10, 20, -20, 45, -45, 90]) local.push({ ...p, paDeg: p.paDeg + dPa });
+    const enough = (cands: PlanePointing[]) => cands
+      .filter((c) => PMath.hypot(c.xi, c.eta) <= maxCentreArcsec && alignmentCapacity(ctx, toPointing(m, c)).compatibleMax >= minAlign)
+      .sort((x, y) => PMath.hypot(x.xi - p.xi, x.eta - p.eta) + 0.5 * Math.abs(x.paDeg - p.paDeg) - PMath.hypot(y.xi - p.xi, y.eta - p.eta) - 0.5 * Math.abs(y.paDeg - p.paDeg));
+    let ok = enough(local);
+    if (!ok.length) {
+      const grid: PlanePointing[] = [];
+      const step = halfLong / 2, n = Math.ceil(maxCentreArcsec / step);
+      for (let i = -n; i <= n; i++) for (let j = -n; j <= n; j++) for (let k = 0; k < 8; k++) grid.push({ xi: i * step, eta: j * step, paDeg: p.paDeg + k * 22.5 });
+      ok = enough(grid);
+    }
+    let best: MoveTrial | null = null;
+    for (const c of ok.slice(0, 8)) {
+      const t = trial(st, m, c);
+      if (t && (!best || better(t, best))) best = t;
+    }
+    if (best && best.short < st.short) commit(st, best);
+  };
+
+  /** Pattern search over the free masks (`only`: one mask), step sizes halving from `firstStep` over `levels`. */
+  let done = 0;
+  const totalTrials = Math.max(1, budget.starts * budget.levels * budget.passes * free.length * (6 + budget.randomTrials) + budget.kicks * 30);
+  const patternSearch = (st: SearchState, levels: number, firstStep: number, firstPaStep: number, masks: readonly number[], label: string) => {
+    for (let level = 0; level < levels; level++) {
+      const step = firstStep * PMath.pow(0.5, level);
+      const stepPa = firstPaStep * PMath.pow(0.5, level);
+      for (let pass = 0; pass < budget.passes; pass++) {
+        const acceptedBefore = accepted;
+        for (const m of masks) {
+          const p = st.plane[m];
+          const r = PMath.hypot(p.xi, p.eta);
+          // Radial unit vector (from the galaxy centre), or the mask's own +y direction at the centre.
+          const ux = r > 1e-6 ? p.xi / r : PMath.sin(p.paDeg * RAD_PER_DEG), uy = r > 1e-6 ? p.eta / r : PMath.cos(p.paDeg * RAD_PER_DEG);
+          const moves: PlanePointing[] = [
+            { xi: p.xi + step * ux, eta: p.eta + step * uy, paDeg: p.paDeg },
+            { xi: p.xi - step * ux, eta: p.eta - step * uy, paDeg: p.paDeg },
+            { xi: p.xi - step * uy, eta: p.eta + step * ux, paDeg: p.paDeg },
+            { xi: p.xi + step * uy, eta: p.eta - step * ux, paDeg: p.paDeg },
+            { xi: p.xi, eta: p.eta, paDeg: p.paDeg + stepPa },
+            { xi: p.xi, eta: p.eta, paDeg: p.paDeg - stepPa },
+          ];
+          for (let k = 0; k < budget.randomTrials; k++) moves.push({ xi: p.xi + step * rng.uniform(-1, 1), eta: p.eta + step * rng.uniform(-1, 1), paDeg: p.paDeg + stepPa * rng.uniform(-1, 1) });
+          for (const mv of moves) { done++; tryMove(st, m, mv); }
+          onProgress(Math.min(0.95, done / totalTrials), `pointing search: ${label}, step level ${level + 1}/${levels}, objective ${st.value.toFixed(1)}`);
+        }
+        if (accepted === acceptedBefore) { done += (budget.passes - pass - 1) * masks.length * (6 + budget.randomTrials); break; }
+      }
+    }
+  };
+
+  // Starts: every layout evaluated on the proxy; the best few (fewest boxes missing, then the objective) searched.
+  const ranked = starts.map((l) => ({ name: l.name, st: init(l.pointings) })).sort((x, y) => (better(x.st, y.st) ? -1 : better(y.st, x.st) ? 1 : 0));
+  let best: { name: string; st: SearchState } | null = null;
+  for (const { name, st } of ranked.slice(0, Math.max(1, budget.starts))) {
+    for (const m of free) repair(st, m);
+    patternSearch(st, budget.levels, halfLong * 0.5, 24, free, `start "${name}"`);
+    if (!best || better(st, best.st)) best = { name, st };
   }
-  if (accepted === 0) return keep(evaluations, 0);
+  const st = best!.st;
+  // Kicks: one mask jumps to a random place of the field (holding its alignment boxes), is searched locally, and the
+  // jump is kept only when the whole layout ends better: a way out of local optima.
+  for (let kick = 0; kick < budget.kicks; kick++) {
+    const m = free[kick % free.length];
+    const saved = copy(st), savedAccepted = accepted;
+    const rad = maxCentreArcsec * 0.8 * Math.sqrt(rng.next()), az = rng.uniform(0, 2 * Math.PI);
+    const jump = { xi: rad * PMath.sin(az), eta: rad * PMath.cos(az), paDeg: rng.uniform(0, 180) };
+    const t = trial(st, m, jump);
+    done += 30;
+    if (!t || t.short > saved.short) continue;
+    commit(st, t);
+    patternSearch(st, 2, halfLong * 0.25, 12, [m], `kick ${kick + 1}/${budget.kicks}`);
+    if (!better(st, saved)) { Object.assign(st, saved); accepted = savedAccepted; }
+  }
+
+  const pointings = st.pointings;
+  const startName = best!.name;
+  const moved = pointings.some((p, i) => p.raDeg !== start[i].raDeg || p.decDeg !== start[i].decDeg || p.paDeg !== start[i].paDeg);
+  if (!moved) return keep(evaluations, 0);
   const final = evaluatePointings(env, pointings);
   evaluations++;
+  // A mask still short after the repair moves has no valid pointing the search could find: say so in its problem.
+  const reachArcmin = (maxCentreArcsec / 60).toFixed(1);
+  final.allocation.problems = final.allocation.problems.map((pr) => {
+    const m = free.find((i) => pr.where === `mask ${start[i].id}`);
+    return m === undefined ? pr : { ...pr, what: `${pr.what}; no pointing tried (shifts, turns and a grid over the field within ${reachArcmin}' of the galaxy) holds ${minAlign} boxes clear of each other` };
+  });
   onProgress(1, 'pointing search done');
   const won = (report: Partial<SearchReport>): SearchResult => ({
     pointings, masks: final.masks, allocation: final.allocation, starlightWarnings: final.warnings,
-    report: { objective: final.value, evaluations, acceptedMoves: accepted, keptStart: false, ...report },
+    report: { objective: final.value, evaluations, acceptedMoves: accepted, keptStart: false, startLayout: startName, ...report },
   });
   // A proven bound on the start's objective often settles the comparison without allocating the start in full:
   // with no alignment problem left, beating the bound beats the start whatever its problems.
   const finalProblems = final.allocation.problems.length;
+  // The search's alignment rule is the allocation's (alignmentCapacity), so a start short of boxes has problems in full.
+  const startShort = start.reduce((a, p) => a + shortOf(proxyMask(p)), 0);
+  if (finalProblems === 0 && startShort > 0) return won({ startAlignmentShort: startShort });
   if (finalProblems === 0) {
     const upperBound = objectiveUpperBound(env, start.map((p) => proxyMask(p, true).set));
     if (final.value.total > upperBound) return won({ startObjectiveUpperBound: upperBound });
@@ -443,7 +586,7 @@ export function objectiveUpperBound(env: SearchEnv, supersets: readonly MaskCand
   }
   const o = env.objective, W = o.unitWeight, a = o.weights;
   const t = emptyTally(o);
-  return y + W * (a.aBin * t.tracerBins.length + a.aSector * t.tracerSectors.length + (o.starlightReachRe > 0 ? a.aStarlightBin * t.starlightBins.length + a.aStarlightReach : 0));
+  return y + W * (a.aBin * t.tracerBins.length + a.aSector * t.tracerSectors.length + (o.starlightReachRe > 0 ? a.aStarlightBin * t.starlightBins.length + a.aStarlightSector * t.starlightSectors.length + a.aStarlightReach : 0));
 }
 
 /** Tally of one proxy mask with a selection: its tracers, and its starlight slits estimated on the free space. */
@@ -464,7 +607,7 @@ function proxyTally(env: SearchEnv, pointing: MaskPointing, p: ProxyMask, chosen
   const L = ctx.profile.slits.minLengthArcsec;
   const rows: RowSpan[] = chosenK.map((k) => ({ role: 'tracer' as const, yArcsec: p.y[k], lenBelowArcsec: L / 2, lenAboveArcsec: L / 2, widthArcsec: ctx.profile.slits.widthArcsec, tiltDeg: 0 }));
   const slots = freeSlots(rows, ctx.rules, ctx.profile.slits.gapArcsec, env.starlight.slitLengthArcsec);
-  const { starlight } = chooseSlots(om, ctx.rules, slots, { ...env.starlight, skyPerMask: 0 }, new Set(), 1, 25);
-  for (const c of starlight) addStarlight(t, c.rRe);
+  const { starlight } = chooseSlots(om, ctx.rules, slots, { ...env.starlight, skyPerMask: 0 }, new Set(), 1, 25, ctx.profile.slits.gapArcsec);
+  for (const c of starlight) addStarlight(t, c.rRe, c.azimuthDeg);
   return t;
 }

@@ -29,6 +29,7 @@ import { maskPointToSkyDeg } from './maskTargets';
 import { lineWindowSettings, observedWavelengthA } from '../geometry/wavelength';
 import { PMath } from '../numeric/portableMath';
 import { resolvePhotometry } from '../spectro/photometry';
+import { sectorOf } from './objective';
 
 /** The plan's `starlight` section (docs/signal-to-noise.md lists every setting and its default). */
 export const starlightSchema = z.looseObject({
@@ -38,6 +39,8 @@ export const starlightSchema = z.looseObject({
   targetSnPerA: z.number().positive().optional(),
   wavelengthA: z.number().positive().optional(),
   slitLengthArcsec: z.number().positive().optional(),
+  /** Longest starlight slit (arcsec): slits lengthen with radius, up to this, to reach the S/N target (default 4 x slitLengthArcsec). */
+  maxSlitLengthArcsec: z.number().positive().optional(),
   maxPerMask: z.number().int().min(0).optional(),
   skyPerMask: z.number().int().min(0).optional(),
   skyContrastMag: z.number().min(0).optional(),
@@ -58,6 +61,8 @@ export interface StarlightSettings {
   skyMagPerArcsec2: number;
   targetSnPerA: number;
   slitLengthArcsec: number;
+  /** Longest starlight slit: free slots next to each other are joined up to this length where a longer slit reaches farther. */
+  maxSlitLengthArcsec: number;
   maxPerMask: number;
   skyPerMask: number;
   skyContrastMag: number;
@@ -77,11 +82,13 @@ export function starlightSettings(rules: StarlightRules | undefined, profile: In
   const r = rules ?? {};
   const lines = plan.goals.linesA.map((l) => observedWavelengthA(l, plan.galaxy.vsysKms));
   const det = profile.detector;
+  const slitLengthArcsec = Math.max(profile.slits.minLengthArcsec, r.slitLengthArcsec ?? Math.max(3 * profile.slits.minLengthArcsec, 12));
   return {
     exposureS: r.exposureS ?? STARLIGHT_DEFAULTS.exposureS,
     skyMagPerArcsec2: r.skyMagPerArcsec2 ?? STARLIGHT_DEFAULTS.skyMagPerArcsec2,
     targetSnPerA: r.targetSnPerA ?? STARLIGHT_DEFAULTS.targetSnPerA,
-    slitLengthArcsec: Math.max(profile.slits.minLengthArcsec, r.slitLengthArcsec ?? Math.max(3 * profile.slits.minLengthArcsec, 12)),
+    slitLengthArcsec,
+    maxSlitLengthArcsec: Math.max(slitLengthArcsec, r.maxSlitLengthArcsec ?? 4 * slitLengthArcsec),
     maxPerMask: r.maxPerMask ?? STARLIGHT_DEFAULTS.maxPerMask,
     skyPerMask: r.skyPerMask ?? STARLIGHT_DEFAULTS.skyPerMask,
     skyContrastMag: r.skyContrastMag ?? STARLIGHT_DEFAULTS.skyContrastMag,
@@ -314,24 +321,48 @@ export function evaluateSlot(g: GalaxyOnMask, rules: EligibilityRules, slot: Spa
 }
 
 /** Coverage cell of a starlight slit: radial bin of 1 Re and 45-degree sector from the major axis. */
-export const starlightCell = (rRe: number, azimuthDeg: number) => `${Math.floor(rRe)}:${Math.floor((((azimuthDeg % 360) + 360) % 360) / 45)}`;
+export const starlightCell = (rRe: number, azimuthDeg: number) => `${Math.floor(rRe)}:${sectorOf(azimuthDeg)}`;
 
-/** New rows chosen for one mask: starlight slits (spread over cells, outermost first) then sky slits (faintest first). */
-export function chooseSlots(g: GalaxyOnMask, rules: EligibilityRules, slots: readonly Span[], s: StarlightSettings, cellsTaken: Set<string>, samples = 3, stepArcsec = 6): { starlight: SlotChoice[]; sky: SlotChoice[] } {
+/**
+ * Starlight windows of a mask: every free slot, and runs of neighbouring slots of one free stretch joined into one
+ * longer slit up to maxSlitLengthArcsec (a longer slit reaches the S/N target farther out). `slots` are the base
+ * slot indices a window uses.
+ */
+function starlightWindows(slots: readonly Span[], gapArcsec: number, maxLengthArcsec: number): { span: Span; slots: number[] }[] {
+  const out: { span: Span; slots: number[] }[] = slots.map((sp, i) => ({ span: sp, slots: [i] }));
+  for (let i = 0; i < slots.length; i++) {
+    for (let j = i + 1; j < slots.length; j++) {
+      // Same stretch: the next slot starts one gap (plus the rounding margins) after the previous one ends.
+      if (slots[j].lo - slots[j - 1].hi > gapArcsec + 4 * MARGIN + 1e-9) break;
+      if (slots[j].hi - slots[i].lo > maxLengthArcsec + 1e-9) break;
+      out.push({ span: { lo: slots[i].lo, hi: slots[j].hi }, slots: Array.from({ length: j - i + 1 }, (_, k) => i + k) });
+    }
+  }
+  return out;
+}
+
+/**
+ * New rows chosen for one mask: starlight slits (new (bin, sector) cells first, then outermost; a joined, longer
+ * window is taken where it reaches farther, each extra slot it uses costing 0.25 Re of radius in the ranking), then
+ * sky slits (faintest first) in the slots left.
+ */
+export function chooseSlots(g: GalaxyOnMask, rules: EligibilityRules, slots: readonly Span[], s: StarlightSettings, cellsTaken: Set<string>, samples = 3, stepArcsec = 6, gapArcsec = 0): { starlight: SlotChoice[]; sky: SlotChoice[] } {
   const evals = slots.map((slot) => evaluateSlot(g, rules, slot, s, samples, stepArcsec));
+  const windows = s.maxSlitLengthArcsec > s.slitLengthArcsec && s.reachRe > 0 ? starlightWindows(slots, gapArcsec, s.maxSlitLengthArcsec) : slots.map((sp, i) => ({ span: sp, slots: [i] }));
+  const options = windows.map((w) => (w.slots.length === 1 ? evals[w.slots[0]].options : evaluateSlot(g, rules, w.span, { ...s, skyPerMask: 0 }, samples, stepArcsec).options));
   const used = new Set<number>();
   const starlight: SlotChoice[] = [];
   while (starlight.length < s.maxPerMask) {
     let best = -1, bestScore = -Infinity, bestC: SlotChoice | null = null;
-    evals.forEach((e, i) => {
-      if (used.has(i)) return;
-      for (const o of e.options) {
-        const score = (cellsTaken.has(starlightCell(o.rRe, o.azimuthDeg)) ? 0 : 1000) + o.rRe;
+    windows.forEach((w, i) => {
+      if (w.slots.some((k) => used.has(k))) return;
+      for (const o of options[i]) {
+        const score = (cellsTaken.has(starlightCell(o.rRe, o.azimuthDeg)) ? 0 : 1000) + o.rRe - 0.25 * (w.slots.length - 1);
         if (score > bestScore) { bestScore = score; best = i; bestC = o; }
       }
     });
     if (best < 0 || !bestC) break;
-    used.add(best);
+    for (const k of windows[best].slots) used.add(k);
     const c: SlotChoice = bestC;
     cellsTaken.add(starlightCell(c.rRe, c.azimuthDeg));
     starlight.push(c);
@@ -381,6 +412,8 @@ export interface StarlightTrade {
   unitWeight: number;
   aStarlightBin: number;
   aStarlightReach: number;
+  /** Worth of a starlight slit in a new 45-degree sector (default 0). */
+  aStarlightSector?: number;
 }
 
 /** Per-mask working state of the stage. */
@@ -416,6 +449,8 @@ export function starlightStage(galaxy: GalaxyModel, profile: InstrumentProfile, 
 export interface StarlightTaken {
   cells: ReadonlySet<string>;
   bins: ReadonlySet<number>;
+  /** Sectors (0..7, 45 degrees from the major axis) holding a starlight slit. */
+  sectors?: ReadonlySet<number>;
   reachRe: number;
 }
 
@@ -424,7 +459,7 @@ function freeSpaceWork(st: StarlightStage, ms: MaskSolution, cells: Set<string>)
   const g = galaxyOnMask(ms.mask, st.galaxy, st.bn);
   const base = ms.slits.filter((r) => r.role === 'tracer' || r.role === 'alignment');
   const slots = freeSlots(base, st.rules, st.gapArcsec, st.s.slitLengthArcsec);
-  const { starlight, sky } = chooseSlots(g, st.rules, slots, st.s, cells);
+  const { starlight, sky } = chooseSlots(g, st.rules, slots, st.s, cells, 3, 6, st.gapArcsec);
   return { ms, g, base, starlight, sky, displaced: [] };
 }
 
@@ -454,10 +489,10 @@ export function placeStarlightAndSky(masks: readonly MaskSolution[], galaxy: Gal
   const warnings: string[] = [];
   const work = masks.map((ms) => freeSpaceWork(st, ms, cells));
   if (st.trade) {
-    const bins = new Set<number>();
+    const bins = new Set<number>(), sectors = new Set<number>();
     let reach = 0;
-    for (const w of work) for (const c of w.starlight) { bins.add(Math.floor(c.rRe)); reach = Math.max(reach, c.rRe); }
-    for (const w of work) displaceForStarlight(w, st.rules, st.s, st.trade, st.gapArcsec, bins, () => reach, (r) => (reach = Math.max(reach, r)));
+    for (const w of work) for (const c of w.starlight) { bins.add(Math.floor(c.rRe)); sectors.add(sectorOf(c.azimuthDeg)); reach = Math.max(reach, c.rRe); }
+    for (const w of work) displaceForStarlight(w, st.rules, st.s, st.trade, st.gapArcsec, bins, sectors, () => reach, (r) => (reach = Math.max(reach, r)));
   }
   return { masks: work.map((w) => finishWork(st, w, warnings)), warnings };
 }
@@ -471,10 +506,10 @@ export function placeStarlightOnMask(st: StarlightStage, ms: MaskSolution, taken
   const cells = new Set(taken.cells);
   const w = freeSpaceWork(st, ms, cells);
   if (st.trade) {
-    const bins = new Set(taken.bins);
+    const bins = new Set(taken.bins), sectors = new Set(taken.sectors ?? []);
     let reach = taken.reachRe;
-    for (const c of w.starlight) { bins.add(Math.floor(c.rRe)); reach = Math.max(reach, c.rRe); }
-    displaceForStarlight(w, st.rules, st.s, st.trade, st.gapArcsec, bins, () => reach, (r) => (reach = Math.max(reach, r)));
+    for (const c of w.starlight) { bins.add(Math.floor(c.rRe)); sectors.add(sectorOf(c.azimuthDeg)); reach = Math.max(reach, c.rRe); }
+    displaceForStarlight(w, st.rules, st.s, st.trade, st.gapArcsec, bins, sectors, () => reach, (r) => (reach = Math.max(reach, r)));
   }
   const warnings: string[] = [];
   return { mask: finishWork(st, w, warnings), warnings };
@@ -482,7 +517,7 @@ export function placeStarlightOnMask(st: StarlightStage, ms: MaskSolution, taken
 
 /** The coverage a set of finished masks gives to the starlight stage (their starlight slits' cells, bins and reach). */
 export function starlightTaken(st: StarlightStage, masks: readonly MaskSolution[]): StarlightTaken {
-  const cells = new Set<string>(), bins = new Set<number>();
+  const cells = new Set<string>(), bins = new Set<number>(), sectors = new Set<number>();
   let reachRe = 0;
   for (const ms of masks) {
     const rows = ms.slits.filter((r) => r.role === 'starlight');
@@ -493,17 +528,19 @@ export function starlightTaken(st: StarlightStage, masks: readonly MaskSolution[
       const rRe = rArcsec / st.galaxy.reArcsec;
       cells.add(starlightCell(rRe, azimuthDeg));
       bins.add(Math.floor(rRe));
+      sectors.add(sectorOf(azimuthDeg));
       reachRe = Math.max(reachRe, rRe);
     }
   }
-  return { cells, bins, reachRe };
+  return { cells, bins, sectors, reachRe };
 }
 
 /** Greedy trade of tracer slits for starlight slits on one mask (see placeStarlightAndSky). */
-function displaceForStarlight(w: MaskWork, rules: EligibilityRules, s: StarlightSettings, trade: StarlightTrade, gap: number, bins: Set<number>, reachNow: () => number, raiseReach: (r: number) => void): void {
+function displaceForStarlight(w: MaskWork, rules: EligibilityRules, s: StarlightSettings, trade: StarlightTrade, gap: number, bins: Set<number>, sectors: Set<number>, reachNow: () => number, raiseReach: (r: number) => void): void {
   const minHalf = rules.minLengthArcsec / 2;
   const re = w.g.galaxy.reArcsec, sq = Math.sqrt(w.g.galaxy.axisRatio);
-  const maxGain = trade.unitWeight * (trade.aStarlightBin + trade.aStarlightReach);
+  const aSector = trade.aStarlightSector ?? 0;
+  const maxGain = trade.unitWeight * (trade.aStarlightBin + aSector + trade.aStarlightReach);
   // Two window lengths: the full starlight slit, and half of it (enough S/N in the inner parts, fewer tracers displaced).
   const lengths = [...new Set([s.slitLengthArcsec, Math.max(rules.minLengthArcsec, s.slitLengthArcsec / 2)])];
   const windows: Span[] = [];
@@ -520,7 +557,7 @@ function displaceForStarlight(w: MaskWork, rules: EligibilityRules, s: Starlight
     let maxOpenBin = -1;
     for (let b = 0; b < nBins; b++) if (!bins.has(b)) maxOpenBin = b;
     const reachDone = reachNow() >= s.reachRe;
-    if (maxOpenBin < 0 && reachDone) return;
+    if (maxOpenBin < 0 && reachDone && (aSector === 0 || sectors.size >= 8)) return;
     const occupied: { r: Slit | null; span: Span }[] = w.base.map((r) => ({ r, span: coreSpan(r, minHalf) }));
     for (const c of w.starlight) occupied.push({ r: null, span: { lo: c.y0, hi: c.y1 } });
     for (const c of w.sky) occupied.push({ r: null, span: { lo: c.y0, hi: c.y1 } });
@@ -539,11 +576,12 @@ function displaceForStarlight(w: MaskWork, rules: EligibilityRules, s: Starlight
       if (blocked || !blockers.length || cost >= maxGain) continue;
       // R >= sqrt(q) x (distance along y to the galaxy centre): a window that cannot reach an open bin gains nothing.
       const dy = Math.max(0, lo - w.g.gyArcsec, w.g.gyArcsec - hi);
-      if (reachDone && (sq * dy) / re >= maxOpenBin + 1) continue;
+      if (reachDone && aSector === 0 && (sq * dy) / re >= maxOpenBin + 1) continue;
       let opts = options.get(k);
       if (!opts) options.set(k, (opts = evaluateSlot(w.g, rules, windows[k], noSky, 3, 10).options));
       for (const c of opts) {
-        const gain = trade.unitWeight * ((bins.has(Math.floor(c.rRe)) ? 0 : trade.aStarlightBin) + (trade.aStarlightReach * Math.max(0, Math.min(c.rRe, s.reachRe) - Math.min(reach, s.reachRe))) / s.reachRe);
+        const newSector = aSector > 0 && c.rRe < nBins + 1 && !sectors.has(sectorOf(c.azimuthDeg));
+        const gain = trade.unitWeight * ((bins.has(Math.floor(c.rRe)) ? 0 : trade.aStarlightBin) + (newSector ? aSector : 0) + (trade.aStarlightReach * Math.max(0, Math.min(c.rRe, s.reachRe) - Math.min(reach, s.reachRe))) / s.reachRe);
         const net = gain - cost;
         if (net > 1e-9 && (!best || net > best.net)) best = { net, c, blockers };
       }
@@ -554,6 +592,7 @@ function displaceForStarlight(w: MaskWork, rules: EligibilityRules, s: Starlight
     w.displaced.push(...best.blockers);
     w.starlight.push(best.c);
     bins.add(Math.floor(best.c.rRe));
+    sectors.add(sectorOf(best.c.azimuthDeg));
     raiseReach(best.c.rRe);
   }
 }

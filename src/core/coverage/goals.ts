@@ -1,0 +1,106 @@
+/**
+ * The plan's goals against what a solved plan achieves (coverage.json `goals`): each goal with its target, what was
+ * achieved, whether it is met, and for an unmet goal its cause and what would meet it. Radii are circularised R/Re
+ * (docs/frames.md); the starlight S/N is per Angstrom from the CCD equation (spectro/, through solver/starlight).
+ */
+import type { GalaxyModel, PlanFile } from '../plan/schema';
+import type { InstrumentProfile } from '../profile/schema';
+import type { CoverageReport } from './coverage';
+import type { MaskSolution } from '../solver/types';
+import { starlightSettings, starlightSignalToNoise, type StarlightRules, type StarlightSettings } from '../solver/starlight';
+import { sersicBn, sersicMuMagPerArcsec2 } from '../sky/sersic';
+import { polygonBounds } from '../geometry/polygon';
+
+/** One goal of coverage.json (contract: name, target, achieved, met, reason). */
+export interface GoalStatus {
+  name: string;
+  target: number;
+  achieved: number;
+  met: boolean;
+  /** For an unmet goal: the cause and what would meet it (empty when met). */
+  reason: string;
+}
+
+const f2 = (v: number) => (Number.isFinite(v) ? v.toFixed(2) : String(v));
+
+/** S/N per A of a starlight slit of `lengthArcsec` centred at radius rRe (surface brightness there), with settings s. */
+export function starlightSnAtRadius(galaxy: GalaxyModel, rRe: number, lengthArcsec: number, widthArcsec: number, s: StarlightSettings): number {
+  const mu = sersicMuMagPerArcsec2(rRe * galaxy.reArcsec, galaxy.reArcsec, galaxy.sersicN, galaxy.muE, sersicBn(galaxy.sersicN));
+  return starlightSignalToNoise(mu, lengthArcsec, widthArcsec, s);
+}
+
+/** Smallest x in [lo, hi] with ok(x) for a monotone predicate (bisection), or null when ok(hi) is false. */
+function smallestPassing(lo: number, hi: number, ok: (x: number) => boolean): number | null {
+  if (!ok(hi)) return null;
+  if (ok(lo)) return lo;
+  for (let i = 0; i < 60 && hi - lo > 1e-6 * hi; i++) { const mid = 0.5 * (lo + hi); if (ok(mid)) hi = mid; else lo = mid; }
+  return hi;
+}
+
+/**
+ * Why the starlight goal is short, in the observer's terms: the S/N reached at the goal radius with the longest
+ * starlight slit, and the slit length (up to the footprint's length along the slits) or the exposure that would reach
+ * the target there; or, when the light allows it, that no mask has free space at that radius.
+ */
+export function starlightShortfall(galaxy: GalaxyModel, profile: InstrumentProfile, s: StarlightSettings, maxSlitArcsec: number): string {
+  const goal = s.reachRe, w = profile.slits.widthArcsec;
+  const sn = starlightSnAtRadius(galaxy, goal, maxSlitArcsec, w, s);
+  if (sn >= s.targetSnPerA) {
+    return `the light allows it (S/N ${f2(sn)} per A at R = ${f2(goal)} Re with a ${f2(maxSlitArcsec)}" slit, target ${f2(s.targetSnPerA)}), but no mask leaves free slit space that far out: move a mask over that radius, raise starlight.maxPerMask, or lower goals.tracerReachRe so fewer tracer slits compete`;
+  }
+  const b = polygonBounds(profile.footprint);
+  const footprintLength = b.maxY - b.minY;
+  const length = smallestPassing(maxSlitArcsec, footprintLength, (L) => starlightSnAtRadius(galaxy, goal, L, w, s) >= s.targetSnPerA);
+  const exposure = smallestPassing(s.exposureS, 100 * s.exposureS, (t) => starlightSnAtRadius(galaxy, goal, maxSlitArcsec, w, { ...s, exposureS: t }) >= s.targetSnPerA);
+  const ways = [
+    length !== null ? `a starlight slit of ${f2(length)}" (starlight.maxSlitLengthArcsec)` : `no slit up to the footprint's ${f2(footprintLength)}"`,
+    exposure !== null ? `an exposure of ${(exposure / 3600).toFixed(1)} h (starlight.exposureS ${Math.ceil(exposure)})` : 'no exposure up to 100 times the present one',
+  ];
+  return `S/N ${f2(sn)} per A at the goal radius R = ${f2(goal)} Re with a ${f2(maxSlitArcsec)}" slit in ${(s.exposureS / 3600).toFixed(1)} h (target ${f2(s.targetSnPerA)}); ${ways[0]} or ${ways[1]} would reach it, or lower goals.starlightReachRe`;
+}
+
+/**
+ * Goals of a solved plan: `masks` (masks holding tracer slits), `tracerReachRe` (largest R/Re of a tracer slit; met when
+ * the outermost 1-Re bin inside the goal holds one), `tracerRadialBins` (1-Re bins to the goal holding a tracer slit) and,
+ * unless starlight is off, `starlightReachRe` (largest R/Re of a starlight slit; met at the goal radius).
+ * `candidateReachRe`: the largest R/Re of a usable tracer candidate, to tell a short catalog from short masks.
+ */
+export function planGoals(plan: PlanFile, galaxy: GalaxyModel, profile: InstrumentProfile, masks: readonly MaskSolution[], coverage: CoverageReport, candidateReachRe: number, maxStarlightSlitArcsec: number): GoalStatus[] {
+  const goals: GoalStatus[] = [];
+  const g = plan.goals;
+  const withTracers = masks.filter((m) => m.slits.some((s) => s.role === 'tracer')).length;
+  const empty = masks.filter((m) => !m.slits.some((s) => s.role === 'tracer')).map((m) => m.mask.id);
+  goals.push({
+    name: 'masks', target: g.masks, achieved: withTracers, met: withTracers >= g.masks,
+    reason: withTracers >= g.masks ? '' : `mask(s) ${empty.join(', ')} hold no tracer slit (no usable candidate whose lines land on the detector where the mask can be aligned): lower goals.masks, or widen the catalog's selection (weighting)`,
+  });
+  const tr = coverage.roles.tracer;
+  const trMet = tr.maxReachRe >= g.tracerReachRe - 1;
+  const masksWord = `${masks.length} mask(s)`;
+  goals.push({
+    name: 'tracerReachRe', target: g.tracerReachRe, achieved: Number(tr.maxReachRe.toFixed(4)), met: trMet,
+    reason: trMet ? '' : candidateReachRe < g.tracerReachRe - 1
+      ? `the catalog's usable tracer candidates reach only R = ${f2(candidateReachRe)} Re: extend the catalog (or its weighting radiusRangeRe), or lower goals.tracerReachRe`
+      : `candidates reach R = ${f2(candidateReachRe)} Re, but ${masksWord} of this footprint cannot cover the goal radius while holding their alignment boxes: add masks (goals.masks), lower goals.tracerReachRe, or use a profile with a larger footprint`,
+  });
+  const bins = tr.radialBins.length, filled = bins - tr.emptyBinsFromRe.length;
+  goals.push({
+    name: 'tracerRadialBins', target: bins, achieved: filled, met: filled >= bins,
+    reason: filled >= bins ? '' : `no tracer slit in the bin(s) from R = ${tr.emptyBinsFromRe.join(', ')} Re (1 Re wide)${tr.emptyBinsFromRe.some((r) => r < candidateReachRe) ? '' : ' and no usable candidate there'}: add masks or candidates there, or lower goals.tracerReachRe`,
+  });
+  if (g.starlightReachRe > 0) {
+    const s = starlightSettings(plan.starlight as StarlightRules | undefined, profile, plan);
+    const sl = coverage.roles.starlight;
+    const met = sl.maxReachRe >= g.starlightReachRe;
+    goals.push({
+      name: 'starlightReachRe', target: g.starlightReachRe, achieved: Number(sl.maxReachRe.toFixed(4)), met,
+      reason: met ? '' : starlightShortfall(galaxy, profile, s, maxStarlightSlitArcsec),
+    });
+  }
+  return goals;
+}
+
+/** One line per unmet goal, for stderr. */
+export function unmetGoalLines(goals: readonly GoalStatus[]): string[] {
+  return goals.filter((x) => !x.met).map((x) => `goal not met: ${x.name} (target ${x.target}, achieved ${x.achieved}): ${x.reason}`);
+}
