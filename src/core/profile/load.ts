@@ -25,12 +25,15 @@ function polygonAreaArcsec2(p: readonly Corner[]): number {
 }
 
 /**
- * Schema problems and range problems together, one per place: the schema's own message where it has one (it says
- * e.g. "must be greater than 0"), except for a non-finite number, whose range message says what happened.
+ * Schema problems and range problems together, one per place: the schema's own message where it has a specific one
+ * (e.g. "must be greater than 0"); the range message for a non-finite number or where the schema's is generic.
  */
 export function mergeProblems(ranges: readonly Problem[], schema: readonly Problem[]): Problem[] {
+  // Where the schema only says "Too small" or "Invalid input", the range message (with the range) is clearer.
+  const generic = (p: Problem) => /^(Too small|Too big|Invalid input)/.test(p.what);
+  const rangeAt = new Set(ranges.map((p) => p.where));
   const nonFinite = new Set(ranges.filter((p) => / is not a finite number/.test(p.what)).map((p) => p.where));
-  const kept = schema.filter((p) => !nonFinite.has(p.where));
+  const kept = schema.filter((p) => !nonFinite.has(p.where) && !(generic(p) && rangeAt.has(p.where)));
   const named = new Set(kept.map((p) => p.where));
   return [...kept, ...ranges.filter((p) => !named.has(p.where))];
 }
