@@ -16,7 +16,7 @@ import { validateTable } from '../core/catalog/validate';
 const HEAD_BYTES = 1 << 20;
 
 /**
- * A TextSource over a file, decoded in chunks of `chunkBytes` (UTF-8, or UTF-16 by its BOM); each call reads from the
+ * A TextSource over a file, decoded in chunks of `chunkBytes` (UTF-8, Latin-1, or UTF-16 by its BOM); each call reads from the
  * start. Invalid UTF-8 is an InputError naming the byte offset (never replaced silently). A UTF-8 chunk of ASCII bytes
  * only is copied as Latin-1 (the same characters, without the decoder's validation work) when the decoder holds no
  * partial character, i.e. when the chunk before it ended with an ASCII byte; the first chunk always goes through the
@@ -57,6 +57,33 @@ export function fileTextSource(path: string, chunkBytes = 1 << 16, encoding: Tex
   };
 }
 
+/**
+ * True when the whole file is valid UTF-8, read in chunks (ASCII chunks skipped without decoding): the shared
+ * decoding rule (core/catalog/textDecoding.ts) then reads it as UTF-8, else as Latin-1.
+ */
+export function fileIsValidUtf8(path: string, chunkBytes = 1 << 20): boolean {
+  const fd = openSync(path, 'r');
+  try {
+    const buf = new Uint8Array(chunkBytes);
+    const decoder = new TextDecoder('utf-8', { fatal: true });
+    let idle = true; // the decoder holds no partial character
+    for (;;) {
+      const n = readSync(fd, buf, 0, chunkBytes, null);
+      if (n === 0) {
+        decoder.decode();
+        return true;
+      }
+      const chunk = buf.subarray(0, n);
+      if (!(idle && isAscii(chunk))) decoder.decode(chunk, { stream: true });
+      idle = chunk[n - 1] < 0x80;
+    }
+  } catch {
+    return false;
+  } finally {
+    closeSync(fd);
+  }
+}
+
 /** The first `n` bytes of a file. */
 function readHead(path: string, n: number): Uint8Array {
   const fd = openSync(path, 'r');
@@ -86,7 +113,9 @@ export function readCatalogFile(path: string, mapping?: ColumnMapping, opts: { c
   assertSupportedContent(headBytes, name);
   const format = detectFormat(headBytes);
   if (format === 'fits' || format === 'votable') return readCatalog(new Uint8Array(readFileSync(path)), name, mapping);
-  const encoding = textEncodingOf(headBytes);
+  // The shared rule: a UTF-16 byte-order mark, else UTF-8 when the whole file is valid UTF-8, else Latin-1.
+  const bom = textEncodingOf(headBytes);
+  const encoding: TextEncodingName = bom !== 'utf-8' || fileIsValidUtf8(path) ? bom : 'latin1';
   const head = new TextDecoder(encoding).decode(headBytes);
   const source = fileTextSource(path, opts.chunkBytes, encoding, name);
   const table = format === 'ecsv' ? ecsvRawTable(head, source, name) : delimitedRawTable(format, source, sniffCsvDialect(head.slice(0, 65536)));

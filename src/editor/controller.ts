@@ -19,6 +19,7 @@ import { SolverClient, type SolveOutcome } from './worker/solverClient';
 import { bundledProfileFor } from './io/profiles';
 import { demoFiles } from './io/demo';
 import { classifyFile } from './io/classify';
+import { decodeText } from '../core/catalog/textDecoding';
 import { readAutosave, writeAutosave, clearAutosave } from './io/autosave';
 import type { MaskPose } from './view/SkyView';
 
@@ -34,7 +35,8 @@ function problemsOf(e: unknown, where: string): Problem[] {
 export async function loadedFileFrom(file: File): Promise<{ file: LoadedFile; bytes: Uint8Array }> {
   const bytes = new Uint8Array(await file.arrayBuffer());
   const isFits = new TextDecoder().decode(bytes.subarray(0, 9)) === 'SIMPLE  =';
-  return { file: { name: file.name, content: isFits ? bytes : new TextDecoder().decode(bytes) }, bytes };
+  // The decoder the command line uses: UTF-16/UTF-8 by byte-order mark, else UTF-8 when valid, else Latin-1.
+  return { file: { name: file.name, content: isFits ? bytes : decodeText(bytes).text }, bytes };
 }
 
 export interface ControllerOptions {

@@ -83,12 +83,13 @@ describe('text encodings and files that are not tables', () => {
     expect(readCatalogFile(path, undefined, { chunkBytes: 3 })).toEqual(r);
   });
 
-  it('refuses invalid UTF-8 with the line, instead of replacing characters', () => {
+  it('reads text that is not valid UTF-8 as Latin-1, the same whole and streamed, never replacing characters', () => {
     const bytes = new Uint8Array([...new TextEncoder().encode('id,ra,dec,mag\na,1,2,3\n'), 0x4e, 0xf8, 0x31, ...new TextEncoder().encode(',1,2,3\n')]);
     const path = join(dir, 'latin1.csv');
     writeFileSync(path, bytes);
-    expect(() => readCatalog(bytes, 'latin1.csv')).toThrow('latin1.csv:3: is not valid UTF-8 text (save the file as UTF-8)');
-    expect(() => readCatalogFile(path)).toThrow(/latin1\.csv: is not valid UTF-8 text \(near byte \d+\)/);
+    // 0xF8 is "ø" in ISO-8859-1 (and windows-1252).
+    expect(readCatalog(bytes, 'latin1.csv').targets.map((t) => t.id)).toEqual(['a', 'N\u00f81']);
+    expect(readCatalogFile(path).targets).toEqual(readCatalog(bytes, 'latin1.csv').targets);
   });
 
   it('says what a compressed, archived or binary file is', () => {

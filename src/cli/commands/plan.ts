@@ -1,8 +1,9 @@
 /** `haloweave plan PLAN --out DIR`: solve a plan file and write the contract's output folder (atomically). */
 import type { CliIO } from '../io';
 import { optionText, parseArgs, unknownOptions } from '../args';
-import { InputError } from '../../core/result';
-import { solvePlan } from '../../core/plan/pipeline';
+import { InputError, type Problem } from '../../core/result';
+import { scienceSlitProblems } from '../../core/plan/scienceFeasibility';
+import { solvePlan, type PlanSolution } from '../../core/plan/pipeline';
 import { loadPlanInputs, type LoadedPlan } from '../loadPlanInputs';
 import { OutputFolder, planOutputFiles, type OutputFolderOptions } from '../outputFolder';
 import { CONTRACT_OUTPUT_FILES } from '../../core/check/manifest';
@@ -24,6 +25,9 @@ export interface SolveAndWriteOptions extends OutputFolderOptions {
 
 /** Solve loaded plan inputs, write the output folder `out` atomically (outputs plus extra files) and print the summary. */
 export function solveAndWrite(loaded: LoadedPlan, out: string, io: CliIO, opts: SolveAndWriteOptions = {}): number {
+  // A setup where no science slit can exist is an error named by its cause, before any work.
+  const impossible = scienceSlitProblems(loaded.profile, loaded.plan.goals.linesA, loaded.plan.galaxy.vsysKms, `instrument profile ${loaded.profile.id} (${loaded.profilePath})`);
+  if (impossible.length) throw new InputError(impossible);
   // The output place is checked, and its temporary folder made, before the solve.
   const folder = OutputFolder.open(out, [...CONTRACT_OUTPUT_FILES, 'excluded-targets.csv', ...Object.keys(opts.extraFiles ?? {})], {
     ...opts,
@@ -33,6 +37,9 @@ export function solveAndWrite(loaded: LoadedPlan, out: string, io: CliIO, opts: 
   try {
     const { files, unmet } = solveToFiles(loaded, out, io, opts);
     folder.commit(files);
+    // Said only once the report exists: a run that fails writes no catalog-report.csv.
+    const rejects = loaded.catalog.rejects.length;
+    if (rejects) io.err(`haloweave plan: ${rejects} catalog problem${rejects > 1 ? 's' : ''} listed in ${out}/catalog-report.csv`);
     io.out(`wrote ${out}/: ${[...Object.keys(files), 'manifest.json'].join(', ')}`);
     // Unmet goals do not stop a valid output: each is named with its cause (also in coverage.json `goals`).
     for (const line of unmet) io.err(`haloweave plan: ${line}`);
@@ -50,7 +57,7 @@ export function solveAndWrite(loaded: LoadedPlan, out: string, io: CliIO, opts: 
 /** Solve loaded plan inputs and return the files of the output folder (outputs plus extra files); prints the summary. */
 function solveToFiles(loaded: LoadedPlan, out: string, io: CliIO, opts: SolveAndWriteOptions): { files: Record<string, string>; unmet: string[] } {
   const c = loaded.catalog;
-  io.err(`haloweave plan: catalog ${c.source} (${c.format}): ${c.rowsRead} rows read, ${c.targets.length} used, ${c.rowsRead - c.targets.length} rejected${c.rejects.length ? ` (${c.rejects.length} problems listed in ${out}/catalog-report.csv)` : ''}`);
+  io.err(`haloweave plan: catalog ${c.source} (${c.format}): ${c.rowsRead} rows read, ${c.targets.length} used, ${c.rowsRead - c.targets.length} rejected`);
   let lastShown = -1;
   const solution = solvePlan(loaded, {
     onProgress: (fraction, message) => {
@@ -61,6 +68,8 @@ function solveToFiles(loaded: LoadedPlan, out: string, io: CliIO, opts: SolveAnd
     },
   });
   if (solution.problems.length) throw new InputError(solution.problems);
+  const noScience = noScienceSlitProblem(solution, loaded.planPath);
+  if (noScience) throw new InputError([noScience]);
   for (const w of [...loaded.warnings, ...solution.warnings]) io.err(`haloweave plan: warning: ${w}`);
   const files: Record<string, string> = {
     ...planOutputFiles(solution, loaded, out, opts.catalogInFolder),
@@ -72,6 +81,18 @@ function solveToFiles(loaded: LoadedPlan, out: string, io: CliIO, opts: SolveAnd
   }
   for (const line of planSummaryLines(solution)) io.out(line);
   return { files, unmet: unmetGoalLines(solution.goals) };
+}
+
+/** A problem when the solve placed no tracer and no starlight slit on any mask: such masks observe nothing. */
+function noScienceSlitProblem(solution: PlanSolution, planSource: string): Problem | null {
+  const science = solution.masks.flatMap((m) => m.slits).filter((s) => s.role === 'tracer' || s.role === 'starlight').length;
+  if (science > 0) return null;
+  const eligible = solution.stats.masks.map((m) => `${m.maskId}: ${m.eligibleTracers} eligible tracers`).join(', ');
+  return {
+    where: planSource,
+    what: `no science slit (tracer or starlight) could be placed on any mask (${eligible}); the masks would observe nothing`,
+    fix: 'check that catalog tracers fall inside the masks (free locked masks so the search can place them), and the weighting rules that exclude targets',
+  };
 }
 
 export async function run(argv: string[], io: CliIO): Promise<number> {

@@ -30,6 +30,8 @@ export interface CsvRecordView extends RowCells {
   readonly count: number;
   /** Set when the record could not be split cleanly (an unterminated quoted field). */
   readonly error: string | undefined;
+  /** With an error: the last file line the record swallowed (an unclosed quote runs to the end of the file). */
+  readonly lastLine?: number;
   /** True when field `k` holds nothing but blanks. */
   blank(k: number): boolean;
   /** The first `n` fields (default: all) as an array the caller may keep. */
@@ -163,12 +165,14 @@ class ArrayRecord implements CsvRecordView {
   private fields: string[] = [];
   line = 0;
   error: string | undefined = undefined;
+  lastLine: number | undefined = undefined;
 
-  /** Point the record at `fields`, from file line `line`. */
-  of(fields: string[], line: number, error: string | undefined): this {
+  /** Point the record at `fields`, from file line `line` (to `lastLine` when it could not be split). */
+  of(fields: string[], line: number, error: string | undefined, lastLine?: number): this {
     this.fields = fields;
     this.line = line;
     this.error = error;
+    this.lastLine = lastLine;
     return this;
   }
 
@@ -395,7 +399,10 @@ export class CsvRecordSplitter {
       const lastLine = endsWithLineEnd(text, row.end, nl) ? linesToEnd : linesToEnd + 1;
       let inner = 0;
       for (const c of row.data) if (c.length > 0) inner += countLineEnds(c, nl, 0, c.length);
-      this.emit(this.arrayRecord.of(row.data, lastLine - inner, row.error));
+      // A record that could not be split (a quote never closed) starts right after the previous one: the line
+      // where the quote opens; the lines up to `lastLine` went into it.
+      if (row.error) this.emit(this.arrayRecord.of(row.data, linesToPrevEnd + 1, row.error, lastLine));
+      else this.emit(this.arrayRecord.of(row.data, lastLine - inner, row.error));
       prevEnd = row.end;
       linesToPrevEnd = linesToEnd;
     };
@@ -564,7 +571,12 @@ export function delimitedRawTable(
     const s = new CsvRecordSplitter(dialect, (rec) => {
       if (rec.line <= headerLine) return;
       if (rec.error) {
-        structuralRejects.push({ line: rec.line, column: WHOLE_ROW, reason: `${rec.error}; close it with a double quote (") or remove the stray quote` });
+        const last = rec.lastLine ?? rec.line;
+        const swallowed = last - rec.line;
+        const tail = swallowed > 0 ? `; the ${swallowed} line${swallowed > 1 ? 's' : ''} after it (to line ${last}) went into the open field and ${swallowed > 1 ? 'were' : 'was'} not read as rows` : '';
+        structuralRejects.push({ line: rec.line, column: WHOLE_ROW, reason: `a quoted field opens on this line and is never closed${tail}; close it with a double quote (") or remove the stray quote` });
+        // Every swallowed line is a row not used: listed and counted, never silently dropped.
+        for (let l = rec.line + 1; l <= last; l++) structuralRejects.push({ line: l, column: WHOLE_ROW, reason: `swallowed by the quoted field opened on line ${rec.line} and never closed` });
         return;
       }
       if (isBlankRecord(rec)) {

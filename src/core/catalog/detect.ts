@@ -2,12 +2,16 @@
  * Catalog format from the content, not the file name: FITS (the primary header starts with `SIMPLE  =`),
  * VOTable (XML whose root element is VOTABLE), ECSV (`# %ECSV` signature line), else delimited text,
  * TSV when the header row holds more tabs than commas, semicolons or bars, CSV otherwise.
- * Text is UTF-8, or UTF-16 when it starts with a UTF-16 byte-order mark (as some spreadsheets save "Unicode text").
+ * Text is decoded by the shared rule of textDecoding.ts: UTF-16 or UTF-8 by a byte-order mark, else UTF-8 when
+ * valid, else Latin-1.
  */
 import { InputError } from '../result';
 import type { CatalogFormat } from './types';
 import { sniffCsvDialect, stripBom } from './csvReader';
 import { looksLikeEcsv } from './ecsvReader';
+import { bomEncoding, decodeText, type TextEncodingName } from './textDecoding';
+
+export type { TextEncodingName } from './textDecoding';
 
 const FITS_SIGNATURE = 'SIMPLE  =';
 
@@ -26,13 +30,10 @@ export function looksLikeVoTable(head: string): boolean {
   return /^<([A-Za-z_][\w.-]*:)?VOTABLE[\s>/]/.test(rest);
 }
 
-export type TextEncodingName = 'utf-8' | 'utf-16le' | 'utf-16be';
-
-/** The text encoding of a file from its byte-order mark: UTF-16 LE/BE when it has one, UTF-8 otherwise. */
+/** The text encoding of a file from its byte-order mark: UTF-16 LE/BE when it has one, UTF-8 otherwise (Latin-1 is told from the whole file). */
 export function textEncodingOf(head: Uint8Array): TextEncodingName {
-  if (head.length >= 2 && head[0] === 0xff && head[1] === 0xfe) return 'utf-16le';
-  if (head.length >= 2 && head[0] === 0xfe && head[1] === 0xff) return 'utf-16be';
-  return 'utf-8';
+  const bom = bomEncoding(head);
+  return bom === 'utf-16le' || bom === 'utf-16be' ? bom : 'utf-8';
 }
 
 /** Why the bytes are not a table Haloweave reads (compressed, an archive, binary), or null when they may be one. */
@@ -55,17 +56,9 @@ export function assertSupportedContent(head: Uint8Array, source: string): void {
   if (why) throw new InputError([{ where: source, what: why }]);
 }
 
-/** Decode a whole text file (UTF-8, or UTF-16 by its BOM). Invalid UTF-8 is an error naming the line, never replaced silently. */
-export function decodeCatalogText(bytes: Uint8Array, source: string): string {
-  const encoding = textEncodingOf(bytes);
-  try {
-    return new TextDecoder(encoding, { fatal: true }).decode(bytes);
-  } catch {
-    const loose = new TextDecoder(encoding).decode(bytes);
-    const at = loose.indexOf('\uFFFD');
-    const line = at < 0 ? 1 : loose.slice(0, at).split(/\r\n|\n|\r/).length;
-    throw new InputError([{ where: `${source}:${line}`, what: `is not valid ${encoding.toUpperCase()} text`, fix: 'save the file as UTF-8' }]);
-  }
+/** Decode a whole text file by the shared rule (UTF-16/UTF-8 by byte-order mark, else UTF-8 when valid, else Latin-1). */
+export function decodeCatalogText(bytes: Uint8Array, _source?: string): string {
+  return decodeText(bytes).text;
 }
 
 /** The format of a catalog from its first bytes or characters (64 kB are plenty). */

@@ -43,7 +43,8 @@ export function assertCatalogUsable(result: CatalogReadResult): void {
     {
       where: result.source,
       what: `no usable row (${result.rowsRead} rows read, ${result.rejects.length} problems${first ? `, e.g. ${first}` : ''})`,
-      fix: 'see catalog-report.csv and fix the rows or the column mapping (catalogColumns in the plan)',
+      // Nothing is written when no row is usable, so the reasons are given here, not in a catalog-report.csv.
+      fix: 'fix the rows or the column mapping (catalogColumns in the plan); no output folder was written',
     },
   ]);
 }

@@ -4,7 +4,7 @@
  * `rowsRead` counts every data row the format holds, including blank lines and rows the format could not
  * split, so rowsRead = targets + distinct rejected lines.
  */
-import { InputError } from '../result';
+import { truncateText, InputError } from '../result';
 import { parseDecDeg, parseRaDeg } from '../sky/sexagesimal';
 import { resolveColumns, type AngleUnit, type ResolvedColumns } from './columns';
 import { IdIndex } from './idIndex';
@@ -57,10 +57,15 @@ export function cellNumber(c: Cell, why: CellWhy): number {
     if (quick === quick && c.length > 0 && isPlainDecimalStart(c.charCodeAt(0)) && (quick !== 0 || NUMBER_TEXT.test(c)) && !hasRadixPrefix(c)) {
       if (quick - quick === 0) return quick;
     }
-    if (NUMBER_TEXT.test(c)) return Number(c);
     const t = c.trim();
-    if (t !== c && NUMBER_TEXT.test(t)) return Number(t);
-    why.reason = t === '' || MISSING_TEXT.test(t) ? null : `"${t}" is not a number`;
+    if (NUMBER_TEXT.test(t)) {
+      // Number text too large for a double (1e400) reads as Infinity: refused, never carried on as a value.
+      const v = Number(t);
+      if (Number.isFinite(v)) return v;
+      why.reason = `${shownCell(t)} is too large to be a number this table can hold`;
+      return NaN;
+    }
+    why.reason = t === '' || MISSING_TEXT.test(t) ? null : `${shownCell(t)} is not a number`;
     return NaN;
   }
   if (typeof c === 'number') {
@@ -70,6 +75,11 @@ export function cellNumber(c: Cell, why: CellWhy): number {
   }
   why.reason = c === null ? null : `${c} is not a number`;
   return NaN;
+}
+
+/** A cell's text as quoted in a reason, cut after 40 characters (a huge bad value is not echoed whole). */
+function shownCell(t: string): string {
+  return t.length <= 40 ? `"${t}"` : `"${t.slice(0, 40)}..." (${t.length} characters)`;
 }
 
 /** 10^k for k = 0..15, each an exact double. */
@@ -261,7 +271,8 @@ export class RowValidator {
   private readonly why: CellWhy = { reason: null };
 
   private reject(line: number, field: number, reason: string): void {
-    this.rejects.push({ line, column: this.names[field], reason });
+    // A reason quoting a huge cell is cut: the report names the row, it need not repeat megabytes of it.
+    this.rejects.push({ line, column: truncateText(this.names[field], 200), reason: truncateText(reason, 200) });
   }
 
   /** Reject the cell when a converter returned NaN (reason from `why`). */

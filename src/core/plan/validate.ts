@@ -1,13 +1,16 @@
 /** Validation of a plan object; reports every problem by its key path (pure, no file access). */
 import { planSchema, type GalaxyModel, type PlanFile } from './schema';
 import { InputError, type Problem } from '../result';
-import { zodIssuesToProblems } from '../profile/load';
+import { mergeProblems, zodIssuesToProblems } from '../profile/load';
+import { PLAN_RANGES, numberRangeProblems } from './numberRanges';
 import { parseDecDeg, parseRaDeg } from '../sky/sexagesimal';
 
 /** Validate parsed plan JSON; throws InputError with one problem per wrong or missing key. */
 export function parsePlan(json: unknown, source = 'plan'): PlanFile {
+  // Ranges first: a number no real observation has is named with its range, before any other rule reads it.
+  const ranges = numberRangeProblems(json, PLAN_RANGES, source);
   const r = planSchema.safeParse(json);
-  if (!r.success) throw new InputError(zodIssuesToProblems(source, r.error.issues));
+  if (!r.success || ranges.length) throw new InputError(mergeProblems(ranges, r.success ? [] : zodIssuesToProblems(source, r.error.issues)));
   const plan = r.data;
   const problems: Problem[] = [];
   const ids = new Set<string>();

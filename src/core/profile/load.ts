@@ -2,6 +2,7 @@
 import { profileSchema, type InstrumentProfile } from './schema';
 import { InputError, type Problem } from '../result';
 import { polygonSelfIntersects, type Corner } from '../geometry/polygon';
+import { PROFILE_RANGES, numberRangeProblems } from '../plan/numberRanges';
 
 /** Turn zod issues into problems named by their dotted key path, e.g. `slits.gapArcsec`; a missing key says so. */
 export function zodIssuesToProblems(source: string, issues: readonly { path: readonly PropertyKey[]; message: string }[]): Problem[] {
@@ -13,14 +14,40 @@ export function zodIssuesToProblems(source: string, issues: readonly { path: rea
   });
 }
 
+/** Least area a footprint can enclose (arcsec^2): one square arcsec, far below any slit. */
+const MIN_FOOTPRINT_AREA_ARCSEC2 = 1;
+
+/** Signed area of a polygon by the shoelace formula (arcsec^2; positive counter-clockwise in x, y). */
+function polygonAreaArcsec2(p: readonly Corner[]): number {
+  let a = 0;
+  for (let i = 0; i < p.length; i++) a += p[i][0] * p[(i + 1) % p.length][1] - p[(i + 1) % p.length][0] * p[i][1];
+  return a / 2;
+}
+
+/**
+ * Schema problems and range problems together, one per place: the schema's own message where it has a specific one
+ * (e.g. "must be greater than 0"); the range message for a non-finite number or where the schema's is generic.
+ */
+export function mergeProblems(ranges: readonly Problem[], schema: readonly Problem[]): Problem[] {
+  // Where the schema only says "Too small" or "Invalid input", the range message (with the range) is clearer.
+  const generic = (p: Problem) => /^(Too small|Too big|Invalid input)/.test(p.what);
+  const rangeAt = new Set(ranges.map((p) => p.where));
+  const nonFinite = new Set(ranges.filter((p) => / is not a finite number/.test(p.what)).map((p) => p.where));
+  const kept = schema.filter((p) => !nonFinite.has(p.where) && !(generic(p) && rangeAt.has(p.where)));
+  const named = new Set(kept.map((p) => p.where));
+  return [...kept, ...ranges.filter((p) => !named.has(p.where))];
+}
+
 /** Validate a parsed profile object; throws InputError listing every problem at once (source names the file). */
 export function parseProfile(json: unknown, source = 'profile'): InstrumentProfile {
   const r = profileSchema.safeParse(json);
-  const problems: Problem[] = r.success ? [] : zodIssuesToProblems(source, r.error.issues);
+  const problems: Problem[] = mergeProblems(numberRangeProblems(json, PROFILE_RANGES, source), r.success ? [] : zodIssuesToProblems(source, r.error.issues));
   // The outline check runs on whatever footprint is readable, so it is reported along with schema problems.
   const footprint = readableFootprint(r.success ? r.data : json);
   if (footprint && polygonSelfIntersects(footprint)) {
     problems.push({ where: `${source}: footprint`, what: 'the polygon crosses or touches itself', fix: 'list the corners in order around the outline' });
+  } else if (footprint && Math.abs(polygonAreaArcsec2(footprint)) < MIN_FOOTPRINT_AREA_ARCSEC2) {
+    problems.push({ where: `${source}: footprint`, what: `encloses ${Math.abs(polygonAreaArcsec2(footprint)).toPrecision(3)} square arcsec: its corners lie on a line or a point, so no slit fits`, fix: 'give the corners of the field outline in arcsec' });
   }
   if (problems.length || !r.success) throw new InputError(problems);
   return r.data;

@@ -84,6 +84,9 @@ function fieldsToValue(f: Fields): number {
   return f.negative ? -v : v;
 }
 
+/** How far outside [0, 360) a numeric RA may be and still be wrapped into it: 1 arcsec, alike on both sides. */
+export const RA_WRAP_TOL_DEG = 1 / 3600;
+
 /**
  * Parse a right ascension to degrees in [0, 360). Numbers are degrees. Text with one field and
  * no letters is decimal degrees; sexagesimal text (two or three fields, or `h` letters) is hours,
@@ -92,9 +95,9 @@ function fieldsToValue(f: Fields): number {
 export function parseRaDeg(input: number | string): Result<number> {
   if (typeof input === 'number') {
     if (!Number.isFinite(input)) return fail(`RA ${input} is not a finite number`);
-    if (input < 0 || input >= 360) {
-      if (input < -1e-9 || input > 360 + 1e-9) return fail(`RA ${input} deg is outside [0, 360)`);
-    }
+    // RA is cyclic: a value within RA_WRAP_TOL_DEG outside [0, 360) on either side (a rounded 360, a -0.0001) is the
+    // same point and is wrapped; further out it is refused, alike below 0 and above 360.
+    if (input < -RA_WRAP_TOL_DEG || input >= 360 + RA_WRAP_TOL_DEG) return fail(`RA ${input} deg is outside [0, 360)`);
     return ok(wrap360Deg(input));
   }
   const trimmed = input.trim();

@@ -2,6 +2,8 @@
  * Tells what a file a user opened or dropped is, from its content (not only its name):
  * a plan file, an instrument profile, a FITS image, or a catalog (any table format the core reads).
  */
+import { decodeText } from '../../core/catalog/textDecoding';
+
 export type FileKind = 'plan' | 'profile' | 'image' | 'catalog';
 
 const FITS_START = 'SIMPLE  =';
@@ -16,14 +18,14 @@ function fitsHeaderText(bytes: Uint8Array): string {
 
 /** Kind of a file from its bytes (and name as a tie-breaker for JSON). */
 export function classifyFile(name: string, bytes: Uint8Array): FileKind {
-  const head = new TextDecoder().decode(bytes.subarray(0, 64)).replace(/^\uFEFF/, '');
+  const head = decodeText(bytes.subarray(0, 64)).text.replace(/^\uFEFF/, '');
   if (head.startsWith(FITS_START)) {
     const text = fitsHeaderText(bytes);
     return /XTENSION= *'BINTABLE'/.test(text) ? 'catalog' : 'image';
   }
   if (head.trimStart().startsWith('{')) {
     try {
-      const json = JSON.parse(new TextDecoder().decode(bytes)) as Record<string, unknown>;
+      const json = JSON.parse(decodeText(bytes).text) as Record<string, unknown>;
       if (typeof json.format === 'string' && json.format.startsWith('haloweave.plan/')) return 'plan';
       if ('footprint' in json && 'detector' in json) return 'profile';
       if ('galaxy' in json && 'goals' in json) return 'plan';
