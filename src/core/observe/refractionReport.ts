@@ -125,6 +125,10 @@ export function compactObservingReport(report: ObservingReport): ObservingReport
         muMagPerArcsec2: s.muMagPerArcsec2 === null ? null : Math.round(s.muMagPerArcsec2 * 1000) / 1000,
       })),
     })),
+    starlightBins: report.starlightBins && {
+      ...report.starlightBins,
+      bins: report.starlightBins.bins.map((b) => ({ ...b, snPerA: Math.round(b.snPerA * 100) / 100, snPerAWithoutFloor: Math.round(b.snPerAWithoutFloor * 100) / 100 })),
+    },
   };
 }
 
