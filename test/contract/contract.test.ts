@@ -297,7 +297,9 @@ const CORRUPTIONS: Corruption[] = [
   } },
   { name: 'a changed ra_deg', apply(dir) {
     const t = readTable(join(dir, 'slits.csv'));
-    const r = t.rows.find((row) => row.mask_id === 'm4' && row.role === 'tracer')!;
+    // The m4 tracer nearest its mask centre: never the one that sets the reach, so coverage.json stays right.
+    const d2 = (row: Record<string, string>) => Number(row.x_arcsec) ** 2 + Number(row.y_arcsec) ** 2;
+    const r = t.rows.filter((row) => row.mask_id === 'm4' && row.role === 'tracer').reduce((a, b) => (d2(b) < d2(a) ? b : a));
     r.ra_deg = String(Number(r.ra_deg) + 2e-4); // about 0.67 arcsec at Dec -21
     writeTable(join(dir, 'slits.csv'), t);
     return { rule: '[position]', mustName: [`line ${lineOf(t, r)} `, `slit ${r.slit_id}`], only: true, alsoAllowed: ['[catalog]'] };

@@ -12,25 +12,30 @@ export function windowLengthH(window: [number, number] | null): number {
 
 /**
  * The design hour angle among candidatesH whose report gives the longest window that contains it (ties: the
- * candidate nearest transit), with that report. The window must hold exposureS where possible: a candidate whose
- * window holds the exposure beats one that does not, however long.
+ * candidate nearest transit), with that report; then the half-steps either side of the best are tried too. A window
+ * that holds exposureS beats one that does not, however long.
  */
 export function chooseDesignHourAngle(input: Omit<MaskRefractionInput, 'designHourAngleH'>, candidatesH: readonly number[], exposureS: number): MaskRefractionReport {
   let best: MaskRefractionReport | null = null;
   const score = (r: MaskRefractionReport) => (r.windowContainsDesign ? windowLengthH(r.hourAngleWindowH) : 0);
-  for (const h of candidatesH) {
+  const consider = (h: number) => {
     const r = maskRefractionReport({ ...input, designHourAngleH: h });
-    if (!best) { best = r; continue; }
+    if (!best) { best = r; return; }
     const s = score(r), b = score(best);
     const fits = s * 3600 >= exposureS, bestFits = b * 3600 >= exposureS;
     if ((fits && !bestFits) || (fits === bestFits && (s > b + 1e-6 || (Math.abs(s - b) <= 1e-6 && Math.abs(h) < Math.abs(best.designHourAngleH))))) best = r;
+  };
+  for (const h of candidatesH) consider(h);
+  if (best && candidatesH.length > 1) {
+    const step = candidatesH[1] - candidatesH[0], b = (best as MaskRefractionReport).designHourAngleH;
+    for (const h of [b - step / 2, b + step / 2]) if (h >= candidatesH[0] && h <= candidatesH[candidatesH.length - 1]) consider(h);
   }
   return best ?? maskRefractionReport({ ...input, designHourAngleH: 0 });
 }
 
-/** Candidate design hour angles: the searched range stepped by at least 0.5 h, transit included. */
+/** Candidate design hour angles: the searched range stepped by at least 1 h, transit included (chooseDesignHourAngle refines by half a step). */
 export function designHourAngleCandidatesH(rangeH: [number, number], stepH: number): number[] {
-  const step = Math.max(stepH, 0.5);
+  const step = Math.max(stepH, 1);
   const out: number[] = [];
   for (let h = Math.ceil(rangeH[0] / step) * step; h <= rangeH[1] + 1e-9; h += step) out.push(Math.round(h * 1e6) / 1e6);
   return out.length ? out : [0];

@@ -23,6 +23,8 @@ export const observingSchema = z.looseObject({
   guideWavelengthA: z.number().min(3000).max(25000).optional(),
   /** Wavelength at which the slits are cut (the images' positions at the design hour angle), Angstrom. */
   designWavelengthA: z.number().min(3000).max(25000).optional(),
+  /** Systematic sky-subtraction error as a fraction of the sky, capping co-added starlight S/N (default 0.01). */
+  skySystematicFraction: z.number().min(0, 'must be in [0, 0.2]').max(0.2, 'must be in [0, 0.2]').optional(),
   /** Moon at the time of observation, for the sky brightness (Krisciunas & Schaefer 1991; observe/moonSky.ts). */
   moon: z.looseObject({
     /** Lunar phase angle, degrees (0 full, 180 new). */

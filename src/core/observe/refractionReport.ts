@@ -13,6 +13,7 @@ import { lineWindowSettings, observedLineWindowsA } from '../geometry/wavelength
 import { moonlitSkyMagPerArcsec2 } from './moonSky';
 import { AB_MINUS_VEGA_MAG, resolvePhotometry } from '../spectro/photometry';
 import { altitudeDeg } from './horizon';
+import { DEFAULT_SKY_SYSTEMATIC_FRACTION, starlightBinLines, starlightBins, type StarlightBin } from './starlightBins';
 import { designHourAnglesH, resolveObservingSettings, type ObservingSection, type ObservingSettings } from './observingSettings';
 import { maskExposureReport, type MaskExposureReport } from './exposure';
 import { starlightSettings, type StarlightRules } from '../solver/starlight';
@@ -32,6 +33,8 @@ export interface ObservingReport {
   masks: MaskRefractionReport[];
   /** Per-mask exposure estimates (present when built by observingReportForPlan). */
   exposures?: MaskExposureReport[];
+  /** Co-added integrated-starlight bins (observe/starlightBins.ts), with the target and the sky floor used. */
+  starlightBins?: { bins: StarlightBin[]; targetSnPerA: number; skySystematicFraction: number };
 }
 
 /** Refraction rows and recommended hour-angle window of every mask (hour angles of each mask centre, hours). */
@@ -73,7 +76,11 @@ export function observingReportForPlan(plan: PlanFile, profile: InstrumentProfil
     setup: starlight.setup, skyMagPerArcsec2: skyWithMoon(plan, profile, galaxy, starlight.skyMagPerArcsec2), seeingFwhmArcsec: settings.seeingFwhmArcsec,
     exposureTimeS: settings.exposureTimeS, targetSnPerA: settings.targetSnPerA, catalogToAbMag: starlight.catalogToAbMag,
   };
-  return { ...report, exposures: masks.map((m) => maskExposureReport(m, galaxy, model)) };
+  const skySystematicFraction = (plan.observing as ObservingSection | undefined)?.skySystematicFraction ?? DEFAULT_SKY_SYSTEMATIC_FRACTION;
+  const bins = plan.goals.starlightReachRe > 0
+    ? { bins: starlightBins(masks, galaxy, model, { reachRe: plan.goals.starlightReachRe, targetSnPerA: starlight.targetSnPerA, skySystematicFraction }), targetSnPerA: starlight.targetSnPerA, skySystematicFraction }
+    : undefined;
+  return { ...report, exposures: masks.map((m) => maskExposureReport(m, galaxy, model)), starlightBins: bins };
 }
 
 /**
@@ -118,6 +125,10 @@ export function compactObservingReport(report: ObservingReport): ObservingReport
         muMagPerArcsec2: s.muMagPerArcsec2 === null ? null : Math.round(s.muMagPerArcsec2 * 1000) / 1000,
       })),
     })),
+    starlightBins: report.starlightBins && {
+      ...report.starlightBins,
+      bins: report.starlightBins.bins.map((b) => ({ ...b, snPerA: Math.round(b.snPerA * 100) / 100, snPerAWithoutFloor: Math.round(b.snPerAWithoutFloor * 100) / 100 })),
+    },
   };
 }
 
@@ -169,5 +180,6 @@ export function formatRefractionSummary(report: ObservingReport): string[] {
       lines.push(`  ${e.maskId}: ${med}; ${e.tracersReachingTarget} of ${n} tracers reach the target`);
     }
   }
+  if (report.starlightBins) lines.push(...starlightBinLines(report.starlightBins.bins, report.starlightBins.targetSnPerA, report.starlightBins.skySystematicFraction));
   return lines;
 }

@@ -10,7 +10,7 @@
  * brightness there comes from the Sérsic model and the S/N per A from the CCD equation (spectro/signalToNoise).
  * - starlight: S/N >= targetSnPerA and R/Re <= starlightReachRe + reachMarginRe; chosen greedily to fill new (radial bin of
  *   1 Re, 45-degree sector) cells first, outermost first, up to maxPerMask per mask;
- * - sky: the galaxy at least skyContrastMag fainter than the sky; the faintest slots, up to skyPerMask per mask.
+ * - sky: the galaxy at least skyContrastMag fainter than in the faintest starlight slit (solver/skySlitRule.ts); the faintest slots, up to skyPerMask per mask.
  * Both are science slits for the wavelength rule (a sky spectrum must cover the same lines to subtract them).
  * Object ids: `sl-<mask>-NNN` and `sky-<mask>-NNN`, so each appears once over all masks.
  * Surface brightness at a mask point uses the galaxy centre projected into the mask frame and a planar
@@ -30,6 +30,7 @@ import { lineWindowSettings, observedWavelengthA } from '../geometry/wavelength'
 import { PMath } from '../numeric/portableMath';
 import { resolvePhotometry } from '../spectro/photometry';
 import { sectorOf } from './objective';
+import { skySlitMuThreshold } from './skySlitRule';
 
 /** The plan's `starlight` section (docs/signal-to-noise.md lists every setting and its default). */
 export const starlightSchema = z.looseObject({
@@ -285,6 +286,7 @@ export function evaluateSlot(g: GalaxyOnMask, rules: EligibilityRules, slot: Spa
   const wantSky = s.skyPerMask > 0;
   // The centre surface brightness is needed for sky slots and for one-sample starlight only.
   const needCentre = wantSky || samples === 1;
+  const skyMuMin = wantSky ? skySlitMuThreshold(g.galaxy, g.bn, s) : Infinity;
   const reachable: SlotChoice[] = [], skyOk: SlotChoice[] = [];
   for (const x of xs) {
     const { u, v } = maskOffsetToGalaxy(g, x, yc);
@@ -292,7 +294,7 @@ export function evaluateSlot(g: GalaxyOnMask, rules: EligibilityRules, slot: Spa
     const rRe = rArcsec / re;
     const muCentre = needCentre ? sersicMuMagPerArcsec2(rArcsec, re, n, g.galaxy.muE, g.bn) : NaN;
     if (lineCanReach && rRe <= s.maxRe) reachable.push({ y0: slot.lo, y1: slot.hi, xArcsec: x, rRe, azimuthDeg, snPerA: NaN, muMagPerArcsec2: muCentre });
-    if (wantSky && muCentre >= s.skyMagPerArcsec2 + s.skyContrastMag) skyOk.push({ y0: slot.lo, y1: slot.hi, xArcsec: x, rRe, azimuthDeg, snPerA: 0, muMagPerArcsec2: muCentre });
+    if (wantSky && muCentre >= skyMuMin) skyOk.push({ y0: slot.lo, y1: slot.hi, xArcsec: x, rRe, azimuthDeg, snPerA: 0, muMagPerArcsec2: muCentre });
   }
   // Outermost first; per radial bin the first position that reaches the S/N goal and fits the footprint. The mean
   // surface brightness, the S/N and the footprint test (the costly parts) are computed only until a bin is settled,
@@ -466,7 +468,7 @@ function freeSpaceWork(st: StarlightStage, ms: MaskSolution, cells: Set<string>)
 /** Last step on one mask: its rows (neighbours trimmed, new slits added, sorted by y) and its warnings. */
 function finishWork(st: StarlightStage, w: MaskWork, warnings: string[]): MaskSolution {
   const { s, rules, gapArcsec: gap } = st;
-  if (w.sky.length < s.skyPerMask) warnings.push(`mask ${w.ms.mask.id}: ${w.sky.length} of ${s.skyPerMask} sky slits placed (free space where the galaxy is ${s.skyContrastMag} mag fainter than the sky is short)`);
+  if (w.sky.length < s.skyPerMask) warnings.push(`mask ${w.ms.mask.id}: ${w.sky.length} of ${s.skyPerMask} sky slits placed (free space where the galaxy is ${s.skyContrastMag} mag fainter than in the faintest starlight slit is short)`);
   if (w.displaced.length) warnings.push(`mask ${w.ms.mask.id}: ${w.displaced.length} tracer slit(s) (weight ${w.displaced.reduce((a, d) => a + d.priority, 0).toFixed(2)}) gave way to starlight slits that raise the objective more (${w.displaced.map((d) => d.objectId).join(', ')})`);
   const added = [...w.starlight, ...w.sky];
   const kept = trimAround(w.base, added, gap, rules.minLengthArcsec / 2);
