@@ -74,8 +74,7 @@ describe('generated-galaxy suite', () => {
       expect(sol.search.objective.total).toBeGreaterThanOrEqual(naive.search.objective.total - 1e-9);
       ratios.push(sol.search.objective.total / naive.search.objective.total);
     }
-    // Goals: each named, with a reason exactly when unmet; the same list in coverage.json.
-    expect(sol.coverage.goals).toBe(sol.goals);
+    // Goals: each named, with a reason exactly when unmet (coverage.json carries the same list: the CLI sample below).
     expect(sol.goals.map((x) => x.name)).toEqual(['masks', 'tracerReachRe', 'tracerRadialBins', 'starlightReachRe']);
     for (const x of sol.goals) {
       expect(x.met).toBe(x.reason === '');
