@@ -258,7 +258,7 @@ export function planOutputFiles(solution: PlanSolution, loaded: LoadedPlan, outD
   return {
     'masks.csv': masksToCsv(masks),
     'slits.csv': slitsToCsv(slits),
-    'coverage.json': JSON.stringify(solution.coverage, null, 2) + '\n',
+    'coverage.json': JSON.stringify({ ...solution.coverage, goals: solution.goals }, null, 2) + '\n',
     'solved.plan.json': JSON.stringify(plan, null, 2) + '\n',
     'catalog-report.csv': catalogReportCsv(loaded.catalog.rejects),
   };

@@ -116,6 +116,19 @@ describe('independent checker', () => {
     expect(rules([...valid(), ...other], two)).toContain('object once');
   });
 
+  it('accepts an alignment star on several masks (contract revision 2), once per mask and never as a science row', () => {
+    // A second mask at the same pointing, so every row's sky position is right on both.
+    const two = [mask, { ...mask, maskId: 'k2' }];
+    const onK2 = (r: Slit) => ({ ...r, maskId: 'k2' });
+    const boxes = valid().filter((r) => r.role === 'alignment');
+    expect(rules([...valid(), ...boxes.map(onK2)], two)).toEqual([]);
+    // The same tracer on both masks is still one object used twice.
+    expect(rules([...valid(), ...boxes.map(onK2), onK2(valid()[2])], two)).toEqual(['object once']);
+    // A star boxed twice on one mask, or used as a tracer elsewhere, is not allowed.
+    expect(rules([...valid(), row('A9', 'star1', 'alignment', -50, -40, 1.5, 1.5, 3)])).toEqual(['object once']);
+    expect(rules([...valid(), ...boxes.map(onK2), onK2({ ...valid()[2], objectId: 'star1' })], two)).toEqual(['object once']);
+  });
+
   it('finds an unknown instrument profile', () => {
     expect(rules(valid(), [{ ...mask, instrument: 'missing' }])).toEqual(['instrument']);
   });

@@ -39,7 +39,7 @@ export interface CoverageReport {
   radius: string;
   sectorConvention: { count: number; widthDeg: number; zero: string; direction: string; folded: boolean };
   roles: Record<SlitRole, RoleCoverage>;
-  /** The plan's goals against the result (coverage/goals.ts), set by the pipeline: [{name, target, achieved, met, reason}]. */
+  /** The plan's goals against the result (coverage/goals.ts), added when coverage.json is written: [{name, target, achieved, met, reason}]. */
   goals?: GoalStatus[];
 }
 

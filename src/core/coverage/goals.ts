@@ -77,11 +77,17 @@ export function planGoals(plan: PlanFile, galaxy: GalaxyModel, profile: Instrume
   const tr = coverage.roles.tracer;
   const trMet = tr.maxReachRe >= g.tracerReachRe - 1;
   const masksWord = `${masks.length} mask(s)`;
+  // A chain of every mask laid end to end along the major axis (long side radial): an upper limit of the reach.
+  const fb = polygonBounds(profile.footprint);
+  const longArcsec = Math.max(fb.maxX - fb.minX, fb.maxY - fb.minY);
+  const chainReachRe = (masks.length * longArcsec * Math.sqrt(galaxy.axisRatio)) / galaxy.reArcsec;
   goals.push({
     name: 'tracerReachRe', target: g.tracerReachRe, achieved: Number(tr.maxReachRe.toFixed(4)), met: trMet,
     reason: trMet ? '' : candidateReachRe < g.tracerReachRe - 1
       ? `the catalog's usable tracer candidates reach only R = ${f2(candidateReachRe)} Re: extend the catalog (or its weighting radiusRangeRe), or lower goals.tracerReachRe`
-      : `candidates reach R = ${f2(candidateReachRe)} Re, but ${masksWord} of this footprint cannot cover the goal radius while holding their alignment boxes: add masks (goals.masks), lower goals.tracerReachRe, or use a profile with a larger footprint`,
+      : chainReachRe < g.tracerReachRe - 1
+        ? `candidates reach R = ${f2(candidateReachRe)} Re, but ${masksWord} of ${f2(longArcsec)}" laid end to end from the centre reach at most R = ${f2(chainReachRe)} Re along the major axis: add masks (goals.masks), use a profile with a larger footprint, or lower goals.tracerReachRe`
+        : `candidates reach R = ${f2(candidateReachRe)} Re, and ${masksWord} could reach R = ${f2(chainReachRe)} Re end to end, but the search placed them where they gain more tracer weight and coverage: to favour reach raise search.objective.aBin (the worth of each filled 1-Re bin), add masks (goals.masks), or lower goals.tracerReachRe`,
   });
   const bins = tr.radialBins.length, filled = bins - tr.emptyBinsFromRe.length;
   goals.push({

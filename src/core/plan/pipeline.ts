@@ -49,7 +49,7 @@ export interface PlanSolution {
   galaxy: GalaxyModel;
   masks: MaskSolution[];
   coverage: CoverageReport;
-  /** Every goal with its target, what was achieved, met or not and why (also in coverage.goals). */
+  /** Every goal with its target, what was achieved, met or not and why (written into coverage.json as `goals`). */
   goals: GoalStatus[];
   warnings: string[];
   /** Problems that make the plan unusable as it stands (e.g. a mask with too few alignment stars). */
@@ -200,7 +200,6 @@ export function solvePlan(inputs: PlanInputs, opts: SolveOptions = {}): PlanSolu
   let candidateReachRe = 0;
   for (const i of ctx.tracerIndices) candidateReachRe = Math.max(candidateReachRe, galaxyRadiusAndAzimuth(galaxy, ctx.raDeg[i], ctx.decDeg[i]).rRe);
   const goals = planGoals(plan, galaxy, profile, masks, coverage, candidateReachRe, starlightSettings(plan.starlight, profile, plan).maxSlitLengthArcsec);
-  coverage.goals = goals;
 
   const stats = {
     masks: alloc.prepared.map((p, m) => ({

@@ -3,15 +3,16 @@
  * solver/objective.ts, with the allocation engine (alignment boxes, exact per-mask interval scheduling, joint
  * allocation) inside the loop. Locked masks stay and count. Masks may overlap; an object is still used once.
  *
- * Method: start from the naive cross layout (or the plan's own positions for placed-but-unlocked masks), evaluated
- * with the full joint allocation and starlight placement. Then a seeded pattern search: for step sizes halving
- * level by level, each unlocked mask in turn tries radial, tangential and PA moves plus a few seeded random moves;
- * a move is evaluated by re-solving that one mask exactly with the others fixed (objects owned by other masks
- * are unavailable) and re-estimating its starlight slits; the first move that raises the objective is kept.
- * Masks short of alignment stars count first: a move may never add one, and a move that removes one is kept even
- * if the objective drops. Finally the best pointings are re-allocated jointly; if that full evaluation does not have
- * fewer alignment problems, or as few and a higher objective, than the starting layout, the starting layout is
- * returned, so the search never ends worse than its start.
+ * Method (docs/search.md): several start layouts (the naive cross, turned crosses, rings, masks turned about the
+ * centre) ranked on a fast proxy model; masks short of alignment boxes are repaired (pulls, shifts and turns towards
+ * alignment stars, then a grid over the field), since alignment feasibility is a hard constraint of the search with
+ * the allocation's own rule (alignmentCapacity: a move adding a missing box is always kept, one removing a box never);
+ * then a seeded pattern search: for step sizes halving level by level, each unlocked mask in turn tries radial,
+ * tangential and PA moves plus seeded random moves, a move being evaluated by re-solving that one mask exactly with
+ * the others fixed; then kicks (one mask jumps elsewhere, is searched locally, and the jump stays only if the layout
+ * ends better). The effort budget (search.effort) scales all counts. Finally the best pointings are re-allocated
+ * jointly; if that full evaluation does not have fewer alignment problems, or as few and a higher objective, than the
+ * naive cross, the cross is returned, so the search never ends worse than it.
  * Speed: target positions are cached in the galaxy's tangent plane (xi East, eta North, arcsec), and each trial
  * projects exactly only the targets inside the mask's rotated bounding box (plus a margin).
  */
