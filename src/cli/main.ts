@@ -57,7 +57,9 @@ export async function main(argv: string[], io: CliIO = processIO): Promise<numbe
     return name ? 0 : 1;
   }
   if (name === '--version') {
-    io.out('haloweave 0.1.0');
+    // The launcher (bin/haloweave.js) says whether the prebuilt bundle or the sources run.
+    const from = process.env.HALOWEAVE_RUNNING_FROM;
+    io.out(`haloweave 0.1.0${from ? ` (${from})` : ''}`);
     return 0;
   }
   const entry = COMMANDS[name];

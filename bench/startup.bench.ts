@@ -1,0 +1,58 @@
+/**
+ * Start-up of the command line as a user runs it: `node bin/haloweave.js plan missing.plan.json --out DIR` (exits 2
+ * at once) and `haloweave --help`, best of several runs each, from the prebuilt bundle (rebuilt first by
+ * bin/build-cli.js, as `npm ci` does) and from the TypeScript sources through tsx (HALOWEAVE_CLI=sources, what every
+ * start cost before the bundle). A bare `node -e 0` is measured in the same run as the floor no launcher can beat.
+ * Goal (docs/startup.md): a failing `plan` starts and stops in under 300 ms.
+ */
+import { spawnSync } from 'node:child_process';
+import { mkdtempSync, rmSync } from 'node:fs';
+import { loadavg, tmpdir } from 'node:os';
+import { join, resolve } from 'node:path';
+import { performance } from 'node:perf_hooks';
+import { printTable, type BenchRow } from './harness';
+
+const RUNS = 7;
+const ROOT = resolve('.');
+const BIN = join(ROOT, 'bin/haloweave.js');
+
+/** Best wall time (ms) of RUNS runs of node with `args`, started from `cwd`; each must exit with `expectCode`. */
+function bestMs(args: string[], env: NodeJS.ProcessEnv, cwd: string, expectCode: number): number {
+  let best = Infinity;
+  for (let i = 0; i < RUNS; i++) {
+    const t0 = performance.now();
+    const r = spawnSync(process.execPath, args, { cwd, env, encoding: 'utf8' });
+    const ms = performance.now() - t0;
+    if (r.status !== expectCode) throw new Error(`startup bench: ${args.join(' ')} exited ${r.status}: ${r.stderr}`);
+    best = Math.min(best, ms);
+  }
+  return best;
+}
+
+export default async function startupBench(): Promise<void> {
+  const build = spawnSync(process.execPath, [join(ROOT, 'bin/build-cli.js')], { cwd: ROOT, encoding: 'utf8' });
+  if (build.status !== 0) throw new Error(`startup bench: the build failed: ${build.stderr}`);
+  const cwd = mkdtempSync(join(tmpdir(), 'haloweave-startup-bench-'));
+  const bundled = { ...process.env, HALOWEAVE_CLI: '' };
+  const sources = { ...process.env, HALOWEAVE_CLI: 'sources' };
+  const planMissing = [BIN, 'plan', 'missing.plan.json', '--out', 'o'];
+  try {
+    const floor = bestMs(['-e', '0'], process.env, cwd, 0);
+    const bPlan = bestMs(planMissing, bundled, cwd, 2);
+    const bHelp = bestMs([BIN, '--help'], bundled, cwd, 0);
+    const sPlan = bestMs(planMissing, sources, cwd, 2);
+    const sHelp = bestMs([BIN, '--help'], sources, cwd, 0);
+    const rows: BenchRow[] = [
+      { name: 'node -e 0 (floor)', value: floor, unit: 'ms' },
+      { name: 'plan, missing file: prebuilt bundle', value: bPlan, unit: 'ms', goal: 300, lowerIsBetter: true },
+      { name: 'plan, missing file: bundle minus the floor', value: bPlan - floor, unit: 'ms' },
+      { name: '--help: prebuilt bundle', value: bHelp, unit: 'ms' },
+      { name: 'plan, missing file: sources through tsx', value: sPlan, unit: 'ms' },
+      { name: '--help: sources through tsx', value: sHelp, unit: 'ms' },
+      { name: 'plan, missing file: sources / bundle', value: sPlan / bPlan, unit: 'x' },
+    ];
+    await printTable(`Command-line start-up (best of ${RUNS}; load average ${loadavg()[0].toFixed(2)})`, rows);
+  } finally {
+    rmSync(cwd, { recursive: true, force: true });
+  }
+}
