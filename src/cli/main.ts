@@ -29,6 +29,11 @@ export const COMMANDS: Record<string, CommandEntry> = {
     summary: "observability of the galaxy from the profile's site, one row a night",
     load: () => import('./commands/sky'),
   },
+  profile: {
+    usage: 'haloweave profile PROFILE [--vsys KMS] [--lines A,B,...] [--velocity-range KMS] [--line-window A] [--svg FILE]',
+    summary: 'check an instrument profile on its own (slits and boxes fit, lines on the detector) and draw it as SVG',
+    load: () => import('./commands/profile'),
+  },
   demo: {
     usage: 'haloweave demo --out DIR',
     summary: 'write the invented example scenario and solve it',

@@ -62,7 +62,8 @@ export function usableXIntervalsArcsec(detector: DetectorModel, observedLinesA: 
   return xs ?? [];
 }
 
-function intersectIntervals(a: [number, number][], b: [number, number][]): [number, number][] {
+/** Intersection of two sets of closed intervals, ascending. */
+export function intersectIntervals(a: readonly [number, number][], b: readonly [number, number][]): [number, number][] {
   const out: [number, number][] = [];
   for (const [a0, a1] of a) for (const [b0, b1] of b) {
     const lo = Math.max(a0, b0), hi = Math.min(a1, b1);
