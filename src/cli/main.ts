@@ -29,6 +29,11 @@ export const COMMANDS: Record<string, CommandEntry> = {
     summary: "observability of the galaxy from the profile's site, one row a night",
     load: () => import('./commands/sky'),
   },
+  draft: {
+    usage: 'haloweave draft CATALOG --profile P --ra RA --dec DEC --re ARCSEC --axis-ratio Q --pa DEG --vsys KMS --out PLAN',
+    summary: 'start a plan from a catalog, a profile and the galaxy: columns and units found, goals chosen and explained',
+    load: () => import('./commands/draft'),
+  },
   profile: {
     usage: 'haloweave profile PROFILE [--vsys KMS] [--lines A,B,...] [--velocity-range KMS] [--line-window A] [--svg FILE]',
     summary: 'check an instrument profile on its own (slits and boxes fit, lines on the detector) and draw it as SVG',
