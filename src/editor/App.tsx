@@ -13,6 +13,7 @@ import { galaxyRadiusAndAzimuth } from '../core/coverage/coverage';
 import { slitOfObject, slitsByMask, weightsFor } from './derive';
 import { GalaxyPanel } from './panels/GalaxyPanel';
 import { ProfilePanel } from './panels/ProfilePanel';
+import { ProfileCheckPanel } from './panels/ProfileCheckPanel';
 import { MasksPanel } from './panels/MasksPanel';
 import { SearchPanel } from './panels/SearchPanel';
 import { YieldPanel } from './panels/YieldPanel';
@@ -129,6 +130,7 @@ export function App({ controller: c }: { controller: EditorController }) {
           <aside className="side left">
             <GalaxyPanel c={c} galaxy={galaxy} plan={doc.plan} />
             <ProfilePanel c={c} profile={doc.profile} />
+            <ProfileCheckPanel c={c} profile={doc.profile} plan={doc.plan} />
             <MasksPanel c={c} solved={solvedMasks} />
             <SearchPanel c={c} />
             <BackdropPanel c={c} backdrop={backdrop} />
