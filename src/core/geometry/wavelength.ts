@@ -35,13 +35,9 @@ export function linesUsableAtX(detector: DetectorModel, xArcsec: number, observe
   return true;
 }
 
-/**
- * The mask-x intervals (arcsec, closed, ascending) where every observed line is usable: the intersection over
- * lines of the usable pixel ranges shifted into x. Used to test many targets at once and by the pointing search.
- */
-export function usableXIntervalsArcsec(detector: DetectorModel, observedLinesA: readonly number[]): [number, number][] {
+/** Usable pixel ranges [p0, p1] (0 at the first pixel edge): [m, pixels - m] minus the open bands (p0 - m, p1 + m) around each gap. */
+export function usablePixelRanges(detector: DetectorModel): [number, number][] {
   const m = detector.edgeMarginPixels;
-  // Usable pixel ranges: [m, pixels - m] minus the open bands (p0 - m, p1 + m) around each gap.
   let pix: [number, number][] = [[m, detector.pixels - m]];
   for (const [p0, p1] of detector.gapsPixels) {
     const next: [number, number][] = [];
@@ -51,6 +47,15 @@ export function usableXIntervalsArcsec(detector: DetectorModel, observedLinesA: 
     }
     pix = next.filter(([a, b]) => a <= b);
   }
+  return pix;
+}
+
+/**
+ * The mask-x intervals (arcsec, closed, ascending) where every observed line is usable: the intersection over
+ * lines of the usable pixel ranges shifted into x. Used to test many targets at once and by the pointing search.
+ */
+export function usableXIntervalsArcsec(detector: DetectorModel, observedLinesA: readonly number[]): [number, number][] {
+  const pix = usablePixelRanges(detector);
   let xs: [number, number][] | null = null;
   for (const l of observedLinesA) {
     // p = offset + x / s  =>  x = (p - offset) * s

@@ -6,7 +6,7 @@
 import type { InstrumentProfile } from '../profile/schema';
 import type { Target } from '../catalog/types';
 import type { ColumnMapping } from '../catalog/types';
-import { PLAN_FORMAT } from './schema';
+import { PLAN_FORMAT, type GalaxyModel } from './schema';
 import { tangentCentre, skyToTangentArcsec } from '../sky/tangentPlane';
 import { circularisedRadiusArcsec, skyToGalaxyArcsec } from '../sky/frames';
 import { sersicMuMagPerArcsec2 } from '../sky/sersic';
@@ -15,18 +15,7 @@ import { polygonSignedAreaArcsec2 } from '../profile/inspect';
 import { PMath } from '../numeric/portableMath';
 
 /** What the user gives about the galaxy; unknown numbers are left out and chosen (and explained) by the draft. */
-export interface DraftGalaxy {
-  id: string;
-  raDeg: number;
-  decDeg: number;
-  reArcsec: number;
-  axisRatio: number;
-  paDeg: number;
-  vsysKms: number;
-  distanceMpc?: number;
-  sersicN?: number;
-  muE?: number;
-}
+export type DraftGalaxy = Omit<GalaxyModel, 'distanceMpc' | 'sersicN' | 'muE'> & Partial<Pick<GalaxyModel, 'distanceMpc' | 'sersicN' | 'muE'>>;
 
 export interface DraftInputs {
   galaxy: DraftGalaxy;

@@ -6,8 +6,8 @@
 import type { InstrumentProfile } from './schema';
 import type { Problem } from '../result';
 import { polygonBounds, rectInPolygon, type Corner } from '../geometry/polygon';
-import { intersectIntervals } from '../geometry/wavelength';
-import { linesXIntervalsArcsec, observedWindowsA, usablePixelRanges, type LineSettings } from './lineWindows';
+import { intersectIntervals, usablePixelRanges } from '../geometry/wavelength';
+import { linesXIntervalsArcsec, observedWindowsA, type LineSettings } from './lineWindows';
 
 export interface ProfileInspection {
   boundsArcsec: { minX: number; maxX: number; minY: number; maxY: number };

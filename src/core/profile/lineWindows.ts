@@ -5,7 +5,7 @@
  * is usable when the whole window of every line lies in one usable pixel range (inside the edge margins and at least
  * edgeMarginPixels from every gap).
  */
-import { intersectIntervals, observedWavelengthA, type DetectorModel } from '../geometry/wavelength';
+import { intersectIntervals, observedWavelengthA, usablePixelRanges, type DetectorModel } from '../geometry/wavelength';
 
 /** The line settings of a check: systemic velocity, half-range about it (km/s) and half-window (Angstrom). */
 export interface LineSettings {
@@ -25,21 +25,6 @@ export function observedWindowsA(s: LineSettings): [number, number][] {
     observedWavelengthA(l, s.vsysKms - s.velocityHalfRangeKms) - s.lineHalfWindowA,
     observedWavelengthA(l, s.vsysKms + s.velocityHalfRangeKms) + s.lineHalfWindowA,
   ]);
-}
-
-/** Usable pixel ranges [p0, p1] of the detector (0 at the first pixel edge): inside the margins, away from gaps. */
-export function usablePixelRanges(detector: DetectorModel): [number, number][] {
-  const m = detector.edgeMarginPixels;
-  let ranges: [number, number][] = [[m, detector.pixels - m]];
-  for (const [g0, g1] of detector.gapsPixels) {
-    const next: [number, number][] = [];
-    for (const [a, b] of ranges) {
-      if (g0 - m > a) next.push([a, Math.min(b, g0 - m)]);
-      if (g1 + m < b) next.push([Math.max(a, g1 + m), b]);
-    }
-    ranges = next;
-  }
-  return ranges.filter(([a, b]) => a <= b);
 }
 
 /** Mask-x offset (arcsec) of pixel p for wavelength L: the inverse of the contract's rule p(x, L). */
