@@ -50,15 +50,15 @@ const results: Record<string, Awaited<ReturnType<typeof draftSolveCheck>>> = {};
 
 beforeAll(async () => {
   // A: RA in decimal hours under "alpha", Dec under "delta", the magnitude and role columns renamed.
-  write('hours.csv', ['NAME,alpha,delta,I_MAG_AUTO,colour_vi,type', ...rows.map((t) => `${t.id},${(t.raDeg / 15).toFixed(8)},${t.decDeg.toFixed(7)},${t.mag},${t.color ?? ''},${t.role}`)].join('\n') + '\n');
+  write('hours.csv', ['NAME,alpha,delta,i_total_mag,colour_vi,type', ...rows.map((t) => `${t.id},${(t.raDeg / 15).toFixed(8)},${t.decDeg.toFixed(7)},${t.mag},${t.color ?? ''},${t.role}`)].join('\n') + '\n');
   // B: ECSV, positions under unknown names with their unit in the header (RA in hours there), space-separated.
   write('units.ecsv', [
-    '# %ECSV 1.0', '# ---', '# datatype:', '# - {name: objname, datatype: string}', '# - {name: X_WORLD, unit: h, datatype: float64}',
-    '# - {name: Y_WORLD, unit: deg, datatype: float64}', '# - {name: rmag, datatype: float64}', '# - {name: role, datatype: string}', '# schema: astropy-2.0',
-    'objname X_WORLD Y_WORLD rmag role', ...rows.map((t) => `${t.id} ${(t.raDeg / 15).toFixed(8)} ${t.decDeg.toFixed(7)} ${t.mag} ${t.role}`),
+    '# %ECSV 1.0', '# ---', '# datatype:', '# - {name: objname, datatype: string}', '# - {name: lon_sky, unit: h, datatype: float64}',
+    '# - {name: lat_sky, unit: deg, datatype: float64}', '# - {name: rmag, datatype: float64}', '# - {name: role, datatype: string}', '# schema: astropy-2.0',
+    'objname lon_sky lat_sky rmag role', ...rows.map((t) => `${t.id} ${(t.raDeg / 15).toFixed(8)} ${t.decDeg.toFixed(7)} ${t.mag} ${t.role}`),
   ].join('\n') + '\n');
   // C: sexagesimal text under unknown names, a TSV with a magnitude named only by "mag" inside its name.
-  write('sexa.tsv', ['source\tpos_ra\tpos_dec\tF814W_mag\trole', ...rows.map((t) => `${t.id}\t${formatRaHms(t.raDeg, 4)}\t${formatDecDms(t.decDeg, 3)}\t${t.mag}\t${t.role}`)].join('\n') + '\n');
+  write('sexa.tsv', ['source\tpos_ra\tpos_dec\tiband_mag\trole', ...rows.map((t) => `${t.id}\t${formatRaHms(t.raDeg, 4)}\t${formatDecDms(t.decDeg, 3)}\t${t.mag}\t${t.role}`)].join('\n') + '\n');
   // D: a profile of the user's own, given as a file path.
   const profile = JSON.parse(readFileSync(join(__dirname, '../../instrument-profiles/quad8-square.json'), 'utf8'));
   writeFileSync(join(dir, 'my-profile.json'), JSON.stringify({ ...profile, id: 'my-square', label: 'my square field' }));
@@ -73,7 +73,7 @@ describe('haloweave draft: generated catalogs with other column names and units 
     const r = results.hours;
     expect(r.d.err.join('\n')).not.toMatch(/error/);
     expect(r.draftCode).toBe(0);
-    expect(r.plan.catalogColumns).toEqual({ id: 'NAME', ra: 'alpha', raUnit: 'hour', dec: 'delta', mag: 'I_MAG_AUTO', color: 'colour_vi', role: 'type' });
+    expect(r.plan.catalogColumns).toEqual({ id: 'NAME', ra: 'alpha', raUnit: 'hour', dec: 'delta', mag: 'i_total_mag', color: 'colour_vi', role: 'type' });
     expect(r.d.out.join('\n')).toMatch(new RegExp(`${rows.length} rows, ${rows.length} usable, 0 rows with problems`));
     expect(r.planCode).toBe(0);
     expect(r.checkCode).toBe(0);
@@ -83,7 +83,7 @@ describe('haloweave draft: generated catalogs with other column names and units 
   it('ECSV with units in the header: the unknown names are taken by their converted values', () => {
     const r = results.units;
     expect(r.draftCode).toBe(0);
-    expect(r.plan.catalogColumns).toEqual({ id: 'objname', ra: 'X_WORLD', dec: 'Y_WORLD', mag: 'rmag' });
+    expect(r.plan.catalogColumns).toEqual({ id: 'objname', ra: 'lon_sky', dec: 'lat_sky', mag: 'rmag' });
     expect(r.planCode).toBe(0);
     expect(r.checkCode).toBe(0);
   });
@@ -91,7 +91,7 @@ describe('haloweave draft: generated catalogs with other column names and units 
   it('sexagesimal text in a TSV: read as such, the magnitude found by "mag" in its name', () => {
     const r = results.sexa;
     expect(r.draftCode).toBe(0);
-    expect(r.plan.catalogColumns).toEqual({ id: 'source', ra: 'pos_ra', dec: 'pos_dec', mag: 'F814W_mag' });
+    expect(r.plan.catalogColumns).toEqual({ id: 'source', ra: 'pos_ra', dec: 'pos_dec', mag: 'iband_mag' });
     expect(r.d.out.join('\n')).toMatch(/pos_ra: sexagesimal text/);
     expect(r.planCode).toBe(0);
     expect(r.checkCode).toBe(0);

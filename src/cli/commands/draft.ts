@@ -92,7 +92,7 @@ export async function run(argv: string[], io: CliIO): Promise<number> {
   // The draft must be a plan the tool accepts as it stands.
   parsePlan(draft.plan, String(o.out));
 
-  io.out(`catalog ${catalogArg} (${catalog.format}): ${catalog.rowsRead} rows, ${catalog.targets.length} usable, ${catalog.rejects.length} rows with problems${catalog.rejects.length ? ` (first: line ${catalog.rejects[0].line}, ${catalog.rejects[0].column}: ${catalog.rejects[0].reason})` : ''}`);
+  io.out(`catalog ${catalogArg} (${catalog.format}): ${catalog.rowsRead} rows, ${catalog.targets.length} usable, ${new Set(catalog.rejects.map((r) => r.line)).size} rows with problems${catalog.rejects.length ? ` (first: line ${catalog.rejects[0].line}, ${catalog.rejects[0].column}: ${catalog.rejects[0].reason})` : ''}`);
   io.out('columns:');
   for (const [field, f] of Object.entries(guess.fields)) {
     const unit = f.unit === 'deg' ? ', degrees' : f.unit === 'hour' ? ', hours' : f.unit === 'text' ? ', sexagesimal text' : f.unit === 'file' ? ', unit from the file' : '';
