@@ -42,3 +42,29 @@ describe('start a plan in the editor from a catalog file', () => {
     expect(off.problems[0].where).toBe('ridge10-narrow: detector');
   });
 });
+
+describe('the role column', () => {
+  const head = (cols: string, rows: string[]) => [cols, ...rows].join('\n');
+  const base = demo.targets.slice(0, 400);
+  it('a role column of tracers only is kept; a "kind" column of other values beside a role column is left alone', () => {
+    const onlyTracers = head('id,ra,dec,mag,role', base.filter((t) => t.role === 'tracer').map((t) => `${t.id},${t.raDeg},${t.decDeg},${t.mag},tracer`));
+    const r = draftFromFile({ name: 't.csv', content: onlyTracers }, profile, galaxy, CAT);
+    expect(r.problems).toEqual([]);
+    expect(r.guess!.fields.role).toEqual({ column: 'role', how: 'name', unit: undefined });
+    expect(r.notes.join('\n')).toMatch(/no alignment star/);
+  });
+
+  it('alignment stars marked in a column of another name are found; a "kind" column of other values is then not the role', () => {
+    const text = head('id,ra,dec,mag,kind,flag', base.map((t) => `${t.id},${t.raDeg},${t.decDeg},${t.mag},${t.role === 'alignment' ? 'star' : 'gc'},${t.role}`));
+    const r = draftFromFile({ name: 'k.csv', content: text }, profile, galaxy, CAT);
+    expect(r.problems).toEqual([]);
+    expect(JSON.parse(r.planText!).catalogColumns).toEqual({ role: 'flag' });
+  });
+
+  it('a "kind" column of other values and no role column: a problem saying so', () => {
+    const text = head('id,ra,dec,mag,kind', base.map((t) => `${t.id},${t.raDeg},${t.decDeg},${t.mag},${t.role === 'alignment' ? 'star' : 'gc'}`));
+    const r = draftFromFile({ name: 'k2.csv', content: text }, profile, galaxy, CAT);
+    expect(r.planText).toBeNull();
+    expect(r.problems[0].what).toMatch(/kind: the reader takes this column as the role .* holds other values \((gc, star|star, gc)\)/);
+  });
+});

@@ -226,18 +226,17 @@ export function guessColumns(table: RawTable, galaxy: { raDeg: number; decDeg: n
   const prio = byName(profiles, 'priority', taken);
   if (prio) { fields.priority = { column: prio.name, how: 'name' }; taken.add(prio.name); if (prio.name !== 'priority') mapping.priority = prio.name; }
 
-  // Role: by name, else a text column whose values include "alignment".
+  // Role: a column of "tracer"/"alignment" values; one that marks alignment stars wins over one named like a role.
   const roleNamed = byName(profiles, 'role', taken);
-  const roleIsRoles = (p: ColumnProfile) => p.texts.length > 0 && p.texts.every((t) => t === 'tracer' || t === 'alignment') && p.texts.includes('alignment');
-  if (roleNamed && roleIsRoles(roleNamed)) take('role', roleNamed, 'name');
-  else {
-    const roleByValue = profiles.find((p) => !taken.has(p.name) && roleIsRoles(p));
-    if (roleByValue) {
-      take('role', roleByValue, 'values');
-      notes.push(`${roleByValue.name}: holds "alignment" and "tracer", taken as the role column`);
-    } else if (roleNamed) {
-      problems.push(`${roleNamed.name}: the reader takes this column as the role (tracer or alignment), but it holds other values (${roleNamed.texts.slice(0, 5).join(', ')}): rename it, or mark alignment stars in a column named role`);
-    }
+  const onlyRoles = (p: ColumnProfile) => p.text > 0 && p.texts.every((t) => t === 'tracer' || t === 'alignment');
+  const marksStars = (p: ColumnProfile) => onlyRoles(p) && p.texts.includes('alignment');
+  const roleByValue = roleNamed && marksStars(roleNamed) ? undefined : profiles.find((p) => p !== roleNamed && !taken.has(p.name) && marksStars(p));
+  if (roleByValue) {
+    take('role', roleByValue, 'values');
+    notes.push(`${roleByValue.name}: holds "alignment" and "tracer", taken as the role column`);
+  } else if (roleNamed && onlyRoles(roleNamed)) take('role', roleNamed, 'name');
+  else if (roleNamed) {
+    problems.push(`${roleNamed.name}: the reader takes this column as the role (tracer or alignment), but it holds other values (${roleNamed.texts.slice(0, 5).join(', ')}): rename it, or mark alignment stars in a column named role`);
   }
   return { fields, mapping, notes, problems, profiles };
 }
