@@ -19,5 +19,7 @@ export default defineConfig({
     testTimeout: 60_000,
     hookTimeout: 120_000,
     pool: 'forks',
+    // Every test that runs bin/haloweave.js runs the current sources, never a prebuilt bundle (docs/startup.md).
+    env: { HALOWEAVE_CLI: 'sources' },
   },
 });

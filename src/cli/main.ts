@@ -30,6 +30,16 @@ export const COMMANDS: Record<string, CommandEntry> = {
     summary: "observability of the galaxy from the profile's site, one row a night",
     load: () => import('./commands/sky'),
   },
+  draft: {
+    usage: 'haloweave draft CATALOG --profile P --ra RA --dec DEC --re ARCSEC --axis-ratio Q --pa DEG --vsys KMS --out PLAN',
+    summary: 'start a plan from a catalog, a profile and the galaxy: columns and units found, goals chosen and explained',
+    load: () => import('./commands/draft'),
+  },
+  profile: {
+    usage: 'haloweave profile PROFILE [--vsys KMS] [--lines A,B,...] [--velocity-range KMS] [--line-window A] [--svg FILE]',
+    summary: 'check an instrument profile on its own (slits and boxes fit, lines on the detector) and draw it as SVG',
+    load: () => import('./commands/profile'),
+  },
   demo: {
     usage: 'haloweave demo --out DIR',
     summary: 'write the invented example scenario and solve it',
@@ -58,7 +68,9 @@ export async function main(argv: string[], io: CliIO = processIO): Promise<numbe
     return name ? 0 : 1;
   }
   if (name === '--version') {
-    io.out('haloweave 0.1.0');
+    // The launcher (bin/haloweave.js) says whether the prebuilt bundle or the sources run.
+    const from = process.env.HALOWEAVE_RUNNING_FROM;
+    io.out(`haloweave 0.1.0${from ? ` (${from})` : ''}`);
     return 0;
   }
   const entry = COMMANDS[name];

@@ -13,6 +13,8 @@ import { galaxyRadiusAndAzimuth } from '../core/coverage/coverage';
 import { slitOfObject, slitsByMask, weightsFor } from './derive';
 import { GalaxyPanel } from './panels/GalaxyPanel';
 import { ProfilePanel } from './panels/ProfilePanel';
+import { ProfileCheckPanel } from './panels/ProfileCheckPanel';
+import { StartPlanPanel } from './panels/StartPlanPanel';
 import { MasksPanel } from './panels/MasksPanel';
 import { SearchPanel } from './panels/SearchPanel';
 import { YieldPanel } from './panels/YieldPanel';
@@ -129,6 +131,8 @@ export function App({ controller: c }: { controller: EditorController }) {
           <aside className="side left">
             <GalaxyPanel c={c} galaxy={galaxy} plan={doc.plan} />
             <ProfilePanel c={c} profile={doc.profile} />
+            <ProfileCheckPanel c={c} profile={doc.profile} plan={doc.plan} />
+            <StartPlanPanel c={c} profile={doc.profile} />
             <MasksPanel c={c} solved={solvedMasks} />
             <SearchPanel c={c} />
             <BackdropPanel c={c} backdrop={backdrop} />

@@ -84,7 +84,6 @@ export function windowsUsableAtX(detector: DetectorModel, xArcsec: number, windo
 /** Usable detector pixel ranges (closed, ascending): [m, pixels - m] minus the open bands (p0 - m, p1 + m) about each gap. */
 export function usablePixelRanges(detector: DetectorModel): [number, number][] {
   const m = detector.edgeMarginPixels;
-  // Usable pixel ranges: [m, pixels - m] minus the open bands (p0 - m, p1 + m) around each gap.
   let pix: [number, number][] = [[m, detector.pixels - m]];
   for (const [p0, p1] of detector.gapsPixels) {
     const next: [number, number][] = [];
@@ -122,7 +121,8 @@ export function usableXIntervalsForWindowsArcsec(detector: DetectorModel, window
   return xs ?? [];
 }
 
-function intersectIntervals(a: [number, number][], b: [number, number][]): [number, number][] {
+/** Intersection of two sets of closed intervals, ascending. */
+export function intersectIntervals(a: readonly [number, number][], b: readonly [number, number][]): [number, number][] {
   const out: [number, number][] = [];
   for (const [a0, a1] of a) for (const [b0, b1] of b) {
     const lo = Math.max(a0, b0), hi = Math.min(a1, b1);

@@ -1,0 +1,132 @@
+/**
+ * The prebuilt command line (bin/build-cli.js, docs/startup.md): the bundle gives the very outputs of the sources,
+ * and the launcher runs it only while no bundled source has changed; otherwise it falls back to the sources.
+ * Start-up time is measured in bench/startup.bench.ts, not here.
+ */
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { cpSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, statSync, symlinkSync, utimesSync, writeFileSync } from 'node:fs';
+import { spawnSync } from 'node:child_process';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { pathToFileURL } from 'node:url';
+import { BIN, ROOT } from './runCli';
+import { bundleStaleReason } from '../../bin/cli-bundle.js';
+
+const BUILD = `dist/test-cli-${process.pid}`;
+const work = mkdtempSync(join(tmpdir(), 'haloweave-startup-'));
+const ENV = { ...process.env, HALOWEAVE_CLI: '' };
+
+/** Run the bundle's main() directly (not through the launcher) with argv, from `cwd`. */
+function runBundle(args: string[], cwd: string) {
+  const url = pathToFileURL(join(ROOT, BUILD, 'main.js')).href;
+  const code = `const { main } = await import(${JSON.stringify(url)}); process.exitCode = await main(process.argv.slice(1));`;
+  const r = spawnSync(process.execPath, ['--input-type=module', '-e', code, ...args], { cwd, encoding: 'utf8', env: ENV, maxBuffer: 64 << 20 });
+  return { code: r.status, out: r.stdout, err: r.stderr };
+}
+
+/** Run the launcher on the sources. */
+function runSources(args: string[], cwd: string) {
+  const r = spawnSync(process.execPath, [BIN, ...args], { cwd, encoding: 'utf8', env: { ...process.env, HALOWEAVE_CLI: 'sources' }, maxBuffer: 64 << 20 });
+  return { code: r.status, out: r.stdout, err: r.stderr };
+}
+
+beforeAll(() => {
+  const r = spawnSync(process.execPath, [join(ROOT, 'bin/build-cli.js'), '--out', BUILD], { cwd: ROOT, encoding: 'utf8' });
+  expect(r.stderr).toBe('');
+  expect(r.status).toBe(0);
+}, 120_000);
+
+afterAll(() => {
+  rmSync(join(ROOT, BUILD), { recursive: true, force: true });
+  rmSync(work, { recursive: true, force: true });
+});
+
+describe('the bundle behaves as the sources', () => {
+  it('lists the command-line sources it was built from, none from node_modules', () => {
+    const info = JSON.parse(readFileSync(join(ROOT, BUILD, 'build-info.json'), 'utf8'));
+    const paths = info.sources.map((s: { path: string }) => s.path);
+    expect(paths).toContain('src/cli/main.ts');
+    expect(paths).toContain('src/core/plan/pipeline.ts');
+    expect(paths.some((p: string) => p.includes('node_modules'))).toBe(false);
+  });
+
+  it('one chunk per command: main.js itself holds no solver code', () => {
+    const files = readdirSync(join(ROOT, BUILD));
+    for (const c of ['plan', 'check', 'export', 'sky', 'demo']) expect(files.some((f) => f.startsWith(`${c}-`))).toBe(true);
+    const mainJs = readFileSync(join(ROOT, BUILD, 'main.js'), 'utf8');
+    expect(mainJs).not.toMatch(/solvePlan|zod/);
+  });
+
+  it('a missing plan file: same exit status and message', () => {
+    const a = runBundle(['plan', 'missing.plan.json', '--out', 'o'], work);
+    const b = runSources(['plan', 'missing.plan.json', '--out', 'o'], work);
+    expect(a.code).toBe(2);
+    expect(a).toEqual(b);
+    expect(a.err).toMatch(/plan file not found/);
+  });
+
+  it('the demo: byte-identical output folders, and the bundled check passes the folder', () => {
+    const a = runBundle(['demo', '--out', 'bundle', '--quiet'], work);
+    const b = runSources(['demo', '--out', 'sources', '--quiet'], work);
+    expect(a.code).toBe(0);
+    expect(b.code).toBe(0);
+    const files = readdirSync(join(work, 'sources')).sort();
+    expect(readdirSync(join(work, 'bundle')).sort()).toEqual(files);
+    for (const f of files) expect(readFileSync(join(work, 'bundle', f), 'utf8'), f).toBe(readFileSync(join(work, 'sources', f), 'utf8'));
+    const c = runBundle(['check', 'bundle'], work);
+    expect(c.code).toBe(0);
+    // Formats that load dependencies of their own (FITS, VOTable) run from the bundle too.
+    expect(runBundle(['export', 'bundle', '--format', 'votable', '--out', 'slits.vot'], work).code).toBe(0);
+    expect(runBundle(['export', 'bundle', '--format', 'fits', '--out', 'slits.fits'], work).code).toBe(0);
+  }, 120_000);
+});
+
+describe('staleness: the launcher never runs an old bundle', () => {
+  it('bundleStaleReason: current, then the changed, the removed file, then no bundle at all', () => {
+    const root = join(work, 'fake');
+    mkdirSync(join(root, 'dist/cli'), { recursive: true });
+    mkdirSync(join(root, 'src'), { recursive: true });
+    writeFileSync(join(root, 'src/a.ts'), 'export const a = 1;\n');
+    writeFileSync(join(root, 'src/b.ts'), 'export const b = 2;\n');
+    const entry = (p: string) => {
+      const st = statSync(join(root, p));
+      return { path: p, size: st.size, mtimeMs: st.mtimeMs };
+    };
+    writeFileSync(join(root, 'dist/cli/build-info.json'), JSON.stringify({ sources: [entry('src/a.ts'), entry('src/b.ts')] }));
+    expect(bundleStaleReason(root)).toBeNull();
+    // Same size, new time (an edit saved again, a checkout).
+    const later = new Date(Date.now() + 5000);
+    utimesSync(join(root, 'src/b.ts'), later, later);
+    expect(bundleStaleReason(root)).toBe('src/b.ts changed');
+    writeFileSync(join(root, 'dist/cli/build-info.json'), JSON.stringify({ sources: [entry('src/a.ts'), entry('src/b.ts')] }));
+    writeFileSync(join(root, 'src/a.ts'), 'export const a = 10;\n');
+    expect(bundleStaleReason(root)).toBe('src/a.ts changed');
+    rmSync(join(root, 'src/a.ts'));
+    expect(bundleStaleReason(root)).toBe('src/a.ts was removed');
+    rmSync(join(root, 'dist'), { recursive: true });
+    expect(bundleStaleReason(root)).toBe('no prebuilt bundle');
+  });
+
+  it('the launcher runs the bundle while it is current and the sources once a bundled file differs', () => {
+    // A copy of the package whose dist/cli is the test build, sharing the real sources and node_modules.
+    const pkg = join(work, 'pkg');
+    mkdirSync(join(pkg, 'dist'), { recursive: true });
+    cpSync(join(ROOT, 'bin'), join(pkg, 'bin'), { recursive: true });
+    cpSync(join(ROOT, BUILD), join(pkg, 'dist/cli'), { recursive: true });
+    for (const d of ['src', 'node_modules', 'instrument-profiles', 'package.json']) symlinkSync(join(ROOT, d), join(pkg, d));
+    const version = () => spawnSync(process.execPath, [join(pkg, 'bin/haloweave.js'), '--version'], { cwd: work, encoding: 'utf8', env: ENV });
+    const fresh = version();
+    expect(fresh.status).toBe(0);
+    expect(fresh.stdout.trim()).toBe('haloweave 0.1.0 (prebuilt bundle)');
+    const infoPath = join(pkg, 'dist/cli/build-info.json');
+    const info = JSON.parse(readFileSync(infoPath, 'utf8'));
+    const i = info.sources.findIndex((s: { path: string }) => s.path === 'src/cli/main.ts');
+    info.sources[i].mtimeMs -= 1000;
+    writeFileSync(infoPath, JSON.stringify(info));
+    const stale = version();
+    expect(stale.status).toBe(0);
+    expect(stale.stdout.trim()).toBe('haloweave 0.1.0 (sources (src/cli/main.ts changed))');
+    // Not a terminal: nothing extra on stderr, so scripts see the same output either way.
+    expect(stale.stderr).toBe('');
+  }, 60_000);
+});
