@@ -29,6 +29,7 @@ export const COMMANDS: Record<string, CommandEntry> = {
     summary: "observability of the galaxy from the profile's site, one row a night",
     load: () => import('./commands/sky'),
   },
+  forecast: { usage: 'haloweave forecast DIR [--trials N] [--seed S] [--against DIR_B] [--from DATE --to DATE] [--json]', summary: 'what the planned masks will measure: velocity, dispersion, rotation and mass errors from mocks; hours and nights', load: () => import('./commands/forecast') },
   demo: {
     usage: 'haloweave demo --out DIR',
     summary: 'write the invented example scenario and solve it',

@@ -10,6 +10,7 @@ import { weightingSchema } from '../solver/weighting';
 import { starlightSchema } from '../solver/starlight';
 import { searchSchema } from '../solver/objective';
 import { observingSchema } from '../observe/observingSettings';
+import { forecastSectionSchema } from './forecastSection';
 
 export const PLAN_FORMAT = 'haloweave.plan/1';
 
@@ -99,6 +100,8 @@ export const planSchema = z.looseObject({
   observing: observingSchema.optional(),
   /** Slit allocation settings (see allocationSchema). */
   allocation: allocationSchema.optional(),
+  /** Assumptions of the science forecast (plan/forecastSection). */
+  forecast: forecastSectionSchema.optional(),
 });
 
 export type PlanFile = z.infer<typeof planSchema>;
