@@ -9,7 +9,7 @@ export interface MaskHours {
   maskId: string;
   /** Exposure (hours) for `completeness` of the tracer slits to reach the target S/N; null when no tracer can. */
   exposureHours: number | null;
-  /** Tracer slits on the mask, and how many of them reach the target S/N within exposureHours. */
+  /** Tracer slits on the mask. */
   tracerSlits: number;
   /** exposureHours (or the planned exposure when null) plus the overhead, hours. */
   hours: number;
