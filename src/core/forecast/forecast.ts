@@ -7,7 +7,9 @@
 import type { GalaxyModel, PlanFile } from '../plan/schema';
 import type { InstrumentProfile } from '../profile/schema';
 import type { MaskSolution } from '../solver/types';
-import { observingReportForPlan } from '../observe/refractionReport';
+import { maskExposureReport, type MaskExposureReport } from '../observe/exposure';
+import { resolveObservingSettings, type ObservingSection } from '../observe/observingSettings';
+import { starlightSettings, type StarlightRules } from '../solver/starlight';
 import { resolveForecastSettings, type ForecastSettings } from './settings';
 import { slitSamples } from './samples';
 import { clusterProbability } from './contamination';
@@ -124,13 +126,38 @@ export function dispersionBinEdges(edgesRe: readonly number[], tracers: readonly
   return out;
 }
 
+/**
+ * Exposure estimates (S/N per Angstrom of every tracer and starlight slit in the planned exposure, and times to the
+ * target S/N) with the plan's settings, as the observing report of the plan computes them, without its refraction rows.
+ */
+export function planExposures(plan: PlanFile, profile: InstrumentProfile, galaxy: GalaxyModel, masks: readonly MaskSolution[]): { exposures: MaskExposureReport[]; exposureTimeS: number; targetSnPerA: number } {
+  const starlight = starlightSettings(plan.starlight as StarlightRules | undefined, profile, plan);
+  const settings = resolveObservingSettings(plan.observing as ObservingSection | undefined, profile, { exposureTimeS: starlight.exposureS });
+  const model = {
+    setup: starlight.setup, skyMagPerArcsec2: starlight.skyMagPerArcsec2, seeingFwhmArcsec: settings.seeingFwhmArcsec,
+    exposureTimeS: settings.exposureTimeS, targetSnPerA: settings.targetSnPerA,
+  };
+  return { exposures: masks.map((m) => maskExposureReport(m, galaxy, model)), exposureTimeS: settings.exposureTimeS, targetSnPerA: settings.targetSnPerA };
+}
+
+/** Hours of every mask (time for the completeness fraction of its tracers to reach the target S/N, plus overhead). */
+export function planMaskHours(plan: PlanFile, profile: InstrumentProfile, galaxy: GalaxyModel, masks: readonly MaskSolution[], known?: ReturnType<typeof planExposures>): MaskHours[] {
+  const s = resolveForecastSettings(plan.forecast, galaxy, plan.goals.linesA);
+  const { exposures, exposureTimeS } = known ?? planExposures(plan, profile, galaxy, masks);
+  return masks.map((m) => {
+    const ex = exposures.find((e) => e.maskId === m.mask.id);
+    const times = (ex?.slits ?? []).filter((x) => x.role === 'tracer').map((x) => x.timeForTargetSnS);
+    return maskHours(m.mask.id, times, s.completeness, exposureTimeS, s.overheadHoursPerMask);
+  });
+}
+
 /** Forecast of a solved plan (pure; the same seed and trials give the same numbers). */
 export function forecastPlan(input: ForecastInput): Forecast {
   const { plan, profile, galaxy } = input;
   const trials = input.trials ?? DEFAULT_TRIALS, seed = input.seed ?? 1;
   const s = resolveForecastSettings(plan.forecast, galaxy, plan.goals.linesA);
-  const report = observingReportForPlan(plan, profile, galaxy, [...input.masks]);
-  const exposures = report.exposures ?? [];
+  const known = planExposures(plan, profile, galaxy, input.masks);
+  const { exposures } = known;
   const { tracers, starlight } = slitSamples(galaxy, input.masks, exposures);
   const kpcPerRe = kpcPerArcsec(s.distanceMpc) * galaxy.reArcsec;
   const linesA = plan.goals.linesA, meanLineA = linesA.reduce((a, b) => a + b, 0) / linesA.length;
@@ -185,13 +212,7 @@ export function forecastPlan(input: ForecastInput): Forecast {
   const sBins = starlightBins(starlight, s, { instrumentalA, linesA, vsysKms: galaxy.vsysKms });
   const spin = spinProfile(sBins, s.starlightBinsRe, trials, `${seed}:starlight`);
 
-  const e0 = exposures[0];
-  const plannedS = e0?.exposureTimeS ?? report.settings.exposureTimeS;
-  const masksH = input.masks.map((m) => {
-    const ex = exposures.find((e) => e.maskId === m.mask.id);
-    const times = (ex?.slits ?? []).filter((x) => x.role === 'tracer').map((x) => x.timeForTargetSnS);
-    return maskHours(m.mask.id, times, s.completeness, plannedS, s.overheadHoursPerMask);
-  });
+  const masksH = planMaskHours(plan, profile, galaxy, input.masks, known);
   const total = masksH.reduce((a, m) => a + m.hours, 0);
   const nights = input.nights ? nightsNeeded(total, input.nights.rows, input.nights.from, input.nights.to) : null;
   if (!input.nights) notes.push('no semester given (forecast.semesterFrom/semesterTo in the plan, or --from/--to): nights not estimated');
@@ -215,7 +236,7 @@ export function forecastPlan(input: ForecastInput): Forecast {
     starlightBins: sBins, spinProfile: spin, fastRotatorThresholdLambda: fastRotatorThreshold(galaxy.axisRatio),
     hours: {
       perMask: masksH.map((m) => m.hours), maskIds: masksH.map((m) => m.maskId), total, masks: masksH,
-      plannedExposureHours: plannedS / 3600, targetSnPerA: report.settings.targetSnPerA, completeness: s.completeness,
+      plannedExposureHours: known.exposureTimeS / 3600, targetSnPerA: known.targetSnPerA, completeness: s.completeness,
       overheadHoursPerMask: s.overheadHoursPerMask, nights,
     },
     tracers: tf,

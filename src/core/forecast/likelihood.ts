@@ -21,27 +21,34 @@ export interface RotationFit {
   sigmaKms: number;
 }
 
-/** Root in sigma (km/s, >= 0) of the likelihood equation for residuals r and errors e (both km/s). */
-function solveSigma(r: ArrayLike<number>, e: ArrayLike<number>, n: number): number {
-  const score = (s: number) => {
-    let t = 0;
-    for (let i = 0; i < n; i++) {
-      const v = s * s + e[i] * e[i];
-      t += (r[i] * r[i] - v) / (v * v);
-    }
-    return t;
-  };
+/**
+ * Root in sigma (km/s, >= 0) of the likelihood equation for residuals r and errors e (both km/s): safeguarded
+ * Newton from `start` inside a shrinking bracket [lo, hi], bisection whenever a step leaves it.
+ */
+function solveSigma(r: ArrayLike<number>, e: ArrayLike<number>, n: number, start = 0): number {
   let hi = 0;
   for (let i = 0; i < n; i++) hi = Math.max(hi, Math.abs(r[i]));
   hi = hi * 2 + 1;
-  if (score(0) <= 0) return 0;
   let lo = 0;
-  for (let it = 0; it < 60 && hi - lo > 1e-6; it++) {
-    const mid = (lo + hi) / 2;
-    if (score(mid) > 0) lo = mid;
-    else hi = mid;
+  let s = Math.min(Math.max(start, 0), hi);
+  for (let it = 0; it < 100; it++) {
+    let f = 0, df = 0;
+    for (let i = 0; i < n; i++) {
+      const v = s * s + e[i] * e[i];
+      const r2 = r[i] * r[i];
+      if (v === 0) { f += r2 > 0 ? Infinity : 0; continue; }
+      f += (r2 - v) / (v * v);
+      df += 2 * s * (1 / (v * v) - (2 * r2) / (v * v * v));
+    }
+    if (f > 0) lo = s;
+    else hi = s;
+    if (s === 0 && f <= 0) return 0;
+    let next = df < 0 && Number.isFinite(f) ? s - f / df : NaN;
+    if (!(next > lo && next < hi)) next = (lo + hi) / 2;
+    if (Math.abs(next - s) < 1e-7 * (1 + s) || hi - lo < 1e-7 * (1 + s)) return next;
+    s = next;
   }
-  return (lo + hi) / 2;
+  return s;
 }
 
 /** Maximum-likelihood mean and dispersion (km/s) of velocities v with errors e (first n entries). */
@@ -53,7 +60,7 @@ export function fitDispersion(v: ArrayLike<number>, e: ArrayLike<number>, n = v.
   let sigma = 0;
   for (let it = 0; it < 30; it++) {
     for (let i = 0; i < n; i++) r[i] = v[i] - mean;
-    const next = solveSigma(r, e, n);
+    const next = solveSigma(r, e, n, sigma || undefined);
     let sw = 0, swv = 0;
     for (let i = 0; i < n; i++) {
       const w = 1 / (next * next + e[i] * e[i] + 1e-12);
@@ -109,7 +116,7 @@ export function fitRotation(v: ArrayLike<number>, e: ArrayLike<number>, cosPa: A
     const nx = solve3(m, y);
     if (!nx) return null;
     for (let i = 0; i < n; i++) r[i] = v[i] - nx[0] - nx[1] * cosPa[i] - nx[2] * sinPa[i];
-    const next = solveSigma(r, e, n);
+    const next = solveSigma(r, e, n, sigma);
     const done = x !== null && Math.abs(next - sigma) < 1e-4 && Math.abs(nx[1] - x[1]) < 1e-4 && Math.abs(nx[2] - x[2]) < 1e-4;
     x = nx;
     sigma = next;
