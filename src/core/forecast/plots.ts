@@ -58,7 +58,9 @@ export function dispersionProfileSvg(f: Forecast, other?: Forecast): string {
       const e = b.sigmaErrorKms;
       if (e !== null) fr.parts.push(`<rect x="${fr.x(b.fromRe)}" y="${fr.y(b.sigmaKms + e)}" width="${fr.x(b.toRe) - fr.x(b.fromRe)}" height="${fr.y(b.sigmaKms - e) - fr.y(b.sigmaKms + e)}" fill="${dashed ? 'none' : colour}" fill-opacity="0.25" stroke="${colour}"${dashed ? ' stroke-dasharray="4 3"' : ''}/>`);
       fr.parts.push(`<line x1="${fr.x(b.fromRe)}" y1="${fr.y(b.sigmaKms)}" x2="${fr.x(b.toRe)}" y2="${fr.y(b.sigmaKms)}" stroke="${colour}" stroke-width="2"${dashed ? ' stroke-dasharray="4 3"' : ''}/>`);
-      if (!dashed) fr.parts.push(`<text x="${(fr.x(b.fromRe) + fr.x(b.toRe)) / 2}" y="${fr.y(0) - 4}" text-anchor="middle" fill="#555">n=${Math.round(b.n)}</text>`);
+      // Counts where the bin is wide enough to hold them, else turned upright.
+      const cx = (fr.x(b.fromRe) + fr.x(b.toRe)) / 2, wide = fr.x(b.toRe) - fr.x(b.fromRe) > 34;
+      if (!dashed) fr.parts.push(wide ? `<text x="${cx}" y="${fr.y(0) - 4}" text-anchor="middle" fill="#555">n=${Math.round(b.n)}</text>` : `<text transform="translate(${cx + 4} ${fr.y(0) - 4}) rotate(-90)" fill="#555">n=${Math.round(b.n)}</text>`);
     }
   };
   draw(bins, false, '#1f5fa8');
@@ -70,7 +72,7 @@ export function dispersionProfileSvg(f: Forecast, other?: Forecast): string {
 export function rotationSvg(f: Forecast, other?: Forecast): string {
   const a = f.rotation.amplitudeKms, e = f.rotation.amplitudeErrorKms ?? 0;
   const top = Math.max(20, (a + e) * 1.2, other ? (other.rotation.amplitudeKms + (other.rotation.amplitudeErrorKms ?? 0)) * 1.2 : 0);
-  const fr = frame(`Rotation: ${f1(a)} +- ${f1(e)} km/s, PA ${f1(f.rotation.kinematicPaDeg)} +- ${f1(f.rotation.kinematicPaErrorDeg ?? NaN)} deg`, 'position angle (deg E of N)', 'v - vsys (km/s)', 0, 360, -top, top);
+  const fr = frame(`Rotation: ${f1(a)} \u00b1 ${f1(e)} km/s, kinematic PA ${f1(f.rotation.kinematicPaDeg)} \u00b1 ${f1(f.rotation.kinematicPaErrorDeg ?? NaN)} deg (${f.trials} mocks)`, 'position angle (deg E of N)', 'v - vsys (km/s)', 0, 360, -top, top);
   const curve = (amp: number, pa: number) => {
     const pts: string[] = [];
     for (let p = 0; p <= 360; p += 5) pts.push(`${fr.x(p).toFixed(1)},${fr.y(amp * PMath.cos(((p - pa) * Math.PI) / 180)).toFixed(1)}`);
@@ -106,13 +108,14 @@ export function starlightMapSvg(f: Forecast): string {
     const d = `M${pt(b.fromRe, a0)} L${pt(b.toRe, a0)} A${b.toRe * scale},${b.toRe * scale} 0 ${large} 0 ${pt(b.toRe, a1)} L${pt(b.fromRe, a1)}` + (b.fromRe > 0 ? ` A${b.fromRe * scale},${b.fromRe * scale} 0 ${large} 1 ${pt(b.fromRe, a0)}` : '') + ' Z';
     parts.push(`<path d="${d}" fill="${rampColour(b.snPerA / snMax)}" stroke="#fff"><title>${b.fromRe}-${b.toRe} Re, sector ${b.sectorDeg}-${a1} deg: ${b.slits} slits, S/N ${f1(b.snPerA)} per A, dV ${b.velocityErrorKms === null ? '--' : f1(b.velocityErrorKms)} km/s</title></path>`);
   }
-  for (const r of f.settings.starlightBinsRe.filter((r) => r > 0 && r <= rMax)) parts.push(`<circle cx="${cx}" cy="${cy}" r="${r * scale}" fill="none" stroke="#999" stroke-dasharray="2 3"/><text x="${cx + r * scale + 2}" y="${cy + 12}" fill="#555">${r} Re</text>`);
+  // Ring labels along a line 30 deg below the major axis, so neighbouring rings do not overlap.
+  for (const r of f.settings.starlightBinsRe.filter((r) => r > 0 && r <= rMax)) parts.push(`<circle cx="${cx}" cy="${cy}" r="${r * scale}" fill="none" stroke="#999" stroke-dasharray="2 3"/><text x="${(cx + r * scale * 0.866 + 2).toFixed(1)}" y="${(cy + r * scale * 0.5 + 4).toFixed(1)}" fill="#555">${r} Re</text>`);
   parts.push(`<line x1="${cx - rMax * scale}" y1="${cy}" x2="${cx + rMax * scale}" y2="${cy}" stroke="#999"/>`);
   for (let i = 0; i <= 4; i++) {
     const y = 260 - i * 45;
-    parts.push(`<rect x="330" y="${y - 45}" width="18" height="45" fill="${rampColour(i / 4)}"/><text x="354" y="${y - 40}">${f1((snMax * i) / 4)}</text>`);
+    parts.push(`<rect x="330" y="${y - 45}" width="18" height="45" fill="${rampColour(i / 4)}"/><text x="354" y="${y - 19}">${f1((snMax * i) / 4)}</text>`);
   }
-  parts.push(`<text x="330" y="282">S/N per A</text>`);
+  parts.push(`<text x="330" y="282">S/N per A</text>`, `<text x="${cx - rMax * scale}" y="${cy + 12}" fill="#555">major axis (u); +u to the right</text>`, `<text x="${cx + 4}" y="${cy - rMax * scale + 10}" fill="#555">+v</text>`);
   if (!bins.length) parts.push(`<text x="${cx}" y="${cy}" text-anchor="middle">no starlight slits</text>`);
   return svg(parts);
 }
