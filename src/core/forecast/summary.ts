@@ -15,7 +15,7 @@ function headline(f: Forecast): [string, string][] {
     ['median velocity error (km/s)', num(f.medianVelocityErrorKms)],
     ['rotation amplitude error (km/s)', num(f.rotation.amplitudeErrorKms)],
     ['kinematic PA error (deg)', num(f.rotation.kinematicPaErrorDeg)],
-    [`mass within outermost radius`, `${num(f.mass.radiusKpc)} kpc (${num(f.mass.radiusRe)} Re)`],
+    [`mass within outermost radius`, `${sci(f.mass.massMsun)} Msun within ${num(f.mass.radiusKpc)} kpc (${num(f.mass.radiusRe)} Re)`],
     ['mass error (+ distance)', `${pct(f.mass.fracError)} (${pct(f.mass.fracErrorWithDistance)})`],
     ['starlight bins with a velocity', `${f.starlightBins.filter((b) => b.velocityErrorKms !== null).length} of ${f.starlightBins.length}`],
     ['lambda_R within 1 Re', spinAt1 ? `${num(spinAt1.lambdaR, 3)} +- ${num(spinAt1.error, 3)}` : '--'],
@@ -56,6 +56,5 @@ export function formatComparison(a: Forecast, b: Forecast, nameA: string, nameB:
     const x = at(a, r), y = at(b, r);
     lines.push(`    ${num(r).padStart(5)}:  ${x ? `${pct(x.sigmaFracError)} (n ${num(x.n)}, ${num(x.fromRe)}-${num(x.toRe)})` : '--'}  |  ${y ? `${pct(y.sigmaFracError)} (n ${num(y.n)}, ${num(y.fromRe)}-${num(y.toRe)})` : '--'}`);
   }
-  lines.push(`  mass (Msun): ${sci(a.mass.massMsun)} | ${sci(b.mass.massMsun)}`);
   return lines;
 }
