@@ -21,14 +21,15 @@ const pct = (v: number | null) => (v === null ? '–' : `${(v * 100).toFixed(1)}
 const num = (v: number | null, d = 1) => (v === null || !Number.isFinite(v) ? '–' : v.toFixed(d));
 
 /** Rows of the panel's table: label, value of a forecast, test id. */
-const ROWS: [string, (f: Forecast) => string, string][] = [
-  ['cluster velocities', (f) => num(f.expectedVelocities, 0), 'fc-velocities'],
-  ['median v error', (f) => `${num(f.medianVelocityErrorKms)} km/s`, 'fc-verr'],
-  ['rotation amp. error', (f) => `${num(f.rotation.amplitudeErrorKms)} km/s`, 'fc-rot'],
-  ['kinematic PA error', (f) => `${num(f.rotation.kinematicPaErrorDeg)}°`, 'fc-pa'],
-  ['outermost sigma error', (f) => pct(f.dispersionProfile.at(-1)?.sigmaFracError ?? null), 'fc-outer'],
-  ['mass error', (f) => `${pct(f.mass.fracError)} at ${num(f.mass.radiusKpc, 0)} kpc`, 'fc-mass'],
-  ['hours', (f) => num(f.hours.total, 1), 'fc-hours'],
+const ROWS: [string, string, (f: Forecast) => string, string][] = [
+  ['velocities', 'cluster velocities expected after contamination and S/N', (f) => num(f.expectedVelocities, 0), 'fc-velocities'],
+  ['median δv km/s', 'median velocity error, km/s', (f) => num(f.medianVelocityErrorKms), 'fc-verr'],
+  ['δ rotation km/s', '1-sigma error of the rotation amplitude, km/s', (f) => num(f.rotation.amplitudeErrorKms), 'fc-rot'],
+  ['δ kin. PA', '1-sigma error of the kinematic position angle, degrees', (f) => `${num(f.rotation.kinematicPaErrorDeg)}°`, 'fc-pa'],
+  ['δσ/σ outer', 'fractional 1-sigma error of the dispersion in the outermost radial bin', (f) => pct(f.dispersionProfile.at(-1)?.sigmaFracError ?? null), 'fc-outer'],
+  ['δM/M', 'fractional 1-sigma error of the mass within the outermost radius (Watkins, Evans & An 2010)', (f) => pct(f.mass.fracError), 'fc-mass'],
+  ['r_out kpc', 'outermost expected cluster radius, kpc', (f) => num(f.mass.radiusKpc, 0), 'fc-rout'],
+  ['hours', 'hours for all masks with overheads', (f) => num(f.hours.total, 1), 'fc-hours'],
 ];
 
 export function ForecastPanel({ c }: { c: EditorController }) {
@@ -89,19 +90,19 @@ export function ForecastPanel({ c }: { c: EditorController }) {
           <table className="mini" data-testid="forecast-table">
             <thead><tr><th /><th>{now!.live ? 'dragging' : 'current'}</th><th>saved</th></tr></thead>
             <tbody>
-              {ROWS.map(([label, get, id]) => (
-                <tr key={id}><td>{label}</td><td className="num" data-testid={id}>{get(f)}</td><td className="num dim" data-testid={`${id}-saved`}>{saved ? get(saved) : '–'}</td></tr>
+              {ROWS.map(([label, title, get, id]) => (
+                <tr key={id} title={title}><td>{label}</td><td className="num" data-testid={id}>{get(f)}</td><td className="num dim" data-testid={`${id}-saved`}>{saved ? get(saved) : '–'}</td></tr>
               ))}
             </tbody>
           </table>
           <div className="row-tools">
             {(['dispersion', 'rotation', 'starlight'] as Plot[]).map((p) => (
-              <button key={p} onClick={() => setPlot(p)} aria-pressed={plot === p} data-testid={`forecast-plot-${p}`}>{p}</button>
+              <button key={p} onClick={() => setPlot(p)} aria-pressed={plot === p} data-testid={`forecast-plot-${p}`} title={`show the ${p} plot`}>{p === 'dispersion' ? 'σ(R)' : p}</button>
             ))}
-            <button onClick={() => downloadFile(`forecast-${plot}.svg`, svg, 'image/svg+xml')} title="Save this plot as SVG">SVG…</button>
-            <button onClick={() => downloadFile('forecast.json', JSON.stringify(f, null, 2), 'application/json')} title="Save the whole forecast (as haloweave forecast writes it)">JSON…</button>
+            <button onClick={() => downloadFile(`forecast-${plot}.svg`, svg, 'image/svg+xml')} title="Save this plot as SVG">SVG</button>
+            <button onClick={() => downloadFile('forecast.json', JSON.stringify(f, null, 2), 'application/json')} title="Save the whole forecast (as haloweave forecast writes it)">JSON</button>
           </div>
-          <div className="forecast-plot" data-testid="forecast-plot" style={{ background: '#fff', borderRadius: 4 }} dangerouslySetInnerHTML={{ __html: svg }} />
+          <div className="forecast-plot" data-testid="forecast-plot" style={{ background: '#fff', borderRadius: 4 }} dangerouslySetInnerHTML={{ __html: svg.replace(/ width="\d+" height="\d+"/, ' width="100%"') }} />
           <div className="small dim" data-testid="forecast-info" data-live={now!.live ? 'yes' : 'no'} data-trials={trials}>
             {trials} mocks{now!.live ? ' while dragging' : ''} (errors good to {(trialPrecision(trials) * 100).toFixed(0)} %), {now!.ms.toFixed(0)} ms in a worker
             {other ? ' · dashed: saved layout' : ''} · model and assumptions in the plan's forecast section (docs/forecast.md)
