@@ -47,6 +47,18 @@ describe('haloweave forecast', () => {
     expect(existsSync(join(dir, 'forecast-dispersion-against.svg'))).toBe(true);
   }, 60_000);
 
+  it('--from/--to: nights of the semester from the observable dark hours', async () => {
+    const c = capture();
+    expect(await main(['forecast', dir, '--trials', '10', '--from', '2027-03-01', '--to', '2027-03-10', '--json'], c.io)).toBe(0);
+    const f = JSON.parse(c.out.join(''));
+    expect(f.hours.nights).toMatchObject({ from: '2027-03-01', to: '2027-03-10' });
+    expect(f.hours.nights.nightsUsable).toBeGreaterThan(0);
+    expect(f.hours.nights.nightsUsable).toBeLessThanOrEqual(10);
+    // Either the nights cover the hours, or the ten nights' hours fall short of them.
+    if (f.hours.nights.nightsNeeded === null) expect(f.hours.nights.hoursAvailable).toBeLessThan(f.hours.total);
+    else expect(f.hours.nights.nightsNeeded).toBeLessThanOrEqual(f.hours.nights.nightsUsable);
+  }, 60_000);
+
   it('bad options and missing folders are input errors (exit 2) naming what to fix', async () => {
     const c = capture();
     expect(await main(['forecast', dir, '--trials', 'many', '--from', '2027-02-01'], c.io)).toBe(2);

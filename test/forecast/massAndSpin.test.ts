@@ -25,6 +25,17 @@ describe('Watkins, Evans & An (2010) tracer mass estimator', () => {
     expect(tracerMassMsun(vObs, r, [900, 900, 900, 900], 0, 0, 3)).toBeCloseTo(tracerMassMsun(v, r, e2, 0, 0, 3), 0);
   });
 
+  it('agrees with the Jeans equation for isotropic power-law tracers in a flat rotation curve (independent derivation)', () => {
+    // Spherical isotropic Jeans equation (Binney & Tremaine, Galactic Dynamics; from memory, the steps here are derived):
+    // d(nu s_r^2)/dr = -nu v_c^2 / r. With nu ~ r^-gamma
+    // and constant s_r: s_r^2 gamma = v_c^2, and M(<r) = v_c^2 r / G = gamma s^2 r / G; isotropy makes s_los = s_r.
+    for (const gamma of [2.5, 3, 3.5, 4.2]) {
+      const sigma = 180, rOut = 40;
+      const v = [sigma, -sigma, sigma, -sigma], r = [5, 12, 30, rOut];
+      expect(tracerMassMsun(v, r, [0, 0, 0, 0], 0, 0, gamma) / ((gamma * sigma * sigma * rOut) / G_KPC_KMS2_PER_MSUN)).toBeCloseTo(1, 9);
+    }
+  });
+
   it('kpc per arcsec at 10 Mpc: 48.48 pc (small-angle: 1e7 pc / 206265)', () => {
     expect(kpcPerArcsec(10)).toBeCloseTo(1e4 / 206264.806, 9);
   });
