@@ -93,6 +93,20 @@ describe('forecast on a known sampling', () => {
     expect(faint.medianVelocityErrorKms ?? Infinity).toBeGreaterThan(fc.medianVelocityErrorKms!);
   });
 
+  it('a layout without tracer slits gives a forecast of nulls and empty lists, and plots that say so', async () => {
+    const plan = planWith({});
+    const f = forecastPlan({ plan, profile, galaxy: galaxyModel(plan), masks: tracerLayout(plan, []), trials: 20, seed: 1 });
+    expect(f.expectedVelocities).toBe(0);
+    expect(f.dispersionProfile).toEqual([]);
+    expect(f.rotation.amplitudeErrorKms).toBeNull();
+    expect(f.mass.fracError).toBeNull();
+    expect(f.starlightBins).toEqual([]);
+    const { starlightMapSvg, dispersionProfileSvg, rotationSvg } = await import('../../src/core/forecast/plots');
+    expect(starlightMapSvg(f)).toMatch(/no starlight slits/);
+    expect(dispersionProfileSvg(f)).toMatch(/<svg/);
+    expect(rotationSvg(f)).not.toMatch(/NaN/);
+  });
+
   it('default trials give errors good to 5 % (1/sqrt(2(N-1)) for a normal sample)', () => {
     expect(trialPrecision(DEFAULT_TRIALS)).toBeLessThanOrEqual(0.05);
     expect(trialPrecision(DEFAULT_TRIALS - 1)).toBeGreaterThan(0.05);

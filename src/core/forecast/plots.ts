@@ -10,7 +10,7 @@ import type { Forecast } from './forecast';
 const W = 480, H = 300, L = 56, R = 16, T = 34, B = 44;
 
 const esc = (t: string) => t.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;');
-const f1 = (v: number) => (Math.round(v * 10) / 10).toString();
+const f1 = (v: number | null) => (v === null || !Number.isFinite(v) ? '\u2013' : (Math.round(v * 10) / 10).toString());
 
 /** "Nice" tick values covering [lo, hi] (about n of them). */
 export function niceTicks(lo: number, hi: number, n = 5): number[] {
@@ -70,9 +70,9 @@ export function dispersionProfileSvg(f: Forecast, other?: Forecast): string {
 
 /** Rotation curve: v = A cos(PA - PAkin) with the band A +- its error, and a rug of the expected velocities' PAs. */
 export function rotationSvg(f: Forecast, other?: Forecast): string {
-  const a = f.rotation.amplitudeKms, e = f.rotation.amplitudeErrorKms ?? 0;
+  const a = f.rotation.amplitudeKms, e = f.rotation.amplitudeErrorKms ?? 0, eShown = f.rotation.amplitudeErrorKms;
   const top = Math.max(20, (a + e) * 1.2, other ? (other.rotation.amplitudeKms + (other.rotation.amplitudeErrorKms ?? 0)) * 1.2 : 0);
-  const fr = frame(`Rotation: ${f1(a)} \u00b1 ${f1(e)} km/s, kinematic PA ${f1(f.rotation.kinematicPaDeg)} \u00b1 ${f1(f.rotation.kinematicPaErrorDeg ?? NaN)} deg (${f.trials} mocks)`, 'position angle (deg E of N)', 'v - vsys (km/s)', 0, 360, -top, top);
+  const fr = frame(`Rotation: ${f1(a)} \u00b1 ${f1(eShown)} km/s, kinematic PA ${f1(f.rotation.kinematicPaDeg)} \u00b1 ${f1(f.rotation.kinematicPaErrorDeg)} deg (${f.trials} mocks)`, 'position angle (deg E of N)', 'v - vsys (km/s)', 0, 360, -top, top);
   const curve = (amp: number, pa: number) => {
     const pts: string[] = [];
     for (let p = 0; p <= 360; p += 5) pts.push(`${fr.x(p).toFixed(1)},${fr.y(amp * PMath.cos(((p - pa) * Math.PI) / 180)).toFixed(1)}`);
