@@ -29,6 +29,22 @@ describe('forecast on a known sampling', () => {
     }
   });
 
+  it('the slope of the dispersion profile: error as propagated from the bins (independent bins, least squares)', () => {
+    const plan = planWith({ ...exact, kinematics: { sigmaKms: 150, sigmaSlope: -0.3, rotationKms: 0 }, radialBinsRe: [0, 3, 6, 9], minPerBin: 5 });
+    const masks = tracerLayout(plan, [...ring(120, 1.5, 17), ...ring(120, 4.5, 17, 1), ...ring(120, 7.5, 17, 2)]);
+    const f = forecastPlan({ plan, profile, galaxy: galaxyModel(plan), masks, trials: 1500, seed: 12 });
+    // Var(slope) = sum (x_b - mean x)^2 f_b^2 / (sum (x_b - mean x)^2)^2, x = ln R, f the fractional error of each
+    // bin's sigma (= the error of ln sigma): propagation of errors through an unweighted least-squares slope.
+    const x = f.dispersionProfile.map((b) => Math.log(b.meanRadiusRe)), fe = f.dispersionProfile.map((b) => b.sigmaFracError!);
+    const xm = x.reduce((a, b) => a + b, 0) / x.length;
+    const sxx = x.reduce((a, v) => a + (v - xm) ** 2, 0);
+    const want = Math.sqrt(x.reduce((a, v, i) => a + (v - xm) ** 2 * fe[i] ** 2, 0)) / sxx;
+    console.log(`slope error ${f.dispersionSlope.slopeError!.toFixed(4)} (propagated ${want.toFixed(4)}), mean fitted ${f.dispersionSlope.meanFittedSlope!.toFixed(3)}`);
+    expect(Math.abs(f.dispersionSlope.slopeError! / want - 1)).toBeLessThan(0.08);
+    // Recovered without bias beyond a third of its error.
+    expect(Math.abs(f.dispersionSlope.meanFittedSlope! + 0.3)).toBeLessThan(want / 3);
+  });
+
   it('the mocks recover the injected dispersion, amplitude and PA within the quoted 1-sigma errors 68.3 % of the time', () => {
     const plan = planWith({ kinematics: { sigmaKms: 180, sigmaSlope: 0, rotationKms: 70, kinematicPaDeg: 80 }, radialBinsRe: [0, 4, 8] });
     const points = [...ring(90, 2, 21), ...ring(60, 6, 22, 2)];

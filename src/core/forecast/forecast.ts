@@ -5,6 +5,7 @@
  * (R/Re) and also in kpc at the forecast distance; PAs degrees East of North; velocities km/s.
  */
 import type { GalaxyModel, PlanFile } from '../plan/schema';
+import { PMath } from '../numeric/portableMath';
 import type { InstrumentProfile } from '../profile/schema';
 import type { MaskSolution } from '../solver/types';
 import { maskExposureReport, type MaskExposureReport } from '../observe/exposure';
@@ -62,6 +63,23 @@ export interface DispersionBin {
   biasFrac: number | null;
   /** The textbook limit 1/sqrt(2n) for negligible velocity errors, for comparison. */
   idealFracError: number | null;
+  /** Mean radius of the bin's expected velocities (Re), where the bin's point is drawn and the slope is fitted. */
+  meanRadiusRe: number;
+}
+
+/**
+ * Logarithmic slope of the dispersion profile, d ln sigma / d ln R, fitted per mock (unweighted least squares over
+ * the bins at their mean radii): the model slope, the mean fitted and the 1-sigma error.
+ */
+export function slopeOfBins(radiiRe: readonly number[], sigmas: ArrayLike<number>): number {
+  let n = 0, sx = 0, sy = 0, sxx = 0, sxy = 0;
+  for (let i = 0; i < radiiRe.length; i++) {
+    if (!(sigmas[i] > 0) || !(radiiRe[i] > 0)) continue;
+    const x = PMath.log(radiiRe[i]), y = PMath.log(sigmas[i]);
+    n++; sx += x; sy += y; sxx += x * x; sxy += x * y;
+  }
+  const d = n * sxx - sx * sx;
+  return n >= 2 && d > 0 ? (n * sxy - sx * sy) / d : NaN;
 }
 
 export interface Forecast {
@@ -81,7 +99,12 @@ export interface Forecast {
   slitsWithVelocity: number;
   medianVelocityErrorKms: number | null;
   dispersionProfile: DispersionBin[];
-  rotation: { amplitudeKms: number; kinematicPaDeg: number; amplitudeErrorKms: number | null; kinematicPaErrorDeg: number | null; meanFittedAmplitudeKms: number | null };
+  dispersionSlope: { slope: number; slopeError: number | null; meanFittedSlope: number | null };
+  rotation: {
+    amplitudeKms: number; kinematicPaDeg: number; amplitudeErrorKms: number | null; kinematicPaErrorDeg: number | null; meanFittedAmplitudeKms: number | null;
+    /** Fraction of mocks whose fitted amplitude exceeds 3 times the amplitude error: the chance to detect the rotation. */
+    detectionFraction: number | null;
+  };
   mass: {
     estimator: string;
     radiusKpc: number;
@@ -184,10 +207,11 @@ export function forecastPlan(input: ForecastInput): Forecast {
   const k = s.kinematics;
   const dispersionProfile: DispersionBin[] = [];
   for (let b = 0; b + 1 < edges.length && mockTracers.length; b++) {
-    let n = 0, s2 = 0;
+    let n = 0, s2 = 0, sr = 0;
     for (const t of mockTracers) {
       if (binIndex(edges, t.radiusRe) !== b) continue;
       n += t.clusterProbability;
+      sr += t.clusterProbability * t.radiusRe;
       s2 += t.clusterProbability * modelSigmaKms(t.radiusRe, k) * modelSigmaKms(t.radiusRe, k);
     }
     const sigma = n > 0 ? Math.sqrt(s2 / n) : modelSigmaKms((edges[b] + edges[b + 1]) / 2, k);
@@ -196,12 +220,15 @@ export function forecastPlan(input: ForecastInput): Forecast {
     dispersionProfile.push({
       fromRe: edges[b], toRe: edges[b + 1], fromKpc: edges[b] * kpcPerRe, toKpc: edges[b + 1] * kpcPerRe, n, sigmaKms: sigma,
       sigmaErrorKms: enough ? st.std : null, sigmaFracError: enough ? st.std / sigma : null, biasFrac: enough ? st.mean / sigma - 1 : null,
-      idealFracError: n > 0 ? 1 / Math.sqrt(2 * n) : null,
+      idealFracError: n > 0 ? 1 / Math.sqrt(2 * n) : null, meanRadiusRe: n > 0 ? sr / n : (edges[b] + edges[b + 1]) / 2,
     });
     if (!enough) notes.push(`radial bin ${edges[b]}-${edges[b + 1]} Re has fewer than 3 velocities in most mocks: no dispersion error quoted`);
   }
 
+  const radii = dispersionProfile.map((b) => b.meanRadiusRe);
+  const slopes = meanAndStd(fits.map((f) => slopeOfBins(radii, f.binSigmaKms)));
   const amp = meanAndStd(fits.map((f) => f.amplitudeKms));
+  const detected = Number.isFinite(amp.std) ? fits.filter((f) => f.amplitudeKms > 3 * amp.std).length / fits.length : null;
   const paErr = angleScatterDeg(fits.map((f) => f.kinematicPaDeg), k.kinematicPaDeg);
   if (k.rotationKms === 0) notes.push('model without rotation: the kinematic PA is undefined and its scatter is that of noise');
   const mass = meanAndStd(fits.map((f) => f.massMsun));
@@ -222,10 +249,11 @@ export function forecastPlan(input: ForecastInput): Forecast {
     tracerSlits: tf.length, expectedVelocities: expected, slitsWithVelocity: usable.length,
     medianVelocityErrorKms: errs.length ? errs[Math.floor((errs.length - 1) / 2)] : null,
     dispersionProfile,
+    dispersionSlope: { slope: k.sigmaSlope, slopeError: Number.isFinite(slopes.std) ? slopes.std : null, meanFittedSlope: Number.isFinite(slopes.mean) ? slopes.mean : null },
     rotation: {
       amplitudeKms: k.rotationKms, kinematicPaDeg: k.kinematicPaDeg,
       amplitudeErrorKms: Number.isFinite(amp.std) ? amp.std : null, kinematicPaErrorDeg: Number.isFinite(paErr) ? paErr : null,
-      meanFittedAmplitudeKms: Number.isFinite(amp.mean) ? amp.mean : null,
+      meanFittedAmplitudeKms: Number.isFinite(amp.mean) ? amp.mean : null, detectionFraction: detected,
     },
     mass: {
       estimator: 'Watkins, Evans & An (2010), line-of-sight velocities and projected radii',
