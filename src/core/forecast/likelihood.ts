@@ -3,8 +3,8 @@
  *   -ln L = 1/2 sum [ ln(sigma^2 + e_i^2) + (v_i - model_i)^2 / (sigma^2 + e_i^2) ].
  * The dispersion fit has a free mean; the rotation fit has model_i = v0 + a cos(PA_i) + b sin(PA_i), so the
  * amplitude is sqrt(a^2 + b^2) and the kinematic PA atan2(b, a) (the receding side, degrees East of North).
- * For fixed sigma the means are weighted least squares; sigma is then the root of d(-ln L)/d sigma = 0,
- * found by bisection on sum w_i^2 [r_i^2 - sigma^2 - e_i^2] = 0 with w_i = 1/(sigma^2 + e_i^2).
+ * For fixed sigma the means are weighted least squares; sigma is then the root of d(-ln L)/d sigma = 0, that is
+ * sum w_i^2 [r_i^2 - sigma^2 - e_i^2] = 0 with w_i = 1/(sigma^2 + e_i^2) (safeguarded Newton); the two steps alternate.
  */
 import { PMath } from '../numeric/portableMath';
 

@@ -68,8 +68,10 @@ export function ForecastPanel({ c }: { c: EditorController }) {
     const s = state.current;
     const req: ForecastRequest = { id: ++s.id, plan: result.plan, profile, galaxy: result.galaxy, masks: result.masks, trials: live ? LIVE_FORECAST_TRIALS : DEFAULT_TRIALS, seed: 1 };
     s.meta.set(req.id, { live, result });
-    if (s.busy) s.pending = req;
-    else { worker.current.postMessage(req); s.busy = true; }
+    if (s.busy) {
+      if (s.pending) s.meta.delete(s.pending.id); // overtaken before it was sent
+      s.pending = req;
+    } else { worker.current.postMessage(req); s.busy = true; }
   }, [result, profile, live]);
 
   // The saved layout's forecast: the full forecast of the exact solve of a plan without unsaved changes.
