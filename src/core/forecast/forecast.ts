@@ -22,6 +22,7 @@ import { spinProfile, starlightBins, type SpinPoint, type StarlightBin } from '.
 import { fastRotatorThreshold } from './spin';
 import { maskHours, nightsNeeded, type MaskHours, type NightsEstimate } from './hours';
 
+/** The `format` of forecast.json (interface contract, revision 2). */
 export const FORECAST_FORMAT = 'haloweave.forecast/1';
 
 /** Relative precision of a standard deviation estimated from N trials: 1/sqrt(2(N - 1)) (normal samples). */

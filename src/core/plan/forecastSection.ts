@@ -11,6 +11,7 @@ const edges = z
   .min(2, 'give at least two bin edges')
   .refine((a) => a.every((v, i) => i === 0 || v > a[i - 1]), 'bin edges must increase');
 
+/** Schema of the plan's `forecast` section (every key optional; unknown keys kept). */
 export const forecastSectionSchema = z.looseObject({
   /** The kinematic model the mocks are drawn from. */
   kinematics: z

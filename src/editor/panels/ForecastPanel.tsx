@@ -32,6 +32,7 @@ const ROWS: [string, string, (f: Forecast) => string, string][] = [
   ['hours', 'hours for all masks with overheads', (f) => num(f.hours.total, 1), 'fc-hours'],
 ];
 
+/** The panel: current (or live, while dragging) and saved forecasts, one plot at a time. */
 export function ForecastPanel({ c }: { c: EditorController }) {
   const result: SolveResult | undefined = c.session.solution?.result;
   const profile = c.store!.doc.profile;
