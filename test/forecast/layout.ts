@@ -21,7 +21,7 @@ export function planWith(forecast: ForecastSection, extra: Record<string, unknow
   return parsePlan({ ...demoPlanJson, masks: [], forecast, ...extra });
 }
 
-/** One mask holding tracer slits at (radiusRe, paDeg) pairs of the plan's galaxy, each of magnitude mag. */
+/** One mask (centred on the galaxy, PA 0) holding slits at (radiusRe, paDeg) pairs of the plan's galaxy, each of magnitude mag. */
 export function tracerLayout(plan: PlanFile, points: readonly { radiusRe: number; paDeg: number; mag: number; role?: 'tracer' | 'starlight' }[]): MaskSolution[] {
   const g = galaxyModel(plan);
   const centre = tangentCentre(g.raDeg, g.decDeg);
@@ -32,7 +32,8 @@ export function tracerLayout(plan: PlanFile, points: readonly { radiusRe: number
     const sky = tangentToSkyDeg(centre, xi, eta);
     return {
       maskId: 'm1', slitId: `s${i + 1}`, objectId: `o${i + 1}`, role: p.role ?? 'tracer', raDeg: sky.raDeg, decDeg: sky.decDeg, priority: 1,
-      mag: p.role === 'starlight' ? null : p.mag, xArcsec: 0, yArcsec: i * 10, lenBelowArcsec: 3, lenAboveArcsec: 3, widthArcsec: 1, tiltDeg: 0,
+      mag: p.role === 'starlight' ? null : p.mag, xArcsec: xi, yArcsec: eta, // mask at the galaxy centre, PA 0: x = xi, y = eta
+      lenBelowArcsec: 3, lenAboveArcsec: 3, widthArcsec: 1, tiltDeg: 0,
     };
   });
   return [{ mask: { id: 'm1', raDeg: g.raDeg, decDeg: g.decDeg, paDeg: 0, locked: true }, slits }];
