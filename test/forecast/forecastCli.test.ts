@@ -67,6 +67,10 @@ describe('haloweave forecast', () => {
     expect(err).toMatch(/--to/);
     const d = capture();
     expect(await main(['forecast', join(dir, 'nowhere')], d.io)).toBe(2);
+    const before = readFileSync(join(dir, 'forecast.json'), 'utf8');
+    const e = capture();
+    expect(await main(['forecast', dir, '--trials', '10', '--seed', '77', '--against', join(dir, 'nowhere')], e.io)).toBe(2);
+    expect(readFileSync(join(dir, 'forecast.json'), 'utf8')).toBe(before); // nothing written when B cannot be read
     expect(d.err.join('\n')).toMatch(/folder not found/);
     expect(d.err.join('\n')).not.toMatch(/at .*\.ts:/);
   });

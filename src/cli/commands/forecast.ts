@@ -116,12 +116,13 @@ export async function run(argv: string[], io: CliIO): Promise<number> {
   const f = forecastPlan({ ...input, trials: o.trials, seed: o.seed });
   f.notes.push(...notes);
   const dir = resolve(o.dir);
-  writeFileAtomic(join(dir, 'forecast.json'), forecastJson(f));
+  // The second folder is read before anything is written, so a mistake there leaves the first folder untouched.
   let other: Forecast | null = null;
   if (o.against) {
     const inputB = loadForecastInput(o.against, o, f.notes);
     other = forecastPlan({ ...inputB, trials: o.trials, seed: o.seed });
   }
+  writeFileAtomic(join(dir, 'forecast.json'), forecastJson(f));
   const suffix = other ? '-against' : '';
   writeFileAtomic(join(dir, 'forecast-dispersion.svg'), dispersionProfileSvg(f));
   writeFileAtomic(join(dir, 'forecast-rotation.svg'), rotationSvg(f));
