@@ -40,6 +40,7 @@ export const COMMANDS: Record<string, CommandEntry> = {
     summary: 'check an instrument profile on its own (slits and boxes fit, lines on the detector) and draw it as SVG',
     load: () => import('./commands/profile'),
   },
+  forecast: { usage: 'haloweave forecast DIR [--trials N] [--seed S] [--against DIR_B] [--from DATE --to DATE] [--json]', summary: 'what the planned masks will measure: velocity, dispersion, rotation and mass errors from mocks; hours and nights', load: () => import('./commands/forecast') },
   demo: {
     usage: 'haloweave demo --out DIR',
     summary: 'write the invented example scenario and solve it',

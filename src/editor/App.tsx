@@ -20,6 +20,7 @@ import { SearchPanel } from './panels/SearchPanel';
 import { YieldPanel } from './panels/YieldPanel';
 import { CoveragePanel } from './panels/CoveragePanel';
 import { ObservabilityPanel } from './panels/ObservabilityPanel';
+import { ForecastPanel } from './panels/ForecastPanel';
 import { TargetTable } from './panels/TargetTable';
 import { RejectReport } from './panels/RejectReport';
 import { ExportMenu } from './panels/ExportMenu';
@@ -177,6 +178,7 @@ export function App({ controller: c }: { controller: EditorController }) {
             <YieldPanel c={c} />
             <CoveragePanel c={c} galaxyPaDeg={galaxy.paDeg} />
             <ObservabilityPanel c={c} galaxy={galaxy} />
+            <ForecastPanel c={c} />
             {session.catalog && <RejectReport key={`${session.catalog.source}:${session.catalog.rowsRead}:${session.catalog.rejects.length}`} catalog={session.catalog} name={session.catalogFile?.name ?? session.catalog.source} />}
           </aside>
         </div>

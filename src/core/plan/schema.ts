@@ -11,6 +11,7 @@ import { starlightSchema } from '../solver/starlight';
 import { searchSchema } from '../solver/objective';
 import { observingSchema } from '../observe/observingSettings';
 import { photometrySchema } from '../spectro/photometry';
+import { forecastSectionSchema } from './forecastSection';
 
 export const PLAN_FORMAT = 'haloweave.plan/1';
 
@@ -106,6 +107,8 @@ export const planSchema = z.looseObject({
   allocation: allocationSchema.optional(),
   /** Band and magnitude system of the catalog (spectro/photometry); absent: AB assumed. */
   photometry: photometrySchema.optional(),
+  /** Assumptions of the science forecast (plan/forecastSection). */
+  forecast: forecastSectionSchema.optional(),
 });
 
 export type PlanFile = z.infer<typeof planSchema>;

@@ -1,0 +1,118 @@
+/**
+ * The science forecast of the layout on screen (src/core/forecast/), computed in a worker: while a mask is dragged
+ * with fewer mocks (stated, with the precision of its errors), otherwise with the default; beside it the forecast
+ * of the last saved layout (the last exact solve while the plan had no unsaved change), so a drag shows what it
+ * gains or loses. Plots: dispersion profile (saved layout dashed), rotation curve, starlight bins; each exportable.
+ */
+import { useEffect, useRef, useState } from 'react';
+import type { EditorController } from '../controller';
+import type { Forecast } from '../../core/forecast/forecast';
+import { DEFAULT_TRIALS, trialPrecision } from '../../core/forecast/forecast';
+import { LIVE_FORECAST_TRIALS } from '../../core/forecast/live';
+import { dispersionProfileSvg, rotationSvg, starlightMapSvg } from '../../core/forecast/plots';
+import type { ForecastReply, ForecastRequest } from '../worker/forecastWorker';
+import type { SolveResult } from '../worker/protocol';
+import { downloadFile } from '../io/download';
+import { Panel } from './Panel';
+
+type Plot = 'dispersion' | 'rotation' | 'starlight';
+
+const pct = (v: number | null) => (v === null ? '–' : `${(v * 100).toFixed(1)} %`);
+const num = (v: number | null, d = 1) => (v === null || !Number.isFinite(v) ? '–' : v.toFixed(d));
+
+/** Rows of the panel's table: label, value of a forecast, test id. */
+const ROWS: [string, string, (f: Forecast) => string, string][] = [
+  ['velocities', 'cluster velocities expected after contamination and S/N', (f) => num(f.expectedVelocities, 0), 'fc-velocities'],
+  ['median δv km/s', 'median velocity error, km/s', (f) => num(f.medianVelocityErrorKms), 'fc-verr'],
+  ['δ rotation km/s', '1-sigma error of the rotation amplitude, km/s', (f) => num(f.rotation.amplitudeErrorKms), 'fc-rot'],
+  ['δ kin. PA', '1-sigma error of the kinematic position angle, degrees', (f) => `${num(f.rotation.kinematicPaErrorDeg)}°`, 'fc-pa'],
+  ['δσ/σ outer', 'fractional 1-sigma error of the dispersion in the outermost radial bin', (f) => pct(f.dispersionProfile.at(-1)?.sigmaFracError ?? null), 'fc-outer'],
+  ['δM/M', 'fractional 1-sigma error of the mass within the outermost radius (Watkins, Evans & An 2010)', (f) => pct(f.mass.fracError), 'fc-mass'],
+  ['r_out kpc', 'outermost expected cluster radius, kpc', (f) => num(f.mass.radiusKpc, 0), 'fc-rout'],
+  ['hours', 'hours for all masks with overheads', (f) => num(f.hours.total, 1), 'fc-hours'],
+];
+
+/** The panel: current (or live, while dragging) and saved forecasts, one plot at a time. */
+export function ForecastPanel({ c }: { c: EditorController }) {
+  const result: SolveResult | undefined = c.session.solution?.result;
+  const profile = c.store!.doc.profile;
+  const live = !!c.session.preview || (!!result && !c.session.solvedDoc);
+  const clean = !c.store!.dirty && c.solutionIsCurrent;
+  const [now, setNow] = useState<{ f: Forecast; ms: number; live: boolean } | null>(null);
+  const [saved, setSaved] = useState<Forecast | null>(null);
+  const [plot, setPlot] = useState<Plot>('dispersion');
+  const [error, setError] = useState<string | null>(null);
+  const worker = useRef<Worker | null>(null);
+  const state = useRef<{ id: number; busy: boolean; pending: ForecastRequest | null; meta: Map<number, { live: boolean; result: SolveResult }> }>({ id: 0, busy: false, pending: null, meta: new Map() });
+  const lastFull = useRef<{ f: Forecast; result: SolveResult } | null>(null);
+
+  useEffect(() => {
+    const w = new Worker(new URL('../worker/forecastWorker.ts', import.meta.url), { type: 'module' });
+    worker.current = w;
+    w.onmessage = (ev: MessageEvent<ForecastReply>) => {
+      const s = state.current;
+      const meta = s.meta.get(ev.data.id);
+      s.meta.delete(ev.data.id);
+      s.busy = false;
+      if (s.pending) { w.postMessage(s.pending); s.busy = true; s.pending = null; }
+      if ('error' in ev.data) { setError(ev.data.error); return; }
+      setError(null);
+      if (!meta) return;
+      setNow({ f: ev.data.forecast, ms: ev.data.computeMs, live: meta.live });
+      if (!meta.live) lastFull.current = { f: ev.data.forecast, result: meta.result };
+    };
+    return () => w.terminate();
+  }, []);
+
+  useEffect(() => {
+    if (!result || !worker.current) return;
+    const s = state.current;
+    const req: ForecastRequest = { id: ++s.id, plan: result.plan, profile, galaxy: result.galaxy, masks: result.masks, trials: live ? LIVE_FORECAST_TRIALS : DEFAULT_TRIALS, seed: 1 };
+    s.meta.set(req.id, { live, result });
+    if (s.busy) {
+      if (s.pending) s.meta.delete(s.pending.id); // overtaken before it was sent
+      s.pending = req;
+    } else { worker.current.postMessage(req); s.busy = true; }
+  }, [result, profile, live]);
+
+  // The saved layout's forecast: the full forecast of the exact solve of a plan without unsaved changes.
+  useEffect(() => {
+    if (clean && lastFull.current && lastFull.current.result === result) setSaved(lastFull.current.f);
+  }, [clean, result, now]);
+
+  const f = now?.f ?? null;
+  const other = saved && f && saved !== f ? saved : undefined;
+  const svg = !f ? '' : plot === 'dispersion' ? dispersionProfileSvg(f, other) : plot === 'rotation' ? rotationSvg(f, other) : starlightMapSvg(f);
+  const trials = now?.live ? LIVE_FORECAST_TRIALS : DEFAULT_TRIALS;
+  return (
+    <Panel title="Science forecast" testId="panel-forecast">
+      {!f ? (
+        <div className="small dim">{result ? 'forecasting…' : 'no solved layout yet'}</div>
+      ) : (
+        <>
+          <table className="mini" data-testid="forecast-table">
+            <thead><tr><th /><th>{now!.live ? 'dragging' : 'current'}</th><th>saved</th></tr></thead>
+            <tbody>
+              {ROWS.map(([label, title, get, id]) => (
+                <tr key={id} title={title}><td>{label}</td><td className="num" data-testid={id}>{get(f)}</td><td className="num dim" data-testid={`${id}-saved`}>{saved ? get(saved) : '–'}</td></tr>
+              ))}
+            </tbody>
+          </table>
+          <div className="row-tools">
+            {(['dispersion', 'rotation', 'starlight'] as Plot[]).map((p) => (
+              <button key={p} onClick={() => setPlot(p)} aria-pressed={plot === p} data-testid={`forecast-plot-${p}`} title={`show the ${p} plot`}>{p === 'dispersion' ? 'σ(R)' : p}</button>
+            ))}
+            <button onClick={() => downloadFile(`forecast-${plot}.svg`, svg, 'image/svg+xml')} title="Save this plot as SVG">SVG</button>
+            <button onClick={() => downloadFile('forecast.json', JSON.stringify(f, null, 2), 'application/json')} title="Save the whole forecast (as haloweave forecast writes it)">JSON</button>
+          </div>
+          <div className="forecast-plot" data-testid="forecast-plot" style={{ background: '#fff', borderRadius: 4 }} dangerouslySetInnerHTML={{ __html: svg.replace(/ width="\d+" height="\d+"/, ' width="100%"') }} />
+          <div className="small dim" data-testid="forecast-info" data-live={now!.live ? 'yes' : 'no'} data-trials={trials}>
+            {trials} mocks{now!.live ? ' while dragging' : ''} (errors good to {(trialPrecision(trials) * 100).toFixed(0)} %), {now!.ms.toFixed(0)} ms in a worker
+            {other ? ' · dashed: saved layout' : ''} · model and assumptions in the plan's forecast section (docs/forecast.md)
+          </div>
+        </>
+      )}
+      {error && <div className="error" data-testid="forecast-error">{error}</div>}
+    </Panel>
+  );
+}
