@@ -29,6 +29,11 @@ export const COMMANDS: Record<string, CommandEntry> = {
     summary: "observability of the galaxy from the profile's site, one row a night",
     load: () => import('./commands/sky'),
   },
+  survey: {
+    usage: 'haloweave survey SURVEY --out DIR [--jobs N] [--force] [--quiet]',
+    summary: 'plan every galaxy of a survey in parallel and schedule their masks into the nights (docs/survey.md)',
+    load: () => import('./commands/survey'),
+  },
   demo: {
     usage: 'haloweave demo --out DIR',
     summary: 'write the invented example scenario and solve it',

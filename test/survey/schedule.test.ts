@@ -99,7 +99,7 @@ describe('survey schedule against astronomy-engine: every block dark, below the 
 
   it('says why a mask is left out', () => {
     const tooLong = { ...requests(1, north, 9)[0], maskId: 'long', raDeg: 150, decDeg: 20 };
-    const noWindow = { ...requests(1, north, 1)[0], maskId: 'nowindow', hourAngleWindowH: null };
+    const noWindow = { ...requests(1, north, 1)[0], maskId: 'nowindow', raDeg: 150, decDeg: 20, hourAngleWindowH: null };
     const farSouth = { ...requests(1, north, 1)[0], maskId: 'south', decDeg: -75 };
     const sched = scheduleSurvey([tooLong, noWindow, farSouth], settings, highs);
     const reason = (id: string) => sched.masks.find((m) => m.maskId === id)!.reason ?? '';

@@ -85,9 +85,9 @@ const fmtH = (h: number) => `${h.toFixed(2)} h`;
 /** Why a mask with no block is left out, from its longest stretches at each level of the rules. */
 function reasonFor(r: MaskRequest, s: StretchSummary, possibleNights: number, settings: ScheduleSettings, needH: number): string {
   const airmass = `airmass ${settings.maxAirmass}`;
-  if (r.hourAngleWindowH === null) return 'no hour angle keeps its tracer slits within the refraction loss limit (solved.plan.json, observingReport), so it cannot be observed';
   if (s.darkUpH === 0) return `never below ${airmass} in astronomical darkness between ${settings.from} and ${settings.to}`;
   if (s.darkUpH < needH) return `at most ${fmtH(s.darkUpH)} a night below ${airmass} in darkness, shorter than the ${fmtH(needH)} it needs`;
+  if (r.hourAngleWindowH === null) return 'no hour angle keeps its tracer slits within the refraction loss limit (solved.plan.json, observingReport), so it cannot be observed';
   const w = `[${r.hourAngleWindowH[0].toFixed(2)}, ${r.hourAngleWindowH[1].toFixed(2)}] h`;
   if (s.windowH === 0) return `below ${airmass} in darkness only outside its hour-angle window ${w}`;
   if (s.windowH < needH) return `its hour-angle window ${w} leaves at most ${fmtH(s.windowH)} a night in darkness below ${airmass}, shorter than the ${fmtH(needH)} it needs`;
