@@ -6,8 +6,8 @@
  * 2. Each mask takes, among its candidates that overlap no block already placed, the one whose slots are wanted by
  *    the fewest other masks still waiting (the "demand" of a slot = number of masks with a candidate on it);
  *    ties go to the earlier slot of the night, then the earlier night.
- * 3. Repair: each mask left out tries to enter by moving one placed block of its telescope and night to another of
- *    that block's own candidates that is free; the move is kept only if both then fit.
+ * 3. Repair: each mask left out tries to enter by moving the one placed block in its way to another of that block's
+ *    own candidates that is free; the move is kept only if both then fit.
  *
  * Bound (valid for any schedule): per telescope, the fractional knapsack of masks (value = priority, size = the slots
  * its block occupies) into the number of distinct slots any candidate of that telescope covers; summed over
@@ -15,46 +15,17 @@
  */
 import type { CandidateBlock, MaskRequest } from './blocks';
 
-interface Occupancy {
-  isFree(c: CandidateBlock): boolean;
-  take(c: CandidateBlock, owner: number): void;
-  release(c: CandidateBlock): void;
-  ownersOf(c: CandidateBlock): Set<number>;
-}
+/** Slots of the grid a candidate lies on: one flat index per (telescope, night, slot). */
+const SLOTS_PER_NIGHT = 1441;
 
-/** Slot occupancy per telescope and night: the candidate index holding each slot. */
-function occupancy(): Occupancy {
-  const held = new Map<string, Int32Array>();
-  const row = (c: CandidateBlock) => {
-    const key = `${c.telescope}/${c.night}`;
-    let r = held.get(key);
-    if (!r) {
-      r = new Int32Array(1441).fill(-1);
-      held.set(key, r);
-    }
-    return r;
-  };
-  return {
-    isFree(c) {
-      const r = row(c);
-      for (let s = c.startSlot; s < c.startSlot + c.slots; s++) if (r[s] !== -1) return false;
-      return true;
-    },
-    take(c, owner) {
-      const r = row(c);
-      for (let s = c.startSlot; s < c.startSlot + c.slots; s++) r[s] = owner;
-    },
-    release(c) {
-      const r = row(c);
-      for (let s = c.startSlot; s < c.startSlot + c.slots; s++) r[s] = -1;
-    },
-    ownersOf(c) {
-      const r = row(c);
-      const out = new Set<number>();
-      for (let s = c.startSlot; s < c.startSlot + c.slots; s++) if (r[s] !== -1) out.add(r[s]);
-      return out;
-    },
-  };
+/** Flat slot indexing for a set of candidates: index of slot s of candidate c, and the size of the index space. */
+function slotSpace(candidates: readonly CandidateBlock[]): { size: number; at(c: CandidateBlock, s: number): number } {
+  let nights = 0, telescopes = 0;
+  for (const c of candidates) {
+    nights = Math.max(nights, c.night + 1);
+    telescopes = Math.max(telescopes, c.telescope + 1);
+  }
+  return { size: telescopes * nights * SLOTS_PER_NIGHT, at: (c, s) => (c.telescope * nights + c.night) * SLOTS_PER_NIGHT + s };
 }
 
 /** Candidate indices of each mask. */
@@ -67,58 +38,69 @@ export function candidatesByMask(candidates: readonly CandidateBlock[], maskCoun
 /** The heuristic schedule: chosen candidate indices (at most one per mask, no overlaps). */
 export function scheduleGreedy(candidates: readonly CandidateBlock[], requests: readonly MaskRequest[]): number[] {
   const byMask = candidatesByMask(candidates, requests.length);
+  const space = slotSpace(candidates);
   // Demand of each slot: the masks with a candidate covering it (counted once per mask).
-  const demand = new Map<string, number>();
-  byMask.forEach((list) => {
-    const seen = new Set<string>();
+  const demand = new Int32Array(space.size);
+  const lastMask = new Int32Array(space.size).fill(-1);
+  byMask.forEach((list, m) => {
     for (const i of list) {
       const c = candidates[i];
-      for (let s = c.startSlot; s < c.startSlot + c.slots; s++) seen.add(`${c.telescope}/${c.night}/${s}`);
+      for (let s = c.startSlot; s < c.startSlot + c.slots; s++) {
+        const k = space.at(c, s);
+        if (lastMask[k] !== m) { lastMask[k] = m; demand[k]++; }
+      }
     }
-    for (const k of seen) demand.set(k, (demand.get(k) ?? 0) + 1);
   });
   const order = requests.map((_, m) => m).filter((m) => byMask[m].length > 0)
     .sort((a, b) => requests[b].priority - requests[a].priority || byMask[a].length - byMask[b].length || requests[b].hoursNeeded - requests[a].hoursNeeded || a - b);
-  const occ = occupancy();
+  const owner = new Int32Array(space.size).fill(-1); // candidate holding each slot
+  const isFree = (c: CandidateBlock) => {
+    for (let s = c.startSlot; s < c.startSlot + c.slots; s++) if (owner[space.at(c, s)] !== -1) return false;
+    return true;
+  };
+  const hold = (c: CandidateBlock, who: number) => {
+    for (let s = c.startSlot; s < c.startSlot + c.slots; s++) owner[space.at(c, s)] = who;
+  };
   const placed = new Map<number, number>(); // mask -> candidate
   const cost = (c: CandidateBlock) => {
     let sum = 0;
-    for (let s = c.startSlot; s < c.startSlot + c.slots; s++) sum += demand.get(`${c.telescope}/${c.night}/${s}`) ?? 0;
+    for (let s = c.startSlot; s < c.startSlot + c.slots; s++) sum += demand[space.at(c, s)];
     return sum;
   };
   for (const m of order) {
     let best = -1, bestCost = Infinity;
     for (const i of byMask[m]) {
       const c = candidates[i];
-      if (!occ.isFree(c)) continue;
+      if (!isFree(c)) continue;
       const k = cost(c);
       if (k < bestCost) { best = i; bestCost = k; }
     }
     if (best >= 0) {
-      occ.take(candidates[best], best);
+      hold(candidates[best], best);
       placed.set(m, best);
     }
   }
-  // Repair: a left-out mask enters by moving one blocking block elsewhere among its own candidates.
+  // Repair: a left-out mask enters by moving the one block in its way elsewhere among that block's own candidates.
   for (const m of order) {
     if (placed.has(m)) continue;
     for (const i of byMask[m]) {
       const c = candidates[i];
-      const owners = occ.ownersOf(c);
+      const owners = new Set<number>();
+      for (let s = c.startSlot; s < c.startSlot + c.slots; s++) if (owner[space.at(c, s)] !== -1) owners.add(owner[space.at(c, s)]);
       if (owners.size !== 1) continue;
       const blocker = [...owners][0];
       const bc = candidates[blocker];
-      occ.release(bc);
-      occ.take(c, i);
-      const alt = byMask[bc.mask].find((j) => j !== blocker && occ.isFree(candidates[j]));
+      hold(bc, -1);
+      hold(c, i);
+      const alt = byMask[bc.mask].find((j) => j !== blocker && isFree(candidates[j]));
       if (alt !== undefined) {
-        occ.take(candidates[alt], alt);
+        hold(candidates[alt], alt);
         placed.set(bc.mask, alt);
         placed.set(m, i);
         break;
       }
-      occ.release(c);
-      occ.take(bc, blocker);
+      hold(c, -1);
+      hold(bc, blocker);
     }
   }
   return [...placed.values()].sort((a, b) => a - b);
@@ -127,23 +109,26 @@ export function scheduleGreedy(candidates: readonly CandidateBlock[], requests: 
 /** Upper bound on the total priority of any schedule (fractional knapsack per telescope, see the module comment). */
 export function scheduleUpperBound(candidates: readonly CandidateBlock[], requests: readonly MaskRequest[]): number {
   const byMask = candidatesByMask(candidates, requests.length);
-  const capacity = new Map<number, Set<string>>();
+  const space = slotSpace(candidates);
+  const covered = new Uint8Array(space.size);
+  const room = new Map<number, number>();
   for (const c of candidates) {
-    let set = capacity.get(c.telescope);
-    if (!set) capacity.set(c.telescope, (set = new Set()));
-    for (let s = c.startSlot; s < c.startSlot + c.slots; s++) set.add(`${c.night}/${s}`);
+    for (let s = c.startSlot; s < c.startSlot + c.slots; s++) {
+      const k = space.at(c, s);
+      if (!covered[k]) { covered[k] = 1; room.set(c.telescope, (room.get(c.telescope) ?? 0) + 1); }
+    }
   }
   let bound = 0;
-  for (const [telescope, slotsFree] of capacity) {
+  for (const [telescope, slotsFree] of room) {
     const items = byMask.map((list, m) => ({ m, list })).filter((x) => x.list.length && candidates[x.list[0]].telescope === telescope)
-      .map(({ m, list }) => ({ value: requests[m].priority, size: Math.min(...list.map((i) => candidates[i].slots)) }))
+      .map(({ m, list }) => ({ value: requests[m].priority, size: candidates[list[0]].slots }))
       .sort((a, b) => b.value / b.size - a.value / a.size);
-    let room = slotsFree.size;
+    let left = slotsFree;
     for (const it of items) {
-      if (room <= 0) break;
-      const take = Math.min(1, room / it.size);
+      if (left <= 0) break;
+      const take = Math.min(1, left / it.size);
       bound += take * it.value;
-      room -= take * it.size;
+      left -= take * it.size;
     }
   }
   return bound;
