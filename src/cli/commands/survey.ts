@@ -158,6 +158,7 @@ export async function run(argv: string[], io: CliIO): Promise<number> {
       const g = galaxyRequests(join(outDir, r.folder!), resolve(base, r.plan), r.priority, settings);
       requests.push(...g.requests);
       r.goals = g.goals;
+      r.warnings.push(...g.warnings);
       r.masksPlanned = g.masksPlanned;
     } catch (e) {
       r.status = 'failed';

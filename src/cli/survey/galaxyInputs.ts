@@ -61,18 +61,40 @@ export function galaxyFolderName(id: string, taken: Set<string>): string {
   return name;
 }
 
+/** The parts of solved.plan.json's observingReport the schedule reads. */
+interface ObservingReportFile {
+  settings?: { exposureTimeS?: number };
+  exposures?: { maskId: string; slits: { role: string; timeForTargetSnS: number | null }[] }[];
+}
+
 interface SolvedMask { id: string; raDeg: number; decDeg: number; hourAngleWindowH?: [number, number] | null; instrument?: string }
 
-/** Schedule requests of a galaxy from its solved output folder, and the coverage goals; hours from the exposure. */
-export function galaxyRequests(folder: string, planPath: string, priority: number, settings: SurveySettings): { requests: MaskRequest[]; goals: GoalRecord[]; masksPlanned: number } {
+/**
+ * Schedule requests of a galaxy from its solved output folder, and the coverage goals. Hours per mask: the survey's
+ * hoursPerMask, else the plan's planned exposure, or (hoursFrom "median-tracer-sn") the exposure model's time for
+ * the mask's median tracer slit to reach the target S/N (observe/exposure.ts); plus the overhead.
+ */
+export function galaxyRequests(folder: string, planPath: string, priority: number, settings: SurveySettings): { requests: MaskRequest[]; goals: GoalRecord[]; masksPlanned: number; warnings: string[] } {
   const solvedPath = join(folder, 'solved.plan.json');
   const solved = JSON.parse(readFileSync(solvedPath, 'utf8')) as Record<string, unknown>;
   const coverage = JSON.parse(readFileSync(join(folder, 'coverage.json'), 'utf8')) as { goals?: GoalRecord[] };
   const galaxy = solved.galaxy as { id: string; ra: number | string; dec: number | string };
   const ra = parseRaDeg(galaxy.ra), dec = parseDecDeg(galaxy.dec);
   if (!ra.ok || !dec.ok) throw new InputError([{ where: `${solvedPath}: galaxy`, what: 'ra/dec could not be read' }]);
-  const report = solved.observingReport as { settings?: { exposureTimeS?: number } } | undefined;
-  const exposureH = settings.hoursPerMask ?? (report?.settings?.exposureTimeS ?? 3600) / 3600;
+  const report = solved.observingReport as ObservingReportFile | undefined;
+  const planH = (report?.settings?.exposureTimeS ?? 3600) / 3600;
+  const warnings: string[] = [];
+  const hoursOf = (maskId: string): number => {
+    if (settings.hoursPerMask !== null) return settings.hoursPerMask;
+    if (settings.hoursFrom === 'plan') return planH;
+    const times = (report?.exposures?.find((e) => e.maskId === maskId)?.slits ?? [])
+      .filter((x) => x.role === 'tracer' && x.timeForTargetSnS !== null).map((x) => x.timeForTargetSnS as number).sort((a, b) => a - b);
+    if (times.length === 0) {
+      warnings.push(`mask ${maskId}: no tracer slit with an exposure estimate; its planned exposure (${planH.toFixed(2)} h) is used`);
+      return planH;
+    }
+    return times[Math.floor((times.length - 1) / 2)] / 3600;
+  };
   const base = dirname(resolve(planPath));
   const telescopes = new Map<string, SurveyTelescope>();
   const telescopeFor = (instrument: string): SurveyTelescope => {
@@ -90,11 +112,11 @@ export function galaxyRequests(folder: string, planPath: string, priority: numbe
   const masks = (solved.masks as SolvedMask[] | undefined) ?? [];
   const requests = masks.map((m) => ({
     galaxyId: galaxy.id, maskId: m.id, priority,
-    hoursNeeded: exposureH + settings.overheadHoursPerMask,
+    hoursNeeded: hoursOf(m.id) + settings.overheadHoursPerMask,
     raDeg: ra.value, decDeg: dec.value,
     hourAngleWindowH: m.hourAngleWindowH ?? null,
     telescope: telescopeFor(m.instrument ?? instrument),
   }));
   const goals = (solved.goals as { masks?: number } | undefined)?.masks ?? masks.length;
-  return { requests, goals: coverage.goals ?? [], masksPlanned: goals };
+  return { requests, goals: coverage.goals ?? [], masksPlanned: goals, warnings };
 }

@@ -98,6 +98,7 @@ export function surveyReport(surveyFile: string, settings: SurveySettings, galax
     settings: {
       maxAirmass: settings.maxAirmass,
       hoursPerMask: settings.hoursPerMask,
+      hoursFrom: settings.hoursPerMask === null ? settings.hoursFrom : 'hoursPerMask',
       overheadHoursPerMask: r4(settings.overheadHoursPerMask),
       moon: { maxIllumination: settings.maxMoonIllumination, minSeparationDeg: settings.minMoonSeparationDeg, appliesWhen: 'the Moon is above the horizon' },
       slotMinutes: settings.slotMinutes,
@@ -116,7 +117,20 @@ export function surveyReport(surveyFile: string, settings: SurveySettings, galax
       hoursNeeded: r4(schedule.masks.reduce((a, m) => a + m.hoursNeeded, 0)),
       hoursScheduled: r4(schedule.blocks.reduce((a, b) => a + b.hours, 0)),
     },
-    telescopes: schedule.telescopes.map((t) => ({ key: t.key, label: t.label, site: t.site })),
+    telescopes: schedule.telescopes.map((t) => ({
+      key: t.key, label: t.label, site: t.site,
+      darkHours: r4(t.nights.reduce((a, n) => a + (n.darkStartJd !== null && n.darkEndJd !== null ? (n.darkEndJd - n.darkStartJd) * 24 : 0), 0)),
+      nights: t.nights.map((n) => {
+        const own = schedule.blocks.filter((b) => b.telescopeKey === t.key && b.night === n.night);
+        return {
+          night: n.night, darkStartUtc: n.darkStartUtc, darkEndUtc: n.darkEndUtc,
+          darkHours: n.darkStartJd !== null && n.darkEndJd !== null ? r4((n.darkEndJd - n.darkStartJd) * 24) : 0,
+          scheduledHours: r4(own.reduce((a, b) => a + b.hours, 0)),
+          moonIllumination: n.moonIllumination === null ? null : Math.round(n.moonIllumination * 1000) / 1000,
+          blocks: own.map((b) => `${b.galaxyId} ${b.maskId}`),
+        };
+      }),
+    })),
     galaxies: rows,
   };
 }

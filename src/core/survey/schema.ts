@@ -37,6 +37,11 @@ export const surveySchema = z.looseObject({
   to: dateText,
   maxAirmass: z.number().min(1, 'must be at least 1').max(10, 'must be at most 10').optional(),
   hoursPerMask: z.number().positive('must be greater than 0 (hours of exposure per mask)').max(24).optional(),
+  /**
+   * Where a mask's exposure hours come from when hoursPerMask is not given: "plan" (the plan's planned exposure) or
+   * "median-tracer-sn" (the exposure model's time for the mask's median tracer slit to reach the plan's target S/N).
+   */
+  hoursFrom: z.enum(['plan', 'median-tracer-sn'], { message: 'must be "plan" or "median-tracer-sn"' }).optional(),
   /** Time added to each mask's exposure for acquisition and alignment, minutes (default 0). */
   overheadMinutesPerMask: z.number().min(0).max(240).optional(),
   moon: moonRulesSchema.optional(),
@@ -62,6 +67,7 @@ export interface SurveySettings {
   to: string;
   maxAirmass: number;
   hoursPerMask: number | null;
+  hoursFrom: 'plan' | 'median-tracer-sn';
   overheadHoursPerMask: number;
   maxMoonIllumination: number;
   minMoonSeparationDeg: number;
@@ -105,6 +111,7 @@ export function parseSurvey(json: unknown, source = 'survey'): { survey: SurveyF
     to: s.to,
     maxAirmass: s.maxAirmass ?? SURVEY_DEFAULTS.maxAirmass,
     hoursPerMask: s.hoursPerMask ?? null,
+    hoursFrom: s.hoursFrom ?? 'plan',
     overheadHoursPerMask: (s.overheadMinutesPerMask ?? 0) / 60,
     maxMoonIllumination: s.moon?.maxIllumination ?? SURVEY_DEFAULTS.maxMoonIllumination,
     minMoonSeparationDeg: s.moon?.minSeparationDeg ?? SURVEY_DEFAULTS.minMoonSeparationDeg,
