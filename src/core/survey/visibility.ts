@@ -32,7 +32,7 @@ export interface GalaxyNightFlags {
   moonOk: Uint8Array;
   /** Hour angle of the galaxy centre, hours in [-12, 12). */
   hourAngleH: Float64Array;
-  /** Hardie-free altitude of the galaxy, degrees (for block quality). */
+  /** Geometric altitude of the galaxy centre, degrees. */
   altitudeDeg: Float64Array;
 }
 
