@@ -11,6 +11,8 @@ import { join } from 'node:path';
 import { cli } from '../cli/runCli';
 import { surveyScenario, SURVEY_FILE } from '../../src/core/survey/exampleSurvey';
 import { exampleSurvey } from '../../src/core/survey/exampleSurvey';
+import { galaxyRequests } from '../../src/cli/survey/galaxyInputs';
+import { parseSurvey } from '../../src/core/survey/schema';
 
 let work: string;
 let first: ReturnType<typeof cli>;
@@ -72,6 +74,27 @@ describe('haloweave survey', () => {
     }
     expect(existsSync(join(work, 'out', 'calendar.svg'))).toBe(true);
     expect(readFileSync(join(work, 'out', 'calendar.svg'), 'utf8')).toMatch(/^<svg[^>]*xmlns="http:\/\/www.w3.org\/2000\/svg"/);
+  });
+
+  it('takes hours per mask from the plan, from hoursPerMask, or from the median tracer time of the exposure report', () => {
+    const folder = join(work, 'out', 'Halo Survey 01');
+    const solved = JSON.parse(readFileSync(join(folder, 'solved.plan.json'), 'utf8'));
+    const base = { format: 'haloweave.survey/1', plans: ['x'], from: '2027-03-01', to: '2027-03-02' };
+    const plan = join(work, 'halo-survey-01.plan.json');
+    const fromPlan = galaxyRequests(folder, plan, 1, parseSurvey({ ...base, overheadMinutesPerMask: 30 }).settings);
+    expect(fromPlan.requests).toHaveLength(4);
+    for (const r of fromPlan.requests) expect(r.hoursNeeded).toBeCloseTo(solved.observingReport.settings.exposureTimeS / 3600 + 0.5, 9);
+    const fixed = galaxyRequests(folder, plan, 1, parseSurvey({ ...base, hoursPerMask: 2.25 }).settings);
+    for (const r of fixed.requests) expect(r.hoursNeeded).toBe(2.25);
+    const model = galaxyRequests(folder, plan, 1, parseSurvey({ ...base, hoursFrom: 'median-tracer-sn' }).settings);
+    for (const r of model.requests) {
+      const times = solved.observingReport.exposures.find((e: any) => e.maskId === r.maskId).slits
+        .filter((x: any) => x.role === 'tracer' && x.timeForTargetSnS !== null).map((x: any) => x.timeForTargetSnS).sort((a: number, b: number) => a - b);
+      // The lower median of the tracer slits' times to the target S/N, in hours.
+      expect(r.hoursNeeded).toBeCloseTo(times[Math.floor((times.length - 1) / 2)] / 3600, 9);
+      expect(r.hourAngleWindowH).toEqual(solved.masks.find((m: any) => m.id === r.maskId).hourAngleWindowH);
+      expect(r.telescope.site.latDeg).toBe(28.1); // ridge10-narrow's site
+    }
   });
 
   it('a second run skips unchanged galaxies and says so; a changed catalog is planned again', () => {
