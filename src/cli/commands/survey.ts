@@ -199,7 +199,9 @@ function summaryLines(runs: GalaxyRun[], schedule: ReturnType<typeof scheduleSur
     const masks = schedule.masks.filter((m) => m.galaxyId === r.id);
     const done = masks.filter((m) => m.block);
     const hoursNeeded = masks.reduce((s, m) => s + m.hoursNeeded, 0), hoursDone = done.reduce((s, m) => s + m.hoursNeeded, 0);
-    const state = r.status === 'failed' ? 'FAILED (not planned)' : `${done.length}/${masks.length} masks, ${hoursDone.toFixed(1)}/${hoursNeeded.toFixed(1)} h${r.status === 'unchanged' ? ' (plan unchanged, reused)' : ''}`;
+    const unmet = r.goals.filter((g) => !g.met).map((g) => g.name);
+    const goals = unmet.length ? `; goals not met: ${unmet.join(', ')}` : '';
+    const state = r.status === 'failed' ? 'FAILED (not planned)' : `${done.length}/${masks.length} masks, ${hoursDone.toFixed(1)}/${hoursNeeded.toFixed(1)} h${goals}${r.status === 'unchanged' ? ' (plan unchanged, reused)' : ''}`;
     lines.push(`  ${r.id.padEnd(width)}  ${state}`);
   }
   const s = schedule.solver;
