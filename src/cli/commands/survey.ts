@@ -87,22 +87,27 @@ export async function run(argv: string[], io: CliIO): Promise<number> {
   const ids = new Map<string, string>();
   for (const [i, entry] of plans.entries()) {
     const planPath = resolve(base, entry.plan);
+    // Problems name the plan as a path from the working directory, as `haloweave plan` would.
+    const shownPath = relative(process.cwd(), planPath) || planPath;
     const peek = existsSync(planPath) ? peekPlan(planPath) : null;
     const run: GalaxyRun = { id: peek?.galaxyId ?? entry.plan, plan: entry.plan, folder: null, status: 'failed', inputsHash: null, priority: entry.priority, masksPlanned: 0, goals: [], problems: [], warnings: [] };
     runs.push(run);
     if (!peek || !peek.galaxyId) {
       // Let the plan loader say exactly what is wrong with the file.
       try {
-        loadPlanInputs(planPath);
+        loadPlanInputs(shownPath);
         run.problems = [`${entry.plan}: the galaxy id could not be read`];
       } catch (e) {
         run.problems = e instanceof InputError ? e.problems.map(formatProblem) : [`internal error: ${(e as Error).message}`];
       }
+      io.err(`haloweave survey: ${entry.plan}: FAILED, not planned:`);
+      for (const p of run.problems) io.err(`haloweave survey:   ${p}`);
       continue;
     }
     const other = ids.get(peek.galaxyId);
     if (other !== undefined) {
       run.problems = [`${entry.plan}: galaxy.id "${peek.galaxyId}" is also the id of ${other}; each galaxy of a survey needs its own id (fix: give this plan's galaxy a different id)`];
+      io.err(`haloweave survey: ${run.problems[0]}`);
       continue;
     }
     ids.set(peek.galaxyId, entry.plan);
@@ -114,7 +119,7 @@ export async function run(argv: string[], io: CliIO): Promise<number> {
       run.status = 'unchanged';
       continue;
     }
-    jobs.push({ index: i, planPath, outDir: join(outDir, run.folder) });
+    jobs.push({ index: i, planPath: shownPath, outDir: join(outDir, run.folder) });
   }
   const skipped = runs.filter((r) => r.status === 'unchanged');
   if (skipped.length) io.err(`haloweave survey: ${skipped.length} galax${skipped.length === 1 ? 'y' : 'ies'} unchanged since the last run (same plan, profile and catalog contents), not planned again: ${skipped.map((r) => r.id).join(', ')}`);
