@@ -1,13 +1,16 @@
 /**
  * The schedule heuristic for surveys beyond the exact solver's size, and an upper bound to measure it against.
  *
- * Heuristic (greedy by weight, least-contended placement, then one repair pass):
+ * Heuristic (greedy by weight, placement that packs blocks and spares contended slots, then one repair pass):
  * 1. Masks in order of priority (highest first), then fewest candidate blocks (least flexible first), then longest.
- * 2. Each mask takes, among its candidates that overlap no block already placed, the one whose slots are wanted by
- *    the fewest other masks still waiting (the "demand" of a slot = number of masks with a candidate on it);
- *    ties go to the earlier slot of the night, then the earlier night.
+ * 2. Each mask takes, among its candidates that overlap no block already placed, the cheapest by a placement rule.
+ *    The "demand" of a slot is the number of masks with a candidate on it; a candidate's demand is the sum over its
+ *    slots, and it "touches" at each end where the neighbouring slot is taken or the night's usable time ends.
+ *    Two rules are run and the better schedule kept: (a) touching both ends first, then one, then none, each by
+ *    least demand; (b) demand x (3 - ends touched). Ties go to the earlier slot of the night, then the earlier night.
  * 3. Repair: each mask left out tries to enter by moving the one placed block in its way to another of that block's
  *    own candidates that is free; the move is kept only if both then fit.
+ * On two crowded invented surveys this reached 97 % of the exact optimum (84 of 86, 101 of 104; bench/survey.bench.ts).
  *
  * Bound (valid for any schedule): per telescope, the fractional knapsack of masks (value = priority, size = the slots
  * its block occupies) into the number of distinct slots any candidate of that telescope covers; summed over
@@ -35,7 +38,10 @@ export function candidatesByMask(candidates: readonly CandidateBlock[], maskCoun
   return out;
 }
 
-/** The heuristic schedule: chosen candidate indices (at most one per mask, no overlaps). */
+/** Placement rules of the greedy pass (see the module comment). */
+type PlacementRule = 'touching-first' | 'demand-by-ends';
+
+/** The heuristic schedule: chosen candidate indices (at most one per mask, no overlaps); the better of both rules. */
 export function scheduleGreedy(candidates: readonly CandidateBlock[], requests: readonly MaskRequest[]): number[] {
   const byMask = candidatesByMask(candidates, requests.length);
   const space = slotSpace(candidates);
@@ -53,6 +59,30 @@ export function scheduleGreedy(candidates: readonly CandidateBlock[], requests: 
   });
   const order = requests.map((_, m) => m).filter((m) => byMask[m].length > 0)
     .sort((a, b) => requests[b].priority - requests[a].priority || byMask[a].length - byMask[b].length || requests[b].hoursNeeded - requests[a].hoursNeeded || a - b);
+  // Last slot any candidate reaches on each telescope and night: the end of the usable night.
+  const nightEnd = new Int32Array(space.size / SLOTS_PER_NIGHT);
+  for (const c of candidates) {
+    const k = space.at(c, 0) / SLOTS_PER_NIGHT;
+    nightEnd[k] = Math.max(nightEnd[k], c.startSlot + c.slots);
+  }
+  const shared = { demand, order, nightEnd };
+  let best: number[] = [];
+  let bestWeight = -1;
+  for (const rule of ['touching-first', 'demand-by-ends'] as const) {
+    const chosen = greedyPass(candidates, byMask, space, shared, rule);
+    let w = 0;
+    for (const i of chosen) w += requests[candidates[i].mask].priority;
+    if (w > bestWeight) { best = chosen; bestWeight = w; }
+  }
+  return best;
+}
+
+/** One greedy pass with a placement rule, then the repair pass. */
+function greedyPass(
+  candidates: readonly CandidateBlock[], byMask: number[][], space: ReturnType<typeof slotSpace>,
+  shared: { demand: Int32Array; order: number[]; nightEnd: Int32Array }, rule: PlacementRule,
+): number[] {
+  const { demand, order, nightEnd } = shared;
   const owner = new Int32Array(space.size).fill(-1); // candidate holding each slot
   const isFree = (c: CandidateBlock) => {
     for (let s = c.startSlot; s < c.startSlot + c.slots; s++) if (owner[space.at(c, s)] !== -1) return false;
@@ -65,7 +95,10 @@ export function scheduleGreedy(candidates: readonly CandidateBlock[], requests: 
   const cost = (c: CandidateBlock) => {
     let sum = 0;
     for (let s = c.startSlot; s < c.startSlot + c.slots; s++) sum += demand[space.at(c, s)];
-    return sum;
+    const endSlot = c.startSlot + c.slots;
+    const touching = (c.startSlot === 0 || owner[space.at(c, c.startSlot - 1)] !== -1 ? 1 : 0)
+      + (endSlot >= nightEnd[space.at(c, 0) / SLOTS_PER_NIGHT] || owner[space.at(c, endSlot)] !== -1 ? 1 : 0);
+    return rule === 'touching-first' ? (2 - touching) * 1e9 + sum : sum * (3 - touching);
   };
   for (const m of order) {
     let best = -1, bestCost = Infinity;
