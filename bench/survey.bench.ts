@@ -71,7 +71,7 @@ function crowded(galaxies: number, hours: number): MaskRequest[] {
   return out;
 }
 
-export async function heuristicAgainstExact(): Promise<BenchRow[]> {
+async function heuristicAgainstExact(): Promise<BenchRow[]> {
   const highs = (await highsLoader()) as unknown as HighsLike;
   const rows: BenchRow[] = [];
   const cases: [string, number, number, string, string][] = [
