@@ -144,6 +144,8 @@ export async function run(argv: string[], io: CliIO): Promise<number> {
     if (m.ok) {
       r.status = 'planned';
       r.warnings = m.warnings;
+      r.catalog = m.catalog;
+      if (m.catalog && !quiet) io.err(`haloweave survey: ${runs[m.index].id}: ${m.catalog}`);
       io.err(`haloweave survey: ${tag(m.index)}: planned into ${join(out, r.folder!)}/${m.warnings.length ? ` (${m.warnings.length} warning${m.warnings.length === 1 ? '' : 's'} in survey.json)` : ''}`);
     } else {
       r.status = 'failed';

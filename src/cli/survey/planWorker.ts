@@ -18,22 +18,22 @@ function post(m: WorkerMessage): void {
 
 parentPort!.on('message', (job: PlanJob) => {
   const warnings: string[] = [];
-  const summary: string[] = [];
+  let catalog: string | null = null;
   try {
     const loaded = loadPlanInputs(job.planPath);
     solveAndWrite(loaded, job.outDir, {
-      out: (t) => summary.push(t),
+      out: () => {},
       err: (t) => {
         const p = PROGRESS.exec(t);
         if (p) post({ type: 'progress', index: job.index, fraction: Number(p[1]) / 100, message: p[2] });
-        else if (t.startsWith('haloweave plan: catalog ')) summary.push(t.replace(/^haloweave plan: /, ''));
+        else if (t.startsWith('haloweave plan: catalog ')) catalog = t.replace(/^haloweave plan: /, '');
         else {
           const w = WARNING.exec(t);
           warnings.push(w ? w[1] : t.replace(/^haloweave plan: /, ''));
         }
       },
     });
-    post({ type: 'done', index: job.index, ok: true, warnings, summary });
+    post({ type: 'done', index: job.index, ok: true, warnings, catalog });
   } catch (e) {
     if (e instanceof InputError) post({ type: 'done', index: job.index, ok: false, problems: e.problems.map(formatProblem), internal: false });
     else post({ type: 'done', index: job.index, ok: false, problems: [`internal error: ${(e as Error).stack ?? String(e)}`], internal: true });

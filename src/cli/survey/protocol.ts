@@ -10,5 +10,5 @@ export interface PlanJob {
 /** Worker to main. */
 export type WorkerMessage =
   | { type: 'progress'; index: number; fraction: number; message: string }
-  | { type: 'done'; index: number; ok: true; warnings: string[]; summary: string[] }
+  | { type: 'done'; index: number; ok: true; warnings: string[]; catalog: string | null }
   | { type: 'done'; index: number; ok: false; problems: string[]; internal: boolean };

@@ -51,6 +51,8 @@ export interface GalaxyRun {
   /** Problems (one line each) when status is failed; warnings otherwise. */
   problems: string[];
   warnings: string[];
+  /** The planning run's catalog line (rows read, used, rejected), when planned in this run. */
+  catalog?: string | null;
 }
 
 /** survey.json object. */
@@ -77,6 +79,7 @@ export function surveyReport(surveyFile: string, settings: SurveySettings, galax
       goalsMet: g.goals.every((x) => x.met),
       problems: g.problems,
       warnings: g.warnings,
+      catalog: g.catalog ?? null,
       masks: masks.map((m) => ({
         maskId: m.maskId,
         hoursNeeded: r4(m.hoursNeeded),
