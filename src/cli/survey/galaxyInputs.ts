@@ -13,6 +13,7 @@ import type { MaskRequest, SurveyTelescope } from '../../core/survey/blocks';
 import type { GoalRecord } from '../../core/survey/report';
 import type { SurveySettings } from '../../core/survey/schema';
 import { parseDecDeg, parseRaDeg } from '../../core/sky/sexagesimal';
+import { parseMasksCsv } from '../../core/export/slitsCsv';
 
 /** Bump when the planning of a galaxy changes in a way that makes earlier output folders stale. */
 const PLAN_OUTPUT_VERSION = 'haloweave-survey-plan/1';
@@ -28,14 +29,20 @@ export function peekPlan(planPath: string): { json: Record<string, unknown>; gal
   }
 }
 
+/** The instrument values a plan names: its `instrument`, each `instruments[].profile`, each mask's own `instrument`. */
+function namedInstruments(json: Record<string, unknown>): Set<string> {
+  const out = new Set<string>();
+  if (typeof json.instrument === 'string') out.add(json.instrument);
+  for (const i of Array.isArray(json.instruments) ? json.instruments : []) if (i && typeof i.profile === 'string') out.add(i.profile);
+  for (const m of Array.isArray(json.masks) ? json.masks : []) if (m && typeof m.instrument === 'string') out.add(m.instrument);
+  return out;
+}
+
 /** Paths of every file a plan's planning reads: the plan, its profile(s) and its catalog (null if one cannot be named). */
 function planInputFiles(planPath: string, json: Record<string, unknown>): string[] | null {
   const base = dirname(planPath);
   const files = [planPath];
-  const instruments = new Set<string>();
-  if (typeof json.instrument === 'string') instruments.add(json.instrument);
-  for (const i of Array.isArray(json.instruments) ? json.instruments : []) if (i && typeof i.profile === 'string') instruments.add(i.profile);
-  for (const m of Array.isArray(json.masks) ? json.masks : []) if (m && typeof m.instrument === 'string') instruments.add(m.instrument);
+  const instruments = namedInstruments(json);
   if (instruments.size === 0 || typeof json.catalog !== 'string') return null;
   for (const i of [...instruments].sort()) files.push(profilePathFor(i, base));
   files.push(resolve(base, json.catalog));
@@ -67,7 +74,7 @@ interface ObservingReportFile {
   exposures?: { maskId: string; slits: { role: string; timeForTargetSnS: number | null }[] }[];
 }
 
-interface SolvedMask { id: string; raDeg: number; decDeg: number; hourAngleWindowH?: [number, number] | null; instrument?: string }
+interface SolvedMask { id: string; hourAngleWindowH?: [number, number] | null }
 
 /**
  * Schedule requests of a galaxy from its solved output folder, and the coverage goals. Hours per mask: the survey's
@@ -95,27 +102,31 @@ export function galaxyRequests(folder: string, planPath: string, priority: numbe
     }
     return times[Math.floor((times.length - 1) / 2)] / 3600;
   };
+  // Each mask's telescope: masks.csv names each mask's profile id (one profile per plan, or one per mask when a plan
+  // uses several spectrographs); the profiles are found from what the plan names (its instrument(s), masks' own).
   const base = dirname(resolve(planPath));
-  const telescopes = new Map<string, SurveyTelescope>();
-  const telescopeFor = (instrument: string): SurveyTelescope => {
-    const hit = telescopes.get(instrument);
-    if (hit) return hit;
+  const original = peekPlan(resolve(planPath))?.json ?? {};
+  const named = namedInstruments(original);
+  const byProfileId = new Map<string, SurveyTelescope>();
+  for (const instrument of named) {
     const { profile } = loadProfile(instrument, base, `${planPath}: instrument`);
     const site = { latDeg: profile.site.latDeg, lonDeg: profile.site.lonDeg, elevationM: profile.site.elevationM };
-    const t = { key: `${siteKey(site)}|${profile.telescope.apertureM}`, label: `${profile.telescope.apertureM} m telescope of ${profile.id}`, site };
-    telescopes.set(instrument, t);
+    byProfileId.set(profile.id, { key: `${siteKey(site)}|${profile.telescope.apertureM}`, label: `${profile.telescope.apertureM} m telescope of ${profile.id}`, site });
+  }
+  const maskInstrument = new Map(parseMasksCsv(readFileSync(join(folder, 'masks.csv'), 'utf8'), join(folder, 'masks.csv')).map((r) => [r.maskId, r.instrument]));
+  const telescopeFor = (maskId: string): SurveyTelescope => {
+    const id = maskInstrument.get(maskId);
+    const t = (id !== undefined ? byProfileId.get(id) : undefined) ?? (byProfileId.size === 1 ? [...byProfileId.values()][0] : undefined);
+    if (!t) throw new InputError([{ where: `${join(folder, 'masks.csv')}: mask ${maskId}`, what: `instrument "${id ?? ''}" is none of the profiles the plan names`, fix: 'plan the galaxy again (haloweave survey --force)' }]);
     return t;
   };
-  const planInstrument = typeof solved.instrument === 'string' ? solved.instrument : undefined;
-  const original = peekPlan(resolve(planPath))?.json;
-  const instrument = (typeof original?.instrument === 'string' ? original.instrument : planInstrument) ?? '';
   const masks = (solved.masks as SolvedMask[] | undefined) ?? [];
   const requests = masks.map((m) => ({
     galaxyId: galaxy.id, maskId: m.id, priority,
     hoursNeeded: hoursOf(m.id) + settings.overheadHoursPerMask,
     raDeg: ra.value, decDeg: dec.value,
     hourAngleWindowH: m.hourAngleWindowH ?? null,
-    telescope: telescopeFor(m.instrument ?? instrument),
+    telescope: telescopeFor(m.id),
   }));
   const goals = (solved.goals as { masks?: number } | undefined)?.masks ?? masks.length;
   return { requests, goals: coverage.goals ?? [], masksPlanned: goals, warnings };
