@@ -16,6 +16,15 @@ import type { DarkNight, SiteNights } from './darkNights';
 /** Margin added to the airmass limit's altitude, degrees (1 arcmin): the ephemerides agree to well under this. */
 export const ALTITUDE_MARGIN_DEG = 1 / 60;
 
+const altitudeLimits = new Map<number, number>();
+
+/** Altitude (degrees) of the Hardie airmass limit plus the margin; solved once per limit. */
+export function altitudeLimitDeg(maxAirmass: number): number {
+  let v = altitudeLimits.get(maxAirmass);
+  if (v === undefined) altitudeLimits.set(maxAirmass, (v = altitudeForAirmassDeg(maxAirmass) + ALTITUDE_MARGIN_DEG));
+  return v;
+}
+
 /** The conditions of a schedule that apply to every mask. */
 export interface VisibilityRules {
   maxAirmass: number;
@@ -39,7 +48,7 @@ export interface GalaxyNightFlags {
 /** Flags of a galaxy (ICRS RA/Dec, degrees) on one dark night. */
 export function galaxyNightFlags(raDeg: number, decDeg: number, w: DarkNight, latDeg: number, rules: VisibilityRules): GalaxyNightFlags {
   const place = meanPlaceOfDateDeg(raDeg, decDeg, (w.startJd + w.endJd) / 2);
-  const altLimit = altitudeForAirmassDeg(rules.maxAirmass) + ALTITUDE_MARGIN_DEG;
+  const altLimit = altitudeLimitDeg(rules.maxAirmass);
   const sinLat = PMath.sin(latDeg * RAD_PER_DEG), cosLat = PMath.cos(latDeg * RAD_PER_DEG);
   const sinDec = PMath.sin(place.decDeg * RAD_PER_DEG), cosDec = PMath.cos(place.decDeg * RAD_PER_DEG);
   const n = w.boundariesJd.length;
