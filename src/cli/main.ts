@@ -41,6 +41,11 @@ export const COMMANDS: Record<string, CommandEntry> = {
     load: () => import('./commands/profile'),
   },
   forecast: { usage: 'haloweave forecast DIR [--trials N] [--seed S] [--against DIR_B] [--from DATE --to DATE] [--json]', summary: 'what the planned masks will measure: velocity, dispersion, rotation and mass errors from mocks; hours and nights', load: () => import('./commands/forecast') },
+  survey: {
+    usage: 'haloweave survey SURVEY --out DIR [--jobs N] [--force] [--quiet]',
+    summary: 'plan every galaxy of a survey in parallel and schedule their masks into the nights (docs/survey.md)',
+    load: () => import('./commands/survey'),
+  },
   demo: {
     usage: 'haloweave demo --out DIR',
     summary: 'write the invented example scenario and solve it',
