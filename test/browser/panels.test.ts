@@ -518,7 +518,7 @@ describe('editor panels in chromium', () => {
     await solvedAfter(page, before);
     const numbers2 = await shownNumbers(page);
     expect(numbers2.counts.tracer).toBeLessThan(numbers1.counts.tracer);
-    expect(await undoTitle(page)).toContain('galaxy vsysKms = 30000');
+    expect(await undoTitle(page)).toContain('set systemic velocity to 30000 km/s');
 
     await page.locator(sel('sky-view')).focus();
     await page.keyboard.press('Control+z');
@@ -815,7 +815,7 @@ describe('editor panels in chromium', () => {
     const keptEdit = async () => {
       expect(await page.inputValue(sel('goal-starlight-reach'))).toBe('0');
       expect(await page.textContent(sel('doc-name'))).toBe(`${name0} •`);
-      expect(await undoTitle(page)).toContain('goal starlightReachRe = 0');
+      expect(await undoTitle(page)).toContain('set starlight reach goal to 0 Re');
       await waitSolved(page);
       expect(await shownNumbers(page)).toStrictEqual(edited);
     };

@@ -88,8 +88,8 @@ export function setOverridesCommand(doc: EditorDoc, targetIds: readonly string[]
   const hadKey = Object.prototype.hasOwnProperty.call(doc.plan, 'targetOverrides');
   const beforeMap = doc.plan.targetOverrides;
   const ids = [...new Set(targetIds)];
-  const what = change.weight !== undefined ? (change.weight === null ? 'reset weight' : `weight ${change.weight}`)
-    : change.force === null ? 'release' : `force ${change.force}`;
+  const what = change.weight !== undefined ? (change.weight === null ? 'reset the weight' : `set weight ${change.weight}`)
+    : change.force === null ? 'release the forcing' : change.force === 'in' ? 'force a slit' : 'force out';
   const label = `${what} for ${ids.length === 1 ? ids[0] : `${ids.length} targets`}`;
   return {
     label,
@@ -113,12 +113,21 @@ export function setOverridesCommand(doc: EditorDoc, targetIds: readonly string[]
 type GalaxyKey = 'reArcsec' | 'axisRatio' | 'paDeg' | 'distanceMpc' | 'vsysKms' | 'sersicN' | 'muE';
 type GoalKey = 'masks' | 'tracerReachRe' | 'starlightReachRe';
 
+/** How the user calls each galaxy and goal key, with its unit (undo labels speak these words, never the key names). */
+const GALAXY_WORDS: Record<GalaxyKey, [string, string]> = {
+  reArcsec: ['effective radius', '″'], axisRatio: ['axis ratio b/a', ''], paDeg: ['galaxy PA', '°'], distanceMpc: ['distance', ' Mpc'],
+  vsysKms: ['systemic velocity', ' km/s'], sersicN: ['Sérsic index', ''], muE: ['surface brightness at Re', ' mag/″²'],
+};
+const GOAL_WORDS: Record<GoalKey, [string, string]> = {
+  masks: ['number of masks', ''], tracerReachRe: ['tracer reach goal', ' Re'], starlightReachRe: ['starlight reach goal', ' Re'],
+};
+
 /** Set one numeric key of the galaxy model (units as the key name says). */
 export function setGalaxyFieldCommand(doc: EditorDoc, key: GalaxyKey, value: number): Command {
   const before = doc.plan.galaxy;
   const after = { ...before, [key]: value };
   return {
-    label: `galaxy ${key} = ${value}`,
+    label: `set ${GALAXY_WORDS[key][0]} to ${value}${GALAXY_WORDS[key][1]}`,
     do: (d) => ({ ...d, plan: { ...d.plan, galaxy: after } }),
     undo: (d) => ({ ...d, plan: { ...d.plan, galaxy: before } }),
   };
@@ -129,7 +138,7 @@ export function setGoalCommand(doc: EditorDoc, key: GoalKey, value: number): Com
   const before = doc.plan.goals;
   const after = { ...before, [key]: value };
   return {
-    label: `goal ${key} = ${value}`,
+    label: `set ${GOAL_WORDS[key][0]} to ${value}${GOAL_WORDS[key][1]}`,
     do: (d) => ({ ...d, plan: { ...d.plan, goals: after } }),
     undo: (d) => ({ ...d, plan: { ...d.plan, goals: before } }),
   };
@@ -140,7 +149,7 @@ export function setProfileCommand(doc: EditorDoc, profile: InstrumentProfile): C
   const beforeProfile = doc.profile;
   const beforeInstrument = doc.plan.instrument;
   return {
-    label: `instrument ${profile.id}`,
+    label: `switch to instrument ${profile.label ?? profile.id}`,
     do: (d) => ({ plan: { ...d.plan, instrument: profile.id }, profile }),
     undo: (d) => ({ plan: { ...d.plan, instrument: beforeInstrument }, profile: beforeProfile }),
   };
