@@ -6,7 +6,7 @@
 import type { PlanFile, PlanMask } from '../../core/plan/schema';
 import type { InstrumentProfile } from '../../core/profile/schema';
 import { wrap360Deg } from '../../core/sky/angles';
-import { maskIndex, type EditorDoc, type TargetOverride } from './document';
+import { maskIndex, type CatalogEntry, type EditorDoc, type TargetOverride } from './document';
 
 export interface Command {
   /** Short text for the history list and the undo button's tooltip. */
@@ -150,7 +150,22 @@ export function setProfileCommand(doc: EditorDoc, profile: InstrumentProfile): C
   const beforeInstrument = doc.plan.instrument;
   return {
     label: `switch to instrument ${profile.label ?? profile.id}`,
-    do: (d) => ({ plan: { ...d.plan, instrument: profile.id }, profile }),
-    undo: (d) => ({ plan: { ...d.plan, instrument: beforeInstrument }, profile: beforeProfile }),
+    do: (d) => ({ ...d, plan: { ...d.plan, instrument: profile.id }, profile }),
+    undo: (d) => ({ ...d, plan: { ...d.plan, instrument: beforeInstrument }, profile: beforeProfile }),
+  };
+}
+
+/**
+ * Open a catalog for the plan: the document holds it, and the plan's `catalog` names its file (a path the plan already
+ * gives for a file of that name is kept). Undo brings back the catalog before, or none.
+ */
+export function openCatalogCommand(doc: EditorDoc, entry: CatalogEntry): Command {
+  const before = doc.catalog ?? null;
+  const beforeName = doc.plan.catalog;
+  const name = beforeName.split(/[\\/]/).pop() === entry.file.name ? beforeName : entry.file.name;
+  return {
+    label: `open catalog ${entry.file.name}`,
+    do: (d) => ({ ...d, catalog: entry, plan: { ...d.plan, catalog: name } }),
+    undo: (d) => ({ ...d, catalog: before, plan: { ...d.plan, catalog: beforeName } }),
   };
 }
