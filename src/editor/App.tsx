@@ -134,7 +134,7 @@ export function App({ controller: c }: { controller: EditorController }) {
         </span>
         <span className="status small dim" data-testid="autosave-status">{session.autosavedAt ? `kept in this browser ${new Date(session.autosavedAt).toLocaleTimeString()}` : ''}</span>
       </header>
-      <Notices c={c} />
+      {(!store || !doc || !galaxy) && <Notices c={c} />}
       {!store || !doc || !galaxy ? (
         <div className="loading">Opening the demo plan…</div>
       ) : (
@@ -157,6 +157,7 @@ export function App({ controller: c }: { controller: EditorController }) {
                 <span><i className="cross">×</i> excluded</span>
               </div>
               <div className="sky-box">
+                <Notices c={c} />
                 <SkyView
                   galaxy={galaxy}
                   tracerReachRe={doc.plan.goals.tracerReachRe}

@@ -3,8 +3,8 @@
  * backdrop image, catalog (one Shape drawing every target in batches), galaxy isophotes, masks
  * (footprints, slits by role, rotate handles), and a fixed overlay with compass and scale bar.
  * Mouse: drag empty sky to pan, wheel to zoom (pinch or Ctrl+wheel on a trackpad; two-finger scroll pans),
- * drag a mask to move it (where masks overlap, the active one is taken first and is drawn on top; a click without
- * moving steps to the next mask under the pointer), drag its round handle to rotate it (kept inside the view; Shift
+ * drag a mask to move it (where masks overlap, the active one is taken first and is drawn on top, else the one whose
+ * centre is nearest; a click without moving steps to the next mask under the pointer), drag its round handle to rotate it (kept inside the view; Shift
  * snaps to 5°), click a target to select it, Shift+click to add, Shift+drag for a box selection.
  * Keys: arrows pan, + and - zoom, 0 fits, [ and ] turn the active mask by 1° (Shift 10°, Alt 0.1°), N steps through the masks (Shift+N back).
  * At high zoom, slits are drawn at their true width, length and tilt.
@@ -243,10 +243,15 @@ export function SkyView(props: SkyViewProps) {
     const maskId = nodeId.includes(':') ? nodeId.slice(nodeId.indexOf(':') + 1) : undefined;
     if (maskId && (name === 'mask-body' || name === 'mask-handle')) {
       const s = screenToSky(cam, p.x, p.y);
-      // Overlapping masks: the active mask is the one taken when it lies under the pointer, else the topmost.
+      // Overlapping masks: the active mask is the one taken when it lies under the pointer, else the one whose centre
+      // (where its label is) is nearest the pointer.
       const under = name === 'mask-body' ? masksUnder(s.xiArcsec, s.etaArcsec, drawOrder) : [];
       const active = props.activeMaskId;
-      const id = name === 'mask-body' && active && under.includes(active) ? active : maskId;
+      const nearest = (ids: string[]) => ids.reduce((best, mid) => {
+        const d = (q: string) => { const c = maskXiEta(shownMasks.find((m) => m.id === q)!); return Math.hypot(c.xiArcsec - s.xiArcsec, c.etaArcsec - s.etaArcsec); };
+        return d(mid) < d(best) ? mid : best;
+      });
+      const id = name !== 'mask-body' || under.length === 0 ? maskId : active && under.includes(active) ? active : nearest(under);
       const pose = shownMasks.find((m) => m.id === id)!;
       props.onSelectMask(id);
       props.onPreviewMask(pose); // warms the worker's live re-solve before the first move
