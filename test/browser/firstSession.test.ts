@@ -9,34 +9,13 @@ import { tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
 import type { BrowserContext, Page } from 'playwright-core';
 import { unzipSync } from 'fflate';
-import { anchors, demoOnDisk, harnessForFile, openEditor, runCli, waitSolved, type Anchor } from './harness';
+import { anchors, demoOnDisk, harnessForFile, openEditor, runCli, waitSolved } from './harness';
 import { skyToTangentArcsec, tangentCentre } from '../../src/core/sky/tangentPlane';
+import { inPolygon, maskToScreen, screenToMask, type Poly } from './maskFrame';
 
 const harness = harnessForFile();
 const T = 180_000; // per-test timeout: two cores shared with other work
 const sel = (id: string) => `[data-testid="${id}"]`;
-
-type Poly = [number, number][];
-interface Pt { x: number; y: number }
-
-/** Mask frame (arcsec) of the mask at anchor `a` to screen px, as the sky view draws it (North up, East left). */
-function maskToScreen(a: Anchor, s: number, x: number, y: number): Pt {
-  const c = Math.cos((a.pa * Math.PI) / 180), n = Math.sin((a.pa * Math.PI) / 180);
-  return { x: a.x + s * (-x * c - y * n), y: a.y + s * (x * n - y * c) };
-}
-function screenToMask(a: Anchor, s: number, p: Pt): Pt {
-  const c = Math.cos((a.pa * Math.PI) / 180), n = Math.sin((a.pa * Math.PI) / 180);
-  const dx = (p.x - a.x) / s, dy = (p.y - a.y) / s;
-  return { x: -(c * dx - n * dy), y: -(n * dx + c * dy) };
-}
-function inPolygon(poly: Poly, x: number, y: number): boolean {
-  let inside = false;
-  for (let i = 0, j = poly.length - 1; i < poly.length; j = i++) {
-    const [xi, yi] = poly[i], [xj, yj] = poly[j];
-    if ((yi > y) !== (yj > y) && x < ((xj - xi) * (y - yi)) / (yj - yi) + xi) inside = !inside;
-  }
-  return inside;
-}
 
 interface PageState { footprint: Poly; pxPerArcsec: number }
 async function state(page: Page): Promise<PageState> {
