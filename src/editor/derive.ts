@@ -63,11 +63,11 @@ export function shownNumber(v: number, digits: number): string {
   return Number.isFinite(v) ? v.toFixed(digits) : '–';
 }
 
-/** A weight for display: three significant figures below 1000, whole numbers above (never exponent notation). */
+/** A weight for display: three significant figures below 1000 (0 as 0.00), whole numbers above (never exponent notation). */
 export function shownWeight(w: number): string {
   if (!Number.isFinite(w)) return '–';
-  if (Math.abs(w) >= 1000) return Math.round(w).toLocaleString('en-US');
-  if (w === 0) return '0';
+  if (Math.abs(w) >= 1000) return String(Math.round(w));
+  if (w === 0) return '0.00';
   const digits = Math.max(0, Math.min(6, 2 - Math.floor(Math.log10(Math.abs(w)))));
   return w.toFixed(digits);
 }

@@ -442,7 +442,7 @@ describe('editor panels in chromium', () => {
     await page.click(sel('weight-apply'));
     await solvedAfter(page, before);
     await page.selectOption(sel('target-status-filter'), 'selected');
-    await expect.poll(async () => (await tableRows(page)).map((r) => r.weight)).toStrictEqual(['1.00e+3', '1.00e+3']);
+    await expect.poll(async () => (await tableRows(page)).map((r) => r.weight)).toStrictEqual(['1000', '1000']);
     expect(await page.locator('[data-testid="target-row"] .num.edited').count()).toBe(2);
     expect(await undoTitle(page)).toContain('weight 1000 for 2 targets');
     expect(await page.inputValue(sel('weight-input'))).toBe('');
