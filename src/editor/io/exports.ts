@@ -22,17 +22,20 @@ export interface ExportFile {
   mime: string;
 }
 
+/** The catalog and instrument values solved.plan.json names (files written beside it in the folder). */
+export interface FolderPaths { catalog?: string; instrument?: string }
+
 /**
  * The solved plan as written to solved.plan.json: every mask placed and locked, so a re-run reproduces these slits.
  * `paths` rewrites the plan's catalog and instrument (files written beside it in an output folder).
  */
-export function solvedPlanText(result: SolveResult, paths: { catalog?: string; instrument?: string } = {}): string {
+export function solvedPlanText(result: SolveResult, paths: FolderPaths = {}): string {
   const plan = { ...result.plan, ...paths, masks: (result.plan.masks ?? []).map((m) => ({ ...m, locked: true })) };
   return JSON.stringify(plan, null, 2) + '\n';
 }
 
 /** The CLI's output folder files for this solution (solved.plan.json naming the catalog and profile as `paths` says). */
-export function outputFolderFiles(result: SolveResult, profile: InstrumentProfile, catalog: CatalogReadResult, paths: { catalog?: string; instrument?: string } = {}): ExportFile[] {
+export function outputFolderFiles(result: SolveResult, profile: InstrumentProfile, catalog: CatalogReadResult, paths: FolderPaths = {}): ExportFile[] {
   // Rows of each mask in order of y, as `haloweave plan` writes them.
   const slits = result.masks.flatMap((m) => [...m.slits].sort((a, b) => a.yArcsec - b.yArcsec));
   const maskRows = result.masks.map((m) => ({ maskId: m.mask.id, instrument: profile.id, raDeg: m.mask.raDeg, decDeg: m.mask.decDeg, paDeg: m.mask.paDeg }));
@@ -70,7 +73,8 @@ export function completeFolderFiles(result: SolveResult, profile: InstrumentProf
   const shipped = bundledProfileFor(profile.id);
   const ownProfile = !shipped || JSON.stringify(shipped) !== JSON.stringify(profile);
   const profileName = ownProfile ? free(`${profile.id.replace(/[^A-Za-z0-9_.-]+/g, '_')}.profile.json`) : undefined;
-  const files = outputFolderFiles(result, profile, catalog, { ...(catalogName ? { catalog: catalogName } : {}), ...(profileName ? { instrument: profileName } : {}) });
+  const paths: FolderPaths = { ...(catalogName ? { catalog: catalogName } : {}), ...(profileName ? { instrument: profileName } : {}) };
+  const files = outputFolderFiles(result, profile, catalog, paths);
   files.push({ name: 'excluded-targets.csv', content: excludedTargetsCsv(weightingOf(result, catalog)), mime: 'text/csv' });
   if (catalogFile && catalogName) files.push({ name: catalogName, content: catalogFile.content, mime: 'application/octet-stream' });
   if (profileName) files.push({ name: profileName, content: JSON.stringify(profile, null, 2) + '\n', mime: 'application/json' });

@@ -4,9 +4,10 @@
  * (footprints, slits by role, rotate handles), and a fixed overlay with compass and scale bar.
  * Mouse: drag empty sky to pan, wheel to zoom (pinch or Ctrl+wheel on a trackpad; two-finger scroll pans),
  * drag a mask to move it (where masks overlap, the active one is taken first and is drawn on top, else the one whose
- * centre is nearest; a click without moving steps to the next mask under the pointer), drag its round handle to rotate it (kept inside the view; Shift
- * snaps to 5°), click a target to select it, Shift+click to add, Shift+drag for a box selection.
- * Keys: arrows pan, + and - zoom, 0 fits, [ and ] turn the active mask by 1° (Shift 10°, Alt 0.1°), N steps through the masks (Shift+N back).
+ * centre is nearest; a click without moving steps to the next mask under the pointer), drag its round handle to
+ * rotate it (kept inside the view; Shift snaps to 5°), click a target to select it, Shift+click to add, Shift+drag
+ * for a box selection. Keys: arrows pan, + and - zoom, 0 fits, [ and ] turn the active mask by 1° (Shift 10°,
+ * Alt 0.1°), N steps through the masks (Shift+N back).
  * At high zoom, slits are drawn at their true width, length and tilt.
  */
 import { memo, useCallback, useEffect, useMemo, useRef, useState, type KeyboardEvent as ReactKeyboardEvent } from 'react';
