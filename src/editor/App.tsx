@@ -10,7 +10,7 @@ import { SkyView, type MaskPose } from './view/SkyView';
 import { buildCatalogGeometry } from './view/catalogGeometry';
 import { galaxyModel } from '../core/plan/validate';
 import { galaxyRadiusAndAzimuth } from '../core/coverage/coverage';
-import { slitOfObject, slitsByMask, weightsFor } from './derive';
+import { baseWeightsFor, slitOfObject, slitsByMask, weightsFor } from './derive';
 import { GalaxyPanel } from './panels/GalaxyPanel';
 import { ProfilePanel } from './panels/ProfilePanel';
 import { ProfileCheckPanel } from './panels/ProfileCheckPanel';
@@ -29,6 +29,8 @@ import { BackdropPanel, useBackdrop } from './panels/BackdropPanel';
 import { downloadFile } from './io/download';
 import { ROLE_STYLE, ROLES } from './view/palette';
 import { RoleMark } from './panels/MasksPanel';
+import type { MaskExposureReport } from '../core/observe/exposure';
+import type { ObservingReport } from '../core/observe/refractionReport';
 
 export function App({ controller: c }: { controller: EditorController }) {
   useControllerVersion(c);
@@ -41,6 +43,8 @@ export function App({ controller: c }: { controller: EditorController }) {
     const onKey = (e: KeyboardEvent) => {
       const el = e.target as HTMLElement;
       if (el && (el.tagName === 'INPUT' || el.tagName === 'SELECT' || el.tagName === 'TEXTAREA')) return;
+      // Escape closes the messages (a popup open above them takes its Escape first).
+      if (e.key === 'Escape' && !e.defaultPrevented) { c.dismissAllNotices(); return; }
       const mod = e.ctrlKey || e.metaKey;
       if (!mod) return;
       const k = e.key.toLowerCase();
@@ -83,16 +87,25 @@ export function App({ controller: c }: { controller: EditorController }) {
   const exactMasks = useRef(solvedMasks);
   if (session.solvedDoc || !session.solution) exactMasks.current = solvedMasks;
   const ringMasks = exactMasks.current;
+  // Exposure estimates come with full solves only (a drag preview has none): the last ones stay shown meanwhile.
+  const exactExposures = useRef<MaskExposureReport[] | null>(null);
+  const report = session.solution?.result.extra.observingReport as ObservingReport | undefined;
+  if (report?.exposures) exactExposures.current = report.exposures;
+  else if (!session.solution) exactExposures.current = null;
   // The target table's status column follows exact solves too: a preview result re-renders only what shows it live.
   const slitOf = useMemo(() => slitOfObject(ringMasks), [ringMasks]);
   const onSlit = useMemo(() => {
     if (!targets) return null;
     return Uint8Array.from(targets, (t) => { const s = slitOf.get(t.id); return !s ? 0 : s.role === 'alignment' ? 2 : 1; });
   }, [targets, slitOf]);
-  const tableData = useMemo(() => (targets && weights ? { targets, rRe, weights, slitOf } : null), [targets, rRe, weights, slitOf]);
+  const shownWeights = useMemo(() => (doc && targets ? baseWeightsFor(doc.plan, targets) : null), [doc?.plan.targetOverrides, doc?.plan.weighting, targets]);
+  const tableData = useMemo(() => (targets && weights && shownWeights ? { targets, rRe, weights, shownWeights, slitOf } : null), [targets, rRe, weights, shownWeights, slitOf]);
   const overrides = doc?.plan.targetOverrides;
   const tableOverrides = useMemo(() => overrides ?? {}, [overrides]);
 
+  const focus = session.focus;
+  const skyFocus = useMemo(() => (focus && geometry && focus.index < geometry.count
+    ? { xiArcsec: geometry.xiArcsec[focus.index], etaArcsec: geometry.etaArcsec[focus.index], n: focus.n } : null), [focus, geometry]);
   const poses: MaskPose[] = (doc?.plan.masks ?? [])
     .filter((m) => m.raDeg !== undefined && m.decDeg !== undefined)
     .map((m) => ({ id: m.id, raDeg: m.raDeg!, decDeg: m.decDeg!, paDeg: m.paDeg ?? 0, locked: !!m.locked }));
@@ -124,7 +137,7 @@ export function App({ controller: c }: { controller: EditorController }) {
         </span>
         <span className="status small dim" data-testid="autosave-status">{session.autosavedAt ? `kept in this browser ${new Date(session.autosavedAt).toLocaleTimeString()}` : ''}</span>
       </header>
-      <Notices c={c} />
+      {(!store || !doc || !galaxy) && <Notices c={c} />}
       {!store || !doc || !galaxy ? (
         <div className="loading">Opening the demo plan…</div>
       ) : (
@@ -134,40 +147,47 @@ export function App({ controller: c }: { controller: EditorController }) {
             <ProfilePanel c={c} profile={doc.profile} />
             <ProfileCheckPanel c={c} profile={doc.profile} plan={doc.plan} />
             <StartPlanPanel c={c} profile={doc.profile} />
-            <MasksPanel c={c} solved={solvedMasks} />
+            <MasksPanel c={c} solved={solvedMasks} exposures={exactExposures.current} galaxyPaDeg={galaxy.paDeg} />
             <SearchPanel c={c} />
             <BackdropPanel c={c} backdrop={backdrop} />
           </aside>
           <main className="centre">
             <div className="sky-wrap">
-              <SkyView
-                galaxy={galaxy}
-                tracerReachRe={doc.plan.goals.tracerReachRe}
-                starlightReachRe={doc.plan.goals.starlightReachRe}
-                profile={doc.profile}
-                masks={poses}
-                slitsByMask={slitMap}
-                catalog={geometry}
-                catalogRevision={0}
-                selected={session.selection}
-                onSlit={onSlit}
-                activeMaskId={session.activeMaskId}
-                backdrop={backdrop.drawable}
-                onPreviewMask={(p) => c.previewMask(p)}
-                onCommitMask={(p, how) => c.commitMask(p, how)}
-                onSelectTargets={(idx, additive) => store.updateSession((s) => {
-                  const next = additive ? new Set(s.selection) : new Set<number>();
-                  for (const i of idx) next.add(i);
-                  return { ...s, selection: next };
-                })}
-                onSelectMask={(id) => store.updateSession((s) => ({ ...s, activeMaskId: id }))}
-              />
               <div className="legend sky-legend">
                 {ROLES.map((r) => <span key={r}><RoleMark role={r} /> {ROLE_STYLE[r].label.replace(' slit', '')}</span>)}
                 <span title="size by brightness, shade by weight"><i className="dot" /> candidate</span>
-                <span><i className="ring" /> on a slit</span>
+                <span><i className="ring" /> on a tracer slit</span>
+                <span><i className="boxed" /> in an alignment box</span>
                 <span><i className="diamond" /> alignment star</span>
                 <span><i className="cross">×</i> excluded</span>
+              </div>
+              <div className="sky-box">
+                <Notices c={c} />
+                <SkyView
+                  galaxy={galaxy}
+                  tracerReachRe={doc.plan.goals.tracerReachRe}
+                  starlightReachRe={doc.plan.goals.starlightReachRe}
+                  profile={doc.profile}
+                  masks={poses}
+                  slitsByMask={slitMap}
+                  catalog={geometry}
+                  catalogRevision={0}
+                  selected={session.selection}
+                  onSlit={onSlit}
+                  activeMaskId={session.activeMaskId}
+                  backdrop={backdrop.drawable}
+                  onPreviewMask={(p) => c.previewMask(p)}
+                  onCommitMask={(p, how) => c.commitMask(p, how)}
+                  onSelectTargets={(idx, additive) => store.updateSession((s) => {
+                    const next = additive ? new Set(s.selection) : new Set<number>();
+                    for (const i of idx) next.add(i);
+                    return { ...s, selection: next };
+                  })}
+                  onSelectMask={(id) => store.updateSession((s) => ({ ...s, activeMaskId: id }))}
+                  onPreviewEnd={() => c.setLivePose(null)}
+                  paSnapDeg={session.paSnapDeg}
+                  focus={skyFocus}
+                />
               </div>
             </div>
             {tableData && (
@@ -179,7 +199,7 @@ export function App({ controller: c }: { controller: EditorController }) {
             <CoveragePanel c={c} galaxyPaDeg={galaxy.paDeg} />
             <ObservabilityPanel c={c} galaxy={galaxy} />
             <ForecastPanel c={c} />
-            {session.catalog && <RejectReport key={`${session.catalog.source}:${session.catalog.rowsRead}:${session.catalog.rejects.length}`} catalog={session.catalog} name={session.catalogFile?.name ?? session.catalog.source} />}
+            {session.catalog && <RejectReport key={`${session.catalog.source}:${session.catalog.rowsRead}:${session.catalog.rejects.length}`} catalog={session.catalog} name={session.catalogFile?.name ?? session.catalog.source} reveal={session.revealRejects} />}
           </aside>
         </div>
       )}

@@ -13,7 +13,8 @@ import { InputError, type Problem } from '../core/result';
 import { readCatalog } from '../core/catalog/read';
 import { DocumentStore } from './store/store';
 import type { EditorDoc } from './store/document';
-import { moveMaskCommand, rotateMaskCommand, setMasksCommand, setProfileCommand, type Command } from './store/commands';
+import { moveMaskCommand, openCatalogCommand, rotateMaskCommand, setMasksCommand, setProfileCommand, type Command } from './store/commands';
+import { catalogCoverageNote } from './derive';
 import { emptySession, type LoadedFile, type Notice, type Session } from './session';
 import { SolverClient, type SolveOutcome } from './worker/solverClient';
 import { bundledProfileFor } from './io/profiles';
@@ -113,14 +114,55 @@ export class EditorController {
     this.store.updateSession((s) => ({ ...s, ...p }));
   }
 
-  notify(level: Notice['level'], text: string, problems?: Problem[]): void {
-    const n: Notice = { id: this.noticeId++, level, text, problems };
+  /**
+   * Show a message: information goes after 6 s, a warning after 30 s, an error stays until dismissed (each has a
+   * close button, and Escape closes them all); at most five at a time.
+   */
+  notify(level: Notice['level'], text: string, problems?: Problem[], action?: Notice['action']): void {
+    const n: Notice = { id: this.noticeId++, level, text, problems, ...(action ? { action } : {}) };
     if (!this.store) {
       console[level === 'error' ? 'error' : 'log'](text, problems ?? '');
       return;
     }
     this.patch({ notices: [...this.session.notices.slice(-4), n] });
-    if (level === 'info') setTimeout(() => this.dismissNotice(n.id), 8000);
+    if (level !== 'error') setTimeout(() => this.dismissNotice(n.id), level === 'info' ? 6000 : 30000);
+  }
+
+  /** Close every message. */
+  dismissAllNotices(): void {
+    if (this.session.notices.length) this.patch({ notices: [] });
+  }
+
+  /** Open the catalog's row report and bring it into view. */
+  showRejects(): void {
+    this.patch({ revealRejects: this.session.revealRejects + 1 });
+  }
+
+  /** Ask the sky view to bring catalog target `index` into view. */
+  focusTarget(index: number): void {
+    this.patch({ focus: { index, n: (this.session.focus?.n ?? 0) + 1 } });
+  }
+
+  /** Set the PA snap for turning masks by their handle (0: off). */
+  setPaSnap(deg: number): void {
+    this.patch({ paSnapDeg: deg });
+  }
+
+  // ---- the pose of a mask being dragged or turned, for read-outs that follow it live (not an edit) ----
+  private livePose: MaskPose | null = null;
+  private liveListeners = new Set<Listener>();
+  /** Register a listener of the live pose; returns the function that removes it. */
+  subscribeLive = (fn: Listener): (() => void) => {
+    this.liveListeners.add(fn);
+    return () => this.liveListeners.delete(fn);
+  };
+  /** The pose of the mask being dragged or turned, or null. */
+  getLivePose = (): MaskPose | null => this.livePose;
+  /** Set (or clear, null) the live pose and tell its listeners. */
+  setLivePose(pose: MaskPose | null): void {
+    if (pose === this.livePose) return;
+    this.livePose = pose;
+    for (const fn of [...this.liveListeners]) fn();
   }
 
   dismissNotice(id: number): void {
@@ -242,24 +284,24 @@ export class EditorController {
       this.notify('error', `${file.name} could not be read as a catalog`, problemsOf(e, file.name));
       return;
     }
-    this.patch({ catalog, catalogFile: file, selection: new Set() });
     const used = catalog.targets.length;
-    const rejectedRows = new Set(catalog.rejects.map((r) => r.line)).size;
-    this.notify(catalog.rejects.length ? 'warning' : 'info',
-      `${file.name}: ${catalog.rowsRead} rows read, ${used} used, ${rejectedRows} not used${catalog.rejects.length ? ' (see the row report)' : ''}`);
     if (used === 0) {
-      this.notify('error', `${file.name}: no row of the catalog is usable; nothing to solve`);
+      this.notify('error', `${file.name}: no row of the catalog is usable; nothing to solve`, undefined, catalog.rejects.length ? 'show-rejects' : undefined);
       return;
     }
     // A plan opened before its catalog (nothing solved yet) may still have masks to place: place them now and adopt
     // the placements, as when the plan and its catalog are opened together (an allocation alone would place them
     // unseen: solved and counted, but neither drawn nor listed). A catalog replacing another keeps the layout.
     const fresh = !this.session.solution;
-    this.sendInputs(false);
+    // One undoable edit: the document change makes onStoreChange mirror the catalog, send it and ask for a solve.
+    this.store.dispatch(openCatalogCommand(this.store.doc, { file, read: catalog }));
+    const rejectedRows = new Set(catalog.rejects.map((r) => r.line)).size;
+    this.notify(catalog.rejects.length ? 'warning' : 'info',
+      `${file.name}: ${catalog.rowsRead} rows read, ${used} used, ${rejectedRows} not used (undo reopens the previous catalog)`, undefined,
+      catalog.rejects.length ? 'show-rejects' : undefined);
+    this.warnIfCatalogMissesGalaxy(file.name);
     const doc = this.store.doc;
     if (fresh && !planFullyPlaced(doc.plan)) this.requestPlacement(doc);
-    else this.requestFor(doc, 'allocate');
-    this.scheduleAutosave();
   }
 
   private installing = false;
@@ -281,7 +323,8 @@ export class EditorController {
     this.emit();
   }
 
-  private installInner(doc: EditorDoc, catalog: CatalogReadResult | null, catalogFile: LoadedFile | null, planName: string, o: { dirty: boolean; place: boolean }): void {
+  private installInner(bare: EditorDoc, catalog: CatalogReadResult | null, catalogFile: LoadedFile | null, planName: string, o: { dirty: boolean; place: boolean }): void {
+    const doc: EditorDoc = { ...bare, catalog: catalog && catalogFile ? { file: catalogFile, read: catalog } : null };
     if (!this.store) {
       this.store = new DocumentStore<Session>(doc, { ...emptySession(), catalog, catalogFile, planName });
       this.store.subscribe(() => this.onStoreChange());
@@ -291,6 +334,15 @@ export class EditorController {
     }
     if (o.dirty) this.store.replaceDocument(doc, { dirty: true });
     this.lastDoc = this.store.doc;
+    if (catalog && catalogFile) this.warnIfCatalogMissesGalaxy(catalogFile.name);
+  }
+
+  /** Warn when no usable catalog object lies within the tracer goal radius of the galaxy (a catalog of another field). */
+  private warnIfCatalogMissesGalaxy(fileName: string): void {
+    const doc = this.store?.doc;
+    if (!doc?.catalog) return;
+    const note = catalogCoverageNote(doc.plan, doc.catalog.read.targets);
+    if (note) this.notify('warning', `${fileName}: ${note}`);
   }
 
   private sendInputs(resolve: boolean): void {
@@ -306,6 +358,11 @@ export class EditorController {
     const doc = this.store!.doc;
     if (doc !== this.lastDoc && !this.installing) {
       this.lastDoc = doc;
+      // The session mirrors the document's catalog (opening one is undoable): follow it after an edit, undo or redo.
+      const entry = doc.catalog ?? null;
+      if ((entry?.read ?? null) !== this.session.catalog) {
+        this.patch({ catalog: entry?.read ?? null, catalogFile: entry?.file ?? null, selection: new Set(), ...(entry ? {} : { solution: null, solvedDoc: null }) });
+      }
       this.sendInputs(false);
       if (this.session.catalog) this.requestFor(doc, 'allocate');
       this.scheduleAutosave();
@@ -365,6 +422,7 @@ export class EditorController {
 
   /** Show a mask at a pose it is being dragged to, and re-solve for it (not yet an edit) unless live drag is off. */
   previewMask(pose: MaskPose): void {
+    this.setLivePose(pose);
     if (!this.store || !this.session.catalog || !this.session.liveDrag) return;
     const plan = this.store.doc.plan;
     const masks = (plan.masks ?? []).map((m) => (m.id === pose.id ? { ...m, raDeg: pose.raDeg, decDeg: pose.decDeg, paDeg: pose.paDeg } : m));
@@ -378,6 +436,7 @@ export class EditorController {
 
   /** Commit a drag or rotation as one undoable command. */
   commitMask(pose: MaskPose, how: 'move' | 'rotate'): void {
+    this.setLivePose(null);
     if (!this.store) return;
     this.store.run((d) => (how === 'move' ? moveMaskCommand(d, pose.id, pose.raDeg, pose.decDeg) : rotateMaskCommand(d, pose.id, pose.paDeg)));
   }

@@ -19,6 +19,8 @@ export interface Notice {
   level: 'info' | 'warning' | 'error';
   text: string;
   problems?: Problem[];
+  /** A button on the notice: open the catalog's row report. */
+  action?: 'show-rejects';
 }
 
 export interface SearchState {
@@ -49,12 +51,18 @@ export interface Session {
   autosavedAt: string | null;
   /** Re-solve the moved mask on every step of a drag (true), or only when it is dropped (false: for slow machines). */
   liveDrag: boolean;
+  /** A target the sky view should bring into view (catalog index; `n` counts the requests). */
+  focus: { index: number; n: number } | null;
+  /** PA snap for turning a mask with its handle, degrees (0: off). */
+  paSnapDeg: number;
+  /** Counts requests to open and show the catalog's row report. */
+  revealRejects: number;
 }
 
 export function emptySession(): Session {
   return {
     catalog: null, catalogFile: null, planName: 'untitled.plan.json', solution: null, solvedDoc: null, solving: false, solveError: null,
     selection: new Set(), activeMaskId: null, preview: null, search: null, notices: [], backdropName: null, autosavedAt: null,
-    liveDrag: true,
+    liveDrag: true, focus: null, paSnapDeg: 0, revealRejects: 0,
   };
 }

@@ -190,7 +190,7 @@ describe('editor in chromium', () => {
     });
     expect(opened).toStrictEqual({ report: false, windows: false, solvedReport: true });
     await fresh.context.close();
-  });
+  }, 150_000); // two command-line runs and two editors: about a minute on two shared cores
 
   it('shows a FITS image under the plan where its TAN WCS puts it, and says clearly when an image has no usable WCS', async () => {
     const { context, page } = await openEditor(harness());

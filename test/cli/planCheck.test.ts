@@ -168,7 +168,7 @@ describe('bad input: one line per problem naming the field, non-zero exit, no co
 
   it('a mask with too few alignment stars is refused with the mask named, found vs needed', () => {
     const lines = runBad('fewstars', (p) => { p.masks = [{ id: 'far', raDeg: 1.0, decDeg: -12.5, paDeg: 0, locked: true }]; p.goals.masks = 1; });
-    expect(lines.some((l) => /mask far: 0 alignment star\(s\) .* alignment\.minCount is 3/.test(l))).toBe(true);
+    expect(lines.some((l) => /mask far: 0 alignment star\(s\) .* needs at least 3 alignment boxes per mask/.test(l))).toBe(true);
   });
 
   it('leaves a previous output folder intact when a later run fails, and refuses to overwrite a foreign folder', () => {

@@ -155,7 +155,7 @@ export function checkOutput(input: CheckInput): Violation[] {
     const prof = profiles.get(m.maskId);
     if (!prof) continue;
     const n = boxesByMask.get(m.maskId) ?? 0;
-    if (n < prof.alignment.minCount) out.push({ where: `${masksSrc} (mask ${m.maskId})`, rule: 'alignment count', what: `${n} alignment boxes, alignment.minCount is ${prof.alignment.minCount}` });
+    if (n < prof.alignment.minCount) out.push({ where: `${masksSrc} (mask ${m.maskId})`, rule: 'alignment count', what: `${n} alignment boxes, the instrument profile needs at least ${prof.alignment.minCount} per mask` });
   }
   return out;
 }

@@ -95,7 +95,7 @@ export function targetWeights(plan: PlanFile, targets: readonly Target[], warnin
   for (const v of w) total += v;
   for (const [id, o] of overrides) {
     const i = index.get(id);
-    if (i === undefined) { warnings.push(`targetOverrides: no catalog target with id "${id}"; the override is ignored`); continue; }
+    if (i === undefined) { warnings.push(`a weight or forcing is set for target "${id}" (targetOverrides in the plan file), but the catalog has no target with that id; it is ignored`); continue; }
     if (o.force === 'in' && w[i] > 0) w[i] += total;
   }
   return w;

@@ -134,8 +134,8 @@ export function alignmentProblem(ctx: AllocationContext, p: PreparedMask): Probl
   const clash = compatibleMax < available ? ` (${compatibleMax} with boxes clear of each other along y)` : '';
   return {
     where: `mask ${p.mask.id}`,
-    what: `${available} alignment star(s) with mag in [${b}, ${f}] fit on the mask${clash}, but alignment.minCount is ${need}`,
-    fix: 'move or rotate the mask, add alignment stars (role "alignment") to the catalog, or use a profile with a lower alignment.minCount',
+    what: `${available} alignment star(s) with mag in [${b}, ${f}] fit on the mask${clash}, but the instrument profile needs at least ${need} alignment boxes per mask`,
+    fix: 'move or rotate the mask, add alignment stars to the catalog (rows whose role column says alignment), or use an instrument profile that needs fewer alignment boxes',
   };
 }
 

@@ -7,10 +7,16 @@ import type { CatalogReadResult } from '../../core/catalog/types';
 import type { InstrumentProfile } from '../../core/profile/schema';
 import { masksToCsv, slitsToCsv } from '../../core/export/slitsCsv';
 import { catalogReportCsv } from '../../core/export/catalogReport';
+import { excludedTargetsCsv } from '../../core/coverage/summary';
+import type { WeightingResult } from '../../core/solver/weighting';
+import { weighPlanTargets } from '../../core/plan/pipeline';
 import type { SolveResult } from '../worker/protocol';
+import type { LoadedFile } from '../session';
 import { maskChartSvg } from './maskChart';
 import { MANIFEST_FILE, buildManifest, manifestText, profileDigest } from '../../core/check/manifest';
 import { sha256HexOf } from '../../core/check/sha256';
+import { bundledProfileFor } from './profiles';
+import { strToU8, zipSync } from 'fflate';
 
 export interface ExportFile {
   name: string;
@@ -18,14 +24,20 @@ export interface ExportFile {
   mime: string;
 }
 
-/** The solved plan as written to solved.plan.json: every mask placed and locked, so a re-run reproduces these slits. */
-export function solvedPlanText(result: SolveResult): string {
-  const plan = { ...result.plan, masks: (result.plan.masks ?? []).map((m) => ({ ...m, locked: true })) };
+/** The catalog and instrument values solved.plan.json names (files written beside it in the folder). */
+export interface FolderPaths { catalog?: string; instrument?: string }
+
+/**
+ * The solved plan as written to solved.plan.json: every mask placed and locked, so a re-run reproduces these slits.
+ * `paths` rewrites the plan's catalog and instrument (files written beside it in an output folder).
+ */
+export function solvedPlanText(result: SolveResult, paths: FolderPaths = {}): string {
+  const plan = { ...result.plan, ...paths, masks: (result.plan.masks ?? []).map((m) => ({ ...m, locked: true })) };
   return JSON.stringify(plan, null, 2) + '\n';
 }
 
-/** The CLI's output folder files for this solution. */
-export function outputFolderFiles(result: SolveResult, profile: InstrumentProfile, catalog: CatalogReadResult): ExportFile[] {
+/** The CLI's output folder files for this solution (solved.plan.json naming the catalog and profile as `paths` says). */
+export function outputFolderFiles(result: SolveResult, profile: InstrumentProfile, catalog: CatalogReadResult, paths: FolderPaths = {}): ExportFile[] {
   // Rows of each mask in order of y, as `haloweave plan` writes them.
   const slits = result.masks.flatMap((m) => [...m.slits].sort((a, b) => a.yArcsec - b.yArcsec));
   const maskRows = result.masks.map((m) => ({ maskId: m.mask.id, instrument: profile.id, raDeg: m.mask.raDeg, decDeg: m.mask.decDeg, paDeg: m.mask.paDeg }));
@@ -33,13 +45,58 @@ export function outputFolderFiles(result: SolveResult, profile: InstrumentProfil
     { name: 'masks.csv', content: masksToCsv(maskRows), mime: 'text/csv' },
     { name: 'slits.csv', content: slitsToCsv(slits), mime: 'text/csv' },
     { name: 'coverage.json', content: JSON.stringify(result.coverage, null, 2) + '\n', mime: 'application/json' },
-    { name: 'solved.plan.json', content: solvedPlanText(result), mime: 'application/json' },
+    { name: 'solved.plan.json', content: solvedPlanText(result, paths), mime: 'application/json' },
     { name: 'catalog-report.csv', content: catalogReportCsv(catalog.rejects), mime: 'text/csv' },
   ];
-  // The manifest `haloweave check` requires of a complete folder: these files' sizes and hashes, and the profile.
-  const bytes = new Map(files.map((f) => [f.name, typeof f.content === 'string' ? new TextEncoder().encode(f.content) : f.content]));
+  return withManifest(files, profile);
+}
+
+/** `files` followed by the manifest `haloweave check` requires of a complete folder: every file's size and hash, and the profile. */
+function withManifest(files: readonly ExportFile[], profile: InstrumentProfile): ExportFile[] {
+  const own = files.filter((f) => f.name !== MANIFEST_FILE);
+  const bytes = new Map(own.map((f) => [f.name, typeof f.content === 'string' ? new TextEncoder().encode(f.content) : f.content]));
   const manifest = buildManifest(bytes, sha256HexOf, { writtenBy: 'haloweave editor 0.1.0', writtenUtc: new Date().toISOString(), profiles: [{ id: profile.id, sha256: profileDigest(profile) }] });
-  return [...files, { name: MANIFEST_FILE, content: manifestText(manifest), mime: 'application/json' }];
+  return [...own, { name: MANIFEST_FILE, content: manifestText(manifest), mime: 'application/json' }];
+}
+
+/** The weighting of a full solve (passed through by the worker), or the same rules applied again (a drag preview has none). */
+function weightingOf(result: SolveResult, catalog: CatalogReadResult): WeightingResult {
+  const w = result.extra.weighting as WeightingResult | undefined;
+  if (w && Array.isArray(w.excluded)) return w;
+  return weighPlanTargets(result.plan, catalog.targets);
+}
+
+/** The folder name of the archive: the plan's name without `.plan.json`, then `-out`. */
+export function archiveFolderName(planName: string): string {
+  const base = planName.split(/[\\/]/).pop()!.replace(/\.plan\.json$/i, '').replace(/\.json$/i, '').replace(/[^A-Za-z0-9_.-]+/g, '_');
+  return `${base || 'plan'}-out`;
+}
+
+/**
+ * Every file of a complete output folder, as `haloweave plan` writes it plus its inputs, so `haloweave check` on the
+ * unpacked folder cross-checks the catalog: the five contract files, excluded-targets.csv, the catalog itself (named
+ * by solved.plan.json) and, for a profile that is not one of the shipped ones, the profile file (named likewise).
+ */
+export function completeFolderFiles(result: SolveResult, profile: InstrumentProfile, catalog: CatalogReadResult, catalogFile: LoadedFile | null): ExportFile[] {
+  const taken = new Set<string>([...FOLDER_FILES, 'excluded-targets.csv']);
+  const free = (name: string) => (taken.has(name) ? `input-${name}` : name);
+  const catalogName = catalogFile ? free(catalogFile.name.split(/[\\/]/).pop() || 'catalog.csv') : undefined;
+  const shipped = bundledProfileFor(profile.id);
+  const ownProfile = !shipped || JSON.stringify(shipped) !== JSON.stringify(profile);
+  const profileName = ownProfile ? free(`${profile.id.replace(/[^A-Za-z0-9_.-]+/g, '_')}.profile.json`) : undefined;
+  const paths: FolderPaths = { ...(catalogName ? { catalog: catalogName } : {}), ...(profileName ? { instrument: profileName } : {}) };
+  const files = outputFolderFiles(result, profile, catalog, paths);
+  files.push({ name: 'excluded-targets.csv', content: excludedTargetsCsv(weightingOf(result, catalog)), mime: 'text/csv' });
+  if (catalogFile && catalogName) files.push({ name: catalogName, content: catalogFile.content, mime: 'application/octet-stream' });
+  if (profileName) files.push({ name: profileName, content: JSON.stringify(profile, null, 2) + '\n', mime: 'application/json' });
+  return withManifest(files, profile);
+}
+
+/** A zip archive holding `files` in one folder `folder/` (deflated; dates left at the archive's default). */
+export function zipFolder(folder: string, files: readonly ExportFile[]): Uint8Array {
+  const entries: Record<string, Uint8Array> = {};
+  for (const f of files) entries[`${folder}/${f.name}`] = typeof f.content === 'string' ? strToU8(f.content) : f.content;
+  return zipSync(entries, { level: 6 });
 }
 
 /** Names of the output-folder files, in the order outputFolderFiles gives them. */

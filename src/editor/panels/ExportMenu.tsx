@@ -1,12 +1,20 @@
-/** The export menu: the CLI's output files one by one or all at once, the slit list in other formats, and mask charts. */
-import { useState } from 'react';
+/**
+ * The export menu: the whole output folder as one zip archive (what `haloweave plan` writes, with the catalog, so
+ * `haloweave check` on it cross-checks the catalog), the CLI's output files one by one, the slit list in other
+ * formats, and mask charts. Closes on Escape, on a click outside it, and after a download.
+ */
+import { useCallback, useRef, useState } from 'react';
 import type { EditorController } from '../controller';
 import { downloadFile } from '../io/download';
-import { FOLDER_FILES, maskChartFiles, maskChartName, outputFolderFiles, type ExportFile } from '../io/exports';
+import { archiveFolderName, completeFolderFiles, FOLDER_FILES, maskChartFiles, maskChartName, outputFolderFiles, zipFolder, type ExportFile } from '../io/exports';
 import { FORMAT_FILES, slitListFiles } from '../io/slitFormats';
+import { useDismissable } from './usePopup';
 
 export function ExportMenu({ c }: { c: EditorController }) {
   const [open, setOpen] = useState(false);
+  const root = useRef<HTMLDivElement>(null);
+  const close = useCallback(() => setOpen(false), []);
+  useDismissable(open, root, close);
   const sol = c.session.solution;
   const catalog = c.session.catalog;
   const ready = !!(sol && catalog && c.store);
@@ -19,7 +27,13 @@ export function ExportMenu({ c }: { c: EditorController }) {
       charts: maskChartFiles(sol!.result, profile, c.store!.doc.plan.goals.tracerReachRe),
     };
   };
-  const save = (list: ExportFile[]) => list.forEach((f) => downloadFile(f.name, f.content, f.mime));
+  const save = (list: ExportFile[]) => { list.forEach((f) => downloadFile(f.name, f.content, f.mime)); setOpen(false); };
+  const saveArchive = () => {
+    const folder = archiveFolderName(c.session.planName);
+    const bytes = zipFolder(folder, completeFolderFiles(sol!.result, c.store!.doc.profile, catalog!, c.session.catalogFile));
+    downloadFile(`${folder}.zip`, bytes, 'application/zip');
+    setOpen(false);
+  };
   // Only the names are needed to draw the menu; file contents are made when a file is asked for.
   const names = ready && open ? {
     folder: FOLDER_FILES.map((name) => ({ name })),
@@ -27,12 +41,14 @@ export function ExportMenu({ c }: { c: EditorController }) {
     charts: sol!.result.masks.map((m) => ({ name: maskChartName(m.mask.id) })),
   } : null;
   return (
-    <div className="menu">
+    <div className="menu" ref={root}>
       <button disabled={!ready} onClick={() => setOpen(!open)} data-testid="export-menu" aria-expanded={open}>Export ▾</button>
       {open && names && (
-        <div className="menu-pop" onMouseLeave={() => setOpen(false)}>
+        <div className="menu-pop" role="menu" data-testid="export-pop">
           <div className="menu-title">Output folder (as <code>haloweave plan</code> writes it)</div>
-          <button data-testid="export-all" onClick={() => save(files().folder)}>All five files</button>
+          <button data-testid="export-all" onClick={saveArchive}
+            title="One zip archive: masks.csv, slits.csv, coverage.json, solved.plan.json, catalog-report.csv, excluded-targets.csv and the catalog">
+            Whole folder as a zip archive</button>
           {names.folder.map((f) => (
             <button key={f.name} data-testid={`export-${f.name}`} onClick={() => save(files().folder.filter((x) => x.name === f.name))}>{f.name}</button>
           ))}

@@ -13,7 +13,10 @@ export function Notices({ c }: { c: EditorController }) {
           {n.problems && n.problems.length > 0 && (
             <ul>{n.problems.slice(0, 20).map((p, i) => <li key={i}>{formatProblem(p)}</li>)}</ul>
           )}
-          <button className="close" aria-label="dismiss" onClick={() => c.dismissNotice(n.id)}>×</button>
+          {n.action === 'show-rejects' && (
+            <button className="notice-action" data-testid="notice-show-rejects" onClick={() => { c.showRejects(); c.dismissNotice(n.id); }}>Show the rows not used</button>
+          )}
+          <button className="close" aria-label="dismiss" title="close (Escape closes every message)" onClick={() => c.dismissNotice(n.id)}>×</button>
         </div>
       ))}
     </div>

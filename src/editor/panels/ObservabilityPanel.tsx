@@ -10,6 +10,7 @@ import type { GalaxyModel } from '../../core/plan/schema';
 import type { NightsReply, NightsRequest } from '../worker/nightsWorker';
 import { INK, ROLE_STYLE } from '../view/palette';
 import { NumberField, Panel } from './Panel';
+import { monthYearLabel } from './plotAxes';
 
 /** Semesters of six months starting 1 February and 1 August (a common convention; the user may pick any). */
 function semesterOf(d: Date): { from: string; to: string; label: string } {
@@ -21,16 +22,17 @@ function semesterOf(d: Date): { from: string; to: string; label: string } {
 
 /** Dark hours per night (bars) and the Moon's lit fraction (dashed line); memoised: it redraws only when the rows change, not on every solve. */
 const NightsChart = memo(function NightsChart({ rows }: { rows: NightRow[] }) {
-  const W = 290, H = 110, left = 24, bottom = 16;
+  const W = 290, H = 132, left = 30, right = 32, bottom = 28;
   const maxH = Math.max(1, ...rows.map((r) => r.darkTotalHours));
-  const bw = (W - left - 4) / Math.max(1, rows.length);
+  const bw = (W - left - right) / Math.max(1, rows.length);
   const y = (h: number) => 4 + (H - bottom - 4) * (1 - h / maxH);
   const months = rows.map((r, i) => ({ r, i })).filter(({ r }) => r.date.endsWith('-01'));
   const moon = rows.map((r, i) => `${left + (i + 0.5) * bw},${4 + (H - bottom - 4) * (1 - r.moonIllumination)}`).join(' ');
+  const xEnd = W - right;
   return (
-    <svg width={W} height={H} data-testid="nights-plot" role="img" aria-label="dark hours per night">
+    <svg width={W} height={H} viewBox={`0 0 ${W} ${H}`} data-testid="nights-plot" role="img" aria-label="dark hours per night">
       {[0, Math.round(maxH / 2), Math.round(maxH)].map((h) => (
-        <g key={h}><line x1={left} x2={W - 4} y1={y(h)} y2={y(h)} stroke={INK.grid} /><text x={left - 3} y={y(h) + 3} textAnchor="end" className="axis">{h}</text></g>
+        <g key={h}><line x1={left} x2={xEnd} y1={y(h)} y2={y(h)} stroke={INK.grid} /><text x={left - 3} y={y(h) + 3} textAnchor="end" className="axis">{h}</text></g>
       ))}
       {rows.map((r, i) => (
         <rect key={r.date} x={left + i * bw} width={Math.max(0.8, bw - 0.3)} y={y(r.darkHours)} height={H - bottom - y(r.darkHours)} fill={ROLE_STYLE.tracer.colour}>
@@ -38,7 +40,11 @@ const NightsChart = memo(function NightsChart({ rows }: { rows: NightRow[] }) {
         </rect>
       ))}
       <polyline points={moon} fill="none" stroke={ROLE_STYLE.starlight.colour} strokeWidth={1.2} strokeDasharray="4 2" />
-      {months.map(({ r, i }) => <text key={r.date} x={left + i * bw} y={H - 3} className="axis">{r.date.slice(5, 7)}</text>)}
+      {months.map(({ r, i }, k) => <text key={r.date} x={left + i * bw} y={H - bottom + 11} className="axis" data-testid="nights-month">{k === 0 || r.date.slice(5, 7) === '01' ? monthYearLabel(r.date) : monthYearLabel(r.date).slice(0, 3)}</text>)}
+      {[0, 0.5, 1].map((f) => <text key={f} x={xEnd + 3} y={4 + (H - bottom - 4) * (1 - f) + 3} className="axis">{f * 100}</text>)}
+      <text transform={`translate(9, ${(H - bottom) / 2}) rotate(-90)`} textAnchor="middle" className="axis axis-title">dark hours</text>
+      <text transform={`translate(${W - 6}, ${(H - bottom) / 2}) rotate(90)`} textAnchor="middle" className="axis axis-title">Moon lit %</text>
+      <text x={left + (xEnd - left) / 2} y={H - 3} textAnchor="middle" className="axis axis-title">night (local evening date)</text>
     </svg>
   );
 });
@@ -50,7 +56,8 @@ function HourAngleWindows({ c }: { c: EditorController }) {
   const rows = masks.filter((m) => 'hourAngleWindowH' in m);
   if (!rows.length) return <p className="dim small">Hour-angle windows appear with the next full solve.</p>;
   return (
-    <svg width={W} height={18 + rows.length * 18} data-testid="ha-windows" role="img" aria-label="hour-angle window per mask">
+    <svg width={W} height={32 + rows.length * 18} viewBox={`0 0 ${W} ${32 + rows.length * 18}`} data-testid="ha-windows" role="img" aria-label="hour-angle window per mask">
+      <text x={left + (W - left - 6) / 2} y={28 + rows.length * 18} textAnchor="middle" className="axis axis-title">hour angle (h; negative: east of the meridian)</text>
       {[-6, -3, 0, 3, 6].map((h) => (
         <g key={h}><line x1={x(h)} x2={x(h)} y1={12} y2={12 + rows.length * 18} stroke={INK.grid} /><text x={x(h)} y={9} textAnchor="middle" className="axis">{h > 0 ? `+${h}` : h} h</text></g>
       ))}

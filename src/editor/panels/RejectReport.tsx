@@ -4,11 +4,11 @@ import type { CatalogReadResult } from '../../core/catalog/types';
 import { Panel } from './Panel';
 
 /** Memoised on the catalog it reports: a drag preview (not an edit) does not re-render it. */
-export const RejectReport = memo(function RejectReport({ catalog, name }: { catalog: CatalogReadResult; name: string }) {
+export const RejectReport = memo(function RejectReport({ catalog, name, reveal = 0 }: { catalog: CatalogReadResult; name: string; reveal?: number }) {
   const rejects = [...catalog.rejects].sort((a, b) => a.line - b.line);
   const rows = new Set(rejects.map((r) => r.line)).size;
   return (
-    <Panel title={`Catalog rows not used (${rows})`} testId="panel-rejects" >
+    <Panel title={`Catalog rows not used (${rows})`} testId="panel-rejects" reveal={reveal}>
       <div className="small" data-testid="catalog-summary">
         {name} ({catalog.format}): {catalog.rowsRead} rows read, <span data-testid="catalog-used">{catalog.targets.length}</span> used,{' '}
         <span data-testid="catalog-rejected">{rows}</span> not used

@@ -2,7 +2,8 @@
  * The target table: every usable catalog row with magnitude, colour, radius, weight and where it went.
  * Sort by a column, filter by text and status, select (click, Ctrl/Cmd+click, Shift+click), and set or
  * reset the weight or the forcing of the selection. Linked both ways with the sky view: the selection
- * is shared, and the table scrolls to the first selected row when the sky selects it.
+ * is shared, the table scrolls to the first selected row when the sky selects it (or when an edit re-sorts the rows),
+ * and clicking a row brings its target into the sky view. A weight that cannot be used is said next to the field.
  */
 import { memo, useEffect, useMemo, useRef, useState } from 'react';
 import type { EditorController } from '../controller';
@@ -10,6 +11,7 @@ import type { Target } from '../../core/catalog/types';
 import type { PlanFile } from '../../core/plan/schema';
 import type { Slit } from '../../core/solver/types';
 import { setOverridesCommand } from '../store/commands';
+import { shownNumber, shownWeight } from '../derive';
 
 type SortKey = 'id' | 'mag' | 'color' | 'rRe' | 'weight' | 'status';
 type Filter = 'all' | 'slit' | 'noslit' | 'alignment' | 'excluded' | 'forced' | 'selected';
@@ -20,6 +22,8 @@ export interface TargetRowData {
   targets: readonly Target[];
   rRe: Float64Array;
   weights: Float64Array;
+  /** Weights before forcing (what the user set or the rules give): the number shown; `weights` sorts. */
+  shownWeights: Float64Array;
   slitOf: ReadonlyMap<string, Slit>;
 }
 
@@ -44,11 +48,12 @@ export const TargetTable = memo(function TargetTable({ c, data, selection, overr
   const [text, setText] = useState('');
   const [filter, setFilter] = useState<Filter>('all');
   const [weightText, setWeightText] = useState('');
+  const [weightError, setWeightError] = useState<string | null>(null);
   const [scrollTop, setScrollTop] = useState(0);
   const [height, setHeight] = useState(200);
   const box = useRef<HTMLDivElement>(null);
   const anchor = useRef<number | null>(null);
-  const { targets, rRe, weights, slitOf } = data;
+  const { targets, rRe, weights, shownWeights, slitOf } = data;
 
   // The slit map changes with every solve; rows depend on it only when sorting or filtering by it.
   const slitDep = sort.key === 'status' || filter === 'slit' || filter === 'noslit' ? slitOf : null;
@@ -93,10 +98,14 @@ export const TargetTable = memo(function TargetTable({ c, data, selection, overr
     return () => ro.disconnect();
   }, []);
 
-  // Sky → table: bring the first selected row into view when the selection changes elsewhere.
+  // Sky → table: bring the first selected row into view when the selection changes elsewhere, and after an edit of
+  // weights or forcing re-sorts the rows (the edited row would otherwise jump out of view).
   const lastSel = useRef(selection);
+  const lastEdit = useRef({ weights, overrides });
   useEffect(() => {
-    if (selection === lastSel.current) return;
+    const edited = weights !== lastEdit.current.weights || overrides !== lastEdit.current.overrides;
+    lastEdit.current = { weights, overrides };
+    if (selection === lastSel.current && !edited) return;
     lastSel.current = selection;
     if (!selection.size || !box.current) return;
     const first = rows.findIndex((i) => selection.has(i));
@@ -106,7 +115,7 @@ export const TargetTable = memo(function TargetTable({ c, data, selection, overr
       el.scrollTop = Math.max(0, top - ROW_PX * 2);
       setScrollTop(el.scrollTop);
     }
-  }, [selection, rows]);
+  }, [selection, rows, weights, overrides]);
 
   const select = (rowPos: number, e: React.MouseEvent) => {
     const i = rows[rowPos];
@@ -123,6 +132,7 @@ export const TargetTable = memo(function TargetTable({ c, data, selection, overr
     } else {
       next = new Set([i]);
       anchor.current = i;
+      c.focusTarget(i);
     }
     lastSel.current = next;
     c.store!.updateSession((s) => ({ ...s, selection: next }));
@@ -130,8 +140,11 @@ export const TargetTable = memo(function TargetTable({ c, data, selection, overr
 
   const selIds = [...selection].map((i) => targets[i]?.id).filter((x): x is string => !!x);
   const applyWeight = () => {
+    if (!selIds.length) return;
     const v = Number(weightText);
-    if (!selIds.length || weightText.trim() === '' || !Number.isFinite(v) || v < 0) return;
+    if (weightText.trim() === '' || !Number.isFinite(v)) { setWeightError(`"${weightText}" is not a number: type a weight such as 2 or 0.5`); return; }
+    if (v < 0) { setWeightError('a weight cannot be negative: use 0 to leave a target out, or Force out'); return; }
+    setWeightError(null);
     c.run((d) => setOverridesCommand(d, selIds, { weight: v }));
     setWeightText('');
   };
@@ -164,14 +177,17 @@ export const TargetTable = memo(function TargetTable({ c, data, selection, overr
         <span className="dim small" data-testid="target-count">{rows.length} of {targets.length}</span>
         <span className="spacer" />
         <span className="small" data-testid="selection-count">{selIds.length} selected</span>
-        <input data-testid="weight-input" className="short-in" placeholder="weight" value={weightText}
-          onChange={(e) => setWeightText(e.target.value)} onKeyDown={(e) => e.key === 'Enter' && applyWeight()} disabled={!selIds.length} />
-        <button data-testid="weight-apply" disabled={!selIds.length} onClick={applyWeight}>Set weight</button>
-        <button disabled={!selIds.length} onClick={() => c.run((d) => setOverridesCommand(d, selIds, { weight: null }))}>Reset</button>
-        <button data-testid="force-in" disabled={!selIds.length} onClick={() => c.run((d) => setOverridesCommand(d, selIds, { force: 'in' }))}>Force in</button>
-        <button data-testid="force-out" disabled={!selIds.length} onClick={() => c.run((d) => setOverridesCommand(d, selIds, { force: 'out' }))}>Force out</button>
-        <button disabled={!selIds.length} onClick={() => c.run((d) => setOverridesCommand(d, selIds, { force: null }))}>Release</button>
+        <span className="tt-edit">
+          <input data-testid="weight-input" className={`short-in ${weightError ? 'bad' : ''}`} placeholder="weight" value={weightText} aria-invalid={!!weightError}
+            onChange={(e) => { setWeightText(e.target.value); setWeightError(null); }} onKeyDown={(e) => e.key === 'Enter' && applyWeight()} disabled={!selIds.length} />
+          <button data-testid="weight-apply" disabled={!selIds.length} onClick={applyWeight}>Set weight</button>
+          <button disabled={!selIds.length} onClick={() => c.run((d) => setOverridesCommand(d, selIds, { weight: null }))} title="back to the weight of the plan's rules">Reset</button>
+          <button data-testid="force-in" disabled={!selIds.length} onClick={() => c.run((d) => setOverridesCommand(d, selIds, { force: 'in' }))}>Force in</button>
+          <button data-testid="force-out" disabled={!selIds.length} onClick={() => c.run((d) => setOverridesCommand(d, selIds, { force: 'out' }))}>Force out</button>
+          <button data-testid="release" disabled={!selIds.length} onClick={() => c.run((d) => setOverridesCommand(d, selIds, { force: null }))} title="neither forced in nor out">Release</button>
+        </span>
       </div>
+      {weightError && <div className="field-error tt-error" role="alert" data-testid="weight-error">{weightError}</div>}
       <div className="tt-head">
         {head('id', 'id', 'c-id')}{head('mag', 'mag', 'num')}{head('color', 'colour', 'num')}{head('rRe', 'R/Re', 'num')}
         {head('weight', 'weight', 'num')}{head('status', 'slit / status', 'c-status')}
@@ -189,8 +205,8 @@ export const TargetTable = memo(function TargetTable({ c, data, selection, overr
                 <div className="c-id">{t.role === 'alignment' ? '◇ ' : ''}{t.id}</div>
                 <div className="num">{t.mag.toFixed(2)}</div>
                 <div className="num">{t.color === null ? '' : t.color.toFixed(2)}</div>
-                <div className="num">{rRe[i].toFixed(2)}</div>
-                <div className={`num ${o?.weight !== undefined ? 'edited' : ''}`} title={o?.weight !== undefined ? 'set by hand' : ''}>{weights[i].toPrecision(3)}</div>
+                <div className="num" title={Number.isFinite(rRe[i]) ? '' : 'too far from the galaxy for a tangent-plane radius'}>{shownNumber(rRe[i], 2)}</div>
+                <div className={`num ${o?.weight !== undefined ? 'edited' : ''}`} title={o?.force === 'in' ? 'forced in: taken wherever it fits, whatever its weight' : o?.weight !== undefined ? 'set by hand' : ''} data-testid="row-weight">{shownWeight(shownWeights[i])}{o?.force === 'in' ? ' ⇡' : ''}</div>
                 <div className="c-status">{statusOf(t, weights[i], slit, o?.force)}{o?.force === 'in' && slit ? ' (forced)' : ''}</div>
               </div>
             );

@@ -6,7 +6,7 @@
 import type { PlanFile, PlanMask } from '../../core/plan/schema';
 import type { InstrumentProfile } from '../../core/profile/schema';
 import { wrap360Deg } from '../../core/sky/angles';
-import { maskIndex, type EditorDoc, type TargetOverride } from './document';
+import { maskIndex, type CatalogEntry, type EditorDoc, type TargetOverride } from './document';
 
 export interface Command {
   /** Short text for the history list and the undo button's tooltip. */
@@ -88,8 +88,8 @@ export function setOverridesCommand(doc: EditorDoc, targetIds: readonly string[]
   const hadKey = Object.prototype.hasOwnProperty.call(doc.plan, 'targetOverrides');
   const beforeMap = doc.plan.targetOverrides;
   const ids = [...new Set(targetIds)];
-  const what = change.weight !== undefined ? (change.weight === null ? 'reset weight' : `weight ${change.weight}`)
-    : change.force === null ? 'release' : `force ${change.force}`;
+  const what = change.weight !== undefined ? (change.weight === null ? 'reset the weight' : `set weight ${change.weight}`)
+    : change.force === null ? 'release the forcing' : change.force === 'in' ? 'force a slit' : 'force out';
   const label = `${what} for ${ids.length === 1 ? ids[0] : `${ids.length} targets`}`;
   return {
     label,
@@ -113,12 +113,21 @@ export function setOverridesCommand(doc: EditorDoc, targetIds: readonly string[]
 type GalaxyKey = 'reArcsec' | 'axisRatio' | 'paDeg' | 'distanceMpc' | 'vsysKms' | 'sersicN' | 'muE';
 type GoalKey = 'masks' | 'tracerReachRe' | 'starlightReachRe';
 
+/** How the user calls each galaxy and goal key, with its unit (undo labels speak these words, never the key names). */
+const GALAXY_WORDS: Record<GalaxyKey, [string, string]> = {
+  reArcsec: ['effective radius', '″'], axisRatio: ['axis ratio b/a', ''], paDeg: ['galaxy PA', '°'], distanceMpc: ['distance', ' Mpc'],
+  vsysKms: ['systemic velocity', ' km/s'], sersicN: ['Sérsic index', ''], muE: ['surface brightness at Re', ' mag/″²'],
+};
+const GOAL_WORDS: Record<GoalKey, [string, string]> = {
+  masks: ['number of masks', ''], tracerReachRe: ['tracer reach goal', ' Re'], starlightReachRe: ['starlight reach goal', ' Re'],
+};
+
 /** Set one numeric key of the galaxy model (units as the key name says). */
 export function setGalaxyFieldCommand(doc: EditorDoc, key: GalaxyKey, value: number): Command {
   const before = doc.plan.galaxy;
   const after = { ...before, [key]: value };
   return {
-    label: `galaxy ${key} = ${value}`,
+    label: `set ${GALAXY_WORDS[key][0]} to ${value}${GALAXY_WORDS[key][1]}`,
     do: (d) => ({ ...d, plan: { ...d.plan, galaxy: after } }),
     undo: (d) => ({ ...d, plan: { ...d.plan, galaxy: before } }),
   };
@@ -129,7 +138,7 @@ export function setGoalCommand(doc: EditorDoc, key: GoalKey, value: number): Com
   const before = doc.plan.goals;
   const after = { ...before, [key]: value };
   return {
-    label: `goal ${key} = ${value}`,
+    label: `set ${GOAL_WORDS[key][0]} to ${value}${GOAL_WORDS[key][1]}`,
     do: (d) => ({ ...d, plan: { ...d.plan, goals: after } }),
     undo: (d) => ({ ...d, plan: { ...d.plan, goals: before } }),
   };
@@ -140,8 +149,23 @@ export function setProfileCommand(doc: EditorDoc, profile: InstrumentProfile): C
   const beforeProfile = doc.profile;
   const beforeInstrument = doc.plan.instrument;
   return {
-    label: `instrument ${profile.id}`,
-    do: (d) => ({ plan: { ...d.plan, instrument: profile.id }, profile }),
-    undo: (d) => ({ plan: { ...d.plan, instrument: beforeInstrument }, profile: beforeProfile }),
+    label: `switch to instrument ${profile.label ?? profile.id}`,
+    do: (d) => ({ ...d, plan: { ...d.plan, instrument: profile.id }, profile }),
+    undo: (d) => ({ ...d, plan: { ...d.plan, instrument: beforeInstrument }, profile: beforeProfile }),
+  };
+}
+
+/**
+ * Open a catalog for the plan: the document holds it, and the plan's `catalog` names its file (a path the plan already
+ * gives for a file of that name is kept). Undo brings back the catalog before, or none.
+ */
+export function openCatalogCommand(doc: EditorDoc, entry: CatalogEntry): Command {
+  const before = doc.catalog ?? null;
+  const beforeName = doc.plan.catalog;
+  const name = beforeName.split(/[\\/]/).pop() === entry.file.name ? beforeName : entry.file.name;
+  return {
+    label: `open catalog ${entry.file.name}`,
+    do: (d) => ({ ...d, catalog: entry, plan: { ...d.plan, catalog: name } }),
+    undo: (d) => ({ ...d, catalog: before, plan: { ...d.plan, catalog: beforeName } }),
   };
 }

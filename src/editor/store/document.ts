@@ -1,14 +1,24 @@
 /**
- * The editor's document: the plan being edited and the instrument profile it names.
- * Everything an undoable command may change lives here; loaded data (the catalog, an image backdrop)
- * and view state (camera, selection) live outside it. Values are immutable: commands return new objects.
+ * The editor's document: the plan being edited, the instrument profile it names and the catalog opened for it.
+ * Everything an undoable command may change lives here (opening a catalog is an edit, undone like any other); other
+ * loaded data (an image backdrop) and view state (camera, selection) live outside it. Values are immutable: commands
+ * return new objects.
  */
 import type { PlanFile, PlanMask } from '../../core/plan/schema';
 import type { InstrumentProfile } from '../../core/profile/schema';
+import type { CatalogReadResult } from '../../core/catalog/types';
+
+/** A catalog file as opened and as read (its content kept for autosave and export). */
+export interface CatalogEntry {
+  file: { name: string; content: string | Uint8Array };
+  read: CatalogReadResult;
+}
 
 export interface EditorDoc {
   plan: PlanFile;
   profile: InstrumentProfile;
+  /** The catalog opened for the plan (absent or null: none yet). */
+  catalog?: CatalogEntry | null;
 }
 
 /** Per-target override as the plan file stores it (`targetOverrides[id]`). */

@@ -3,8 +3,12 @@
  * backdrop image, catalog (one Shape drawing every target in batches), galaxy isophotes, masks
  * (footprints, slits by role, rotate handles), and a fixed overlay with compass and scale bar.
  * Mouse: drag empty sky to pan, wheel to zoom (pinch or Ctrl+wheel on a trackpad; two-finger scroll pans),
- * drag a mask to move it, drag its round handle to rotate it, click a target to select it,
- * Shift+click to add, Shift+drag for a box selection. Keys: arrows pan, + and - zoom, 0 fits.
+ * drag a mask to move it (where masks overlap, the active one is taken first and is drawn on top, else the one whose
+ * centre is nearest; a click without moving steps to the next mask under the pointer), drag its round handle to
+ * rotate it (kept inside the view; Shift snaps to 5°), click a target to select it, Shift+click to add, Shift+drag
+ * for a box selection. Keys: arrows pan, + and - zoom, 0 fits, [ and ] turn the active mask by 1° (Shift 10°,
+ * Alt 0.1°), N steps through the masks (Shift+N back).
+ * At high zoom, slits are drawn at their true width, length and tilt.
  */
 import { memo, useCallback, useEffect, useMemo, useRef, useState, type KeyboardEvent as ReactKeyboardEvent } from 'react';
 import { Stage, Layer, Shape, Group, Line, Ellipse, Text, Circle, Rect } from 'react-konva';
@@ -16,6 +20,8 @@ import { skyToTangentArcsec, tangentCentre, tangentToSkyDeg } from '../../core/s
 import { DEG_PER_RAD, wrap360Deg } from '../../core/sky/angles';
 import { circularisedRadiusArcsec, skyToGalaxyArcsec } from '../../core/sky/frames';
 import { formatDecDms, formatRaHms } from '../../core/sky/sexagesimal';
+import { pointInPolygon } from '../../core/geometry/polygon';
+import { slitCornersArcsec } from '../../core/geometry/slitGeometry';
 import { fitCamera, maskGroupRotationDeg, panBy, scaleBarArcmin, screenToSky, skyToScreen, zoomAt, type Camera } from './camera';
 import { nearestTarget, targetsInBox, type CatalogGeometry } from './catalogGeometry';
 import { CatalogLayer, cssPlacement } from './catalogBitmap';
@@ -49,6 +55,12 @@ export interface SkyViewProps {
   onCommitMask(pose: MaskPose, how: 'move' | 'rotate'): void;
   onSelectTargets(indices: number[], additive: boolean): void;
   onSelectMask(maskId: string | null): void;
+  /** A drag or turn ended (committed or not): the live pose shown elsewhere goes back to the document's. */
+  onPreviewEnd?(): void;
+  /** Snap for turning with the handle, degrees (0: off; Shift while turning snaps to 5°). */
+  paSnapDeg?: number;
+  /** Ask the view to bring a sky position (tangent plane about the galaxy centre, arcsec) into view; `n` changes per request. */
+  focus?: { xiArcsec: number; etaArcsec: number; n: number } | null;
   /** Receives the camera on every change (used by the benchmark and the read-outs). */
   onCamera?(cam: Camera): void;
 }
@@ -56,10 +68,15 @@ export interface SkyViewProps {
 type Gesture =
   | { kind: 'pan'; lastX: number; lastY: number; moved: number; startX: number; startY: number; additive: boolean }
   | { kind: 'box'; startX: number; startY: number; x: number; y: number }
-  | { kind: 'move'; maskId: string; startXi: number; startEta: number; maskXi: number; maskEta: number; pose: MaskPose; moved: boolean }
+  | { kind: 'move'; maskId: string; startXi: number; startEta: number; maskXi: number; maskEta: number; pose: MaskPose; moved: boolean; under: string[]; wasActive: boolean }
   | { kind: 'rotate'; maskId: string; pose: MaskPose };
 
 const HANDLE_PX = 7;
+/** The handle's usual distance beyond the footprint's +y end, px; it is pulled in to stay this far inside the view. */
+const HANDLE_GAP_PX = 26;
+const HANDLE_MARGIN_PX = 16;
+/** Slits are drawn as rectangles of their true width once the width covers this many screen pixels. */
+const TRUE_WIDTH_MIN_PX = 2.5;
 
 export function SkyView(props: SkyViewProps) {
   const { galaxy, profile, catalog, selected } = props;
@@ -201,6 +218,17 @@ export function SkyView(props: SkyViewProps) {
   }, [centre]);
 
   const shownMasks = props.masks.map((m) => (preview && preview.id === m.id ? preview : m));
+  /** Ids of the masks whose footprint holds sky point (xi, eta), topmost (drawn last) first. */
+  const masksUnder = (xiArcsec: number, etaArcsec: number, order: readonly MaskPose[]): string[] => {
+    const out: string[] = [];
+    for (let k = order.length - 1; k >= 0; k--) {
+      const m = order[k], c = maskXiEta(m);
+      const pa = (m.paDeg * Math.PI) / 180, dx = xiArcsec - c.xiArcsec, dy = etaArcsec - c.etaArcsec;
+      // Mask frame of the contract: y = xi sin PA + eta cos PA, x = xi cos PA - eta sin PA (offsets from the centre).
+      if (pointInPolygon(dx * Math.cos(pa) - dy * Math.sin(pa), dx * Math.sin(pa) + dy * Math.cos(pa), profile.footprint)) out.push(m.id);
+    }
+    return out;
+  };
   const footprintYMax = useMemo(() => Math.max(...profile.footprint.map((c) => c[1])), [profile.footprint]);
   const footprintPoints = useMemo(() => profile.footprint.flatMap((c) => [c[0], c[1]]), [profile.footprint]);
 
@@ -215,15 +243,24 @@ export function SkyView(props: SkyViewProps) {
     const nodeId = e.target.id();
     const maskId = nodeId.includes(':') ? nodeId.slice(nodeId.indexOf(':') + 1) : undefined;
     if (maskId && (name === 'mask-body' || name === 'mask-handle')) {
-      const pose = shownMasks.find((m) => m.id === maskId)!;
-      props.onSelectMask(maskId);
+      const s = screenToSky(cam, p.x, p.y);
+      // Overlapping masks: the active mask is the one taken when it lies under the pointer, else the one whose centre
+      // (where its label is) is nearest the pointer.
+      const under = name === 'mask-body' ? masksUnder(s.xiArcsec, s.etaArcsec, drawOrder) : [];
+      const active = props.activeMaskId;
+      const nearest = (ids: string[]) => ids.reduce((best, mid) => {
+        const d = (q: string) => { const c = maskXiEta(shownMasks.find((m) => m.id === q)!); return Math.hypot(c.xiArcsec - s.xiArcsec, c.etaArcsec - s.etaArcsec); };
+        return d(mid) < d(best) ? mid : best;
+      });
+      const id = name !== 'mask-body' || under.length === 0 ? maskId : active && under.includes(active) ? active : nearest(under);
+      const pose = shownMasks.find((m) => m.id === id)!;
+      props.onSelectMask(id);
       props.onPreviewMask(pose); // warms the worker's live re-solve before the first move
       if (name === 'mask-handle') {
-        gesture.current = { kind: 'rotate', maskId, pose };
+        gesture.current = { kind: 'rotate', maskId: id, pose };
       } else {
-        const s = screenToSky(cam, p.x, p.y);
         const c = maskXiEta(pose);
-        gesture.current = { kind: 'move', maskId, startXi: s.xiArcsec, startEta: s.etaArcsec, maskXi: c.xiArcsec, maskEta: c.etaArcsec, pose, moved: false };
+        gesture.current = { kind: 'move', maskId: id, startXi: s.xiArcsec, startEta: s.etaArcsec, maskXi: c.xiArcsec, maskEta: c.etaArcsec, pose, moved: false, under, wasActive: id === active };
       }
       return;
     }
@@ -260,7 +297,8 @@ export function SkyView(props: SkyViewProps) {
       const dXi = s.xiArcsec - c.xiArcsec, dEta = s.etaArcsec - c.etaArcsec;
       if (Math.hypot(dXi, dEta) * cam.pxPerArcsec < 4) return;
       // PA of the pointer seen from the mask centre, degrees East of North: the handle sits on +y.
-      const paDeg = Math.round(wrap360Deg(Math.atan2(dXi, dEta) * DEG_PER_RAD) * 10) / 10;
+      const snap = e.evt.shiftKey ? 5 : props.paSnapDeg && props.paSnapDeg > 0 ? props.paSnapDeg : 0.1;
+      const paDeg = wrap360Deg(Math.round(Math.round(wrap360Deg(Math.atan2(dXi, dEta) * DEG_PER_RAD) / snap) * snap * 10) / 10);
       const pose = { ...g.pose, paDeg };
       g.pose = pose;
       queuePose(pose);
@@ -276,10 +314,16 @@ export function SkyView(props: SkyViewProps) {
     framePose.current = null;
     if (g.kind === 'move') {
       if (g.moved) props.onCommitMask(g.pose, 'move');
+      else if (g.wasActive && g.under.length > 1) {
+        // A click (no move) on the active mask where masks overlap: the next mask under the pointer becomes active.
+        props.onSelectMask(g.under[(g.under.indexOf(g.maskId) + 1) % g.under.length]);
+      }
       setPreview(null);
+      props.onPreviewEnd?.();
     } else if (g.kind === 'rotate') {
       if (g.pose.paDeg !== props.masks.find((m) => m.id === g.maskId)?.paDeg) props.onCommitMask(g.pose, 'rotate');
       setPreview(null);
+      props.onPreviewEnd?.();
     } else if (g.kind === 'box') {
       setBoxSel(null);
       if (catalog) {
@@ -305,7 +349,17 @@ export function SkyView(props: SkyViewProps) {
     else if (k === '+' || k === '=') setView((c) => zoomAt(c, 1.25, c.widthPx / 2, c.heightPx / 2), true);
     else if (k === '-' || k === '_') setView((c) => zoomAt(c, 0.8, c.widthPx / 2, c.heightPx / 2), true);
     else if (k === '0') setView(fitCamera(size.w, size.h, galaxy.reArcsec * props.tracerReachRe * 1.05), true);
-    else handled = false;
+    else if ((k === '[' || k === ']' || k === '{' || k === '}') && activePose && !gesture.current) {
+      const stepDeg = e.altKey ? 0.1 : e.shiftKey ? 10 : 1;
+      const sign = k === ']' || k === '}' ? 1 : -1;
+      const paDeg = wrap360Deg(Math.round((activePose.paDeg + sign * stepDeg) * 10) / 10);
+      props.onCommitMask({ ...activePose, paDeg }, 'rotate');
+    } else if ((k === 'n' || k === 'N') && props.masks.length > 0 && !e.ctrlKey && !e.metaKey && !e.altKey) {
+      // N steps through the masks (Shift+N backwards); the active one is drawn on top.
+      const i = props.masks.findIndex((m) => m.id === props.activeMaskId);
+      const n = props.masks.length;
+      props.onSelectMask(props.masks[(i < 0 ? (e.shiftKey ? n - 1 : 0) : i + (e.shiftKey ? n - 1 : 1)) % n].id);
+    } else handled = false;
     if (handled) e.preventDefault();
   };
 
@@ -313,11 +367,29 @@ export function SkyView(props: SkyViewProps) {
   const gc = skyToScreen(cam, 0, 0);
   const galaxyRot = -(90 + galaxy.paDeg);
   const activePose = shownMasks.find((m) => m.id === props.activeMaskId) ?? null;
+  // The active mask is drawn last, so it is on top where masks overlap (and its body is the one the pointer finds).
+  const drawOrder = activePose ? [...shownMasks.filter((m) => m !== activePose), activePose] : shownMasks;
   // Each shown mask's centre on the screen, once per render (masks, labels and the test anchors use it).
-  const onScreen = shownMasks.map((m) => {
+  const onScreen = drawOrder.map((m) => {
     const c = maskXiEta(m);
-    return { m, sp: skyToScreen(cam, c.xiArcsec, c.etaArcsec) };
+    const sp = skyToScreen(cam, c.xiArcsec, c.etaArcsec);
+    return { m, sp, handlePx: handleDistancePx(sp, m.paDeg, footprintYMax * cam.pxPerArcsec + HANDLE_GAP_PX + HANDLE_PX, size.w, size.h) };
   });
+  const labels = placeLabels(onScreen.map(({ m, sp }) => ({ id: m.id, text: `${m.id}${m.locked ? ' (locked)' : ''}`, x: sp.x + 6, y: sp.y + 4 })));
+
+  // A position asked for from elsewhere (a row of the target table): pan it to the middle when it is not well inside the view.
+  const focusN = useRef(0);
+  useEffect(() => {
+    const f = props.focus;
+    if (!f || f.n === focusN.current) return;
+    focusN.current = f.n;
+    const v = viewRef.current;
+    const sp = skyToScreen(v, f.xiArcsec, f.etaArcsec);
+    const mx = v.widthPx * 0.15, my = v.heightPx * 0.15;
+    if (sp.x < mx || sp.x > v.widthPx - mx || sp.y < my || sp.y > v.heightPx - my) {
+      setView((c) => ({ ...c, centreXiArcsec: f.xiArcsec, centreEtaArcsec: f.etaArcsec }), true);
+    }
+  }, [props.focus, setView]);
 
   return (
     <div
@@ -351,12 +423,13 @@ export function SkyView(props: SkyViewProps) {
         {/* While a mask is dragged or turned (a preview is shown) nothing on this layer needs the mouse: the gesture
             follows the stage's pointer, so Konva skips redrawing the hit canvas on every frame. */}
         <Layer listening={!preview}>
-          {onScreen.map(({ m, sp }) => (
+          {onScreen.map(({ m, sp, handlePx }) => (
             <MaskShape key={m.id} id={m.id} xPx={sp.x} yPx={sp.y} paDeg={m.paDeg} locked={m.locked} pxPerArcsec={cam.pxPerArcsec}
-              active={m.id === props.activeMaskId} slits={props.slitsByMask.get(m.id) ?? NO_SLITS} footprintPoints={footprintPoints} footprintYMax={footprintYMax} />
+              active={m.id === props.activeMaskId} slits={props.slitsByMask.get(m.id) ?? NO_SLITS} footprintPoints={footprintPoints} footprintYMax={footprintYMax}
+              handlePx={handlePx} />
           ))}
-          {onScreen.map(({ m, sp }) => (
-            <Text key={`t${m.id}`} listening={false} x={sp.x + 6} y={sp.y + 4} text={`${m.id}${m.locked ? ' (locked)' : ''}`} fontSize={12} fill={INK.text} />
+          {labels.map((l) => (
+            <Text key={`t${l.id}`} listening={false} x={l.x} y={l.y} text={l.text} fontSize={12} fill={INK.text} shadowColor="#000" shadowBlur={3} shadowOpacity={0.9} />
           ))}
           {boxSel && (
             <Rect x={Math.min(boxSel.x0, boxSel.x1)} y={Math.min(boxSel.y0, boxSel.y1)} width={Math.abs(boxSel.x1 - boxSel.x0)}
@@ -372,9 +445,16 @@ export function SkyView(props: SkyViewProps) {
       )}
       <div className="sky-readout" data-testid="sky-readout" ref={readoutRef}>{HINT}</div>
       <ul className="test-anchors" data-testid="mask-anchors" hidden>
-        {onScreen.map(({ m, sp }) => (
-          <li key={m.id} data-mask-id={m.id} data-x={sp.x.toFixed(1)} data-y={sp.y.toFixed(1)} data-pa={m.paDeg.toFixed(2)} />
-        ))}
+        {shownMasks.map((sm) => onScreen.find((o) => o.m.id === sm.id)!).map(({ m, sp, handlePx }) => {
+          const pa = (m.paDeg * Math.PI) / 180;
+          return (
+            <li key={m.id} data-mask-id={m.id} data-x={sp.x.toFixed(1)} data-y={sp.y.toFixed(1)} data-pa={m.paDeg.toFixed(2)}
+              data-handle-x={(sp.x - Math.sin(pa) * handlePx).toFixed(1)} data-handle-y={(sp.y - Math.cos(pa) * handlePx).toFixed(1)} />
+          );
+        })}
+      </ul>
+      <ul className="test-anchors" data-testid="mask-labels" hidden>
+        {labels.map((l) => <li key={l.id} data-mask-id={l.id} data-x={l.x.toFixed(1)} data-y={l.y.toFixed(1)} data-w={l.w.toFixed(1)} />)}
       </ul>
       <div hidden data-testid="camera" ref={cameraTestRef} data-renders={renderCount.current} />
     </div>
@@ -435,12 +515,15 @@ const Isophotes = memo(function Isophotes({ xPx, yPx, pxPerRe, axisRatio, rotati
  * One mask: footprint, slits by role and the rotate handle, drawn in the mask frame (arcsec) about its centre at
  * (xPx, yPx); memoised, so while one mask is dragged the others are not touched.
  */
-const MaskShape = memo(function MaskShape({ id, xPx, yPx, paDeg, locked, pxPerArcsec: s, active, slits, footprintPoints, footprintYMax }: {
+const MaskShape = memo(function MaskShape({ id, xPx, yPx, paDeg, locked, pxPerArcsec: s, active, slits, footprintPoints, footprintYMax, handlePx }: {
   id: string; xPx: number; yPx: number; paDeg: number; locked: boolean; pxPerArcsec: number; active: boolean;
   slits: readonly Slit[]; footprintPoints: number[]; footprintYMax: number;
+  /** Distance of the rotate handle's centre from the mask centre along +y, screen px. */
+  handlePx: number;
 }) {
   const drawScene = useCallback((ctx: Konva.Context) => drawSlits(ctx._context as CanvasRenderingContext2D, slits, s), [slits, s]);
-  const stem = useMemo(() => [0, footprintYMax, 0, footprintYMax + 26 / s], [footprintYMax, s]);
+  const handleY = handlePx / s;
+  const stem = useMemo(() => (handleY > footprintYMax ? [0, footprintYMax, 0, handleY - HANDLE_PX / s] : [0, 0, 0, handleY - HANDLE_PX / s]), [footprintYMax, handleY, s]);
   return (
     <Group x={xPx} y={yPx} rotation={maskGroupRotationDeg(paDeg)} scaleX={s} scaleY={s}>
       <Line
@@ -462,7 +545,7 @@ const MaskShape = memo(function MaskShape({ id, xPx, yPx, paDeg, locked, pxPerAr
         name="mask-handle"
         id={`handle:${id}`}
         x={0}
-        y={footprintYMax + (26 + HANDLE_PX) / s}
+        y={handleY}
         radius={HANDLE_PX / s}
         fill={active ? INK.footprintActive : '#aab4c2'}
         stroke="#000"
@@ -473,19 +556,38 @@ const MaskShape = memo(function MaskShape({ id, xPx, yPx, paDeg, locked, pxPerAr
   );
 });
 
-/** Slits and boxes of one mask in the mask frame (ctx already carries the mask transform at `scale` px/arcsec). */
+/**
+ * Slits and boxes of one mask in the mask frame (ctx already carries the mask transform at `scale` px/arcsec). Slits
+ * are lines at low zoom; once their width covers TRUE_WIDTH_MIN_PX they are their true rectangles (width, length
+ * below and above the target, tilt), outlined in the role's line style over a faint fill.
+ */
 function drawSlits(ctx: CanvasRenderingContext2D, slits: readonly Slit[], scale: number): void {
   const px = 1 / scale;
   for (const role of ['sky', 'starlight', 'tracer'] as const) {
     const st = ROLE_STYLE[role];
     ctx.beginPath();
+    let asRects = false;
     for (const sl of slits) {
       if (sl.role !== role) continue;
-      ctx.moveTo(sl.xArcsec, sl.yArcsec - sl.lenBelowArcsec);
-      ctx.lineTo(sl.xArcsec, sl.yArcsec + sl.lenAboveArcsec);
+      if (sl.widthArcsec * scale >= TRUE_WIDTH_MIN_PX) {
+        asRects = true;
+        const q = slitCornersArcsec(sl);
+        ctx.moveTo(q[0][0], q[0][1]);
+        for (let k = 1; k < q.length; k++) ctx.lineTo(q[k][0], q[k][1]);
+        ctx.closePath();
+      } else {
+        ctx.moveTo(sl.xArcsec, sl.yArcsec - sl.lenBelowArcsec);
+        ctx.lineTo(sl.xArcsec, sl.yArcsec + sl.lenAboveArcsec);
+      }
+    }
+    if (asRects) {
+      ctx.globalAlpha = 0.25;
+      ctx.fillStyle = st.colour;
+      ctx.fill();
+      ctx.globalAlpha = 1;
     }
     ctx.strokeStyle = st.colour;
-    ctx.lineWidth = Math.max(2.2 * px, 0);
+    ctx.lineWidth = asRects ? 1.4 * px : Math.max(2.2 * px, 0);
     ctx.setLineDash(st.dash.map((d) => d * px));
     ctx.lineCap = 'butt';
     ctx.stroke();
@@ -502,7 +604,35 @@ function drawSlits(ctx: CanvasRenderingContext2D, slits: readonly Slit[], scale:
   ctx.stroke();
 }
 
-const HINT = 'drag to pan · wheel to zoom · drag a mask · round handle rotates';
+const HINT = 'drag to pan · wheel to zoom · drag a mask · round handle or [ ] turns';
+
+/**
+ * Distance (screen px) from a mask centre `c` to its rotate handle along the mask's +y direction (PA East of North,
+ * North up, East left: screen direction (-sin PA, -cos PA)): the usual `wantPx`, pulled in so the handle stays
+ * HANDLE_MARGIN_PX inside a w x h view, but not nearer the centre than 30 px.
+ */
+export function handleDistancePx(c: { x: number; y: number }, paDeg: number, wantPx: number, w: number, h: number): number {
+  const pa = (paDeg * Math.PI) / 180, dx = -Math.sin(pa), dy = -Math.cos(pa);
+  const m = HANDLE_MARGIN_PX;
+  if (c.x < m || c.y < m || c.x > w - m || c.y > h - m) return wantPx;
+  let t = wantPx;
+  if (dx > 1e-9) t = Math.min(t, (w - m - c.x) / dx); else if (dx < -1e-9) t = Math.min(t, (m - c.x) / dx);
+  if (dy > 1e-9) t = Math.min(t, (h - m - c.y) / dy); else if (dy < -1e-9) t = Math.min(t, (m - c.y) / dy);
+  return Math.max(30, t);
+}
+
+/** Mask labels placed without overlapping one another: each goes down in steps of a line until it is clear. */
+export function placeLabels(items: { id: string; text: string; x: number; y: number }[]): { id: string; text: string; x: number; y: number; w: number }[] {
+  const LINE = 14, CHAR = 7;
+  const placed: { id: string; text: string; x: number; y: number; w: number }[] = [];
+  for (const it of [...items].sort((a, b) => a.y - b.y || a.x - b.x)) {
+    const w = it.text.length * CHAR;
+    let y = it.y;
+    for (let k = 0; k < 12 && placed.some((p) => it.x < p.x + p.w && p.x < it.x + w && y < p.y + LINE && p.y < y + LINE); k++) y += LINE;
+    placed.push({ ...it, y, w });
+  }
+  return placed;
+}
 
 /** North and East arrows for a view drawn North up, East left. */
 function Compass() {

@@ -2,7 +2,8 @@
  * Fast catalog raster: markers stamped straight into pixel memory (no path filling), which software
  * canvases do about ten times faster than arcs for 20 000 points. Tracers as
  * discs shaded by weight and sized by magnitude, alignment stars as magenta diamonds, excluded objects as
- * grey crosses, targets on slits ringed in their role colour, selected ones ringed in white.
+ * grey crosses, targets on tracer slits ringed (a circle) and stars in alignment boxes boxed (a square) in their
+ * role colour, so the two differ in greyscale too; selected ones ringed in white.
  */
 import type { Camera } from './camera';
 import { KIND_ALIGNMENT, KIND_EXCLUDED, KIND_TRACER, type CatalogGeometry } from './catalogGeometry';
@@ -49,6 +50,24 @@ function ring(r: number, width: number): Int16Array {
   return d;
 }
 
+/** Pixel offsets of a square outline of half side `half` (px) and line width `width`, cached. */
+const squareCache = new Map<number, Int16Array>();
+function squareRing(half: number, width: number): Int16Array {
+  const key = Math.round(half * 4) * 16 + Math.round(width * 2);
+  let d = squareCache.get(key);
+  if (!d) {
+    const pts: number[] = [];
+    const R = Math.ceil(half + width / 2), inner = half - width / 2;
+    for (let y = -R; y <= R; y++) for (let x = -R; x <= R; x++) {
+      const q = Math.max(Math.abs(x), Math.abs(y));
+      if (q >= inner && q <= half + width / 2) pts.push(x, y);
+    }
+    d = Int16Array.from(pts);
+    squareCache.set(key, d);
+  }
+  return d;
+}
+
 function stamp(px: Uint32Array, w: number, h: number, cx: number, cy: number, offs: Int16Array, colour: number): void {
   for (let k = 0; k < offs.length; k += 2) {
     const x = cx + offs[k], y = cy + offs[k + 1];
@@ -91,7 +110,9 @@ export function rasterCatalog(px: Uint32Array, w: number, h: number, pr: number,
   if (onSlit && onSlit.length === g.count) {
     for (let i = 0; i < g.count; i++) {
       if (!onSlit[i] || !inside(i, 12)) continue;
-      stamp(px, w, h, X[i], Y[i], ring(g.radiusPx[i] * zf + 2.2 * pr, 1.4 * pr), onSlit[i] === 2 ? align : tracerRing);
+      const r = g.radiusPx[i] * zf + 2.2 * pr;
+      if (onSlit[i] === 2) stamp(px, w, h, X[i], Y[i], squareRing(r + 2 * pr, 1.6 * pr), align);
+      else stamp(px, w, h, X[i], Y[i], ring(r, 1.4 * pr), tracerRing);
     }
   }
   for (const i of selected) {
