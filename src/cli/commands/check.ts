@@ -20,6 +20,7 @@ import { checkCoverage } from '../../core/check/coverageRecount';
 import { checkCatalogUse, checkPlanMasks, type ReportRow } from '../../core/check/consistency';
 import { loadProfile } from '../loadPlanInputs';
 import { readCatalogFile } from '../readCatalogFile';
+import { planInstrumentRefs } from '../../core/plan/instruments';
 
 function readIn(dir: string, name: string): string {
   const p = join(dir, name);
@@ -71,10 +72,11 @@ export async function run(argv: string[], io: CliIO): Promise<number> {
     if (cache.has(instrument)) return cache.get(instrument)!;
     let found: InstrumentProfile | null = null;
     // The plan's own profile first (a file may reuse a package id with other numbers), then the package's.
-    for (const ref of [plan.instrument, instrument]) {
+    const planRefs = planInstrumentRefs(plan);
+    for (const ref of [...planRefs, instrument]) {
       try {
         const p = loadProfile(ref, dir, `${planSource}: instrument`).profile;
-        if (p.id === instrument || (ref === instrument && ref !== plan.instrument)) { found = p; break; }
+        if (p.id === instrument || (ref === instrument && !planRefs.includes(ref))) { found = p; break; }
       } catch {
         // try the next reference
       }

@@ -3,13 +3,14 @@ import { planSchema, type GalaxyModel, type PlanFile } from './schema';
 import { InputError, type Problem } from '../result';
 import { zodIssuesToProblems } from '../profile/load';
 import { parseDecDeg, parseRaDeg } from '../sky/sexagesimal';
+import { instrumentKeyProblems } from './instruments';
 
 /** Validate parsed plan JSON; throws InputError with one problem per wrong or missing key. */
 export function parsePlan(json: unknown, source = 'plan'): PlanFile {
   const r = planSchema.safeParse(json);
   if (!r.success) throw new InputError(zodIssuesToProblems(source, r.error.issues));
   const plan = r.data;
-  const problems: Problem[] = [];
+  const problems: Problem[] = instrumentKeyProblems(plan, source);
   const ids = new Set<string>();
   for (const [i, m] of (plan.masks ?? []).entries()) {
     if (ids.has(m.id)) problems.push({ where: `${source}: masks.${i}.id`, what: `mask id "${m.id}" is used twice` });

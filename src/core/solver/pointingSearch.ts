@@ -34,6 +34,8 @@ import { addStarlight, addTracer, emptyTally, mergeTallies, objectiveContext, ob
 import { makeRng } from '../scenario/random';
 import type { MaskPointing, MaskSolution } from './types';
 import { PMath } from '../numeric/portableMath';
+import { contextFor, tracerRowValue } from './maskContext';
+import { envFor, footprintScaleArcsec, instrumentsProxyModel, placeStarlightForMasks } from './instrumentSearch';
 
 /**
  * The naive layout: the plan's placed masks kept; the k-th unplaced mask (k = 0, 1, ...) goes in direction
@@ -118,7 +120,7 @@ export function planObjective(env: SearchEnv, masks: readonly MaskSolution[]): O
   for (const ms of masks) for (const s of ms.slits) {
     if (s.role !== 'tracer' && s.role !== 'starlight') continue;
     const r = galaxyRadiusAndAzimuth(g, s.raDeg, s.decDeg);
-    if (s.role === 'tracer') addTracer(t, s.priority, r.rRe, r.phiDeg);
+    if (s.role === 'tracer') addTracer(t, tracerRowValue(contextFor(env.ctx, ms.mask), s.priority, s.mag), r.rRe, r.phiDeg);
     else addStarlight(t, r.rRe);
   }
   return objectiveValue(env.objective, t);
@@ -132,7 +134,7 @@ export function starlightTrade(o: ObjectiveContext): StarlightTrade {
 /** Full evaluation of pointings: joint allocation then starlight and sky slits, and the objective of the result. */
 export function evaluatePointings(env: SearchEnv, pointings: readonly MaskPointing[]): { value: ObjectiveValue; masks: MaskSolution[]; allocation: PointingsAllocation; warnings: string[] } {
   const allocation = allocateForPointings(env.ctx, pointings);
-  const sl = placeStarlightAndSky(allocation.masks, env.ctx.galaxy, env.ctx.profile, env.plan, starlightTrade(env.objective));
+  const sl = placeStarlightForMasks(env.ctx, env.plan, allocation.masks, starlightTrade(env.objective));
   return { value: planObjective(env, sl.masks), masks: sl.masks, allocation, warnings: sl.warnings };
 }
 
@@ -184,6 +186,8 @@ export interface ProxyMask {
   set: MaskCandidateSet;
   y: Float64Array;
   alignmentAvailable: number;
+  /** Boxes the mask's profile needs (alignment.minCount), when it is not the plan's first profile's. */
+  alignmentNeeded?: number;
 }
 
 /**
@@ -318,10 +322,9 @@ export function searchPointings(env: SearchEnv, start: readonly MaskPointing[], 
   const levels = rules.levels ?? 3, passes = rules.passes ?? 2, randomTrials = rules.randomTrials ?? 1;
   const g = ctx.galaxy, profile = ctx.profile;
   const gc = tangentCentre(g.raDeg, g.decDeg);
-  const b = polygonBounds(profile.footprint);
-  const halfDiag = PMath.hypot(Math.max(-b.minX, b.maxX), Math.max(-b.minY, b.maxY));
-  const halfLong = Math.max(b.maxY - b.minY, b.maxX - b.minX) / 2;
-  const proxyMask = proxyModel(env);
+  // Step scale from the largest footprint of the plan's profiles (the only one in a single-profile plan).
+  const { halfDiag, halfLong } = footprintScaleArcsec(ctx);
+  const proxyMask = instrumentsProxyModel(env, proxyModel);
 
   // Current state: plane pointings, proxy masks, joint selection over the proxies, per-mask tallies.
   const plane: PlanePointing[] = start.map((p) => {
@@ -336,12 +339,12 @@ export function searchPointings(env: SearchEnv, start: readonly MaskPointing[], 
   let current = objectiveValue(env.objective, mergeTallies(env.objective, tallies)).total;
   const minAlign = profile.alignment.minCount;
   // Masks short of alignment stars (proxy count: one box per star); fewer is always better, then the objective.
-  const short = (p: ProxyMask) => (p.alignmentAvailable < minAlign ? 1 : 0);
+  const short = (p: ProxyMask) => (p.alignmentAvailable < (p.alignmentNeeded ?? minAlign) ? 1 : 0);
   let shortNow = proxies.reduce((a, p) => a + short(p), 0);
 
   const toPointing = (m: number, pp: PlanePointing): MaskPointing => {
     const s = tangentToSkyDeg(gc, pp.xi, pp.eta);
-    return { id: start[m].id, raDeg: s.raDeg, decDeg: s.decDeg, paDeg: wrap360Deg(pp.paDeg), locked: false };
+    return { id: start[m].id, raDeg: s.raDeg, decDeg: s.decDeg, paDeg: wrap360Deg(pp.paDeg), locked: false, ...(start[m].instrument !== undefined ? { instrument: start[m].instrument } : {}) };
   };
 
   let evaluations = 1, accepted = 0;
@@ -447,12 +450,13 @@ export function objectiveUpperBound(env: SearchEnv, supersets: readonly MaskCand
 }
 
 /** Tally of one proxy mask with a selection: its tracers, and its starlight slits estimated on the free space. */
-function proxyTally(env: SearchEnv, pointing: MaskPointing, p: ProxyMask, chosenK: readonly number[]): Tally {
+function proxyTally(planEnv: SearchEnv, pointing: MaskPointing, p: ProxyMask, chosenK: readonly number[]): Tally {
+  const env = envFor(planEnv, pointing);
   const t = emptyTally(env.objective);
   const { ctx } = env;
   for (const k of chosenK) {
     const o = p.set.objects[k];
-    addTracer(t, ctx.weights[o], env.radiusRe[o], env.azimuthDeg[o]);
+    addTracer(t, p.set.values ? p.set.values[k] : ctx.weights[o], env.radiusRe[o], env.azimuthDeg[o]);
   }
   if (env.starlight.reachRe <= 0) return t;
   const g = ctx.galaxy;
