@@ -2,7 +2,7 @@
  * The starting layout of a plan with several spectrographs (plan/instruments.ts has already given every mask its
  * `instrument`): placed masks stay; the unplaced ones are laid out profile by profile, smallest footprint first,
  * along the galaxy's axes +u, -u, +v, -v (galaxy frame, u major axis), each mask beyond what the masks before it
- * already cover in its direction, its long side along that direction. So the narrow fields start in the inner halo
+ * already cover in its direction (but its centre no farther out than goals.tracerReachRe), its long side along that direction. So the narrow fields start in the inner halo
  * and the wide fields farther out, as an observer sharing one galaxy between two telescopes would lay them out;
  * the pointing search moves them from there. With one profile: pointingSearch.naiveCrossLayout.
  */
@@ -36,7 +36,9 @@ export function instrumentsCrossLayout(plan: PlanFile, galaxy: GalaxyModel, ctx:
     const halfLong = (longIsY ? b.maxY - b.minY : b.maxX - b.minX) / 2;
     // Each profile's masks start again at +u, so every group lies beyond the one before it on the same axes.
     const dir = (j - groupStart) % 4, alongMajor = dir < 2, sign = dir % 2 === 0 ? 1 : -1;
-    const offset = usedArcsec[dir] + halfLong;
+    // Never farther out than the tracer goal along that axis (the ellipse of R = tracerReachRe: u = R/sqrt(q), v = R sqrt(q)).
+    const reachArcsec = plan.goals.tracerReachRe * galaxy.reArcsec * (alongMajor ? 1 / Math.sqrt(galaxy.axisRatio) : Math.sqrt(galaxy.axisRatio));
+    const offset = Math.min(usedArcsec[dir] + halfLong, Math.max(halfLong, reachArcsec));
     usedArcsec[dir] += 2 * halfLong;
     const u = alongMajor ? sign * offset : 0, v = alongMajor ? 0 : sign * offset;
     const dirPa = alongMajor ? galaxy.paDeg : galaxy.paDeg + 90;
