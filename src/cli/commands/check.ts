@@ -21,6 +21,7 @@ import { checkCatalogUse, checkPlanMasks, type ReportRow } from '../../core/chec
 import { loadProfile } from '../loadPlanInputs';
 import { readCatalogFile } from '../readCatalogFile';
 import { planInstrumentRefs } from '../../core/plan/instruments';
+import { checkPlanInstruments } from '../../core/check/instrumentCounts';
 
 function readIn(dir: string, name: string): string {
   const p = join(dir, name);
@@ -90,6 +91,14 @@ export async function run(argv: string[], io: CliIO): Promise<number> {
     slitsSource: src('slits.csv'), masksSource: src('masks.csv'), slitLines, maskLines,
   });
   violations.push(...checkPlanMasks(plan.masks ?? [], masks, { planSource: src('solved.plan.json'), masksSource: src('masks.csv'), maskLines }));
+  const idOfRef = (ref: string): string | null => {
+    try {
+      return loadProfile(ref, dir, `${planSource}: instruments`).profile.id;
+    } catch {
+      return null;
+    }
+  };
+  violations.push(...checkPlanInstruments(plan, masks, idOfRef, { planSource: src('solved.plan.json'), masksSource: src('masks.csv'), maskLines }));
 
   // coverage.json against a recount from slits.csv.
   const covPath = join(dir, 'coverage.json');
