@@ -27,3 +27,19 @@ export function mixedScenario(options: Omit<ScenarioOptions, 'instrument' | 'ali
   };
   return s;
 }
+
+/** File names of the mixed example in examples/mixed/. */
+export const MIXED_EXAMPLE_PLAN_FILE = 'two-telescopes.plan.json';
+export const MIXED_EXAMPLE_CATALOG_FILE = 'two-telescopes.catalog.csv';
+
+/**
+ * The mixed example (examples/mixed/ holds exactly what this returns): an invented galaxy twice the demo's size on
+ * the sky, shared between two nights on the 10-m narrow field (`narrow`) and two on the 6.5-m wide field (`wide`),
+ * at two invented sites in opposite hemispheres.
+ */
+export function mixedExampleScenario(narrow: InstrumentProfile, wide: InstrumentProfile): Scenario {
+  return mixedScenario(
+    { seed: 20261203, candidates: 5000, galaxy: { id: 'Halo Demo B', reArcsec: 75 }, maxRadiusRe: 15, fieldHalfSizeRe: 16, alignmentStars: 500, catalogFile: MIXED_EXAMPLE_CATALOG_FILE },
+    [{ profile: narrow, masks: 2 }, { profile: wide, masks: 2 }],
+  );
+}
