@@ -38,6 +38,7 @@ describe('the mixed example', () => {
 
   it('plans with each mask on its own instrument; check and the Python checker accept the folder', () => {
     expect(planRun.code, planRun.err).toBe(0);
+    expect(planRun.out).toMatch(/yield per instrument:\n  ridge10-narrow \(masks m1, m2 at latitude 28.10, longitude -112.70\): \d+ tracer slits[^\n]*\n  broad65-wide \(masks m3, m4 at latitude -27.80/);
     const masks = readFileSync(join(work, 'out/masks.csv'), 'utf8').trim().split('\n').slice(1).map((l) => l.split(','));
     expect(masks.map((m) => m[1]).sort()).toEqual(['broad65-wide', 'broad65-wide', 'ridge10-narrow', 'ridge10-narrow']);
     const solved = JSON.parse(readFileSync(join(work, 'out/solved.plan.json'), 'utf8'));

@@ -6,6 +6,7 @@ import { solvePlan } from '../../core/plan/pipeline';
 import { loadPlanInputs, type LoadedPlan } from '../loadPlanInputs';
 import { planOutputFiles, writeOutputFolder, type OutputFolderOptions } from '../outputFolder';
 import { excludedTargetsCsv, planSummaryLines } from '../../core/coverage/summary';
+import { instrumentYieldLines, instrumentYields } from '../../core/plan/instrumentYield';
 
 const USAGE = 'usage: haloweave plan PLAN --out DIR [--quiet]';
 
@@ -43,6 +44,8 @@ export function solveAndWrite(loaded: LoadedPlan, out: string, io: CliIO, opts: 
   }
   writeOutputFolder(out, files, opts);
   for (const line of planSummaryLines(solution)) io.out(line);
+  const yields = instrumentYields(solution.masks, solution.observingReport, loaded.profile.id);
+  if (yields.length > 1) for (const line of instrumentYieldLines(yields)) io.out(line);
   io.out(`wrote ${out}/: ${Object.keys(files).join(', ')}`);
   return 0;
 }
