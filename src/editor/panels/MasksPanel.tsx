@@ -1,6 +1,7 @@
 /** The masks: centre, PA, lock, and slits per role on each; click a row to make it the active mask. */
 import type { EditorController } from '../controller';
 import { setMaskLockedCommand } from '../store/commands';
+import { instrumentRef, setMaskInstrumentCommand } from '../store/instrumentCommands';
 import { formatDecDms, formatRaHms } from '../../core/sky/sexagesimal';
 import type { MaskSolution } from '../../core/solver/types';
 import { ROLE_STYLE, ROLES } from '../view/palette';
@@ -11,11 +12,12 @@ export function MasksPanel({ c, solved }: { c: EditorController; solved: readonl
   const masks = c.store!.doc.plan.masks ?? [];
   const active = c.session.activeMaskId;
   const byId = new Map(solved.map((m) => [m.mask.id, m]));
+  const instruments = c.store!.doc.plan.instruments;
   return (
     <Panel title="Masks" testId="panel-masks">
       <table className="mini">
         <thead>
-          <tr><th>mask</th><th>PA °</th>{ROLES.map((r) => <th key={r} title={ROLE_STYLE[r].label}><RoleMark role={r} /></th>)}<th>lock</th></tr>
+          <tr><th>mask</th>{instruments && <th>instrument</th>}<th>PA °</th>{ROLES.map((r) => <th key={r} title={ROLE_STYLE[r].label}><RoleMark role={r} /></th>)}<th>lock</th></tr>
         </thead>
         <tbody>
           {masks.map((m) => {
@@ -26,6 +28,14 @@ export function MasksPanel({ c, solved }: { c: EditorController; solved: readonl
                 onClick={() => c.store!.updateSession((s) => ({ ...s, activeMaskId: m.id }))}
                 title={m.raDeg !== undefined ? `${formatRaHms(m.raDeg, 1)} ${formatDecDms(m.decDeg ?? 0, 0)}` : 'not placed yet'}>
                 <td>{m.id}</td>
+                {instruments && (
+                  <td onClick={(e) => e.stopPropagation()}>
+                    <select data-testid={`mask-${m.id}-instrument`} value={instrumentRef(instruments, m.instrument)} title="the mask's spectrograph (the instruments' mask counts follow)"
+                      onChange={(e) => c.run((d) => setMaskInstrumentCommand(d, m.id, e.target.value))}>
+                      {instruments.map((x) => <option key={x.profile} value={x.profile}>{x.profile}</option>)}
+                    </select>
+                  </td>
+                )}
                 <td className="num" data-testid={`mask-${m.id}-pa`}>{m.paDeg !== undefined ? m.paDeg.toFixed(1) : '–'}</td>
                 {ROLES.map((r) => <td key={r} className="num" data-testid={`mask-${m.id}-${r}`}>{counts ? counts[r] : '–'}</td>)}
                 <td>
@@ -70,3 +80,4 @@ export function RoleMark({ role, size = 14 }: { role: keyof typeof ROLE_STYLE; s
     </svg>
   );
 }
+

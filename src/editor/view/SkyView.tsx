@@ -10,6 +10,7 @@ import { memo, useCallback, useEffect, useMemo, useRef, useState, type KeyboardE
 import { Stage, Layer, Shape, Group, Line, Ellipse, Text, Circle, Rect } from 'react-konva';
 import type Konva from 'konva';
 import type { GalaxyModel } from '../../core/plan/schema';
+import { maskFootprint } from './maskFootprints';
 import type { InstrumentProfile } from '../../core/profile/schema';
 import type { Slit } from '../../core/solver/types';
 import { skyToTangentArcsec, tangentCentre, tangentToSkyDeg } from '../../core/sky/tangentPlane';
@@ -28,6 +29,8 @@ export interface MaskPose {
   decDeg: number;
   paDeg: number;
   locked: boolean;
+  /** Profile id of the mask's own spectrograph in a plan with several (its footprint is drawn). */
+  instrument?: string;
 }
 
 export interface SkyViewProps {
@@ -203,6 +206,13 @@ export function SkyView(props: SkyViewProps) {
   const shownMasks = props.masks.map((m) => (preview && preview.id === m.id ? preview : m));
   const footprintYMax = useMemo(() => Math.max(...profile.footprint.map((c) => c[1])), [profile.footprint]);
   const footprintPoints = useMemo(() => profile.footprint.flatMap((c) => [c[0], c[1]]), [profile.footprint]);
+  // A mask of another spectrograph (plan key instruments) is drawn with its own profile's footprint.
+  const ownFootprint = (maskId: string) => {
+    const instrument = props.masks.find((m) => m.id === maskId)?.instrument;
+    if (instrument === undefined || instrument === profile.id) return { footprintPoints, footprintYMax };
+    const f = maskFootprint(profile, instrument);
+    return { footprintPoints: f.points, footprintYMax: f.yMaxArcsec };
+  };
 
   // ---- pointer gestures ----
   const stagePointer = (e: Konva.KonvaEventObject<MouseEvent>) => e.target.getStage()!.getPointerPosition() ?? { x: 0, y: 0 };
@@ -353,7 +363,7 @@ export function SkyView(props: SkyViewProps) {
         <Layer listening={!preview}>
           {onScreen.map(({ m, sp }) => (
             <MaskShape key={m.id} id={m.id} xPx={sp.x} yPx={sp.y} paDeg={m.paDeg} locked={m.locked} pxPerArcsec={cam.pxPerArcsec}
-              active={m.id === props.activeMaskId} slits={props.slitsByMask.get(m.id) ?? NO_SLITS} footprintPoints={footprintPoints} footprintYMax={footprintYMax} />
+              active={m.id === props.activeMaskId} slits={props.slitsByMask.get(m.id) ?? NO_SLITS} {...ownFootprint(m.id)} />
           ))}
           {onScreen.map(({ m, sp }) => (
             <Text key={`t${m.id}`} listening={false} x={sp.x + 6} y={sp.y + 4} text={`${m.id}${m.locked ? ' (locked)' : ''}`} fontSize={12} fill={INK.text} />
