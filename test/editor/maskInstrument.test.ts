@@ -2,6 +2,7 @@
 import { describe, expect, it } from 'vitest';
 import { setMaskInstrumentCommand } from '../../src/editor/store/instrumentCommands';
 import { maskFootprint } from '../../src/editor/view/maskFootprints';
+import { editorPlanSites } from '../../src/editor/io/planProfiles';
 import type { EditorDoc } from '../../src/editor/store/document';
 import { parsePlan } from '../../src/core/plan/validate';
 import { shippedProfile } from '../mixed/mixedCase';
@@ -36,5 +37,11 @@ describe('a mask on another instrument', () => {
     expect(maskFootprint(narrow, undefined).points).toEqual(narrow.footprint.flat());
     expect(maskFootprint(narrow, 'broad65-wide').points).toEqual(shippedProfile('broad65-wide').footprint.flat());
     expect(maskFootprint(narrow, 'broad65-wide')).toBe(maskFootprint(narrow, 'broad65-wide'));
+  });
+
+  it('the nights panel offers each instrument\'s site', () => {
+    expect(editorPlanSites(plan, doc.profile).map((x) => `${x.instrument} ${x.site.latDeg}`)).toEqual(['ridge10-narrow 28.1', 'broad65-wide -27.8']);
+    const single = { ...plan, instruments: undefined, instrument: 'ridge10-narrow' };
+    expect(editorPlanSites(single, doc.profile).map((x) => x.instrument)).toEqual(['ridge10-narrow']);
   });
 });

@@ -23,3 +23,9 @@ export function missingEditorProfiles(plan: PlanFile, profile: InstrumentProfile
   const have = editorPlanProfiles(plan, profile) ?? {};
   return planInstrumentRefs(plan).filter((ref) => !have[ref]);
 }
+
+/** The spectrographs of a plan with their sites, for the nights panel: the document's profile alone for a plan of one. */
+export function editorPlanSites(plan: PlanFile, profile: InstrumentProfile): { instrument: string; site: InstrumentProfile['site'] }[] {
+  const all = Object.values(editorPlanProfiles(plan, profile) ?? { [profile.id]: profile });
+  return all.filter((p, k) => all.findIndex((q) => q.id === p.id) === k).map((p) => ({ instrument: p.id, site: p.site }));
+}
