@@ -97,7 +97,7 @@ export function planWithMaskInstruments(plan: PlanFile, profiles: Readonly<Recor
   const ids = planMaskIds(plan);
   const refs = maskInstrumentRefs(plan, ids, profiles, source);
   const given = new Map((plan.masks ?? []).map((m) => [m.id, m]));
-  return { ...plan, masks: ids.map((id, k) => ({ ...(given.get(id) ?? { id }), instrument: profiles[refs[k]].id })) };
+  return { ...plan, masks: ids.map((id, k) => ({ ...(given.get(id) ?? { id }), instrument: profiles[refs[k]]?.id ?? refs[k] })) };
 }
 
 /** The distinct profiles of a plan, in the order its references list them (problems when two files share an id). */

@@ -14,7 +14,6 @@ import { lengthenSlits } from '../solver/lengthen';
 import { coverageReport, type CoverageReport } from '../coverage/coverage';
 import type { MaskPointing, MaskSolution } from '../solver/types';
 import { weighTargets, type WeightingResult, type WeightingRules } from '../solver/weighting';
-import { placeStarlightAndSky } from '../solver/starlight';
 import { naiveCrossLayout, searchEnv, searchPointings, starlightTrade, type SearchReport } from '../solver/pointingSearch';
 import { objectiveContext } from '../solver/objective';
 import { withObservingReport, type ObservingReport } from '../observe/refractionReport';

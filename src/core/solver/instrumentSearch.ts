@@ -7,8 +7,7 @@
 import type { PlanFile } from '../plan/schema';
 import { polygonBounds } from '../geometry/polygon';
 import { PMath } from '../numeric/portableMath';
-import { contextFor } from './maskContext';
-import { candidateValues } from './maskContext';
+import { candidateValues, contextFor } from './maskContext';
 import { placeStarlightAndSky, placeStarlightOnMask, starlightSettings, starlightStage, starlightTaken, type StarlightResult, type StarlightRules, type StarlightStage, type StarlightTrade } from './starlight';
 import type { AllocationContext } from './allocateMasks';
 import type { ProxyMask, SearchEnv } from './pointingSearch';

@@ -29,7 +29,7 @@ import { allocateGreedyMaskByMask, improveByBestResponse, maskCandidateSet, reso
 import { wavelengthOk } from '../geometry/eligibility';
 import { footprintRaster, rasterFits } from './footprintRaster';
 import { maskBasis, maskCosC, maskPointToSkyDeg, unitToMaskArcsec } from './maskTargets';
-import { chooseSlots, freeSlots, galaxyOnMask, placeStarlightAndSky, starlightSettings, type RowSpan, type StarlightRules, type StarlightSettings, type StarlightTrade } from './starlight';
+import { chooseSlots, freeSlots, galaxyOnMask, starlightSettings, type RowSpan, type StarlightRules, type StarlightSettings, type StarlightTrade } from './starlight';
 import { addStarlight, addTracer, emptyTally, mergeTallies, objectiveContext, objectiveValue, type ObjectiveContext, type ObjectiveValue, type SearchRules, type Tally } from './objective';
 import { makeRng } from '../scenario/random';
 import type { MaskPointing, MaskSolution } from './types';
