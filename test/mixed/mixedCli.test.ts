@@ -11,7 +11,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { cli, ROOT } from '../cli/runCli';
 import { mixedExampleScenario, MIXED_EXAMPLE_CATALOG_FILE, MIXED_EXAMPLE_PLAN_FILE } from '../../src/core/scenario/mixedScenario';
-import { shippedProfile } from './mixedCase';
+import { generatedProfiles, shippedProfile } from './mixedCase';
 
 const EXAMPLE = join(ROOT, 'examples/mixed');
 let work: string;
@@ -92,4 +92,25 @@ describe('the mixed example', () => {
     // (precession from J2000 to 2027 moves Dec by about 0.1 deg at most; the row is at the apparent place).
     for (const x of rows) expect(Math.abs(x.transitAltitudeDeg - (90 - Math.abs(x.site.latDeg - -21.405)))).toBeLessThan(0.2);
   });
+
+  it('a plan naming one profile by a file path: solved.plan.json names it relative to the folder; both checkers accept it', () => {
+    const dir = join(work, 'bypath');
+    cpSync(EXAMPLE, dir, { recursive: true });
+    const strip = generatedProfiles()[1];
+    writeFileSync(join(dir, 'strip.json'), JSON.stringify(strip, null, 2));
+    const plan = JSON.parse(readFileSync(join(dir, MIXED_EXAMPLE_PLAN_FILE), 'utf8'));
+    plan.instruments = [{ profile: './strip.json', masks: 2 }, { profile: 'broad65-wide', masks: 2 }];
+    plan.search = { ...plan.search, levels: 1, passes: 1 };
+    writeFileSync(join(dir, 'bypath.plan.json'), JSON.stringify(plan, null, 2));
+    const r = cli(['plan', join(dir, 'bypath.plan.json'), '--out', join(work, 'bypath-out'), '--quiet'], work);
+    expect(r.code, r.err).toBe(0);
+    const solved = JSON.parse(readFileSync(join(work, 'bypath-out/solved.plan.json'), 'utf8'));
+    expect(solved.instruments[0].profile).toBe('../bypath/strip.json');
+    expect(readFileSync(join(work, 'bypath-out/masks.csv'), 'utf8')).toMatch(/,gen-strip8,/);
+    const check = cli(['check', join(work, 'bypath-out')], work);
+    expect(check.code, check.err).toBe(0);
+    const py = contractCheck(join(work, 'bypath-out'));
+    expect(py.code, py.out).toBe(0);
+  });
 });
+
