@@ -15,6 +15,20 @@ import { assertCatalogUsable } from '../core/catalog/read';
 import { readCatalogFile } from './readCatalogFile';
 import type { CatalogReadResult, ColumnMapping } from '../core/catalog/types';
 import type { PlanInputs } from '../core/plan/pipeline';
+import { planProfiles, planWithMaskInstruments } from '../core/plan/instruments';
+
+/** The profile references a raw plan object names (`instrument`, or each `instruments[].profile`), with the field of each. */
+export function namedProfiles(raw: Record<string, unknown>, source: string): { ref: string; where: string }[] {
+  const out: { ref: string; where: string }[] = [];
+  if (typeof raw.instrument === 'string' && raw.instrument !== '') out.push({ ref: raw.instrument, where: `${source}: instrument` });
+  if (Array.isArray(raw.instruments)) {
+    raw.instruments.forEach((i: unknown, k) => {
+      const ref = i && typeof i === 'object' ? (i as Record<string, unknown>).profile : undefined;
+      if (typeof ref === 'string' && ref !== '') out.push({ ref, where: `${source}: instruments.${k}.profile` });
+    });
+  }
+  return out;
+}
 
 /** The package's instrument-profiles/ folder, found from this module's location (not the working directory). */
 export const PACKAGE_PROFILE_DIR = fileURLToPath(new URL('../../instrument-profiles/', import.meta.url));
@@ -59,6 +73,8 @@ export function loadProfile(instrument: string, baseDir: string, where: string):
 export interface LoadedPlan extends PlanInputs {
   planPath: string;
   profilePath: string;
+  /** The file of every profile the plan names, by the reference the plan gives (`instrument` or `instruments[].profile`). */
+  profilePaths: Record<string, string>;
   catalogPath: string;
   /** Things worth saying that do not stop the run (e.g. a profile file reusing a package profile's id). */
   warnings: string[];
@@ -104,10 +120,23 @@ export function loadPlanInputs(planPathArg: string): LoadedPlan {
   }
   // Check what the plan names even when other keys are wrong, so every problem is reported in one run.
   const raw = (json && typeof json === 'object' ? json : {}) as Record<string, unknown>;
-  let loadedProfile: { profile: InstrumentProfile; path: string } | null = null;
-  if (typeof raw.instrument === 'string' && raw.instrument !== '') {
+  const loaded = new Map<string, { profile: InstrumentProfile; path: string }>();
+  for (const { ref, where } of namedProfiles(raw, source)) {
+    if (loaded.has(ref)) continue;
     try {
-      loadedProfile = loadProfile(raw.instrument, baseDir, `${source}: instrument`);
+      loaded.set(ref, loadProfile(ref, baseDir, where));
+    } catch (e) {
+      problems.push(...problemsOf(e));
+    }
+  }
+  const loadedProfile = loaded.values().next().value ?? null;
+  const profiles: Record<string, InstrumentProfile> = {}, profilePaths: Record<string, string> = {};
+  for (const [ref, l] of loaded) { profiles[ref] = l.profile; profilePaths[ref] = l.path; }
+  if (plan && !problems.length) {
+    try {
+      // Masks naming a spectrograph the plan does not list, or two files sharing a profile id.
+      planWithMaskInstruments(plan, profiles, source);
+      planProfiles(plan, profiles, source);
     } catch (e) {
       problems.push(...problemsOf(e));
     }
@@ -123,6 +152,6 @@ export function loadPlanInputs(planPathArg: string): LoadedPlan {
   // Streaming for CSV/TSV/ECSV (large catalogs), whole-file for VOTable and FITS.
   const catalog: CatalogReadResult = readCatalogFile(catalogPath, plan.catalogColumns as ColumnMapping | undefined, { source: plan.catalog });
   assertCatalogUsable(catalog);
-  const clash = profileIdClash(loadedProfile.profile, loadedProfile.path);
-  return { plan, profile: loadedProfile.profile, catalog, planPath, profilePath: loadedProfile.path, catalogPath, warnings: clash ? [clash] : [] };
+  const clashes = [...loaded.values()].map((l) => profileIdClash(l.profile, l.path)).filter((c): c is string => c !== null);
+  return { plan, profile: loadedProfile.profile, profiles, profilePaths, catalog, planPath, profilePath: loadedProfile.path, catalogPath, warnings: clashes };
 }

@@ -248,12 +248,15 @@ function relativePath(fromDir: string, target: string): string {
  */
 export function planOutputFiles(solution: PlanSolution, loaded: LoadedPlan, outDir: string, catalogInFolder?: string): Record<string, string> {
   const dir = resolve(outDir);
-  const masks = solution.masks.map((m) => ({ maskId: m.mask.id, instrument: loaded.profile.id, raDeg: m.mask.raDeg, decDeg: m.mask.decDeg, paDeg: m.mask.paDeg }));
+  const masks = solution.masks.map((m) => ({ maskId: m.mask.id, instrument: m.mask.instrument ?? loaded.profile.id, raDeg: m.mask.raDeg, decDeg: m.mask.decDeg, paDeg: m.mask.paDeg }));
+  // Profile references that are paths are rewritten relative to the output folder, so solved.plan.json loads from there.
+  const ref = (r: string) => (looksLikePath(r) ? relativePath(dir, loaded.profilePaths?.[r] ?? loaded.profilePath) : r);
   const slits = solution.masks.flatMap((m) => [...m.slits].sort((a, b) => a.yArcsec - b.yArcsec));
   const plan = {
     ...solution.plan,
     catalog: catalogInFolder ?? relativePath(dir, loaded.catalogPath),
-    instrument: looksLikePath(solution.plan.instrument) ? relativePath(dir, loaded.profilePath) : solution.plan.instrument,
+    ...(solution.plan.instrument !== undefined ? { instrument: ref(solution.plan.instrument) } : {}),
+    ...(solution.plan.instruments ? { instruments: solution.plan.instruments.map((i) => ({ ...i, profile: ref(i.profile) })) } : {}),
   };
   return {
     'masks.csv': masksToCsv(masks),

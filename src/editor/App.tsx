@@ -108,7 +108,7 @@ export function App({ controller: c }: { controller: EditorController }) {
     ? { xiArcsec: geometry.xiArcsec[focus.index], etaArcsec: geometry.etaArcsec[focus.index], n: focus.n } : null), [focus, geometry]);
   const poses: MaskPose[] = (doc?.plan.masks ?? [])
     .filter((m) => m.raDeg !== undefined && m.decDeg !== undefined)
-    .map((m) => ({ id: m.id, raDeg: m.raDeg!, decDeg: m.decDeg!, paDeg: m.paDeg ?? 0, locked: !!m.locked }));
+    .map((m) => ({ id: m.id, raDeg: m.raDeg!, decDeg: m.decDeg!, paDeg: m.paDeg ?? 0, locked: !!m.locked, ...(m.instrument !== undefined ? { instrument: m.instrument } : {}) }));
   const slitTotal = solvedMasks.reduce((n, m) => n + m.slits.length, 0);
 
   return (

@@ -18,6 +18,8 @@ import { catalogCoverageNote } from './derive';
 import { emptySession, type LoadedFile, type Notice, type Session } from './session';
 import { SolverClient, type SolveOutcome } from './worker/solverClient';
 import { bundledProfileFor } from './io/profiles';
+import { missingEditorProfiles } from './io/planProfiles';
+import { planInstrumentRefs } from '../core/plan/instruments';
 import { demoFiles } from './io/demo';
 import { classifyFile } from './io/classify';
 import { decodeText } from '../core/catalog/textDecoding';
@@ -247,14 +249,22 @@ export class EditorController {
       this.notify('error', `${planFile.name} could not be opened`, problemsOf(e, planFile.name));
       return false;
     }
-    const profile = opts.profile ?? bundledProfileFor(plan.instrument) ?? (this.store?.doc.profile.id === plan.instrument ? this.store.doc.profile : undefined);
+    // A plan with several spectrographs opens on its first; the others are bundled profiles (io/planProfiles.ts).
+    const instrument = planInstrumentRefs(plan)[0];
+    const profile = opts.profile ?? bundledProfileFor(instrument) ?? (this.store?.doc.profile.id === instrument ? this.store.doc.profile : undefined);
     if (!profile) {
-      this.notify('error', `${planFile.name}: instrument "${plan.instrument}" is not a bundled profile`, [
-        { where: `${planFile.name}: instrument`, what: `no profile "${plan.instrument}" is known to the editor`, fix: 'open the profile file together with the plan (drop both at once)' },
+      this.notify('error', `${planFile.name}: instrument "${instrument}" is not a bundled profile`, [
+        { where: `${planFile.name}: instrument`, what: `no profile "${instrument}" is known to the editor`, fix: 'open the profile file together with the plan (drop both at once)' },
       ]);
       return false;
     }
-    if (opts.profile && plan.instrument !== opts.profile.id) plan = { ...plan, instrument: opts.profile.id };
+    const unknown = missingEditorProfiles(plan, profile);
+    if (unknown.length) {
+      this.notify('error', `${planFile.name}: instruments not known to the editor`, unknown.map((ref) => (
+        { where: `${planFile.name}: instruments`, what: `no profile "${ref}" is bundled with the editor`, fix: 'use the bundled profile ids for every instrument of a plan with several' })));
+      return false;
+    }
+    if (opts.profile && plan.instrument !== undefined && plan.instrument !== opts.profile.id) plan = { ...plan, instrument: opts.profile.id };
     let catalog: CatalogReadResult | null = null;
     let catFile = catalogFile;
     if (!catFile && this.session.catalogFile) {

@@ -25,10 +25,12 @@ Tilt convention (from Haloweave's src/core/geometry/slitGeometry.ts doc comment)
 rectangle about (x_arcsec, y_arcsec); positive tilt turns the slit's +y direction towards +x, so the unit vector
 along the slit is (sin t, cos t) and across it (cos t, -sin t) in (x, y).
 
-Instrument profile: the masks.csv `instrument` value is looked up as the `id` key of the *.json files in the
-profile directory (default: instrument-profiles/ of this repository). If no file there has that id and
-solved.plan.json's `instrument` is a path (contains '/' or '\\' or ends in .json), that file, resolved relative to
-DIR, is used, and its `id` must equal the masks.csv value.
+Instrument profile of each mask: the masks.csv `instrument` value is a profile id. The profile files that
+solved.plan.json names by path (its `instrument`, or each `instruments[].profile` of a plan of several spectrographs,
+contract revision 2; a path contains '/' or '\\' or ends in .json), resolved relative to DIR, are tried first, by
+their `id` key; then the *.json files of the profile directory (default: instrument-profiles/ of this repository).
+With `instruments`, every masks.csv instrument must be the id of one of them, each used by exactly its `masks`
+count, and a solved.plan.json mask naming its `instrument` must name the one masks.csv gives.
 
 Output: one line per violation ("WHERE: [rule] what"), exit status 1 if there is any; otherwise a summary (rows
 checked, worst position residual) and exit status 0. Exit status 3: astropy missing.
@@ -602,20 +604,38 @@ def check_folder(out_dir, profile_dir):
     # profiles
     profiles = load_profiles(profile_dir)
     plan_instrument = plan.get("instrument") if isinstance(plan, dict) else None
+    # Revision 2: several spectrographs, "instruments": [{"profile": id or path, "masks": n}, ...].
+    plan_instruments = plan.get("instruments") if isinstance(plan, dict) else None
+    if plan_instruments is not None and not (isinstance(plan_instruments, list) and all(isinstance(i, dict) and isinstance(i.get("profile"), str) for i in plan_instruments)):
+        report.add("solved.plan.json instruments", "plan", "instruments must be a list of {profile, masks}")
+        plan_instruments = None
+    plan_refs = ([plan_instrument] if isinstance(plan_instrument, str) else []) + [i["profile"] for i in plan_instruments or []]
+    path_refs = [r for r in plan_refs if looks_like_path(r)]
+
+    def profile_file(ref):
+        path = ref if os.path.isabs(ref) else os.path.join(out_dir, ref)
+        try:
+            with open(path, encoding="utf-8") as f:
+                p = json.load(f)
+            return p if isinstance(p, dict) else None
+        except (OSError, ValueError):
+            return None
 
     def profile_for(instrument):
+        # A profile file the plan names comes first (it may reuse the id of a shipped profile), then the profile folder.
+        for ref in path_refs:
+            p = profile_file(ref)
+            if p is not None and p.get("id") == instrument:
+                return p
         if instrument in profiles:
             return profiles[instrument][0]
-        if isinstance(plan_instrument, str) and looks_like_path(plan_instrument):
-            path = plan_instrument if os.path.isabs(plan_instrument) else os.path.join(out_dir, plan_instrument)
-            try:
-                with open(path, encoding="utf-8") as f:
-                    p = json.load(f)
-                if isinstance(p, dict) and p.get("id") == instrument:
-                    return p
-            except (OSError, ValueError):
-                pass
         return None
+
+    def ref_id(ref):
+        if looks_like_path(ref):
+            p = profile_file(ref)
+            return p.get("id") if p is not None else None
+        return ref
 
     # masks.csv
     masks = {}
@@ -638,11 +658,39 @@ def check_folder(out_dir, profile_dir):
         prof = profile_for(r.get("instrument", ""))
         if prof is None:
             report.add(where, "profile", f"no instrument profile with id {r.get('instrument')!r} in {profile_dir}"
-                       + (f" nor at {plan_instrument} (relative to {out_dir})" if isinstance(plan_instrument, str) and looks_like_path(plan_instrument) else ""))
+                       + (f" nor at {', '.join(path_refs)} (relative to {out_dir})" if path_refs else ""))
             continue
         cross_check_centre(ra, dec, where, report)
         masks[mid] = {"line": line, "ra": ra, "dec": dec, "pa": pa, "profile": prof, "wcs": tan_wcs(ra, dec)}
     stats["masks"] = len(masks)
+
+    # Several spectrographs: every mask's instrument is one of the plan's, each takes exactly its number of masks,
+    # and a solved.plan.json mask naming its instrument names the one masks.csv gives.
+    if plan_instruments:
+        ids = {}
+        for i in plan_instruments:
+            pid = ref_id(i["profile"])
+            if pid is None:
+                report.add("solved.plan.json instruments", "instruments", f"profile {i['profile']!r} cannot be read (relative to {out_dir})")
+                continue
+            ids[pid] = ids.get(pid, 0) + (i.get("masks") if isinstance(i.get("masks"), int) else 0)
+        counts = {}
+        for line, r in mask_rows:
+            inst = r.get("instrument", "")
+            counts[inst] = counts.get(inst, 0) + 1
+            if inst not in ids:
+                report.add(f"masks.csv line {line} (mask {r.get('mask_id')})", "instruments", f"instrument {inst!r} is not among the plan's instruments {sorted(ids)}")
+        for pid, n in ids.items():
+            if counts.get(pid, 0) != n:
+                report.add("masks.csv", "instruments", f"{counts.get(pid, 0)} masks use {pid!r}, the plan's instruments give it {n}")
+        rows_by_id = {r.get("mask_id"): r for _, r in mask_rows}
+        for k, pm in enumerate(plan.get("masks") or []):
+            if not isinstance(pm, dict) or not isinstance(pm.get("instrument"), str):
+                continue
+            row = rows_by_id.get(pm.get("id"))
+            named = pm["instrument"]
+            if row is not None and row.get("instrument") not in (named, ref_id(named)):
+                report.add(f"solved.plan.json masks[{k}] (id {pm.get('id')})", "instruments", f"instrument {named!r}, but masks.csv gives {row.get('instrument')!r}")
 
     # solved.plan.json masks equal masks.csv
     if isinstance(plan, dict):

@@ -76,7 +76,7 @@ describe('haloweave export', () => {
       'haloweave export: unknown format "xlsx" (use one of csv, ecsv, votable, fits, json)',
       'haloweave export: missing --out FILE (the file to write)',
       `haloweave export: the folder ${join(dir, 'missing')} does not exist (write it with haloweave plan PLAN --out ${join(dir, 'missing')})`,
-      'usage: haloweave export DIR --format csv|ecsv|votable|fits|json --out FILE',
+      'usage: haloweave export DIR --format csv|ecsv|votable|fits|json --out FILE [--per-instrument]',
     ]);
     const empty = mkdtempSync(join(tmpdir(), 'haloweave-export-empty-'));
     const io2 = capture();

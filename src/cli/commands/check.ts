@@ -26,6 +26,8 @@ import { MASK_COLUMNS, SLIT_COLUMNS } from '../../core/export/slitsCsv';
 import { targetWeights } from '../../core/plan/pipeline';
 import type { Slit } from '../../core/solver/types';
 import type { Target } from '../../core/catalog/types';
+import { planInstrumentRefs } from '../../core/plan/instruments';
+import { checkPlanInstruments } from '../../core/check/instrumentCounts';
 
 function readIn(dir: string, name: string): string {
   const p = join(dir, name);
@@ -78,10 +80,11 @@ export async function run(argv: string[], io: CliIO): Promise<number> {
     if (cache.has(instrument)) return cache.get(instrument)!;
     let found: InstrumentProfile | null = null;
     // The plan's own profile first (a file may reuse a package id with other numbers), then the package's.
-    for (const ref of [plan.instrument, instrument]) {
+    const planRefs = planInstrumentRefs(plan);
+    for (const ref of [...planRefs, instrument]) {
       try {
         const { profile: p, path } = loadProfile(ref, dir, `${planSource}: instrument`);
-        if (p.id === instrument || (ref === instrument && ref !== plan.instrument)) { found = p; profilePaths.set(instrument, path); break; }
+        if (p.id === instrument || (ref === instrument && !planRefs.includes(ref))) { found = p; profilePaths.set(instrument, path); break; }
       } catch {
         // try the next reference
       }
@@ -105,6 +108,14 @@ export async function run(argv: string[], io: CliIO): Promise<number> {
   violations.push(...checkColumnOrder(parseCsvRecords(masksText)[0]?.cells ?? [], MASK_COLUMNS, src('masks.csv')));
   if (folderManifest.manifest) violations.push(...checkProfileFiles(folderManifest.manifest, profilePaths, shown));
   violations.push(...checkPlanMasks(plan.masks ?? [], masks, { planSource: src('solved.plan.json'), masksSource: src('masks.csv'), maskLines }));
+  const idOfRef = (ref: string): string | null => {
+    try {
+      return loadProfile(ref, dir, `${planSource}: instruments`).profile.id;
+    } catch {
+      return null;
+    }
+  };
+  violations.push(...checkPlanInstruments(plan, masks, idOfRef, { planSource: src('solved.plan.json'), masksSource: src('masks.csv'), maskLines }));
 
   // coverage.json against a recount from slits.csv.
   const covPath = join(dir, 'coverage.json');

@@ -27,7 +27,15 @@ export const EXPORT_FORMATS: Record<string, (t: OutputTable) => string | Uint8Ar
   json: writeJsonTable,
 };
 
-const USAGE = 'usage: haloweave export DIR --format csv|ecsv|votable|fits|json --out FILE';
+const USAGE = 'usage: haloweave export DIR --format csv|ecsv|votable|fits|json --out FILE [--per-instrument]';
+
+/** FILE with `-<instrument id>` before its extension (slits.fits -> slits-ridge10-narrow.fits): one slit list per instrument. */
+export function perInstrumentPath(file: string, instrument: string): string {
+  const safe = instrument.replace(/[^A-Za-z0-9._-]+/g, '_');
+  const m = /^(.*?)(\.[A-Za-z0-9]+)?$/.exec(file)!;
+  const slash = Math.max(file.lastIndexOf('/'), file.lastIndexOf('\\'));
+  return m[2] && file.length - m[2].length > slash + 1 ? `${m[1]}-${safe}${m[2]}` : `${file}-${safe}`;
+}
 
 /** Read DIR/slits.csv and DIR/masks.csv into the slit-list table (throws InputError naming file, line and column). */
 export function readOutputFolderTable(dir: string): OutputTable {
@@ -59,8 +67,9 @@ export function outProblems(out: string, dir: string): string[] {
   if (!existsSync(out)) return [];
   const inputs = readdirSync(dir).map((e) => join(dir, e));
   try {
-    const plan = JSON.parse(readFileSync(join(dir, 'solved.plan.json'), 'utf8')) as { catalog?: unknown; instrument?: unknown };
-    for (const ref of [plan.catalog, plan.instrument]) if (typeof ref === 'string' && ref !== '') inputs.push(resolve(dir, ref));
+    const plan = JSON.parse(readFileSync(join(dir, 'solved.plan.json'), 'utf8')) as { catalog?: unknown; instrument?: unknown; instruments?: { profile?: unknown }[] };
+    const profiles = Array.isArray(plan.instruments) ? plan.instruments.map((i) => i?.profile) : [];
+    for (const ref of [plan.catalog, plan.instrument, ...profiles]) if (typeof ref === 'string' && ref !== '') inputs.push(resolve(dir, ref));
   } catch {
     // no readable plan: the folder's own files are the inputs
   }
@@ -69,10 +78,10 @@ export function outProblems(out: string, dir: string): string[] {
 }
 
 export async function run(argv: string[], io: CliIO): Promise<number> {
-  const args = parseArgs(argv);
+  const args = parseArgs(argv, ['per-instrument']);
   const errors: string[] = [];
-  const unknown = unknownOptions(args, ['format', 'out']);
-  for (const u of unknown) errors.push(`unknown option --${u} (the options are --format and --out)`);
+  const unknown = unknownOptions(args, ['format', 'out', 'per-instrument']);
+  for (const u of unknown) errors.push(`unknown option --${u} (the options are --format, --out and --per-instrument)`);
   const [dir, ...more] = args.positionals;
   if (!dir) errors.push('missing the output folder DIR (the folder written by haloweave plan PLAN --out DIR)');
   if (more.length > 0) errors.push(`unexpected argument${more.length > 1 ? 's' : ''} ${more.join(' ')}`);
@@ -97,7 +106,28 @@ export async function run(argv: string[], io: CliIO): Promise<number> {
     return 2;
   }
   const table = readOutputFolderTable(dir!);
-  const content = EXPORT_FORMATS[format!.toLowerCase()](table);
+  const write = EXPORT_FORMATS[format!.toLowerCase()];
+  if (args.options['per-instrument'] === true) {
+    // One slit list per instrument: the rows of its masks, its own metadata (masks, slits, instrument).
+    const slits = parseSlitsCsv(readFileSync(join(dir!, 'slits.csv'), 'utf8'), join(dir!, 'slits.csv'));
+    const masks = parseMasksCsv(readFileSync(join(dir!, 'masks.csv'), 'utf8'), join(dir!, 'masks.csv'));
+    const instruments = [...new Set(masks.map((m) => m.instrument))];
+    const clashes = instruments.flatMap((i) => outProblems(perInstrumentPath(out!, i), dir!));
+    if (clashes.length) {
+      for (const e of clashes) io.err(`haloweave export: ${e}`);
+      return 2;
+    }
+    for (const instrument of instruments) {
+      const own = masks.filter((m) => m.instrument === instrument);
+      const ids = new Set(own.map((m) => m.maskId));
+      const part = slitTable(slits.filter((s) => ids.has(s.maskId)), own);
+      const file = perInstrumentPath(out!, instrument);
+      withFsProblems(`--out ${file}`, 'cannot write the exported file', () => writeFileAtomic(file, write(part)));
+      io.out(`wrote ${part.rows.length} slits of ${own.length} masks of ${instrument} to ${file} (${format!.toLowerCase()})`);
+    }
+    return 0;
+  }
+  const content = write(table);
   withFsProblems(`--out ${out}`, 'cannot write the exported file', () => writeFileAtomic(out!, content));
   io.out(`wrote ${table.rows.length} slits of ${table.meta.find((m) => m.key === 'masks')?.value ?? 0} masks to ${out} (${format!.toLowerCase()})`);
   return 0;

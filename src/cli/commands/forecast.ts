@@ -4,6 +4,7 @@
  * plots DIR/forecast-dispersion.svg, forecast-rotation.svg, forecast-starlight.svg; prints a summary, or both
  * folders side by side with --against (the comparison plots are written to DIR as forecast-*-against.svg).
  */
+import { planInstrumentRefs } from '../../core/plan/instruments';
 import { existsSync, readFileSync, statSync } from 'node:fs';
 import { basename, isAbsolute, join, resolve } from 'node:path';
 import type { CliIO } from '../io';
@@ -77,7 +78,8 @@ export function loadForecastInput(shown: string, semester: { from: string | null
   const plan = parsePlanText(readIn(dir, shown, 'solved.plan.json'), join(shown, 'solved.plan.json'));
   const masks = parseMasksCsv(readIn(dir, shown, 'masks.csv'), join(shown, 'masks.csv'));
   const slits = parseSlitsCsv(readIn(dir, shown, 'slits.csv'), join(shown, 'slits.csv'));
-  const { profile } = loadProfile(plan.instrument, dir, `${join(shown, 'solved.plan.json')}: instrument`);
+  // A plan of several spectrographs is forecast with its first profile's exposure model (docs/forecast.md).
+  const { profile } = loadProfile(planInstrumentRefs(plan)[0], dir, `${join(shown, 'solved.plan.json')}: instrument`);
   const galaxy = galaxyModel(plan);
   const solutions: MaskSolution[] = masks.map((m) => ({
     mask: { id: m.maskId, raDeg: m.raDeg, decDeg: m.decDeg, paDeg: m.paDeg, locked: true },

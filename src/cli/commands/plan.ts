@@ -9,6 +9,7 @@ import { OutputFolder, planOutputFiles, type OutputFolderOptions } from '../outp
 import { CONTRACT_OUTPUT_FILES } from '../../core/check/manifest';
 import { excludedTargetsCsv, planSummaryLines } from '../../core/coverage/summary';
 import { unmetGoalLines } from '../../core/coverage/goals';
+import { instrumentYieldLines, instrumentYields } from '../../core/plan/instrumentYield';
 
 const USAGE = 'usage: haloweave plan PLAN --out DIR [--quiet] [--strict]';
 
@@ -80,6 +81,8 @@ function solveToFiles(loaded: LoadedPlan, out: string, io: CliIO, opts: SolveAnd
     files[name] = text;
   }
   for (const line of planSummaryLines(solution)) io.out(line);
+  const yields = instrumentYields(solution.masks, solution.observingReport, loaded.profile.id);
+  if (yields.length > 1) for (const line of instrumentYieldLines(yields)) io.out(line);
   return { files, unmet: unmetGoalLines(solution.goals) };
 }
 

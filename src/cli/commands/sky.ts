@@ -11,7 +11,8 @@ import { InputError, type Problem } from '../../core/result';
 import { parsePlanText, galaxyModel } from '../../core/plan/validate';
 import type { GalaxyModel } from '../../core/plan/schema';
 import type { InstrumentProfile } from '../../core/profile/schema';
-import { loadProfile } from '../loadPlanInputs';
+import { loadProfile, namedProfiles } from '../loadPlanInputs';
+import { planProfiles } from '../../core/plan/instruments';
 import { nightTable, type NightRow } from '../../core/observe/night';
 import { parseDateText, observabilityVerdict } from '../../core/observe/observability';
 
@@ -19,15 +20,17 @@ const OPTIONS = ['from', 'to', 'max-airmass', 'step-min', 'json', 'curve'];
 /** Longest range accepted, in nights (ten years). */
 const MAX_NIGHTS = 3660;
 
-/** Read the plan (validated) and its profile; the catalog is not needed here. */
-export function loadPlanAndProfile(planPathArg: string): { galaxy: GalaxyModel; profile: InstrumentProfile; profileId: string; planMaxAirmass?: number } {
+/** Read the plan (validated) and its (first) profile, with every profile of a plan with several; the catalog is not needed here. */
+export function loadPlanAndProfile(planPathArg: string): { galaxy: GalaxyModel; profile: InstrumentProfile; profileId: string; profiles: InstrumentProfile[]; planMaxAirmass?: number } {
   const planPath = resolve(planPathArg);
   if (!existsSync(planPath) || !statSync(planPath).isFile()) {
     throw new InputError([{ where: planPathArg, what: 'plan file not found', fix: 'give the path of a *.plan.json file' }]);
   }
   const plan = parsePlanText(readFileSync(planPath, 'utf8'), planPathArg);
-  const { profile } = loadProfile(plan.instrument, dirname(planPath), `${planPathArg}: instrument`);
-  return { galaxy: galaxyModel(plan), profile, profileId: profile.id, planMaxAirmass: plan.observing?.maxAirmass };
+  const loaded: Record<string, InstrumentProfile> = {};
+  for (const { ref, where } of namedProfiles(plan, planPathArg)) loaded[ref] ??= loadProfile(ref, dirname(planPath), where).profile;
+  const profiles = planProfiles(plan, loaded, planPathArg);
+  return { galaxy: galaxyModel(plan), profile: profiles[0], profileId: profiles[0].id, profiles, planMaxAirmass: plan.observing?.maxAirmass };
 }
 
 /** Options of the command, every problem reported at once. */
@@ -102,13 +105,28 @@ export function formatNightTable(rows: NightRow[], maxAirmass: number): string[]
 /** Run `haloweave sky`; exit 0 also when the galaxy is not observable (that is a result, not an error). */
 export async function run(argv: string[], io: CliIO): Promise<number> {
   const opts = readOptions(argv);
-  const { galaxy, profile, profileId, planMaxAirmass } = loadPlanAndProfile(opts.planPath);
+  const { galaxy, profiles, planMaxAirmass } = loadPlanAndProfile(opts.planPath);
   const o = { ...opts, maxAirmass: opts.maxAirmass ?? planMaxAirmass ?? 2 };
+  if (profiles.length === 1) return siteNights(io, galaxy, profiles[0], o, null);
+  // Several spectrographs: each site in turn; JSON rows name their instrument and site.
+  const all: object[] = [];
+  for (const p of profiles) {
+    siteNights(o.json ? { out: () => {}, err: io.err } : io, galaxy, p, o, all);
+    if (!o.json) io.out('');
+  }
+  if (o.json) io.out(JSON.stringify(all, null, 2));
+  return 0;
+}
+
+/** The nights of one site; `collect` (several sites) gathers the JSON rows with their instrument and site instead of printing them. */
+function siteNights(io: CliIO, galaxy: GalaxyModel, profile: InstrumentProfile, o: ReturnType<typeof readOptions> & { maxAirmass: number }, collect: object[] | null): number {
+  const profileId = profile.id;
   const site = { latDeg: profile.site.latDeg, lonDeg: profile.site.lonDeg, elevationM: profile.site.elevationM };
   const rows = nightTable(o.from, o.to, galaxy, site, { maxAirmass: o.maxAirmass, stepMinutes: o.stepMinutes, includeCurve: o.curve });
   const verdict = observabilityVerdict(rows, galaxy, site, o.maxAirmass);
   if (o.json) {
-    io.out(JSON.stringify(rows.map(roundedRow), null, 2));
+    if (collect) collect.push(...rows.map((r) => ({ instrument: profileId, site, ...roundedRow(r) })));
+    else io.out(JSON.stringify(rows.map(roundedRow), null, 2));
     if (verdict) io.err(`haloweave sky: ${verdict}`);
     return 0;
   }

@@ -18,14 +18,23 @@ import { weighTargets, type WeightingResult, type WeightingRules } from '../solv
 import { placeStarlightAndSky, starlightSettings } from '../solver/starlight';
 import { startLayouts, searchEnv, searchPointings, starlightTrade, type SearchReport } from '../solver/pointingSearch';
 import { objectiveContext } from '../solver/objective';
-import { observingReportForPlan, withObservingReport, type ObservingReport } from '../observe/refractionReport';
+import { withObservingReport, type ObservingReport } from '../observe/refractionReport';
 import { lineWindowSettings } from '../geometry/wavelength';
 import { spectralReport, type SpectralReport } from '../spectro/spectralReport';
+import { instrumentsAllocationContext } from '../solver/instrumentContexts';
+import { instrumentsCrossLayout } from '../solver/instrumentLayout';
+import { placeStarlightForMasks } from '../solver/instrumentSearch';
+import { contextFor } from '../solver/maskContext';
+import { observingReportForMasks } from '../observe/instrumentsReport';
+import { planProfiles, planWithMaskInstruments } from './instruments';
 
 export interface PlanInputs {
   plan: PlanFile;
+  /** The plan's (first) instrument profile. */
   profile: InstrumentProfile;
   catalog: CatalogReadResult;
+  /** Every profile a plan with `instruments` names, by the reference the plan gives (plan/instruments.ts). */
+  profiles?: Readonly<Record<string, InstrumentProfile>>;
 }
 
 export interface SolveOptions {
@@ -130,6 +139,12 @@ export function planFullyPlaced(plan: PlanFile): boolean {
  */
 export function placeMasks(plan: PlanFile, galaxy: GalaxyModel, profile: InstrumentProfile, ctx: AllocationContext, onProgress?: (fraction: number, message: string) => void): { pointings: MaskPointing[]; search: SearchReport; allocation: PointingsAllocation; withStarlight: MaskSolution[]; starlightWarnings: string[] } {
   const starts = startLayouts(plan, galaxy, profile);
+  if (ctx.byInstrument) {
+    // Several spectrographs: each start carries every mask's own instrument, and the profile-by-profile cross comes first.
+    const own = new Map((plan.masks ?? []).map((m) => [m.id, m.instrument]));
+    for (const s of starts) s.pointings = s.pointings.map((p) => (own.get(p.id) !== undefined ? { ...p, instrument: own.get(p.id) } : p));
+    starts.unshift({ name: 'cross by instrument', pointings: instrumentsCrossLayout(plan, galaxy, ctx) });
+  }
   const r = searchPointings(searchEnv(plan, ctx), starts[0].pointings, onProgress, starts);
   return { pointings: r.pointings, search: r.report, allocation: r.allocation, withStarlight: r.masks, starlightWarnings: r.starlightWarnings };
 }
@@ -143,17 +158,18 @@ export function placeMasks(plan: PlanFile, galaxy: GalaxyModel, profile: Instrum
  */
 export function addStarlightAndSky(plan: PlanFile, ctx: AllocationContext, masks: MaskSolution[], warnings: string[]): MaskSolution[] {
   const objective = objectiveContext(plan.goals, plan.search, Array.from(ctx.tracerIndices, (i) => ctx.weights[i]));
-  const r = placeStarlightAndSky(masks, ctx.galaxy, ctx.profile, plan, starlightTrade(objective));
+  const r = placeStarlightForMasks(ctx, plan, masks, starlightTrade(objective));
   warnings.push(...r.warnings);
   return r.masks;
 }
 
 // ---- stage 5: lengthening --------------------------------------------------------------------------------
 
-/** Lengthen every slit (boxes stay fixed) into the free space of its mask. */
-export function lengthenMasks(plan: PlanFile, profile: InstrumentProfile, masks: MaskSolution[]): MaskSolution[] {
-  const maxLengthArcsec = plan.allocation?.maxSlitLengthArcsec ?? DEFAULT_MAX_LENGTH_FACTOR * profile.slits.minLengthArcsec;
+/** Lengthen every slit (boxes stay fixed) into the free space of its mask; `ctx` (optional) gives each mask its own profile. */
+export function lengthenMasks(plan: PlanFile, planProfile: InstrumentProfile, masks: MaskSolution[], ctx?: AllocationContext): MaskSolution[] {
   return masks.map((ms) => {
+    const profile = ctx ? contextFor(ctx, ms.mask).profile : planProfile;
+    const maxLengthArcsec = plan.allocation?.maxSlitLengthArcsec ?? DEFAULT_MAX_LENGTH_FACTOR * profile.slits.minLengthArcsec;
     const rows = ms.slits.map((s) => ({ ...s, fixed: s.role === 'alignment' }));
     const grown = lengthenSlits(rows, { footprint: profile.footprint, gapArcsec: profile.slits.gapArcsec, maxLengthArcsec });
     return { mask: ms.mask, slits: grown.map(({ fixed: _f, ...s }) => s) };
@@ -165,21 +181,25 @@ export function lengthenMasks(plan: PlanFile, profile: InstrumentProfile, masks:
 /** The plan with every mask placed, keeping each mask's other keys. */
 export function solvedPlanFile(plan: PlanFile, pointings: readonly MaskPointing[]): PlanFile {
   const given = new Map((plan.masks ?? []).map((m) => [m.id, m]));
-  const masks: PlanMask[] = pointings.map((p) => ({ ...(given.get(p.id) ?? {}), id: p.id, raDeg: p.raDeg, decDeg: p.decDeg, paDeg: p.paDeg, locked: p.locked }));
+  const masks: PlanMask[] = pointings.map((p) => ({ ...(given.get(p.id) ?? {}), id: p.id, raDeg: p.raDeg, decDeg: p.decDeg, paDeg: p.paDeg, locked: p.locked, ...(p.instrument !== undefined ? { instrument: p.instrument } : {}) }));
   return { ...plan, masks };
 }
 
 /** Solve a plan: pure and synchronous; onProgress gets fractions in [0, 1] with a short message. */
 export function solvePlan(inputs: PlanInputs, opts: SolveOptions = {}): PlanSolution {
   const progress = opts.onProgress ?? (() => {});
-  const { plan, profile, catalog } = inputs;
+  const { profile, catalog } = inputs;
+  // Several spectrographs: every mask listed with its own profile id (plan/instruments.ts).
+  const plan = planWithMaskInstruments(inputs.plan, inputs.profiles ?? {});
   const warnings: string[] = [];
   const galaxy = galaxyModel(plan);
 
   progress(0, 'weighting targets');
   const weighting = weighPlanTargets(plan, catalog.targets);
   const weights = targetWeights(plan, catalog.targets, warnings, weighting);
-  const ctx = allocationContext(profile, galaxy, plan.goals.linesA, catalog.targets, weights, lineWindowSettings(plan.goals));
+  const ctx = plan.instruments?.length
+    ? instrumentsAllocationContext(plan, planProfiles(plan, inputs.profiles ?? {}), galaxy, catalog.targets, weights)
+    : allocationContext(profile, galaxy, plan.goals.linesA, catalog.targets, weights, lineWindowSettings(plan.goals));
 
   progress(0.1, 'placing masks');
   const placed = placeMasks(plan, galaxy, profile, ctx, (f, message) => progress(0.1 + 0.6 * f, message));
@@ -192,7 +212,7 @@ export function solvePlan(inputs: PlanInputs, opts: SolveOptions = {}): PlanSolu
   warnings.push(...placed.starlightWarnings);
 
   progress(0.8, 'lengthening slits');
-  masks = lengthenMasks(plan, profile, masks);
+  masks = lengthenMasks(plan, profile, masks, ctx);
 
   progress(0.9, 'measuring coverage');
   const allSlits = masks.flatMap((m) => m.slits);
@@ -219,7 +239,7 @@ export function solvePlan(inputs: PlanInputs, opts: SolveOptions = {}): PlanSolu
   let observingReport: ObservingReport | undefined;
   if (!opts.skipObservingReport) {
     progress(0.95, 'refraction and exposure report');
-    observingReport = observingReportForPlan(plan, profile, galaxy, masks);
+    observingReport = observingReportForMasks(plan, ctx, galaxy, masks);
     solved = withObservingReport(solved, observingReport);
   }
   const spectral = spectralReport(plan, profile, pointings.map((p) => p.id));

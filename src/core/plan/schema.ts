@@ -59,6 +59,14 @@ export const planMaskSchema = z.looseObject({
   locked: z.boolean().optional(),
   /** Hour angle (hours) the mask is designed for; used by the refraction report. */
   designHourAngleH: z.number().min(-12).max(12).optional(),
+  /** The mask's own spectrograph in a plan with `instruments`: one of their `profile` values, or that profile's id. */
+  instrument: z.string().min(1, 'name one of the plan\'s instruments (profile id or path)').optional(),
+});
+
+/** One spectrograph of a mixed plan (contract revision 2): a profile id or path, and how many masks it takes. */
+export const planInstrumentSchema = z.looseObject({
+  profile: z.string().min(1, 'name a profile id or a path to a profile file'),
+  masks: z.number().int('must be a whole number of masks').min(0).max(50),
 });
 
 export const columnMappingSchema = z.looseObject({
@@ -89,7 +97,9 @@ export const allocationSchema = z.looseObject({
 export const planSchema = z.looseObject({
   format: z.literal(PLAN_FORMAT, { message: `must be "${PLAN_FORMAT}"` }),
   galaxy: galaxySchema,
-  instrument: z.string().min(1, 'name a profile id or a path to a profile file'),
+  /** The spectrograph of every mask (profile id or path); or, instead, `instruments` (plan/instruments.ts). */
+  instrument: z.string().min(1, 'name a profile id or a path to a profile file').optional(),
+  instruments: z.array(planInstrumentSchema).min(1, 'list at least one spectrograph').optional(),
   catalog: z.string().min(1, 'give the catalog path, relative to the plan file'),
   catalogColumns: columnMappingSchema.optional(),
   goals: goalsSchema,
@@ -113,6 +123,7 @@ export const planSchema = z.looseObject({
 
 export type PlanFile = z.infer<typeof planSchema>;
 export type PlanMask = z.infer<typeof planMaskSchema>;
+export type PlanInstrument = z.infer<typeof planInstrumentSchema>;
 
 /** The galaxy with its position in decimal degrees (ICRS). */
 export interface GalaxyModel {

@@ -4,6 +4,7 @@ import { InputError, type Problem } from '../result';
 import { mergeProblems, zodIssuesToProblems } from '../profile/load';
 import { PLAN_RANGES, numberRangeProblems } from './numberRanges';
 import { parseDecDeg, parseRaDeg } from '../sky/sexagesimal';
+import { instrumentKeyProblems } from './instruments';
 
 /** Validate parsed plan JSON; throws InputError with one problem per wrong or missing key. */
 export function parsePlan(json: unknown, source = 'plan'): PlanFile {
@@ -12,7 +13,7 @@ export function parsePlan(json: unknown, source = 'plan'): PlanFile {
   const r = planSchema.safeParse(json);
   if (!r.success || ranges.length) throw new InputError(mergeProblems(ranges, r.success ? [] : zodIssuesToProblems(source, r.error.issues)));
   const plan = r.data;
-  const problems: Problem[] = [];
+  const problems: Problem[] = instrumentKeyProblems(plan, source);
   const ids = new Set<string>();
   for (const [i, m] of (plan.masks ?? []).entries()) {
     if (ids.has(m.id)) problems.push({ where: `${source}: masks.${i}.id`, what: `mask id "${m.id}" is used twice` });

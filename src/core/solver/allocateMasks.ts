@@ -18,6 +18,7 @@ import { polygonBounds } from '../geometry/polygon';
 import type { LineWindowSettings } from '../geometry/wavelength';
 import type { MaskPointing, MaskSolution, Slit } from './types';
 import { PMath } from '../numeric/portableMath';
+import { candidateValues, contextFor } from './maskContext';
 
 /** Everything about the targets and the instrument that does not depend on the pointings. */
 export interface AllocationContext {
@@ -36,6 +37,8 @@ export interface AllocationContext {
   /** Indices of tracer targets with weight > 0, and of alignment stars inside the profile's magnitude range. */
   tracerIndices: Int32Array;
   alignmentIndices: Int32Array;
+  /** In a plan with several spectrographs: the context of each profile id (solver/instrumentContexts.ts, maskContext.ts). */
+  byInstrument?: ReadonlyMap<string, AllocationContext>;
 }
 
 /** Build the allocation context; linesA are rest wavelengths (Angstrom), redshifted by galaxy.vsysKms. */
@@ -91,7 +94,8 @@ export interface PreparedMask {
 }
 
 /** Prepare one mask: alignment boxes (from every alignment star on it, shared stars included) and eligible tracer candidates. */
-export function prepareMask(ctx: AllocationContext, mask: MaskPointing): PreparedMask {
+export function prepareMask(planCtx: AllocationContext, mask: MaskPointing): PreparedMask {
+  const ctx = contextFor(planCtx, mask);
   const { profile, rules } = ctx;
   const L = profile.slits.minLengthArcsec, g = profile.slits.gapArcsec, box = profile.alignment.boxSizeArcsec;
   const choice = chooseAlignmentBoxes(alignmentCandidates(ctx, mask), profile.alignment.minCount, box + g);
@@ -109,7 +113,7 @@ export function prepareMask(ctx: AllocationContext, mask: MaskPointing): Prepare
     mask,
     boxes,
     alignmentShortfall: choice.ok ? undefined : { available: choice.available, compatibleMax: choice.compatibleMax },
-    candidates: maskCandidateSet(objects, ys.map((y) => y - L / 2), ys.map((y) => y + L / 2 + g)),
+    candidates: { ...maskCandidateSet(objects, ys.map((y) => y - L / 2), ys.map((y) => y + L / 2 + g)), values: candidateValues(ctx, objects) },
     candidateX: Float64Array.from(xs),
     candidateY: Float64Array.from(ys),
   };
@@ -126,8 +130,9 @@ export function jointProblemOf(ctx: AllocationContext, prepared: readonly Prepar
 }
 
 /** A Problem for a mask with too few alignment stars: names the mask, found vs needed, and how to fix it. */
-export function alignmentProblem(ctx: AllocationContext, p: PreparedMask): Problem | null {
+export function alignmentProblem(planCtx: AllocationContext, p: PreparedMask): Problem | null {
   if (!p.alignmentShortfall) return null;
+  const ctx = contextFor(planCtx, p.mask);
   const { available, compatibleMax } = p.alignmentShortfall;
   const [b, f] = ctx.profile.alignment.magRange;
   const need = ctx.profile.alignment.minCount;
@@ -141,9 +146,9 @@ export function alignmentProblem(ctx: AllocationContext, p: PreparedMask): Probl
 
 /** Minimal slit rows (tilt 0) of each mask for a joint selection, plus its alignment boxes; ids A01.. and S001.. by y. */
 export function buildMaskSolutions(ctx: AllocationContext, prepared: readonly PreparedMask[], chosen: readonly (readonly number[])[]): MaskSolution[] {
-  const { profile } = ctx;
-  const L = profile.slits.minLengthArcsec, w = profile.slits.widthArcsec, box = profile.alignment.boxSizeArcsec;
   return prepared.map((p, m) => {
+    const { profile } = contextFor(ctx, p.mask);
+    const L = profile.slits.minLengthArcsec, w = profile.slits.widthArcsec, box = profile.alignment.boxSizeArcsec;
     const row = (objectIndex: number, role: Slit['role'], x: number, y: number, half: number, width: number, slitId: string): Slit => {
       const t = ctx.targets[objectIndex];
       const sky = maskPointToSkyDeg(p.mask, x, y);

@@ -16,6 +16,14 @@ export interface MaskCandidateSet {
   starts: Float64Array;
   ends: Float64Array;
   index: IntervalIndex;
+  /** Value of each candidate on this mask when it differs by mask (plans of several spectrographs); else the object's weight. */
+  values?: Float64Array;
+}
+
+/** Value of candidate k of mask m: the mask's own value when given, else the object's weight. */
+export function candidateValue(problem: JointProblem, m: number, k: number): number {
+  const set = problem.masks[m];
+  return set.values ? set.values[k] : problem.weights[set.objects[k]];
 }
 
 /** A joint problem: weights per object (positive), and each mask's candidates. */
@@ -42,7 +50,7 @@ export function maskCandidateSet(objects: ArrayLike<number>, starts: ArrayLike<n
 /** Total weight of a joint selection. */
 export function jointObjective(problem: JointProblem, chosen: readonly (readonly number[])[]): number {
   let t = 0;
-  chosen.forEach((sel, m) => { for (const k of sel) t += problem.weights[problem.masks[m].objects[k]]; });
+  chosen.forEach((sel, m) => { for (const k of sel) t += candidateValue(problem, m, k); });
   return t;
 }
 
@@ -64,7 +72,7 @@ export interface ResponseWork {
 /** Build the re-solve buffers of a problem (O(total candidates)); worth it when a problem is re-solved many times. */
 export function responseWork(problem: JointProblem, shared: Uint8Array = sharedObjects(problem)): ResponseWork {
   return {
-    buffers: problem.masks.map((set) => Float64Array.from(set.objects, (o) => problem.weights[o])),
+    buffers: problem.masks.map((set, m) => Float64Array.from(set.objects, (_o, k) => candidateValue(problem, m, k))),
     sharedPositions: problem.masks.map((set) => Int32Array.from(set.objects.keys()).filter((k) => shared[set.objects[k]] === 1)),
   };
 }
@@ -78,7 +86,7 @@ function availableWeights(problem: JointProblem, owner: Int32Array, m: number, w
     const w = work.buffers[m], positions = work.sharedPositions[m];
     for (let q = 0; q < positions.length; q++) {
       const o = set.objects[positions[q]];
-      w[positions[q]] = owner[o] === -1 || owner[o] === m ? problem.weights[o] : 0;
+      w[positions[q]] = owner[o] === -1 || owner[o] === m ? candidateValue(problem, m, positions[q]) : 0;
     }
     return w;
   }
@@ -86,7 +94,7 @@ function availableWeights(problem: JointProblem, owner: Int32Array, m: number, w
   if (brBuf.length < n) brBuf = new Float64Array(Math.max(n, brBuf.length * 2));
   for (let k = 0; k < n; k++) {
     const o = set.objects[k];
-    brBuf[k] = owner[o] === -1 || owner[o] === m ? problem.weights[o] : 0;
+    brBuf[k] = owner[o] === -1 || owner[o] === m ? candidateValue(problem, m, k) : 0;
   }
   return brBuf;
 }
@@ -122,7 +130,7 @@ export function improveByBestResponse(problem: JointProblem, chosen: number[][],
 
 function maskValue(problem: JointProblem, chosen: readonly (readonly number[])[], m: number): number {
   let v = 0;
-  for (const k of chosen[m]) v += problem.weights[problem.masks[m].objects[k]];
+  for (const k of chosen[m]) v += candidateValue(problem, m, k);
   return v;
 }
 
@@ -147,7 +155,7 @@ function holderLosses(problem: JointProblem, chosen: readonly (readonly number[]
     const w = new Float64Array(set.objects.length);
     for (let k = 0; k < w.length; k++) {
       const o = set.objects[k];
-      w[k] = owner[o] === -1 || owner[o] === b ? problem.weights[o] : 0;
+      w[k] = owner[o] === -1 || owner[o] === b ? candidateValue(problem, b, k) : 0;
     }
     const without = optimumWithoutEach(set.index, set.starts, set.ends, w, held);
     const v = maskValue(problem, chosen, b);
@@ -179,8 +187,8 @@ export function improveBySteals(problem: JointProblem, chosen: number[][], maxRo
       for (let k = 0; k < w.length; k++) {
         const o = setA.objects[k];
         const b = owner[o];
-        if (b === -1 || b === a) { w[k] = problem.weights[o]; continue; }
-        w[k] = problem.weights[o] - loss[o];
+        if (b === -1 || b === a) { w[k] = candidateValue(problem, a, k); continue; }
+        w[k] = candidateValue(problem, a, k) - loss[o];
         if (w[k] > 1e-12) anyPriced = true;
       }
       if (!anyPriced) continue;
@@ -253,7 +261,7 @@ export function allocateJoint(problem: JointProblem, opts: JointOptions = {}): J
   const { buffers, sharedPositions } = responseWork(problem, isShared);
   const work = responseWork(problem, isShared);
   // With whole-number weights the optimum is a whole number, so floor(upper bound) is a bound too.
-  const integral = problem.weights.every((w) => Number.isInteger(w));
+  const integral = problem.weights.every((w) => Number.isInteger(w)) && problem.masks.every((set) => !set.values || set.values.every((v) => Number.isInteger(v)));
   const bound = (u: number) => (integral ? Math.floor(u + 1e-9) : u);
   let upper = Infinity;
   let theta = 1;
@@ -267,7 +275,7 @@ export function allocateJoint(problem: JointProblem, opts: JointOptions = {}): J
     const picks: number[][] = [];
     for (let m = 0; m < M; m++) {
       const set = problem.masks[m], w = buffers[m], positions = sharedPositions[m];
-      for (let q = 0; q < positions.length; q++) { const o = set.objects[positions[q]]; w[positions[q]] = problem.weights[o] - lambda[o]; }
+      for (let q = 0; q < positions.length; q++) { const o = set.objects[positions[q]]; w[positions[q]] = candidateValue(problem, m, positions[q]) - lambda[o]; }
       const r = solveIntervalIndex(set.index, w);
       picks.push(r.chosen);
       L += r.total;

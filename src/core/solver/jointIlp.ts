@@ -4,7 +4,7 @@
  * sum over masks <= 1; per mask, for every maximal set of mutually overlapping y intervals (a clique of the
  * interval graph) the sum <= 1, which is exactly "no two chosen intervals overlap".
  */
-import type { JointProblem } from './jointAllocation';
+import { candidateValue, type JointProblem } from './jointAllocation';
 
 /** Maximal cliques of half-open intervals [start, end): the intervals covering each start point where one ends next. */
 export function intervalCliques(starts: ArrayLike<number>, ends: ArrayLike<number>): number[][] {
@@ -29,7 +29,7 @@ export function jointLpText(problem: JointProblem): string {
   const lines: string[] = ['Maximize', ' obj:'];
   const terms: string[] = [];
   problem.masks.forEach((set, m) => {
-    for (let k = 0; k < set.objects.length; k++) terms.push(`${problem.weights[set.objects[k]]} x${m}_${k}`);
+    for (let k = 0; k < set.objects.length; k++) terms.push(`${candidateValue(problem, m, k)} x${m}_${k}`);
   });
   pushTerms(lines, terms.length ? terms : ['0 dummy']);
   lines.push('Subject To');

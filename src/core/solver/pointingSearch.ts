@@ -30,11 +30,13 @@ import { allocateGreedyMaskByMask, improveByBestResponse, maskCandidateSet, reso
 import { wavelengthOk } from '../geometry/eligibility';
 import { footprintRaster, rasterFits } from './footprintRaster';
 import { maskBasis, maskCosC, maskPointToSkyDeg, unitToMaskArcsec } from './maskTargets';
-import { chooseSlots, freeSlots, galaxyOnMask, placeStarlightAndSky, starlightSettings, type RowSpan, type StarlightRules, type StarlightSettings, type StarlightTrade } from './starlight';
+import { chooseSlots, freeSlots, galaxyOnMask, starlightSettings, type RowSpan, type StarlightRules, type StarlightSettings, type StarlightTrade } from './starlight';
 import { addStarlight, addTracer, emptyTally, mergeTallies, objectiveContext, objectiveValue, type ObjectiveContext, type ObjectiveValue, type SearchRules, type Tally } from './objective';
 import { makeRng } from '../scenario/random';
 import type { MaskPointing, MaskSolution } from './types';
 import { PMath } from '../numeric/portableMath';
+import { contextFor, tracerRowValue } from './maskContext';
+import { envFor, footprintScaleArcsec, instrumentsProxyModel, placeStarlightForMasks } from './instrumentSearch';
 
 /** Where a start layout puts its k-th free mask (of nFree): offset (u major, v minor, arcsec) and the long side's direction (degrees from the major axis). */
 type FreePlacement = (k: number, nFree: number, halfLongArcsec: number) => { uArcsec: number; vArcsec: number; longDirDeg: number };
@@ -161,7 +163,7 @@ export function planObjective(env: SearchEnv, masks: readonly MaskSolution[]): O
   for (const ms of masks) for (const s of ms.slits) {
     if (s.role !== 'tracer' && s.role !== 'starlight') continue;
     const r = galaxyRadiusAndAzimuth(g, s.raDeg, s.decDeg);
-    if (s.role === 'tracer') addTracer(t, s.priority, r.rRe, r.phiDeg);
+    if (s.role === 'tracer') addTracer(t, tracerRowValue(contextFor(env.ctx, ms.mask), s.priority, s.mag), r.rRe, r.phiDeg);
     else addStarlight(t, r.rRe, r.phiDeg);
   }
   return objectiveValue(env.objective, t);
@@ -175,7 +177,7 @@ export function starlightTrade(o: ObjectiveContext): StarlightTrade {
 /** Full evaluation of pointings: joint allocation then starlight and sky slits, and the objective of the result. */
 export function evaluatePointings(env: SearchEnv, pointings: readonly MaskPointing[]): { value: ObjectiveValue; masks: MaskSolution[]; allocation: PointingsAllocation; warnings: string[] } {
   const allocation = allocateForPointings(env.ctx, pointings);
-  const sl = placeStarlightAndSky(allocation.masks, env.ctx.galaxy, env.ctx.profile, env.plan, starlightTrade(env.objective));
+  const sl = placeStarlightForMasks(env.ctx, env.plan, allocation.masks, starlightTrade(env.objective));
   return { value: planObjective(env, sl.masks), masks: sl.masks, allocation, warnings: sl.warnings };
 }
 
@@ -232,6 +234,8 @@ export interface ProxyMask {
   y: Float64Array;
   /** Largest number of alignment boxes the mask can hold (alignmentCapacity: the allocation's rule); 0 for a liberal set. */
   alignmentMax: number;
+  /** Boxes the mask's profile needs (alignment.minCount), when it is not the plan's first profile's. */
+  alignmentNeeded?: number;
 }
 
 /**
@@ -390,12 +394,11 @@ export function searchPointings(env: SearchEnv, start: readonly MaskPointing[], 
   const budget = searchBudget(rules, free.length);
   const g = ctx.galaxy, profile = ctx.profile;
   const gc = tangentCentre(g.raDeg, g.decDeg);
-  const b = polygonBounds(profile.footprint);
-  const halfDiag = PMath.hypot(Math.max(-b.minX, b.maxX), Math.max(-b.minY, b.maxY));
-  const halfLong = Math.max(b.maxY - b.minY, b.maxX - b.minX) / 2;
-  const proxyMask = proxyModel(env);
+  // Step scale from the largest footprint of the plan's profiles (the only one in a single-profile plan).
+  const { halfDiag, halfLong } = footprintScaleArcsec(ctx);
+  const proxyMask = instrumentsProxyModel(env, proxyModel);
   const minAlign = profile.alignment.minCount;
-  const shortOf = (p: ProxyMask) => Math.max(0, minAlign - p.alignmentMax);
+  const shortOf = (p: ProxyMask) => Math.max(0, (p.alignmentNeeded ?? minAlign) - p.alignmentMax);
   const problemOf = (ps: readonly ProxyMask[]): JointProblem => ({ weights: ctx.weights, masks: ps.map((p) => p.set) });
   // Keep the mask over the galaxy's field: its centre within tracerReachRe (semi-major) + half the footprint's diagonal.
   const maxCentreArcsec = (env.objective.tracerReachRe * g.reArcsec) / Math.sqrt(g.axisRatio) + halfDiag;
@@ -403,7 +406,7 @@ export function searchPointings(env: SearchEnv, start: readonly MaskPointing[], 
 
   const toPointing = (m: number, pp: PlanePointing): MaskPointing => {
     const sky = tangentToSkyDeg(gc, pp.xi, pp.eta);
-    return { id: start[m].id, raDeg: sky.raDeg, decDeg: sky.decDeg, paDeg: wrap360Deg(pp.paDeg), locked: start[m].locked };
+    return { id: start[m].id, raDeg: sky.raDeg, decDeg: sky.decDeg, paDeg: wrap360Deg(pp.paDeg), locked: start[m].locked, ...(start[m].instrument !== undefined ? { instrument: start[m].instrument } : {}) };
   };
   const init = (ps: readonly MaskPointing[]): SearchState => {
     const plane = ps.map((p) => {
@@ -591,12 +594,13 @@ export function objectiveUpperBound(env: SearchEnv, supersets: readonly MaskCand
 }
 
 /** Tally of one proxy mask with a selection: its tracers, and its starlight slits estimated on the free space. */
-function proxyTally(env: SearchEnv, pointing: MaskPointing, p: ProxyMask, chosenK: readonly number[]): Tally {
+function proxyTally(planEnv: SearchEnv, pointing: MaskPointing, p: ProxyMask, chosenK: readonly number[]): Tally {
+  const env = envFor(planEnv, pointing);
   const t = emptyTally(env.objective);
   const { ctx } = env;
   for (const k of chosenK) {
     const o = p.set.objects[k];
-    addTracer(t, ctx.weights[o], env.radiusRe[o], env.azimuthDeg[o]);
+    addTracer(t, p.set.values ? p.set.values[k] : ctx.weights[o], env.radiusRe[o], env.azimuthDeg[o]);
   }
   if (env.starlight.reachRe <= 0) return t;
   const g = ctx.galaxy;

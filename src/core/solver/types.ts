@@ -14,6 +14,8 @@ export interface MaskPointing {
   decDeg: number;
   paDeg: number;
   locked: boolean;
+  /** Profile id of the mask's spectrograph in a plan with several (plan key `instruments`); absent with one. */
+  instrument?: string;
 }
 
 /** One slit or alignment box, exactly the columns of slits.csv; its mask-frame shape is a SlitShape. */

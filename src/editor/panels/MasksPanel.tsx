@@ -7,6 +7,7 @@
 import { useState, useSyncExternalStore } from 'react';
 import type { EditorController } from '../controller';
 import { moveMaskCommand, rotateMaskCommand, setMaskLockedCommand } from '../store/commands';
+import { instrumentRef, setMaskInstrumentCommand } from '../store/instrumentCommands';
 import { formatDecDms, formatRaHms, parseDecDeg, parseRaDeg } from '../../core/sky/sexagesimal';
 import { wrap360Deg } from '../../core/sky/angles';
 import type { MaskSolution } from '../../core/solver/types';
@@ -115,11 +116,12 @@ export function MasksPanel({ c, solved, exposures, galaxyPaDeg }: { c: EditorCon
   const masks = c.store!.doc.plan.masks ?? [];
   const active = c.session.activeMaskId;
   const byId = new Map(solved.map((m) => [m.mask.id, m]));
+  const instruments = c.store!.doc.plan.instruments;
   return (
     <Panel title="Masks" testId="panel-masks">
       <table className="mini">
         <thead>
-          <tr><th>mask</th><th>PA °</th>{ROLES.map((r) => <th key={r} title={ROLE_STYLE[r].label}><RoleMark role={r} /></th>)}<th>lock</th></tr>
+          <tr><th>mask</th>{instruments && <th>instrument</th>}<th>PA °</th>{ROLES.map((r) => <th key={r} title={ROLE_STYLE[r].label}><RoleMark role={r} /></th>)}<th>lock</th></tr>
         </thead>
         <tbody>
           {masks.map((m) => {
@@ -130,6 +132,14 @@ export function MasksPanel({ c, solved, exposures, galaxyPaDeg }: { c: EditorCon
                 onClick={() => c.store!.updateSession((s) => ({ ...s, activeMaskId: m.id }))}
                 title={m.raDeg !== undefined ? `${formatRaHms(m.raDeg, 1)} ${formatDecDms(m.decDeg ?? 0, 0)}` : 'not placed yet'}>
                 <td>{m.id}</td>
+                {instruments && (
+                  <td onClick={(e) => e.stopPropagation()}>
+                    <select data-testid={`mask-${m.id}-instrument`} value={instrumentRef(instruments, m.instrument)} title="the mask's spectrograph (the instruments' mask counts follow)"
+                      onChange={(e) => c.run((d) => setMaskInstrumentCommand(d, m.id, e.target.value))}>
+                      {instruments.map((x) => <option key={x.profile} value={x.profile}>{x.profile}</option>)}
+                    </select>
+                  </td>
+                )}
                 <td className="num" data-testid={`mask-${m.id}-pa`}><LivePa c={c} mask={m} /></td>
                 {ROLES.map((r) => <td key={r} className="num" data-testid={`mask-${m.id}-${r}`}>{counts ? counts[r] : '–'}</td>)}
                 <td>
@@ -186,3 +196,4 @@ export function RoleMark({ role, size = 14 }: { role: keyof typeof ROLE_STYLE; s
     </svg>
   );
 }
+

@@ -4,6 +4,7 @@
  * recommended hour-angle window from the solution's refraction report (src/core/observe/refractionReport.ts).
  */
 import { memo, useEffect, useRef, useState } from 'react';
+import { editorPlanSites } from '../io/planProfiles';
 import type { EditorController } from '../controller';
 import type { NightRow } from '../../core/observe/night';
 import type { GalaxyModel } from '../../core/plan/schema';
@@ -80,7 +81,10 @@ function HourAngleWindows({ c }: { c: EditorController }) {
 }
 
 export function ObservabilityPanel({ c, galaxy }: { c: EditorController; galaxy: GalaxyModel }) {
-  const site = c.store!.doc.profile.site;
+  // A plan with several spectrographs: the nights of the chosen instrument's site.
+  const sites = editorPlanSites(c.store!.doc.plan, c.store!.doc.profile);
+  const [siteIndex, setSiteIndex] = useState(0);
+  const site = (sites[siteIndex] ?? sites[0]).site;
   const [sem, setSem] = useState(() => semesterOf(new Date()));
   const [maxAirmass, setMaxAirmass] = useState(2);
   const [rows, setRows] = useState<NightRow[] | null>(null);
@@ -117,6 +121,11 @@ export function ObservabilityPanel({ c, galaxy }: { c: EditorController; galaxy:
         <span data-testid="semester">{sem.label}</span>
         <button onClick={() => shift(6)} aria-label="next semester">›</button>
         <NumberField label="airmass <" value={maxAirmass} min={1.01} max={5} onCommit={setMaxAirmass} />
+        {sites.length > 1 && (
+          <select data-testid="nights-site" value={Math.min(siteIndex, sites.length - 1)} onChange={(e) => setSiteIndex(Number(e.target.value))} title="the site whose nights are shown">
+            {sites.map((x, k) => <option key={x.instrument} value={k}>{`${x.instrument} (lat ${x.site.latDeg.toFixed(1)}°)`}</option>)}
+          </select>
+        )}
       </div>
       {rows && <NightsChart rows={rows} />}
       <div className="small dim" data-testid="nights-info">

@@ -4,6 +4,7 @@ import { reachByRole, slitCountsByRole } from '../derive';
 import { ROLE_STYLE, ROLES } from '../view/palette';
 import { RoleMark } from './MasksPanel';
 import { Panel } from './Panel';
+import { InstrumentYieldTable } from './InstrumentYieldTable';
 
 export function YieldPanel({ c }: { c: EditorController }) {
   const sol = c.session.solution;
@@ -31,6 +32,7 @@ export function YieldPanel({ c }: { c: EditorController }) {
           })}
         </tbody>
       </table>
+      <InstrumentYieldTable c={c} />
       <div className="small dim" data-testid="solve-info" data-compute-ms={sol ? sol.computeMs.toFixed(2) : ''}>
         {sol ? `solved in ${sol.computeMs.toFixed(1)} ms (worker)` : c.session.catalog ? 'solving…' : 'no catalog loaded'}
         {c.session.solving ? ' · updating' : ''}

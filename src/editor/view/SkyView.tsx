@@ -14,6 +14,7 @@ import { memo, useCallback, useEffect, useMemo, useRef, useState, type KeyboardE
 import { Stage, Layer, Shape, Group, Line, Ellipse, Text, Circle, Rect } from 'react-konva';
 import type Konva from 'konva';
 import type { GalaxyModel } from '../../core/plan/schema';
+import { maskFootprint } from './maskFootprints';
 import type { InstrumentProfile } from '../../core/profile/schema';
 import type { Slit } from '../../core/solver/types';
 import { skyToTangentArcsec, tangentCentre, tangentToSkyDeg } from '../../core/sky/tangentPlane';
@@ -34,6 +35,8 @@ export interface MaskPose {
   decDeg: number;
   paDeg: number;
   locked: boolean;
+  /** Profile id of the mask's own spectrograph in a plan with several (its footprint is drawn). */
+  instrument?: string;
 }
 
 export interface SkyViewProps {
@@ -231,6 +234,13 @@ export function SkyView(props: SkyViewProps) {
   };
   const footprintYMax = useMemo(() => Math.max(...profile.footprint.map((c) => c[1])), [profile.footprint]);
   const footprintPoints = useMemo(() => profile.footprint.flatMap((c) => [c[0], c[1]]), [profile.footprint]);
+  // A mask of another spectrograph (plan key instruments) is drawn with its own profile's footprint.
+  const ownFootprint = (maskId: string) => {
+    const instrument = props.masks.find((m) => m.id === maskId)?.instrument;
+    if (instrument === undefined || instrument === profile.id) return { footprintPoints, footprintYMax };
+    const f = maskFootprint(profile, instrument);
+    return { footprintPoints: f.points, footprintYMax: f.yMaxArcsec };
+  };
 
   // ---- pointer gestures ----
   const stagePointer = (e: Konva.KonvaEventObject<MouseEvent>) => e.target.getStage()!.getPointerPosition() ?? { x: 0, y: 0 };
@@ -373,7 +383,7 @@ export function SkyView(props: SkyViewProps) {
   const onScreen = drawOrder.map((m) => {
     const c = maskXiEta(m);
     const sp = skyToScreen(cam, c.xiArcsec, c.etaArcsec);
-    return { m, sp, handlePx: handleDistancePx(sp, m.paDeg, footprintYMax * cam.pxPerArcsec + HANDLE_GAP_PX + HANDLE_PX, size.w, size.h) };
+    return { m, sp, handlePx: handleDistancePx(sp, m.paDeg, ownFootprint(m.id).footprintYMax * cam.pxPerArcsec + HANDLE_GAP_PX + HANDLE_PX, size.w, size.h) };
   });
   const labels = placeLabels(onScreen.map(({ m, sp }) => ({ id: m.id, text: `${m.id}${m.locked ? ' (locked)' : ''}`, x: sp.x + 6, y: sp.y + 4 })));
 
@@ -425,7 +435,7 @@ export function SkyView(props: SkyViewProps) {
         <Layer listening={!preview}>
           {onScreen.map(({ m, sp, handlePx }) => (
             <MaskShape key={m.id} id={m.id} xPx={sp.x} yPx={sp.y} paDeg={m.paDeg} locked={m.locked} pxPerArcsec={cam.pxPerArcsec}
-              active={m.id === props.activeMaskId} slits={props.slitsByMask.get(m.id) ?? NO_SLITS} footprintPoints={footprintPoints} footprintYMax={footprintYMax}
+              active={m.id === props.activeMaskId} slits={props.slitsByMask.get(m.id) ?? NO_SLITS} {...ownFootprint(m.id)}
               handlePx={handlePx} />
           ))}
           {labels.map((l) => (

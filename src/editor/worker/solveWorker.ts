@@ -11,6 +11,7 @@ import type { FromWorker, SolveMode, SolveResult, ToWorker } from './protocol';
 import { InputError } from '../../core/result';
 import { liveSolve, resetLiveSolve } from './liveSolve';
 import { elideKeptMasks } from './keptMasks';
+import { editorPlanProfiles } from '../io/planProfiles';
 import type { MaskSolution } from '../../core/solver/types';
 
 let inputs: { version: number; profile: InstrumentProfile; catalog: CatalogReadResult } | null = null;
@@ -46,13 +47,15 @@ function postResult(requestId: number, mode: SolveMode, result: SolveResult, com
 function solve(plan: PlanFile, mode: SolveMode, requestId: number): void {
   if (!inputs) throw new Error('the worker has no catalog and profile yet');
   const t0 = performance.now();
-  if (mode === 'preview') {
+  // A plan with several spectrographs is solved in full, each mask with its own profile (liveSolve knows one).
+  const profiles = editorPlanProfiles(plan, inputs.profile);
+  if (mode === 'preview' && !profiles) {
     const result = liveSolve(lockedPlan(plan), inputs.profile, inputs.catalog, inputs);
     postResult(requestId, mode, result, performance.now() - t0);
     return;
   }
   const sol = solvePlan(
-    { plan: mode === 'allocate' ? lockedPlan(plan) : plan, profile: inputs.profile, catalog: inputs.catalog },
+    { plan: mode !== 'plan' ? lockedPlan(plan) : plan, profile: inputs.profile, catalog: inputs.catalog, profiles },
     { onProgress: (fraction, message) => post({ type: 'progress', requestId, fraction, message }) },
   ) as unknown as Record<string, unknown>;
   const computeMs = performance.now() - t0;

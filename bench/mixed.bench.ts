@@ -1,0 +1,44 @@
+/**
+ * Mixed-instrument benchmark: a 2 + 2 plan (two masks on the 10-m narrow field, two on the 6.5-m wide field) of
+ * 20 000 candidates, the full plan (weights, pointing search, joint allocation with per-telescope values, starlight
+ * and sky slits, lengthening, coverage; the observing report skipped as in plan.bench.ts) against a goal of 2 s,
+ * and the same plan with one instrument (four narrow-field masks) as a same-run reference of the mixed overhead.
+ */
+import { readFileSync } from 'node:fs';
+import { medianMs, printTable, type BenchRow } from './harness';
+import { parsePlan } from '../src/core/plan/validate';
+import { parseProfile } from '../src/core/profile/load';
+import { solvePlan, type PlanInputs } from '../src/core/plan/pipeline';
+import { scenarioCatalog } from '../src/core/scenario/generator';
+import { mixedScenario } from '../src/core/scenario/mixedScenario';
+
+const load = (id: string) => parseProfile(JSON.parse(readFileSync(new URL(`../instrument-profiles/${id}.json`, import.meta.url), 'utf8')), id);
+
+export default async function run(): Promise<void> {
+  const narrow = load('ridge10-narrow'), wide = load('broad65-wide');
+  const options = { seed: 20000, candidates: 20000, galaxy: { reArcsec: 75 }, fieldHalfSizeRe: 16, alignmentStars: 800 };
+  const mixed = mixedScenario(options, [{ profile: narrow, masks: 2 }, { profile: wide, masks: 2 }]);
+  const single = mixedScenario(options, [{ profile: narrow, masks: 4 }]);
+  const inputs = (s: typeof mixed, profiles: Record<string, typeof narrow>): PlanInputs => ({ plan: parsePlan(s.plan), profile: narrow, catalog: scenarioCatalog(s), profiles });
+  const a = inputs(mixed, { [narrow.id]: narrow, [wide.id]: wide }), b = inputs(single, { [narrow.id]: narrow });
+  const rows: BenchRow[] = [];
+  const msMixed = await medianMs(() => solvePlan(a, { skipObservingReport: true }), 3);
+  const msSingle = await medianMs(() => solvePlan(b, { skipObservingReport: true }), 3);
+  const c0 = process.cpuUsage();
+  const sol = solvePlan(a, { skipObservingReport: true });
+  const c1 = process.cpuUsage(c0);
+  const c2 = process.cpuUsage();
+  solvePlan(b, { skipObservingReport: true });
+  const c3 = process.cpuUsage(c2);
+  const perInstrument = new Map<string, number>();
+  for (const m of sol.masks) perInstrument.set(m.mask.instrument ?? '', (perInstrument.get(m.mask.instrument ?? '') ?? 0) + m.slits.filter((s) => s.role === 'tracer').length);
+  rows.push({ name: '2 + 2 mixed plan, 20 000 candidates: full plan', value: msMixed, unit: 'ms', goal: 2000, lowerIsBetter: true });
+  rows.push({ name: '2 + 2 mixed plan: full plan, CPU time (one run)', value: (c1.user + c1.system) / 1000, unit: 'cpu ms', goal: 2000, lowerIsBetter: true });
+  rows.push({ name: 'same catalog, 4 masks of one instrument: full plan', value: msSingle, unit: 'ms' });
+  rows.push({ name: 'same catalog, 4 masks of one instrument: CPU time (one run)', value: (c3.user + c3.system) / 1000, unit: 'cpu ms' });
+  rows.push({ name: 'mixed / single-instrument time (wall; CPU)', value: msMixed / msSingle, unit: 'x', note: `CPU ${((c1.user + c1.system) / (c3.user + c3.system)).toFixed(2)} x` });
+  rows.push({ name: '2 + 2 mixed plan: tracer slits', value: sol.coverage.roles.tracer.count, unit: 'slits', note: [...perInstrument].map(([k, v]) => `${k} ${v}`).join(', ') });
+  rows.push({ name: '2 + 2 mixed plan: joint allocation gap to its Lagrangian bound', value: 100 * (1 - sol.stats.tracerWeight / sol.stats.tracerWeightUpperBound), unit: '%', goal: 0.5, lowerIsBetter: true });
+  rows.push({ name: '2 + 2 mixed plan: search evaluations', value: sol.search.evaluations, unit: 'evals', note: `${sol.search.acceptedMoves} moves kept` });
+  await printTable('Mixed plan: two spectrographs (ridge10-narrow x 2 + broad65-wide x 2), 20 000 candidates', rows);
+}
