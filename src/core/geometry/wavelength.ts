@@ -84,7 +84,6 @@ export function windowsUsableAtX(detector: DetectorModel, xArcsec: number, windo
 /** Usable detector pixel ranges (closed, ascending): [m, pixels - m] minus the open bands (p0 - m, p1 + m) about each gap. */
 export function usablePixelRanges(detector: DetectorModel): [number, number][] {
   const m = detector.edgeMarginPixels;
-  // Usable pixel ranges: [m, pixels - m] minus the open bands (p0 - m, p1 + m) around each gap.
   let pix: [number, number][] = [[m, detector.pixels - m]];
   for (const [p0, p1] of detector.gapsPixels) {
     const next: [number, number][] = [];
