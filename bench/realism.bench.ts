@@ -25,6 +25,13 @@ export default async function run(): Promise<void> {
     rows.push({ name: `${name}: full plan, +-500 km/s and +-10 A windows`, value: await medianMs(() => solvePlan(inputs, { skipObservingReport: true }), 3), unit: 'ms', goal: goalMs, lowerIsBetter: true });
     const bare = { ...inputs, plan: parsePlan({ ...s.plan, goals: { ...(s.plan.goals as object), velocityHalfRangeKms: 0, lineHalfWindowA: 0 } }) };
     rows.push({ name: `${name}: full plan, bare rule at v_sys (reference)`, value: await medianMs(() => solvePlan(bare, { skipObservingReport: true }), 3), unit: 'ms' });
+    // CPU time of this process (user + system), steadier than wall time on a shared machine.
+    for (const [label, inp] of [['windows', inputs], ['bare rule', bare]] as const) {
+      const c0 = process.cpuUsage();
+      for (let i = 0; i < 3; i++) solvePlan(inp, { skipObservingReport: true });
+      const c1 = process.cpuUsage(c0);
+      rows.push({ name: `${name}: full plan, ${label}, CPU time (mean of 3)`, value: (c1.user + c1.system) / 1000 / 3, unit: 'cpu ms', goal: label === 'windows' ? goalMs : undefined, lowerIsBetter: true });
+    }
   }
   const demo = demoScenario();
   const inputs = { plan: parsePlan(demo.plan), profile, catalog: scenarioCatalog(demo) };
