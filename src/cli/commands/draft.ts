@@ -102,7 +102,8 @@ export async function run(argv: string[], io: CliIO): Promise<number> {
   if (unused.length) io.out(`  carried through: ${unused.join(', ')}`);
   for (const n of guess.notes) io.out(`  note: ${n}`);
   const f = draft.facts;
-  io.out(`tracer candidates: ${f.tracers}, R/Re median ${f.tracerRadiusRe[0].toFixed(1)}, 90 % within ${f.tracerRadiusRe[1].toFixed(1)}, farthest ${f.tracerRadiusRe[2].toFixed(1)}; magnitudes ${f.tracerMag[0].toFixed(2)} to ${f.tracerMag[2].toFixed(2)} (median ${f.tracerMag[1].toFixed(2)})`);
+  if (f.tracers === 0) io.out('tracer candidates: none (every usable row is an alignment star): the plan can place boxes but no tracer slits');
+  else io.out(`tracer candidates: ${f.tracers}, R/Re median ${f.tracerRadiusRe[0].toFixed(1)}, 90 % within ${f.tracerRadiusRe[1].toFixed(1)}, farthest ${f.tracerRadiusRe[2].toFixed(1)}; magnitudes ${f.tracerMag[0].toFixed(2)} to ${f.tracerMag[2].toFixed(2)} (median ${f.tracerMag[1].toFixed(2)})`);
   io.out(`alignment stars: ${f.alignmentRows} in the catalog, ${f.alignmentInRangeNear} of mag ${profile.alignment.magRange[0]}-${profile.alignment.magRange[1]} within ${(f.nearRadiusArcsec / 60).toFixed(1)} arcmin of the galaxy: about ${f.alignmentPerMaskExpected.toFixed(1)} a field (a mask needs ${profile.alignment.minCount})`);
   io.out(`profile ${profile.id}: science slits possible on ${(100 * insp.usableXFraction).toFixed(0)} % of the field's x range at ${lines.vsysKms} +- ${lines.velocityHalfRangeKms} km/s`);
   io.out('choices:');

@@ -233,7 +233,7 @@ export function guessColumns(table: RawTable, galaxy: { raDeg: number; decDeg: n
   const roleByValue = roleNamed && marksStars(roleNamed) ? undefined : profiles.find((p) => p !== roleNamed && !taken.has(p.name) && marksStars(p));
   if (roleByValue) {
     take('role', roleByValue, 'values');
-    notes.push(`${roleByValue.name}: holds "alignment" and "tracer", taken as the role column`);
+    notes.push(`${roleByValue.name}: marks alignment stars ("alignment", the rest "tracer"), taken as the role column`);
   } else if (roleNamed && onlyRoles(roleNamed)) take('role', roleNamed, 'name');
   else if (roleNamed) {
     problems.push(`${roleNamed.name}: the reader takes this column as the role (tracer or alignment), but it holds other values (${roleNamed.texts.slice(0, 5).join(', ')}): rename it, or mark alignment stars in a column named role`);
