@@ -39,7 +39,7 @@ function checkWithAstronomyEngine(sched: SurveySchedule, reqs: MaskRequest[], s:
   for (const b of sched.blocks) {
     const r = byKey.get(`${b.galaxyId}/${b.maskId}`)!;
     const obs = new Astronomy.Observer(r.telescope.site.latDeg, r.telescope.site.lonDeg, r.telescope.site.elevationM);
-    for (const iso of [b.startUtc, new Date((Date.parse(b.startUtc) + Date.parse(b.endUtc)) / 2).toISOString(), b.endUtc]) {
+    for (const [j, iso] of [b.startUtc, new Date((Date.parse(b.startUtc) + Date.parse(b.endUtc)) / 2).toISOString(), b.endUtc].entries()) {
       const time = Astronomy.MakeTime(new Date(iso));
       // Dark: the Sun's centre more than 18 deg below the horizon (astronomical twilight, common practice), no refraction.
       const sun = Astronomy.Equator(Astronomy.Body.Sun, time, obs, true, true);
@@ -54,6 +54,9 @@ function checkWithAstronomyEngine(sched: SurveySchedule, reqs: MaskRequest[], s:
       const ha = ((((Astronomy.SiderealTime(time) + r.telescope.site.lonDeg / 15 - eq.ra) % 24) + 36) % 24) - 12;
       expect(ha).toBeGreaterThanOrEqual(r.hourAngleWindowH![0] - 0.01);
       expect(ha).toBeLessThanOrEqual(r.hourAngleWindowH![1] + 0.01);
+      // The hour angles written in schedule.csv (start and end) agree with astronomy-engine's to 0.01 h (36 s of time;
+      // the written times are rounded to the second).
+      if (j !== 1) expect(Math.abs(b.hourAngleH[j === 0 ? 0 : 1] - ha)).toBeLessThan(0.01);
       // Moon rules while the Moon is up.
       const moon = Astronomy.Equator(Astronomy.Body.Moon, time, obs, true, true);
       if (Astronomy.Horizon(time, obs, moon.ra, moon.dec).altitude > 0.5) {

@@ -10,7 +10,7 @@ import type { SurveySettings } from './schema';
 export const SURVEY_REPORT_FORMAT = 'haloweave.survey-report/1';
 
 /** The columns of schedule.csv: the contract's five, then the additions. */
-export const SCHEDULE_COLUMNS = ['night', 'galaxy_id', 'mask_id', 'start_utc', 'end_utc', 'hours', 'telescope', 'airmass_start', 'airmass_middle', 'airmass_end', 'moon_illumination', 'priority'] as const;
+export const SCHEDULE_COLUMNS = ['night', 'galaxy_id', 'mask_id', 'start_utc', 'end_utc', 'hours', 'telescope', 'airmass_start', 'airmass_middle', 'airmass_end', 'hour_angle_start_h', 'hour_angle_end_h', 'moon_illumination', 'priority'] as const;
 
 const r4 = (v: number) => Math.round(v * 1e4) / 1e4;
 
@@ -20,7 +20,7 @@ export function scheduleCsv(schedule: SurveySchedule): string {
   const priority = new Map(schedule.masks.map((m) => [`${m.galaxyId}\u0000${m.maskId}`, m.priority]));
   return toCsv([...SCHEDULE_COLUMNS], schedule.blocks.map((b) => [
     b.night, b.galaxyId, b.maskId, b.startUtc, b.endUtc, b.hours.toFixed(4), label.get(b.telescopeKey) ?? b.telescopeKey,
-    b.airmass[0].toFixed(4), b.airmass[1].toFixed(4), b.airmass[2].toFixed(4), b.moonIllumination.toFixed(3),
+    b.airmass[0].toFixed(4), b.airmass[1].toFixed(4), b.airmass[2].toFixed(4), b.hourAngleH[0].toFixed(4), b.hourAngleH[1].toFixed(4), b.moonIllumination.toFixed(3),
     priority.get(`${b.galaxyId}\u0000${b.maskId}`) ?? 1,
   ]));
 }
@@ -83,7 +83,7 @@ export function surveyReport(surveyFile: string, settings: SurveySettings, galax
       masks: masks.map((m) => ({
         maskId: m.maskId,
         hoursNeeded: r4(m.hoursNeeded),
-        scheduled: m.block ? { night: m.block.night, startUtc: m.block.startUtc, endUtc: m.block.endUtc, airmass: m.block.airmass.map(r4) } : null,
+        scheduled: m.block ? { night: m.block.night, startUtc: m.block.startUtc, endUtc: m.block.endUtc, airmass: m.block.airmass.map(r4), hourAngleH: m.block.hourAngleH.map(r4) } : null,
         possibleNights: m.possibleNights,
         reason: m.reason,
       })),

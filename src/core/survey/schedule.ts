@@ -10,6 +10,7 @@ import { hardieAirmass } from '../observe/airmass';
 import { altitudeDeg } from '../observe/horizon';
 import { greenwichApparentSiderealDeg, isoUtcFromJd } from '../observe/time';
 import { meanPlaceOfDateDeg } from '../observe/precession';
+import { wrap12Hours } from '../sky/angles';
 import { siteNights, type SiteNights } from './darkNights';
 import { galaxyNightFlags, maskOptions, type GalaxyNightFlags, type StretchSummary, type VisibilityRules } from './visibility';
 import { scheduleConflict, scheduleWeight, slotsFor, type CandidateBlock, type MaskRequest, type SurveyTelescope } from './blocks';
@@ -31,6 +32,8 @@ export interface ScheduledBlock {
   hours: number;
   /** Hardie airmass of the galaxy centre at the block's start, middle and end. */
   airmass: [number, number, number];
+  /** Hour angle of the galaxy centre at the block's start and end, hours (West positive). */
+  hourAngleH: [number, number];
   moonIllumination: number;
 }
 
@@ -95,11 +98,12 @@ function reasonFor(r: MaskRequest, s: StretchSummary, possibleNights: number, se
   return `possible on ${possibleNights} night${possibleNights === 1 ? '' : 's'}, but that time went to other masks (the schedule maximises the total priority of scheduled masks)`;
 }
 
-/** Hardie airmass of a fixed ICRS target at a JD (UT) from a site (Infinity below the horizon). */
-export function airmassAt(raDeg: number, decDeg: number, jdUt: number, site: { latDeg: number; lonDeg: number }): number {
+/** Hardie airmass (Infinity below the horizon) and hour angle (hours in [-12, 12), West positive) of a fixed ICRS target at a JD (UT). */
+export function airmassAndHourAngleAt(raDeg: number, decDeg: number, jdUt: number, site: { latDeg: number; lonDeg: number }): { airmass: number; hourAngleH: number } {
   const place = meanPlaceOfDateDeg(raDeg, decDeg, jdUt);
-  const alt = altitudeDeg(greenwichApparentSiderealDeg(jdUt) + site.lonDeg - place.raDeg, place.decDeg, site.latDeg);
-  return hardieAirmass(90 - alt) ?? Infinity;
+  const haDeg = greenwichApparentSiderealDeg(jdUt) + site.lonDeg - place.raDeg;
+  const alt = altitudeDeg(haDeg, place.decDeg, site.latDeg);
+  return { airmass: hardieAirmass(90 - alt) ?? Infinity, hourAngleH: wrap12Hours(haDeg / 15) };
 }
 
 /** Schedule every mask; highs null runs the heuristic alone. onProgress gets fractions in [0, 1] with a message. */
@@ -172,11 +176,11 @@ export function scheduleSurvey(requests: readonly MaskRequest[], settings: Sched
     const w = nightsOf[c.telescope].nights[c.night].window!;
     const startJd = w.boundariesJd[c.startSlot];
     const endJd = startJd + r.hoursNeeded / 24;
-    const am = (jd: number) => airmassAt(r.raDeg, r.decDeg, jd, r.telescope.site);
+    const [a, m, e] = [startJd, (startJd + endJd) / 2, endJd].map((jd) => airmassAndHourAngleAt(r.raDeg, r.decDeg, jd, r.telescope.site));
     blockOf.set(c.mask, {
       galaxyId: r.galaxyId, maskId: r.maskId, telescopeKey: r.telescope.key, night: w.night,
       startJd, endJd, startUtc: isoUtcFromJd(startJd), endUtc: isoUtcFromJd(endJd), hours: r.hoursNeeded,
-      airmass: [am(startJd), am((startJd + endJd) / 2), am(endJd)], moonIllumination: w.moonIllumination,
+      airmass: [a.airmass, m.airmass, e.airmass], hourAngleH: [a.hourAngleH, e.hourAngleH], moonIllumination: w.moonIllumination,
     });
   }
   const masks: MaskOutcome[] = requests.map((r, m) => {
