@@ -32,7 +32,7 @@ describe('Science forecast panel', () => {
       await page.waitForTimeout(30);
     }
     await page.waitForFunction(() => document.querySelector('[data-testid="forecast-info"]')?.getAttribute('data-live') === 'yes', undefined, { timeout: 60_000 });
-    expect(await info.getAttribute('data-trials')).toBe('30');
+    expect(await info.getAttribute('data-trials')).toBe('20');
     expect(await info.textContent()).toMatch(/while dragging/);
     await page.mouse.up();
     await waitSolved(page);

@@ -3,7 +3,7 @@
  * Gaussian absorption line (an independent route), and the calcium-triplet figures of references.md (derived).
  */
 import { describe, expect, it } from 'vitest';
-import { C_KMS, dispersionErrorKms, instrumentalSigmaA, lineCentroidErrorA, photonVelocityErrorKms, velocityErrorKms } from '../../src/core/forecast/velocityError';
+import { C_KMS, dispersionErrorKms, instrumentalSigmaA, lineCentroidErrorA, photonVelocityErrorKms, velocityErrorKms, velocityErrorModel } from '../../src/core/forecast/velocityError';
 import { CALCIUM_TRIPLET_EW_A } from '../../src/core/forecast/settings';
 
 /**
@@ -68,5 +68,14 @@ describe('photon-noise velocity error', () => {
   it('dispersion error of a Gaussian line is 1/sqrt(2) of the centroid error when the line is the dispersion', () => {
     // Fisher information of a normal sample: Var(mean) = s^2/N, Var(s) = s^2/(2N) (Kendall & Stuart).
     expect(dispersionErrorKms(10, 200, 200)).toBeCloseTo(10 / Math.SQRT2, 12);
+  });
+});
+
+describe('velocity error as a function of S/N', () => {
+  it('equals velocityErrorKms at every S/N (the photon floor scales as 1/(S/N))', () => {
+    const s = { minSnPerA: 5, noiseFactor: 2.5, floorKms: 5, intrinsicLineSigmaA: 1, equivalentWidthsA: CALCIUM_TRIPLET_EW_A };
+    const lines = [8498.0, 8542.1, 8662.1];
+    const at = velocityErrorModel(1.7, lines, 1500, s);
+    for (const sn of [4, 5, 7.3, 20, 150]) expect(at(sn)).toBeCloseTo(velocityErrorKms(sn, 1.7, lines, 1500, s), 10);
   });
 });

@@ -14,7 +14,7 @@ import { starlightSettings, type StarlightRules } from '../solver/starlight';
 import { resolveForecastSettings, type ForecastSettings } from './settings';
 import { slitSamples } from './samples';
 import { clusterProbability } from './contamination';
-import { instrumentalSigmaA, lineSigmaA, velocityErrorKms } from './velocityError';
+import { instrumentalSigmaA, lineSigmaA, velocityErrorModel } from './velocityError';
 import { modelSigmaKms } from './kinematicModel';
 import { angleScatterDeg, binIndex, meanAndStd, runTracerMocks, type MockTracer } from './mocks';
 import { kpcPerArcsec } from './tracerMass';
@@ -190,8 +190,9 @@ export function forecastPlan(input: ForecastInput): Forecast {
   const tracerLineA = lineSigmaA(instrumentalA, s.velocityErrors.intrinsicLineSigmaA, 0, meanLineA);
   const notes: string[] = [];
 
+  const errorAt = velocityErrorModel(tracerLineA, linesA, galaxy.vsysKms, s.velocityErrors);
   const tf: TracerForecast[] = tracers.map((t) => {
-    const err = velocityErrorKms(t.snPerA, tracerLineA, linesA, galaxy.vsysKms, s.velocityErrors);
+    const err = errorAt(t.snPerA);
     return {
       maskId: t.maskId, slitId: t.slitId, objectId: t.objectId, radiusRe: t.radiusRe, paDeg: t.paDeg, snPerA: t.snPerA,
       velocityErrorKms: Number.isFinite(err) ? err : null,

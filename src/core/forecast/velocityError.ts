@@ -48,6 +48,16 @@ export function velocityErrorKms(snPerA: number, sigmaLineA: number, linesA: rea
   return Math.sqrt(photon * photon + s.floorKms * s.floorKms);
 }
 
+/** velocityErrorKms as a function of S/N for one line width: the photon floor scales as 1/(S/N), computed once. */
+export function velocityErrorModel(sigmaLineA: number, linesA: readonly number[], vsysKms: number, s: VelocityErrorSettings): (snPerA: number) => number {
+  const atUnitSn = s.noiseFactor * photonVelocityErrorKms(1, sigmaLineA, linesA, s.equivalentWidthsA, vsysKms);
+  return (snPerA) => {
+    if (!(snPerA >= s.minSnPerA)) return Infinity;
+    const photon = atUnitSn / snPerA;
+    return Math.sqrt(photon * photon + s.floorKms * s.floorKms);
+  };
+}
+
 /**
  * Error (km/s) of a Gaussian velocity dispersion sigmaKms measured from lines of total sigma sigmaLineKms with centroid
  * error velocityErrKms: for a Gaussian line the width is known to 1/sqrt(2) of the centroid error (Fisher information

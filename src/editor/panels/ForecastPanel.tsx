@@ -25,6 +25,8 @@ const ROWS: [string, string, (f: Forecast) => string, string][] = [
   ['velocities', 'cluster velocities expected after contamination and S/N', (f) => num(f.expectedVelocities, 0), 'fc-velocities'],
   ['median δv km/s', 'median velocity error, km/s', (f) => num(f.medianVelocityErrorKms), 'fc-verr'],
   ['δ rotation km/s', '1-sigma error of the rotation amplitude, km/s', (f) => num(f.rotation.amplitudeErrorKms), 'fc-rot'],
+  ['rotation found', 'share of mocks that detect the assumed rotation at 3 sigma', (f) => pct(f.rotation.detectionFraction), 'fc-detect'],
+  ['δ slope σ(R)', '1-sigma error of the logarithmic slope of the dispersion profile', (f) => num(f.dispersionSlope.slopeError, 2), 'fc-slope'],
   ['δ kin. PA', '1-sigma error of the kinematic position angle, degrees', (f) => `${num(f.rotation.kinematicPaErrorDeg)}°`, 'fc-pa'],
   ['δσ/σ outer', 'fractional 1-sigma error of the dispersion in the outermost radial bin', (f) => pct(f.dispersionProfile.at(-1)?.sigmaFracError ?? null), 'fc-outer'],
   ['δM/M', 'fractional 1-sigma error of the mass within the outermost radius (Watkins, Evans & An 2010)', (f) => pct(f.mass.fracError), 'fc-mass'],
