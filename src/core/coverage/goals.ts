@@ -52,11 +52,12 @@ export function starlightShortfall(galaxy: GalaxyModel, profile: InstrumentProfi
   const footprintLength = b.maxY - b.minY;
   const length = smallestPassing(maxSlitArcsec, footprintLength, (L) => starlightSnAtRadius(galaxy, goal, L, w, s) >= s.targetSnPerA);
   const exposure = smallestPassing(s.exposureS, 100 * s.exposureS, (t) => starlightSnAtRadius(galaxy, goal, maxSlitArcsec, w, { ...s, exposureS: t }) >= s.targetSnPerA);
-  const ways = [
-    length !== null ? `a starlight slit of ${f2(length)}" (starlight.maxSlitLengthArcsec)` : `no slit up to the footprint's ${f2(footprintLength)}"`,
-    exposure !== null ? `an exposure of ${(exposure / 3600).toFixed(1)} h (starlight.exposureS ${Math.ceil(exposure)})` : 'no exposure up to 100 times the present one',
-  ];
-  return `S/N ${f2(sn)} per A at the goal radius R = ${f2(goal)} Re with a ${f2(maxSlitArcsec)}" slit in ${(s.exposureS / 3600).toFixed(1)} h (target ${f2(s.targetSnPerA)}); ${ways[0]} or ${ways[1]} would reach it, or lower goals.starlightReachRe`;
+  const ways: string[] = [];
+  if (length !== null) ways.push(`a starlight slit of ${f2(length)}" (starlight.maxSlitLengthArcsec)`);
+  if (exposure !== null) ways.push(`an exposure of ${(exposure / 3600).toFixed(1)} h (starlight.exposureS ${Math.ceil(exposure)})`);
+  const limits = length === null ? `; no slit up to the footprint's ${f2(footprintLength)}" reaches it` : '';
+  const fixes = ways.length ? `${ways.join(' or ')} would reach it, or lower goals.starlightReachRe` : 'nor does 100 times the exposure: lower goals.starlightReachRe';
+  return `S/N ${f2(sn)} per A at the goal radius R = ${f2(goal)} Re with a ${f2(maxSlitArcsec)}" slit in ${(s.exposureS / 3600).toFixed(1)} h (target ${f2(s.targetSnPerA)})${limits}; ${fixes}`;
 }
 
 /**
