@@ -439,7 +439,7 @@ export function SkyView(props: SkyViewProps) {
               handlePx={handlePx} />
           ))}
           {labels.map((l) => (
-            <Text key={`t${l.id}`} listening={false} x={l.x} y={l.y} text={l.text} fontSize={12} fill={INK.text} shadowColor="#000" shadowBlur={3} shadowOpacity={0.9} />
+            <Text key={`t${l.id}`} listening={false} x={l.x} y={l.y} text={l.text} fontSize={12} fill={INK.text} />
           ))}
           {boxSel && (
             <Rect x={Math.min(boxSel.x0, boxSel.x1)} y={Math.min(boxSel.y0, boxSel.y1)} width={Math.abs(boxSel.x1 - boxSel.x0)}
