@@ -13,7 +13,7 @@ import { wrap360Deg } from '../../core/sky/angles';
 import type { MaskSolution } from '../../core/solver/types';
 import type { PlanMask } from '../../core/plan/schema';
 import type { MaskExposureReport } from '../../core/observe/exposure';
-import { slitResolution } from '../../core/spectro/resolvingPower';
+import { slitResolution } from '../../core/spectro/resolution';
 import { ROLE_STYLE, ROLES } from '../view/palette';
 import { slitCountsByRole } from '../derive';
 import { NumberField, Panel } from './Panel';
@@ -79,7 +79,7 @@ function ActiveMaskEditor({ c, mask, galaxyPaDeg }: { c: EditorController; mask:
 /** Per-mask exposure and S/N estimate (from the last full solve) and the resolving power of the profile's slits. */
 function ExposureTable({ c, exposures }: { c: EditorController; exposures: readonly MaskExposureReport[] | null }) {
   const profile = c.store!.doc.profile;
-  const res = slitResolution(profile.detector, profile.slits.widthArcsec);
+  const res = slitResolution(profile.detector, profile.slits.widthArcsec, profile.detector.centralWavelengthA);
   const e0 = exposures?.[0];
   return (
     <div className="exposure" data-testid="exposure">
@@ -106,7 +106,7 @@ function ExposureTable({ c, exposures }: { c: EditorController; exposures: reado
       )}
       <div className="small" data-testid="resolving-power" data-value={res.resolvingPower}>
         resolving power R ≈ {Math.round(res.resolvingPower).toLocaleString('en-US')} at {profile.detector.centralWavelengthA.toFixed(0)} Å
-        <span className="dim"> ({profile.slits.widthArcsec}″ slit = {res.slitWidthPixels.toFixed(1)} px × {profile.detector.dispersionAPerPixel} Å/px)</span>
+        <span className="dim"> ({profile.slits.widthArcsec}″ slit: resolution element {res.fwhmPixels.toFixed(1)} px × {profile.detector.dispersionAPerPixel} Å/px)</span>
       </div>
     </div>
   );
