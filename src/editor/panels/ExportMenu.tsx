@@ -32,7 +32,7 @@ export function ExportMenu({ c }: { c: EditorController }) {
       {open && names && (
         <div className="menu-pop" onMouseLeave={() => setOpen(false)}>
           <div className="menu-title">Output folder (as <code>haloweave plan</code> writes it)</div>
-          <button data-testid="export-all" onClick={() => save(files().folder)}>All five files</button>
+          <button data-testid="export-all" onClick={() => save(files().folder)}>All six files (with manifest.json)</button>
           {names.folder.map((f) => (
             <button key={f.name} data-testid={`export-${f.name}`} onClick={() => save(files().folder.filter((x) => x.name === f.name))}>{f.name}</button>
           ))}
