@@ -44,7 +44,7 @@ describe('haloweave demo --out DIR', () => {
     const c = capture();
     expect(await main(['check', join(work, 'demo')], c.io)).toBe(0);
     expect(c.err).toEqual([]);
-    expect(c.out.join('\n')).toContain('objects against halo-demo.catalog.csv and catalog-report.csv');
+    expect(c.out.join('\n')).toContain('objects, positions, mags and weights against halo-demo.catalog.csv and catalog-report.csv');
   });
 
   it('prints one summary with no line said twice, in the documented order', () => {

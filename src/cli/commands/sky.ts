@@ -13,7 +13,7 @@ import type { GalaxyModel } from '../../core/plan/schema';
 import type { InstrumentProfile } from '../../core/profile/schema';
 import { loadProfile, namedProfiles } from '../loadPlanInputs';
 import { planProfiles } from '../../core/plan/instruments';
-import { nightTable, type NightRow } from '../../core/observe/night';
+import { nightRows, nightTable, type NightRow } from '../../core/observe/night';
 import { parseDateText, observabilityVerdict } from '../../core/observe/observability';
 
 const OPTIONS = ['from', 'to', 'max-airmass', 'step-min', 'json', 'curve'];
@@ -122,14 +122,35 @@ export async function run(argv: string[], io: CliIO): Promise<number> {
 function siteNights(io: CliIO, galaxy: GalaxyModel, profile: InstrumentProfile, o: ReturnType<typeof readOptions> & { maxAirmass: number }, collect: object[] | null): number {
   const profileId = profile.id;
   const site = { latDeg: profile.site.latDeg, lonDeg: profile.site.lonDeg, elevationM: profile.site.elevationM };
-  const rows = nightTable(o.from, o.to, galaxy, site, { maxAirmass: o.maxAirmass, stepMinutes: o.stepMinutes, includeCurve: o.curve });
-  const verdict = observabilityVerdict(rows, galaxy, site, o.maxAirmass);
+  const nightOptions = { maxAirmass: o.maxAirmass, stepMinutes: o.stepMinutes, includeCurve: o.curve };
   if (o.json) {
-    if (collect) collect.push(...rows.map((r) => ({ instrument: profileId, site, ...roundedRow(r) })));
-    else io.out(JSON.stringify(rows.map(roundedRow), null, 2));
+    if (collect) {
+      // Several sites: the rows are gathered with their instrument and site and printed together by the caller.
+      const rows = nightTable(o.from, o.to, galaxy, site, nightOptions);
+      collect.push(...rows.map((r) => ({ instrument: profileId, site, ...roundedRow(r) })));
+      const verdict = observabilityVerdict(rows, galaxy, site, o.maxAirmass);
+      if (verdict) io.err(`haloweave sky: ${profileId}: ${verdict}`);
+      return 0;
+    }
+    // Streamed night by night: ten years of curves at half-minute steps are written as they are computed, the text
+    // equal to JSON.stringify(rows, null, 2); only the rows without their curves are kept, for the verdict.
+    const kept: NightRow[] = [];
+    let previous: string | null = null; // written once the next night shows whether a comma follows
+    io.out('[');
+    for (const row of nightRows(o.from, o.to, galaxy, site, nightOptions)) {
+      if (previous !== null) io.out(`${previous},`);
+      previous = `  ${JSON.stringify(roundedRow(row), null, 2).replace(/\n/g, '\n  ')}`;
+      const { curve: _curve, ...rest } = row;
+      kept.push(rest);
+    }
+    if (previous !== null) io.out(previous);
+    io.out(']');
+    const verdict = observabilityVerdict(kept, galaxy, site, o.maxAirmass);
     if (verdict) io.err(`haloweave sky: ${verdict}`);
     return 0;
   }
+  const rows = nightTable(o.from, o.to, galaxy, site, nightOptions);
+  const verdict = observabilityVerdict(rows, galaxy, site, o.maxAirmass);
   const lon = site.lonDeg;
   io.out(`galaxy ${galaxy.id} (RA ${galaxy.raDeg.toFixed(4)}, Dec ${galaxy.decDeg.toFixed(4)} deg) from ${profileId}: latitude ${site.latDeg.toFixed(3)}, longitude ${lon >= 0 ? '+' : ''}${lon.toFixed(3)} (East), ${site.elevationM} m`);
   io.out(`times UTC (HH:MM); a night is named by its local evening and runs from local mean noon to the next; dark = Sun below -18 deg; airmass by Hardie (1962), secz plane-parallel; "no moon h" = those hours with the Moon below the horizon; Moon figures at mid-night`);

@@ -263,13 +263,18 @@ export function datesBetween(from: string, to: string): string[] {
   return out;
 }
 
-/** Rows for every night from `from` to `to` inclusive. */
-export function nightTable(from: string, to: string, target: SkyTarget, site: SiteGeodetic, options: NightOptions = {}): NightRow[] {
+/** Rows for every night from `from` to `to` inclusive, one at a time (a long range with curves is never held whole). */
+export function* nightRows(from: string, to: string, target: SkyTarget, site: SiteGeodetic, options: NightOptions = {}): Generator<NightRow> {
   const moonCache = options.moonCache ?? new Map<number, EquatorialOfDate>();
-  return datesBetween(from, to).map((d) => {
+  for (const d of datesBetween(from, to)) {
     const row = nightRow(d, target, site, { ...options, moonCache });
     // Keep only the places the next night can share (its start is this night's end).
     for (const k of [...moonCache.keys()].slice(0, -1)) moonCache.delete(k);
-    return row;
-  });
+    yield row;
+  }
+}
+
+/** Rows for every night from `from` to `to` inclusive. */
+export function nightTable(from: string, to: string, target: SkyTarget, site: SiteGeodetic, options: NightOptions = {}): NightRow[] {
+  return [...nightRows(from, to, target, site, options)];
 }

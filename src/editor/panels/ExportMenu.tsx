@@ -47,7 +47,7 @@ export function ExportMenu({ c }: { c: EditorController }) {
         <div className="menu-pop" role="menu" data-testid="export-pop">
           <div className="menu-title">Output folder (as <code>haloweave plan</code> writes it)</div>
           <button data-testid="export-all" onClick={saveArchive}
-            title="One zip archive: masks.csv, slits.csv, coverage.json, solved.plan.json, catalog-report.csv, excluded-targets.csv and the catalog">
+            title="One zip archive: masks.csv, slits.csv, coverage.json, solved.plan.json, catalog-report.csv, excluded-targets.csv, the catalog and manifest.json">
             Whole folder as a zip archive</button>
           {names.folder.map((f) => (
             <button key={f.name} data-testid={`export-${f.name}`} onClick={() => save(files().folder.filter((x) => x.name === f.name))}>{f.name}</button>
