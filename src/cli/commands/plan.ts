@@ -32,7 +32,12 @@ export function solveAndWrite(loaded: LoadedPlan, out: string, io: CliIO, opts: 
   // The output place is checked, and its temporary folder made, before the solve.
   const folder = OutputFolder.open(out, [...CONTRACT_OUTPUT_FILES, 'excluded-targets.csv', ...Object.keys(opts.extraFiles ?? {})], {
     ...opts,
-    profiles: [{ id: loaded.profile.id, path: loaded.profilePath }, ...(opts.profiles ?? [])],
+    // Every profile the masks are designed with (one per spectrograph of a mixed plan), each once.
+    profiles: uniqueProfiles([
+      { id: loaded.profile.id, path: loaded.profilePath },
+      ...Object.entries(loaded.profilePaths).map(([ref, path]) => ({ id: loaded.profiles?.[ref]?.id ?? loaded.profile.id, path })),
+      ...(opts.profiles ?? []),
+    ]),
   });
   for (const note of folder.notes) io.err(`haloweave plan: note: ${note}`);
   try {
@@ -110,4 +115,10 @@ export async function run(argv: string[], io: CliIO): Promise<number> {
     return 2;
   }
   return solveAndWrite(loadPlanInputs(args.positionals[0]), out, io, { quiet: args.options.quiet === true, strict: args.options.strict === true });
+}
+
+/** Profiles by id, the first of each id kept. */
+function uniqueProfiles(list: { id: string; path: string }[]): { id: string; path: string }[] {
+  const seen = new Set<string>();
+  return list.filter((p) => !seen.has(p.id) && (seen.add(p.id), true));
 }
