@@ -22,7 +22,7 @@ export function planWith(forecast: ForecastSection, extra: Record<string, unknow
 }
 
 /** One mask (centred on the galaxy, PA 0) holding slits at (radiusRe, paDeg) pairs of the plan's galaxy, each of magnitude mag. */
-export function tracerLayout(plan: PlanFile, points: readonly { radiusRe: number; paDeg: number; mag: number; role?: 'tracer' | 'starlight' }[]): MaskSolution[] {
+export function tracerLayout(plan: PlanFile, points: readonly { radiusRe: number; paDeg: number; mag: number; role?: 'tracer' | 'starlight' | 'sky' }[]): MaskSolution[] {
   const g = galaxyModel(plan);
   const centre = tangentCentre(g.raDeg, g.decDeg);
   const slits: Slit[] = points.map((p, i) => {
@@ -32,7 +32,7 @@ export function tracerLayout(plan: PlanFile, points: readonly { radiusRe: number
     const sky = tangentToSkyDeg(centre, xi, eta);
     return {
       maskId: 'm1', slitId: `s${i + 1}`, objectId: `o${i + 1}`, role: p.role ?? 'tracer', raDeg: sky.raDeg, decDeg: sky.decDeg, priority: 1,
-      mag: p.role === 'starlight' ? null : p.mag, xArcsec: xi, yArcsec: eta, // mask at the galaxy centre, PA 0: x = xi, y = eta
+      mag: p.role === 'starlight' || p.role === 'sky' ? null : p.mag, xArcsec: xi, yArcsec: eta, // mask at the galaxy centre, PA 0: x = xi, y = eta
       lenBelowArcsec: 3, lenAboveArcsec: 3, widthArcsec: 1, tiltDeg: 0,
     };
   });

@@ -83,9 +83,9 @@ describe('haloweave profile on impossible profiles: exit 2 and the reason', () =
     const line = await check([roundProfile((p) => { p.footprint = [[-100, 0], [0, 0], [100, 0]]; })]);
     expect(line.code).toBe(2);
     expect(line.err).toMatch(/footprint: the polygon crosses or touches itself/);
-    const tiny = await check([roundProfile((p) => { p.footprint = [[0, 0], [1, 0], [0, 0.5]]; })]);
+    const tiny = await check([roundProfile((p) => { p.footprint = [[0, 0], [3, 0], [0, 2]]; })]);
     expect(tiny.code).toBe(2);
-    expect(tiny.err).toMatch(/footprint: the outline encloses 0\.250 square arcsec, less than one minimal slit \(5\.0 x 1\.0 arcsec\)/);
+    expect(tiny.err).toMatch(/footprint: the outline encloses 3\.000 square arcsec, less than one minimal slit \(5\.0 x 1\.0 arcsec\)/);
   });
 
   it('lines never on the detector: the fix names the central wavelength that would centre them', async () => {
@@ -103,9 +103,10 @@ describe('haloweave profile on impossible profiles: exit 2 and the reason', () =
   });
 
   it('an alignment box that fits nowhere, and a schema error by its key', async () => {
-    const box = await check([roundProfile((p) => { p.alignment.boxSizeArcsec = 120; })]);
+    // A 50 arcsec box (inside the loader's range of box sizes) in a field 40 arcsec high.
+    const box = await check([roundProfile((p) => { p.alignment.boxSizeArcsec = 50; p.footprint = [[-200, -20], [200, -20], [200, 20], [-200, 20]]; })]);
     expect(box.code).toBe(2);
-    expect(box.err).toMatch(/alignment\.boxSizeArcsec: an alignment box of 120\.0 arcsec fits nowhere/);
+    expect(box.err).toMatch(/alignment\.boxSizeArcsec: an alignment box of 50\.0 arcsec fits nowhere/);
     const schema = await check([roundProfile((p) => { delete p.detector.pixels; })]);
     expect(schema.code).toBe(2);
     expect(schema.err).toMatch(/detector\.pixels: missing/);

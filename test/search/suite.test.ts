@@ -137,7 +137,7 @@ describe('generated-galaxy suite', () => {
     const out = join(work, 'no-stars-out');
     const r = cli(['plan', planPath, '--out', out, '--quiet'], work);
     expect(r.code).toBe(2);
-    expect(r.err).toMatch(/mask m\d: 2 alignment star\(s\) .*alignment\.minCount is 3; no pointing tried .* holds 3 boxes/);
+    expect(r.err).toMatch(/mask m\d: 2 alignment star\(s\) .*needs at least 3 alignment boxes per mask; no pointing tried .* holds 3 boxes/);
     expect(r.err).toMatch(/add alignment stars/);
     expect(r.err).not.toMatch(/\n\s+at /); // no stack trace
     expect(existsSync(join(out, 'slits.csv'))).toBe(false);
