@@ -1,4 +1,5 @@
 /** `haloweave plan PLAN --out DIR`: solve a plan file and write the contract's output folder (atomically). */
+import { lineWindowSettings } from '../../core/geometry/wavelength';
 import type { CliIO } from '../io';
 import { optionText, parseArgs, unknownOptions } from '../args';
 import { InputError, type Problem } from '../../core/result';
@@ -27,17 +28,17 @@ export interface SolveAndWriteOptions extends OutputFolderOptions {
 /** Solve loaded plan inputs, write the output folder `out` atomically (outputs plus extra files) and print the summary. */
 export function solveAndWrite(loaded: LoadedPlan, out: string, io: CliIO, opts: SolveAndWriteOptions = {}): number {
   // A setup where no science slit can exist is an error named by its cause, before any work.
-  const impossible = scienceSlitProblems(loaded.profile, loaded.plan.goals.linesA, loaded.plan.galaxy.vsysKms, `instrument profile ${loaded.profile.id} (${loaded.profilePath})`);
+  // Every profile of the plan (one per spectrograph), with the lines' windows over the velocity range.
+  const window = lineWindowSettings(loaded.plan.goals);
+  const profiles = uniqueProfiles([{ id: loaded.profile.id, path: loaded.profilePath }, ...Object.entries(loaded.profilePaths).map(([ref, path]) => ({ id: loaded.profiles?.[ref]?.id ?? loaded.profile.id, path }))]);
+  const byId = new Map([loaded.profile, ...Object.values(loaded.profiles ?? {})].map((p) => [p.id, p]));
+  const impossible = profiles.flatMap((p) => scienceSlitProblems(byId.get(p.id)!, loaded.plan.goals.linesA, loaded.plan.galaxy.vsysKms, `instrument profile ${p.id} (${p.path})`, window));
   if (impossible.length) throw new InputError(impossible);
   // The output place is checked, and its temporary folder made, before the solve.
   const folder = OutputFolder.open(out, [...CONTRACT_OUTPUT_FILES, 'excluded-targets.csv', ...Object.keys(opts.extraFiles ?? {})], {
     ...opts,
     // Every profile the masks are designed with (one per spectrograph of a mixed plan), each once.
-    profiles: uniqueProfiles([
-      { id: loaded.profile.id, path: loaded.profilePath },
-      ...Object.entries(loaded.profilePaths).map(([ref, path]) => ({ id: loaded.profiles?.[ref]?.id ?? loaded.profile.id, path })),
-      ...(opts.profiles ?? []),
-    ]),
+    profiles: uniqueProfiles([...profiles, ...(opts.profiles ?? [])]),
   });
   for (const note of folder.notes) io.err(`haloweave plan: note: ${note}`);
   try {

@@ -6,7 +6,7 @@
  */
 import type { InstrumentProfile } from '../profile/schema';
 import type { Problem } from '../result';
-import { detectorPixel, observedWavelengthA, usableXIntervalsArcsec } from '../geometry/wavelength';
+import { detectorPixel, observedLineWindowsA, observedWavelengthA, usableXIntervalsArcsec, usableXIntervalsForWindowsArcsec, type LineWindowSettings } from '../geometry/wavelength';
 
 /** The x and y extents of a footprint (arcsec, mask frame). */
 function extents(footprint: readonly (readonly number[])[]): { x0: number; x1: number; y0: number; y1: number } {
@@ -18,9 +18,10 @@ const overlapsField = (ivs: [number, number][], x0: number, x1: number) => ivs.s
 
 /**
  * Problems that leave no science slit possible anywhere on a mask (empty when some slit may exist). `profileSource`
- * names the profile in messages.
+ * names the profile in messages. `window` (goals.velocityHalfRangeKms, goals.lineHalfWindowA) widens each line into the
+ * window that must stay clear of edges and gaps; without it, the bare rule at v_sys.
  */
-export function scienceSlitProblems(profile: InstrumentProfile, linesRestA: readonly number[], vsysKms: number, profileSource: string): Problem[] {
+export function scienceSlitProblems(profile: InstrumentProfile, linesRestA: readonly number[], vsysKms: number, profileSource: string, window?: LineWindowSettings): Problem[] {
   const out: Problem[] = [];
   const f = extents(profile.footprint);
   const fieldY = f.y1 - f.y0;
@@ -33,7 +34,15 @@ export function scienceSlitProblems(profile: InstrumentProfile, linesRestA: read
   }
   const det = profile.detector;
   const observed = linesRestA.map((l) => observedWavelengthA(l, vsysKms));
-  if (overlapsField(usableXIntervalsArcsec(det, observed), f.x0, f.x1)) return out;
+  if (overlapsField(usableXIntervalsArcsec(det, observed), f.x0, f.x1)) {
+    if (!window || overlapsField(usableXIntervalsForWindowsArcsec(det, observedLineWindowsA(linesRestA, vsysKms, window)), f.x0, f.x1)) return out;
+    out.push({
+      where: `${profileSource}: detector`,
+      what: `the lines ${linesRestA.join(', ')} A land on the detector at v_sys, but not with their windows (v_sys +- ${window.velocityHalfRangeKms} km/s, +- ${window.lineHalfWindowA} A) clear of the edges and gaps at any x of the field; no science slit is possible`,
+      fix: 'lower goals.velocityHalfRangeKms or goals.lineHalfWindowA, or choose a profile (detector.centralWavelengthA) that takes the lines with room around them',
+    });
+    return out;
+  }
   const fix = 'choose a profile (detector.centralWavelengthA) that takes these lines at this velocity, or check goals.linesA and galaxy.vsysKms';
   const noGaps = { ...det, gapsPixels: [] };
   const m = det.edgeMarginPixels;
