@@ -8,7 +8,7 @@ import type { GalaxyModel, PlanFile } from '../plan/schema';
 import { PMath } from '../numeric/portableMath';
 import type { InstrumentProfile } from '../profile/schema';
 import type { MaskSolution } from '../solver/types';
-import { maskExposureReport, type MaskExposureReport } from '../observe/exposure';
+import { exposureModelOf, maskExposureReport, type MaskExposureReport } from '../observe/exposure';
 import { resolveObservingSettings, type ObservingSection } from '../observe/observingSettings';
 import { starlightSettings, type StarlightRules } from '../solver/starlight';
 import { resolveForecastSettings, type ForecastSettings } from './settings';
@@ -157,10 +157,7 @@ export function dispersionBinEdges(edgesRe: readonly number[], tracers: readonly
 export function planExposures(plan: PlanFile, profile: InstrumentProfile, galaxy: GalaxyModel, masks: readonly MaskSolution[]): { exposures: MaskExposureReport[]; exposureTimeS: number; targetSnPerA: number } {
   const starlight = starlightSettings(plan.starlight as StarlightRules | undefined, profile, plan);
   const settings = resolveObservingSettings(plan.observing as ObservingSection | undefined, profile, { exposureTimeS: starlight.exposureS });
-  const model = {
-    setup: starlight.setup, skyMagPerArcsec2: starlight.skyMagPerArcsec2, seeingFwhmArcsec: settings.seeingFwhmArcsec,
-    exposureTimeS: settings.exposureTimeS, targetSnPerA: settings.targetSnPerA,
-  };
+  const model = exposureModelOf(starlight, settings);
   return { exposures: masks.map((m) => maskExposureReport(m, galaxy, model)), exposureTimeS: settings.exposureTimeS, targetSnPerA: settings.targetSnPerA };
 }
 

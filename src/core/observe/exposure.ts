@@ -28,6 +28,22 @@ export interface ExposureModel {
   catalogToAbMag?: number;
 }
 
+/**
+ * The exposure model of a plan's settings: the starlight section's spectrograph setup, dark sky (AB mag/arcsec^2) and
+ * catalog-to-AB offset, with the observing section's seeing, exposure time and target S/N; `skyMagPerArcsec2` replaces
+ * the dark sky (e.g. brightened by the Moon). One place for the observing report, the forecast and the tracer values.
+ */
+export function exposureModelOf(
+  starlight: { setup: SpectroSetup; skyMagPerArcsec2: number; catalogToAbMag: number },
+  settings: { seeingFwhmArcsec: number; exposureTimeS: number; targetSnPerA: number },
+  skyMagPerArcsec2 = starlight.skyMagPerArcsec2,
+): ExposureModel {
+  return {
+    setup: starlight.setup, skyMagPerArcsec2, seeingFwhmArcsec: settings.seeingFwhmArcsec,
+    exposureTimeS: settings.exposureTimeS, targetSnPerA: settings.targetSnPerA, catalogToAbMag: starlight.catalogToAbMag,
+  };
+}
+
 /** Where a slit's sky estimate comes from and what lies under it (optional parts of an estimate). */
 export interface SlitBackground {
   /** Length (arcsec) of slit the sky is estimated from; absent: the sky is known without error. */

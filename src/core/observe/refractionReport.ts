@@ -15,7 +15,7 @@ import { AB_MINUS_VEGA_MAG, resolvePhotometry } from '../spectro/photometry';
 import { altitudeDeg } from './horizon';
 import { DEFAULT_SKY_SYSTEMATIC_FRACTION, starlightBinLines, starlightBins, type StarlightBin } from './starlightBins';
 import { designHourAnglesH, resolveObservingSettings, type ObservingSection, type ObservingSettings } from './observingSettings';
-import { maskExposureReport, type MaskExposureReport } from './exposure';
+import { exposureModelOf, maskExposureReport, type MaskExposureReport } from './exposure';
 import { starlightSettings, type StarlightRules } from '../solver/starlight';
 
 export interface RefractionReportInput {
@@ -72,10 +72,7 @@ export function observingReportForPlan(plan: PlanFile, profile: InstrumentProfil
     scienceRangeA: lineWindowsRangeA(observedLineWindowsA(plan.goals.linesA, galaxy.vsysKms, lineWindowSettings(plan.goals))),
   });
   const report = refractionReport({ galaxy, masks, site: profile.site, settings, designHourAnglesH: designHourAnglesH(plan, settings) });
-  const model = {
-    setup: starlight.setup, skyMagPerArcsec2: skyWithMoon(plan, profile, galaxy, starlight.skyMagPerArcsec2), seeingFwhmArcsec: settings.seeingFwhmArcsec,
-    exposureTimeS: settings.exposureTimeS, targetSnPerA: settings.targetSnPerA, catalogToAbMag: starlight.catalogToAbMag,
-  };
+  const model = exposureModelOf(starlight, settings, skyWithMoon(plan, profile, galaxy, starlight.skyMagPerArcsec2));
   const skySystematicFraction = (plan.observing as ObservingSection | undefined)?.skySystematicFraction ?? DEFAULT_SKY_SYSTEMATIC_FRACTION;
   const bins = plan.goals.starlightReachRe > 0
     ? { bins: starlightBins(masks, galaxy, model, { reachRe: plan.goals.starlightReachRe, targetSnPerA: starlight.targetSnPerA, skySystematicFraction }), targetSnPerA: starlight.targetSnPerA, skySystematicFraction }

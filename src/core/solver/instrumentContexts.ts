@@ -16,13 +16,13 @@ import { allocationContext, type AllocationContext } from './allocateMasks';
 import { lineWindowSettings } from '../geometry/wavelength';
 import { starlightSettings, type StarlightRules } from './starlight';
 import { resolveObservingSettings, type ObservingSection } from '../observe/observingSettings';
-import { tracerExposure, type ExposureModel } from '../observe/exposure';
+import { exposureModelOf, tracerExposure, type ExposureModel } from '../observe/exposure';
 
 /** The tracer exposure model of a profile under the plan's starlight and observing settings (same as the observing report's). */
 export function tracerExposureModel(plan: Pick<PlanFile, 'goals' | 'galaxy' | 'starlight' | 'observing'>, profile: InstrumentProfile): ExposureModel {
   const starlight = starlightSettings(plan.starlight as StarlightRules | undefined, profile, plan);
   const settings = resolveObservingSettings(plan.observing as ObservingSection | undefined, profile, { exposureTimeS: starlight.exposureS });
-  return { setup: starlight.setup, skyMagPerArcsec2: starlight.skyMagPerArcsec2, seeingFwhmArcsec: settings.seeingFwhmArcsec, exposureTimeS: settings.exposureTimeS, targetSnPerA: settings.targetSnPerA };
+  return exposureModelOf(starlight, settings);
 }
 
 /** Chance (0..1) of a usable velocity from S/N per A: s^2 / (1 + s^2) with s = snPerA / targetSnPerA (0.5 at the target). */
