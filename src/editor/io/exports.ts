@@ -44,7 +44,8 @@ export function outputFolderFiles(result: SolveResult, profile: InstrumentProfil
   const files: ExportFile[] = [
     { name: 'masks.csv', content: masksToCsv(maskRows), mime: 'text/csv' },
     { name: 'slits.csv', content: slitsToCsv(slits), mime: 'text/csv' },
-    { name: 'coverage.json', content: JSON.stringify(result.coverage, null, 2) + '\n', mime: 'application/json' },
+    // A full solve's goal report (extra.goals) goes into coverage.json as `haloweave plan` writes it; a drag preview has none.
+    { name: 'coverage.json', content: JSON.stringify(Array.isArray(result.extra.goals) ? { ...(result.coverage as object), goals: result.extra.goals } : result.coverage, null, 2) + '\n', mime: 'application/json' },
     { name: 'solved.plan.json', content: solvedPlanText(result, paths), mime: 'application/json' },
     { name: 'catalog-report.csv', content: catalogReportCsv(catalog.rejects), mime: 'text/csv' },
   ];
