@@ -2,7 +2,7 @@
 import { describe, expect, it } from 'vitest';
 import { setMaskInstrumentCommand } from '../../src/editor/store/instrumentCommands';
 import { maskFootprint } from '../../src/editor/view/maskFootprints';
-import { editorPlanSites } from '../../src/editor/io/planProfiles';
+import { editorPlanSites, missingEditorProfiles } from '../../src/editor/io/planProfiles';
 import type { EditorDoc } from '../../src/editor/store/document';
 import { parsePlan } from '../../src/core/plan/validate';
 import { shippedProfile } from '../mixed/mixedCase';
@@ -43,5 +43,15 @@ describe('a mask on another instrument', () => {
     expect(editorPlanSites(plan, doc.profile).map((x) => `${x.instrument} ${x.site.latDeg}`)).toEqual(['ridge10-narrow 28.1', 'broad65-wide -27.8']);
     const single = { ...plan, instruments: undefined, instrument: 'ridge10-narrow' };
     expect(editorPlanSites(single, doc.profile).map((x) => x.instrument)).toEqual(['ridge10-narrow']);
+  });
+});
+
+describe('profiles the editor has for a plan', () => {
+  it('a plan of one spectrograph needs only its own profile; a mixed plan names an instrument that is not bundled', () => {
+    const single = parsePlan({ ...plan, instruments: undefined, instrument: 'ridge10-narrow', masks: [], goals: { ...plan.goals, masks: 4 } });
+    expect(missingEditorProfiles(single, shippedProfile('ridge10-narrow'))).toEqual([]);
+    expect(missingEditorProfiles(plan, shippedProfile('ridge10-narrow'))).toEqual([]);
+    const foreign = parsePlan({ ...plan, instruments: [{ profile: 'ridge10-narrow', masks: 2 }, { profile: 'no-such-profile', masks: 1 }], masks: [] });
+    expect(missingEditorProfiles(foreign, shippedProfile('ridge10-narrow'))).toEqual(['no-such-profile']);
   });
 });

@@ -20,7 +20,8 @@ export function editorPlanProfiles(plan: PlanFile, profile: InstrumentProfile): 
 
 /** The references of a plan's instruments the editor has no profile for (beyond the first, the document's own). */
 export function missingEditorProfiles(plan: PlanFile, profile: InstrumentProfile): string[] {
-  const have = editorPlanProfiles(plan, profile) ?? {};
+  const have = editorPlanProfiles(plan, profile);
+  if (!have) return []; // one spectrograph: the document's own profile
   return planInstrumentRefs(plan).filter((ref) => !have[ref]);
 }
 
