@@ -12,7 +12,7 @@ import type { InstrumentProfile } from '../profile/schema';
 import type { Problem } from '../result';
 import { alignmentBoxFits, eligibilityRules, scienceSlitEligible, type EligibilityRules } from '../geometry/eligibility';
 import { chooseAlignmentBoxes, largestClearSet, type AlignmentCandidate } from './alignment';
-import { allocateJoint, maskCandidateSet, resolveOneMask, jointObjective, type JointOptions, type JointProblem, type JointSolution, type MaskCandidateSet } from './jointAllocation';
+import { allocateJoint, compactJointProblem, maskCandidateSet, resolveOneMask, jointObjective, type JointOptions, type JointProblem, type JointSolution, type MaskCandidateSet } from './jointAllocation';
 import { maskPointToSkyDeg, projectIndicesToMaskArcsec, unitVectors, type UnitVectors } from './maskTargets';
 import { polygonBounds } from '../geometry/polygon';
 import type { LineWindowSettings } from '../geometry/wavelength';
@@ -126,7 +126,7 @@ export function prepareMasks(ctx: AllocationContext, pointings: readonly MaskPoi
 
 /** The joint problem over prepared masks (weights indexed by target). */
 export function jointProblemOf(ctx: AllocationContext, prepared: readonly PreparedMask[]): JointProblem {
-  return { weights: ctx.weights, masks: prepared.map((p) => p.candidates) };
+  return compactJointProblem(ctx.weights, prepared.map((p) => p.candidates));
 }
 
 /** A Problem for a mask with too few alignment stars: names the mask, found vs needed, and how to fix it. */

@@ -47,6 +47,28 @@ export function maskCandidateSet(objects: ArrayLike<number>, starts: ArrayLike<n
   return { objects: Int32Array.from(objects), starts: s, ends: e, index: buildIntervalIndex(s, e) };
 }
 
+/** Scratch map from catalog object index to compact index (-1 when unused); every entry set is reset before return. */
+let compactIndexOf = new Int32Array(0);
+
+/**
+ * The joint problem over only the objects that fall on some mask, renumbered 0.. in increasing catalog order (so every
+ * loop over objects keeps its order and the solution is the same), each mask's candidates keeping their positions:
+ * chosen positions mean the same in both problems. The allocation's per-object arrays then grow with the candidates
+ * on the masks, not with the catalog. O(candidates on the masks, plus a sort of the distinct objects).
+ */
+export function compactJointProblem(weights: Float64Array, masks: readonly MaskCandidateSet[]): JointProblem {
+  if (compactIndexOf.length < weights.length) compactIndexOf = new Int32Array(weights.length).fill(-1);
+  const map = compactIndexOf;
+  const seen: number[] = [];
+  for (const set of masks) for (const o of set.objects) if (map[o] === -1) { map[o] = 0; seen.push(o); }
+  const ids = Int32Array.from(seen).sort();
+  const local = new Float64Array(ids.length);
+  for (let i = 0; i < ids.length; i++) { map[ids[i]] = i; local[i] = weights[ids[i]]; }
+  const out = masks.map((set) => ({ ...set, objects: set.objects.map((o) => map[o]) }));
+  for (let i = 0; i < ids.length; i++) map[ids[i]] = -1;
+  return { weights: local, masks: out };
+}
+
 /** Total weight of a joint selection. */
 export function jointObjective(problem: JointProblem, chosen: readonly (readonly number[])[]): number {
   let t = 0;
