@@ -69,6 +69,13 @@ export function compactJointProblem(weights: Float64Array, masks: readonly MaskC
   return { weights: local, masks: out };
 }
 
+/** The problem itself when most of its objects fall on a mask, else compactJointProblem of it (the same solutions). */
+function overMaskObjects(problem: JointProblem): JointProblem {
+  let n = 0;
+  for (const set of problem.masks) n += set.objects.length;
+  return problem.weights.length > 2 * n + 1024 ? compactJointProblem(problem.weights, problem.masks) : problem;
+}
+
 /** Total weight of a joint selection. */
 export function jointObjective(problem: JointProblem, chosen: readonly (readonly number[])[]): number {
   let t = 0;
@@ -132,6 +139,7 @@ function bestResponse(problem: JointProblem, owner: Int32Array, chosen: number[]
 
 /** Re-solve one mask exactly with the others fixed (the editor's drag); returns a new selection, never a worse total. */
 export function resolveOneMask(problem: JointProblem, chosen: readonly (readonly number[])[], m: number): number[][] {
+  problem = overMaskObjects(problem);
   const next = chosen.map((s) => s.slice());
   bestResponse(problem, ownerOf(problem, next), next, m);
   return next;
@@ -139,6 +147,7 @@ export function resolveOneMask(problem: JointProblem, chosen: readonly (readonly
 
 /** Best-response sweeps over all masks until a sweep gains nothing (or maxSweeps); `work` only speeds it up. */
 export function improveByBestResponse(problem: JointProblem, chosen: number[][], maxSweeps = 10, work?: ResponseWork): number[][] {
+  problem = overMaskObjects(problem);
   const owner = ownerOf(problem, chosen);
   let value = jointObjective(problem, chosen);
   for (let sweep = 0; sweep < maxSweeps; sweep++) {
@@ -191,6 +200,7 @@ function holderLosses(problem: JointProblem, chosen: readonly (readonly number[]
  * stolen objects, and the move is kept only when the total weight rises. Repeats until no move helps.
  */
 export function improveBySteals(problem: JointProblem, chosen: number[][], maxRounds = 3, work?: ResponseWork): number[][] {
+  problem = overMaskObjects(problem);
   const M = problem.masks.length;
   let total = jointObjective(problem, chosen);
   const shared = sharedObjects(problem);
@@ -239,6 +249,7 @@ export function improveBySteals(problem: JointProblem, chosen: number[][], maxRo
 
 /** Greedy mask-by-mask allocation: each mask in turn takes its exact optimum among objects not yet used. */
 export function allocateGreedyMaskByMask(problem: JointProblem, order?: readonly number[]): JointSolution {
+  problem = overMaskObjects(problem);
   const chosen = problem.masks.map(() => [] as number[]);
   const owner = new Int32Array(problem.weights.length).fill(-1);
   for (const m of order ?? problem.masks.map((_, i) => i)) bestResponse(problem, owner, chosen, m);
@@ -258,6 +269,7 @@ export interface JointOptions {
 
 /** Joint allocation by Lagrangian relaxation with repair and best-response sweeps (the fast path). */
 export function allocateJoint(problem: JointProblem, opts: JointOptions = {}): JointSolution {
+  problem = overMaskObjects(problem);
   const M = problem.masks.length;
   const nObj = problem.weights.length;
   const maxIt = opts.maxIterations ?? 150;
