@@ -16,6 +16,7 @@ import { join, resolve } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { performance } from 'node:perf_hooks';
 import { printTable, type BenchRow } from './harness';
+import { SCALE_CANDIDATES } from '../src/core/scenario/suite';
 
 const ROOT = resolve('.');
 const BIN = join(ROOT, 'bin/haloweave.js');
@@ -68,7 +69,7 @@ export function logLogSlope(x: readonly number[], y: readonly number[]): number 
 }
 
 export default async function scaleBench(): Promise<void> {
-  const sizes = (process.env.HALOWEAVE_SCALE_SIZES ?? '3000,20000,200000,1000000').split(',').map(Number).filter((n) => n > 0);
+  const sizes = (process.env.HALOWEAVE_SCALE_SIZES ?? SCALE_CANDIDATES.join(',')).split(',').map(Number).filter((n) => n > 0);
   const build = spawnSync(process.execPath, [join(ROOT, 'bin/build-cli.js')], { cwd: ROOT, encoding: 'utf8' });
   if (build.status !== 0) throw new Error(`scale bench: the build failed: ${build.stderr}`);
   const dir = mkdtempSync(join(tmpdir(), 'haloweave-scale-bench-'));

@@ -241,9 +241,9 @@ export function slitsAtHourAngle(ctx: MaskRefractionContext, haH: number): SlitR
 }
 
 /**
- * Across-slit offsets (mask x, arcsec) of a slit's image at hour angle haH relative to its slit at the blue and red
- * ends and the guide wavelength's image, given the centre's lift c; null when the target is below the horizon.
- * The same arithmetic as slitsAtHourAngle, without building a row per slit.
+ * Mask x (arcsec) of a slit target's image at hour angle haH relative to the guided centre, written into out as
+ * [guide wavelength, blue end, red end], given the centre's lift c; false (out untouched) when the target is below
+ * the horizon. The same arithmetic as slitLift in slitsAtHourAngle, without building a row per slit.
  */
 function acrossAt(ctx: MaskRefractionContext, g: SlitGeometry, haH: number, c: { xArcsec: number; yArcsec: number }, out: Float64Array): boolean {
   const u = liftPerUnitRefractivity(ctx, haH * 15 - g.dRaDeg, g.sinDec, g.cosDec);
