@@ -193,3 +193,27 @@ describe('erf routes', () => {
     expect(erf(0)).toBe(0);
   });
 });
+
+describe('the summary row of a mask', () => {
+  it('maskRowAt gives exactly the maxima and counts of the per-slit rows of slitsAtHourAngle, and the early stop agrees on passing', () => {
+    const mask: MaskPointing = { id: 'm1', raDeg: 150.2, decDeg: 12.5, paDeg: 35, locked: false };
+    const slits: Slit[] = [];
+    for (let i = 0; i < 24; i++) slits.push(slitAt(mask, `s${i}`, -250 + 21 * i, -120 + 11 * i, i % 7 === 3 ? 'starlight' : 'tracer'));
+    const ctx = maskRefractionContext({ mask, slits, designHourAngleH: -1.5, latDeg: LAT, air: AIR, settings: { ...SETTINGS, maxLossFraction: 0.05 } });
+    let passed = 0, failed = 0;
+    for (let h = -5; h <= 5; h += 0.35) {
+      const row = maskRowAt(ctx, h);
+      const tracers = slitsAtHourAngle(ctx, h).filter((s) => s.role === 'tracer');
+      if (row.airmass === null) continue;
+      expect(row.maxLossFraction).toBe(Math.max(0, ...tracers.map((s) => s.lossFraction)));
+      expect(row.maxFieldShiftAcrossArcsec).toBe(Math.max(0, ...tracers.map((s) => Math.abs(s.fieldShiftAcrossArcsec))));
+      expect(row.maxDispersionAcrossArcsec).toBe(Math.max(0, ...tracers.flatMap((s) => s.dispersionAcrossArcsec.map(Math.abs))));
+      expect(row.slitsOverLimit).toBe(tracers.filter((s) => s.lossFraction >= 0.05).length);
+      expect(maskRowAt(ctx, h, true).passes).toBe(row.passes);
+      if (row.passes) passed++; else failed++;
+    }
+    // The grid crosses the window's edges, so both outcomes are exercised.
+    expect(passed).toBeGreaterThan(0);
+    expect(failed).toBeGreaterThan(0);
+  });
+});

@@ -17,6 +17,19 @@ describe('weighting inside the pipeline', () => {
     ruled.catalog.targets.forEach((t, i) => expect(w2[i] === 0).toBe(excluded.has(t.id)));
   });
 
+  it('each row gets the weight of its own kept entry, whether the kept list comes in catalog order or not', () => {
+    const ruled = scenario({ seed: 5, candidates: 400 });
+    const r = weighPlanTargets(ruled.plan, ruled.catalog.targets);
+    const inOrder = targetWeights(ruled.plan, ruled.catalog.targets, [], r);
+    const shuffled = targetWeights(ruled.plan, ruled.catalog.targets, [], { ...r, targets: r.targets.slice().reverse() });
+    expect(Array.from(shuffled)).toEqual(Array.from(inOrder));
+    const byId = new Map(r.targets.map((t) => [t.id, t]));
+    ruled.catalog.targets.forEach((t, i) => {
+      const k = byId.get(t.id);
+      expect(inOrder[i]).toBe(k ? (t.role === 'alignment' ? 1 : k.weight) : 0);
+    });
+  });
+
   it('overrides: weight replaces, force out zeroes, force in adds the total of all others', () => {
     const x = scenario({ seed: 2, candidates: 200 }, (p) => { delete p.weighting; });
     const [a, b, c] = x.catalog.targets.filter((t) => t.role === 'tracer');

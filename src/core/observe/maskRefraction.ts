@@ -240,8 +240,24 @@ export function slitsAtHourAngle(ctx: MaskRefractionContext, haH: number): SlitR
   return out;
 }
 
-/** The summary row of the mask at hour angle haH. */
-export function maskRowAt(ctx: MaskRefractionContext, haH: number): MaskHourAngleRow {
+/**
+ * Mask x (arcsec) of a slit target's image at hour angle haH relative to the guided centre, written into out as
+ * [guide wavelength, blue end, red end], given the centre's lift c; false (out untouched) when the target is below
+ * the horizon. The same arithmetic as slitLift in slitsAtHourAngle, without building a row per slit.
+ */
+function acrossAt(ctx: MaskRefractionContext, g: SlitGeometry, haH: number, c: { xArcsec: number; yArcsec: number }, out: Float64Array): boolean {
+  const u = liftPerUnitRefractivity(ctx, haH * 15 - g.dRaDeg, g.sinDec, g.cosDec);
+  if (!u) return false;
+  const k = ctx.kArcsec;
+  // slitLift's x component at the guide, blue and red refraction constants.
+  out[0] = g.jxe * (k.guide * u[0]) + g.jxn * (k.guide * u[1]) - c.xArcsec;
+  out[1] = g.jxe * (k.blue * u[0]) + g.jxn * (k.blue * u[1]) - c.xArcsec;
+  out[2] = g.jxe * (k.red * u[0]) + g.jxn * (k.red * u[1]) - c.xArcsec;
+  return true;
+}
+
+/** The summary row of the mask at hour angle haH (window-role slits only; no per-slit rows are built). */
+export function maskRowAt(ctx: MaskRefractionContext, haH: number, stopAtFirstFailure = false): MaskHourAngleRow {
   const { input } = ctx;
   const c = centreAngles(input, haH);
   const alt = 90 - c.zenithDeg;
@@ -253,12 +269,23 @@ export function maskRowAt(ctx: MaskRefractionContext, haH: number): MaskHourAngl
   };
   if (airmass === null) return row;
   let maxD = 0, maxS = 0, maxL = 0;
-  for (const s of slitsAtHourAngle(ctx, haH)) {
-    if (!WINDOW_ROLES.includes(s.role)) continue;
-    maxD = Math.max(maxD, Math.abs(s.dispersionAcrossArcsec[0]), Math.abs(s.dispersionAcrossArcsec[1]));
-    maxS = Math.max(maxS, Math.abs(s.fieldShiftAcrossArcsec));
-    if (s.lossFraction >= maxL) { maxL = s.lossFraction; row.worstSlitId = s.slitId; }
-    if (s.lossFraction >= input.settings.maxLossFraction) row.slitsOverLimit++;
+  const lift = centreLift(ctx, haH);
+  const { seeingFwhmArcsec, maxLossFraction } = input.settings;
+  const x = new Float64Array(3);
+  if (lift && !(stopAtFirstFailure && airmass > input.settings.maxAirmass)) {
+    for (const g of ctx.slits) {
+      if (!g.windowRole || !acrossAt(ctx, g, haH, lift, x)) continue;
+      const totalBlue = x[1] - g.design.xArcsec, totalRed = x[2] - g.design.xArcsec;
+      const worst = Math.abs(totalBlue) >= Math.abs(totalRed) ? totalBlue : totalRed;
+      const loss = lossRelativeToCentred(slitTransmission(worst, g.widthArcsec, seeingFwhmArcsec), g.centredTransmission);
+      maxD = Math.max(maxD, Math.abs(x[1] - x[0]), Math.abs(x[2] - x[0]));
+      maxS = Math.max(maxS, Math.abs(x[0] - g.design.xArcsec));
+      if (loss >= maxL) { maxL = loss; row.worstSlitId = g.slit.slitId; }
+      if (loss >= maxLossFraction) {
+        row.slitsOverLimit++;
+        if (stopAtFirstFailure) break;
+      }
+    }
   }
   row.maxDispersionAcrossArcsec = maxD;
   row.maxFieldShiftAcrossArcsec = maxS;
@@ -281,7 +308,7 @@ export function maskRefractionReport(input: MaskRefractionInput): MaskRefraction
   const ctx = maskRefractionContext(input);
   const grid = hourAngleGridH(input.settings.hourAngleRangeH, input.settings.hourAngleStepH);
   const rows = grid.map((h) => maskRowAt(ctx, h));
-  const passes = (h: number) => maskRowAt(ctx, h).passes;
+  const passes = (h: number) => maskRowAt(ctx, h, true).passes;
   const refine = (fail: number, pass: number) => {
     for (let i = 0; i < 12; i++) {
       const mid = (fail + pass) / 2;

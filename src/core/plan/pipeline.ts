@@ -92,11 +92,20 @@ export const DEFAULT_MAX_LENGTH_FACTOR = 3;
  * adds the sum of all other weights so the target is taken wherever it fits.
  */
 export function targetWeights(plan: PlanFile, targets: readonly Target[], warnings: string[], weighting: WeightingResult = weighPlanTargets(plan, targets)): Float64Array {
-  const kept = new Map(weighting.targets.map((t) => [t.id, t]));
-  const w = Float64Array.from(targets, (t) => {
-    const k = kept.get(t.id);
-    return k ? (t.role === 'alignment' ? 1 : k.weight) : 0;
-  });
+  const w = new Float64Array(targets.length);
+  // The kept targets are a subsequence of the catalog in catalog order (weighTargets keeps the order), so one walk
+  // pairs them without an index of every id; a list of another order falls back to the lookup by id.
+  const kept = weighting.targets;
+  let j = 0;
+  for (let i = 0; i < targets.length && j < kept.length; i++) {
+    if (kept[j].id !== targets[i].id) continue;
+    w[i] = targets[i].role === 'alignment' ? 1 : kept[j].weight;
+    j++;
+  }
+  if (j < kept.length) {
+    const byId = new Map(kept.map((t) => [t.id, t]));
+    targets.forEach((t, i) => { const k = byId.get(t.id); w[i] = k ? (t.role === 'alignment' ? 1 : k.weight) : 0; });
+  }
   const overrides = Object.entries(plan.targetOverrides ?? {});
   if (overrides.length === 0) return w;
   const index = new Map(targets.map((t, i) => [t.id, i]));

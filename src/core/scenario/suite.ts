@@ -52,3 +52,37 @@ export function suiteScenario(i: number, profiles: readonly InstrumentProfile[])
     },
   });
 }
+
+/** Candidate counts of the scale suite (bench/scale.bench.ts). */
+export const SCALE_CANDIDATES = [3000, 20000, 200000, 1000000] as const;
+
+/**
+ * A scale-suite galaxy of `candidates` rows for `profile`: a galaxy unlike the demo (RA across 0/360, northern Dec,
+ * flattened, its own velocity), ridge-profile plan of four free masks. From 200 000 rows on, contaminants and alignment
+ * stars spread over a wide field (40 Re half-size) as an imaging survey catalog would give.
+ */
+export function scaleScenario(candidates: number, profile: InstrumentProfile): Scenario {
+  const wide = candidates >= 200000;
+  return generateScenario({
+    seed: 7000 + candidates,
+    candidates,
+    alignmentStars: Math.max(40, Math.round(candidates / 2000)),
+    alignmentMagRange: profile.alignment.magRange,
+    fieldHalfSizeRe: wide ? 40 : 15,
+    instrument: profile.id,
+    catalogFile: `scale-${candidates}.catalog.csv`,
+    masks: 4,
+    galaxy: {
+      id: `Scale Galaxy ${candidates}`,
+      raDeg: 359.93,
+      decDeg: 41.2,
+      reArcsec: 38,
+      axisRatio: 0.62,
+      paDeg: 117,
+      vsysKms: 2750,
+      distanceMpc: 21,
+      sersicN: 3,
+      muE: 21.0,
+    },
+  });
+}

@@ -12,8 +12,10 @@ import type { InstrumentProfile } from '../profile/schema';
 import type { Problem } from '../result';
 import { alignmentBoxFits, eligibilityRules, scienceSlitEligible, type EligibilityRules } from '../geometry/eligibility';
 import { chooseAlignmentBoxes, largestClearSet, type AlignmentCandidate } from './alignment';
-import { allocateJoint, maskCandidateSet, resolveOneMask, jointObjective, type JointOptions, type JointProblem, type JointSolution, type MaskCandidateSet } from './jointAllocation';
-import { maskPointToSkyDeg, projectIndicesToMaskArcsec, unitVectors, type UnitVectors } from './maskTargets';
+import { allocateJoint, compactJointProblem, maskCandidateSet, resolveOneMask, jointObjective, type JointOptions, type JointProblem, type JointSolution, type MaskCandidateSet } from './jointAllocation';
+import { maskBasis, maskPointToSkyDeg, projectIndicesToMaskArcsec, unitVectors, type UnitVectors } from './maskTargets';
+import { unitGrid, unitGridNear, type UnitGrid } from './unitGrid';
+import { ARCSEC_PER_RAD } from '../sky/angles';
 import { polygonBounds } from '../geometry/polygon';
 import type { LineWindowSettings } from '../geometry/wavelength';
 import type { MaskPointing, MaskSolution, Slit } from './types';
@@ -82,6 +84,24 @@ export function alignmentCapacity(ctx: AllocationContext, mask: Pick<MaskPointin
   return { available: c.length, compatibleMax: largestClearSet(c, ctx.profile.alignment.boxSizeArcsec + ctx.profile.slits.gapArcsec).length };
 }
 
+/** The spatial index of each context's tracers (built on first use; a context never changes once built). */
+const tracerGrids = new WeakMap<AllocationContext, UnitGrid>();
+
+/**
+ * Tracer indices (into targets), in the order of ctx.tracerIndices, of every tracer within the footprint radius of
+ * the mask centre and a few beyond it: through a spatial index, so a mask's cost grows with the tracers near it.
+ */
+export function tracersNear(ctx: AllocationContext, mask: Pick<MaskPointing, 'raDeg' | 'decDeg' | 'paDeg'>): Int32Array {
+  const radiusRad = ctx.footprintRadiusArcsec / ARCSEC_PER_RAD;
+  let grid = tracerGrids.get(ctx);
+  if (!grid) tracerGrids.set(ctx, (grid = unitGrid(ctx.unit, ctx.tracerIndices, radiusRad)));
+  const b = maskBasis(mask);
+  const positions = unitGridNear(grid, b.cx, b.cy, b.cz, radiusRad);
+  const out = new Int32Array(positions.length);
+  for (let k = 0; k < positions.length; k++) out[k] = ctx.tracerIndices[positions[k]];
+  return out;
+}
+
 /** One mask ready for allocation: its alignment boxes and its tracer candidates (mask-frame positions). */
 export interface PreparedMask {
   mask: MaskPointing;
@@ -100,14 +120,15 @@ export function prepareMask(planCtx: AllocationContext, mask: MaskPointing): Pre
   const L = profile.slits.minLengthArcsec, g = profile.slits.gapArcsec, box = profile.alignment.boxSizeArcsec;
   const choice = chooseAlignmentBoxes(alignmentCandidates(ctx, mask), profile.alignment.minCount, box + g);
   const boxes = choice.chosen;
-  const tp = projectIndicesToMaskArcsec(mask, ctx.unit, ctx.tracerIndices, ctx.footprintRadiusArcsec);
+  const near = tracersNear(ctx, mask);
+  const tp = projectIndicesToMaskArcsec(mask, ctx.unit, near, ctx.footprintRadiusArcsec);
   const objects: number[] = [], xs: number[] = [], ys: number[] = [];
   const clearOfBox = L / 2 + box / 2 + g;
-  for (let k = 0; k < ctx.tracerIndices.length; k++) {
+  for (let k = 0; k < near.length; k++) {
     const x = tp.xArcsec[k], y = tp.yArcsec[k];
     if (!scienceSlitEligible(rules, x, y)) continue;
     if (boxes.some((b) => Math.abs(b.yArcsec - y) < clearOfBox)) continue;
-    objects.push(ctx.tracerIndices[k]); xs.push(x); ys.push(y);
+    objects.push(near[k]); xs.push(x); ys.push(y);
   }
   return {
     mask,
@@ -126,7 +147,7 @@ export function prepareMasks(ctx: AllocationContext, pointings: readonly MaskPoi
 
 /** The joint problem over prepared masks (weights indexed by target). */
 export function jointProblemOf(ctx: AllocationContext, prepared: readonly PreparedMask[]): JointProblem {
-  return { weights: ctx.weights, masks: prepared.map((p) => p.candidates) };
+  return compactJointProblem(ctx.weights, prepared.map((p) => p.candidates));
 }
 
 /** A Problem for a mask with too few alignment stars: names the mask, found vs needed, and how to fix it. */

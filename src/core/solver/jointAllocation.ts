@@ -47,6 +47,35 @@ export function maskCandidateSet(objects: ArrayLike<number>, starts: ArrayLike<n
   return { objects: Int32Array.from(objects), starts: s, ends: e, index: buildIntervalIndex(s, e) };
 }
 
+/** Scratch map from catalog object index to compact index (-1 when unused); every entry set is reset before return. */
+let compactIndexOf = new Int32Array(0);
+
+/**
+ * The joint problem over only the objects that fall on some mask, renumbered 0.. in increasing catalog order (so every
+ * loop over objects keeps its order and the solution is the same), each mask's candidates keeping their positions:
+ * chosen positions mean the same in both problems. The allocation's per-object arrays then grow with the candidates
+ * on the masks, not with the catalog. O(candidates on the masks, plus a sort of the distinct objects).
+ */
+export function compactJointProblem(weights: Float64Array, masks: readonly MaskCandidateSet[]): JointProblem {
+  if (compactIndexOf.length < weights.length) compactIndexOf = new Int32Array(weights.length).fill(-1);
+  const map = compactIndexOf;
+  const seen: number[] = [];
+  for (const set of masks) for (const o of set.objects) if (map[o] === -1) { map[o] = 0; seen.push(o); }
+  const ids = Int32Array.from(seen).sort();
+  const local = new Float64Array(ids.length);
+  for (let i = 0; i < ids.length; i++) { map[ids[i]] = i; local[i] = weights[ids[i]]; }
+  const out = masks.map((set) => ({ ...set, objects: set.objects.map((o) => map[o]) }));
+  for (let i = 0; i < ids.length; i++) map[ids[i]] = -1;
+  return { weights: local, masks: out };
+}
+
+/** The problem itself when most of its objects fall on a mask, else compactJointProblem of it (the same solutions). */
+function overMaskObjects(problem: JointProblem): JointProblem {
+  let n = 0;
+  for (const set of problem.masks) n += set.objects.length;
+  return problem.weights.length > 2 * n + 1024 ? compactJointProblem(problem.weights, problem.masks) : problem;
+}
+
 /** Total weight of a joint selection. */
 export function jointObjective(problem: JointProblem, chosen: readonly (readonly number[])[]): number {
   let t = 0;
@@ -110,6 +139,7 @@ function bestResponse(problem: JointProblem, owner: Int32Array, chosen: number[]
 
 /** Re-solve one mask exactly with the others fixed (the editor's drag); returns a new selection, never a worse total. */
 export function resolveOneMask(problem: JointProblem, chosen: readonly (readonly number[])[], m: number): number[][] {
+  problem = overMaskObjects(problem);
   const next = chosen.map((s) => s.slice());
   bestResponse(problem, ownerOf(problem, next), next, m);
   return next;
@@ -117,6 +147,7 @@ export function resolveOneMask(problem: JointProblem, chosen: readonly (readonly
 
 /** Best-response sweeps over all masks until a sweep gains nothing (or maxSweeps); `work` only speeds it up. */
 export function improveByBestResponse(problem: JointProblem, chosen: number[][], maxSweeps = 10, work?: ResponseWork): number[][] {
+  problem = overMaskObjects(problem);
   const owner = ownerOf(problem, chosen);
   let value = jointObjective(problem, chosen);
   for (let sweep = 0; sweep < maxSweeps; sweep++) {
@@ -169,6 +200,7 @@ function holderLosses(problem: JointProblem, chosen: readonly (readonly number[]
  * stolen objects, and the move is kept only when the total weight rises. Repeats until no move helps.
  */
 export function improveBySteals(problem: JointProblem, chosen: number[][], maxRounds = 3, work?: ResponseWork): number[][] {
+  problem = overMaskObjects(problem);
   const M = problem.masks.length;
   let total = jointObjective(problem, chosen);
   const shared = sharedObjects(problem);
@@ -217,6 +249,7 @@ export function improveBySteals(problem: JointProblem, chosen: number[][], maxRo
 
 /** Greedy mask-by-mask allocation: each mask in turn takes its exact optimum among objects not yet used. */
 export function allocateGreedyMaskByMask(problem: JointProblem, order?: readonly number[]): JointSolution {
+  problem = overMaskObjects(problem);
   const chosen = problem.masks.map(() => [] as number[]);
   const owner = new Int32Array(problem.weights.length).fill(-1);
   for (const m of order ?? problem.masks.map((_, i) => i)) bestResponse(problem, owner, chosen, m);
@@ -236,6 +269,7 @@ export interface JointOptions {
 
 /** Joint allocation by Lagrangian relaxation with repair and best-response sweeps (the fast path). */
 export function allocateJoint(problem: JointProblem, opts: JointOptions = {}): JointSolution {
+  problem = overMaskObjects(problem);
   const M = problem.masks.length;
   const nObj = problem.weights.length;
   const maxIt = opts.maxIterations ?? 150;
