@@ -318,13 +318,13 @@ describe('a first session in the editor', () => {
     }
     const out = join(dir, folder);
     const demo = demoOnDisk();
-    for (const f of ['masks.csv', 'slits.csv', 'coverage.json', 'solved.plan.json', 'catalog-report.csv', 'excluded-targets.csv', demo.catalogName]) {
+    for (const f of ['masks.csv', 'slits.csv', 'coverage.json', 'solved.plan.json', 'catalog-report.csv', 'excluded-targets.csv', 'manifest.json', demo.catalogName]) {
       expect(names, f).toContain(`${folder}/${f}`);
     }
     expect(JSON.parse(readFileSync(join(out, 'solved.plan.json'), 'utf8')).catalog).toBe(demo.catalogName);
     const r = runCli(['check', out]);
     expect(r.status, r.stderr).toBe(0);
-    expect(r.stdout).toContain(`objects against ${demo.catalogName} and catalog-report.csv`);
+    expect(r.stdout).toContain(`mags and weights against ${demo.catalogName} and catalog-report.csv`);
 
     // 14: the exposure estimate per mask and the resolving power agree with what the command line reports for the same
     // masks (plan on the exported solved.plan.json: every mask locked).
