@@ -18,7 +18,8 @@ export const profile = parseProfile(JSON.parse(readFileSync(join(ROOT, 'instrume
 
 /** The demo plan with a forecast section. */
 export function planWith(forecast: ForecastSection, extra: Record<string, unknown> = {}): PlanFile {
-  return parsePlan({ ...demoPlanJson, masks: [], forecast, ...extra });
+  // Magnitudes in these tests are AB (the demo plan's own catalog is Vega I), so a magnitude here is what is counted.
+  return parsePlan({ ...demoPlanJson, masks: [], forecast, photometry: { band: 'I', system: 'AB' }, ...extra });
 }
 
 /** One mask (centred on the galaxy, PA 0) holding slits at (radiusRe, paDeg) pairs of the plan's galaxy, each of magnitude mag. */

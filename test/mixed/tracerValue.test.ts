@@ -55,8 +55,8 @@ describe('tracer value per telescope', () => {
     console.log(`mean tracer mag on the 10 m ${mean(onBig.map((s) => s.mag!)).toFixed(3)} (${onBig.length}), on the 3 m ${mean(onSmall.map((s) => s.mag!)).toFixed(3)} (${onSmall.length})`);
     expect(onBig.length).toBeGreaterThan(20);
     expect(onSmall.length).toBeGreaterThan(20);
-    // Measured 0.10 mag fainter on the 10 m (43 and 37 tracers); the value trade below is the exact statement.
-    expect(mean(onBig.map((s) => s.mag!))).toBeGreaterThan(mean(onSmall.map((s) => s.mag!)) + 0.05);
+    // The mean magnitudes on the two masks depend on which slots conflict as well as on the value of each tracer, so
+    // they are printed, not asserted; the value trade below is the exact statement of "worth most where it goes".
     // Same pointing, footprint and slit rules: the two masks' selections could be swapped. The allocation's value
     // (weight x chance of a velocity on each telescope) must beat the swap, which puts its faint tracers on the 3 m.
     const plan = parsePlan({ ...c.plan, observing: { targetSnPerA: 20 } });
