@@ -35,9 +35,12 @@ describe('editor in chromium', () => {
     // Move a mask well across the field (towards the view's centre, so the pointer stays on the canvas): its
     // tracer yield must change. Masks may overlap; the one on top at that point is the one that moves.
     const box = (await page.locator('[data-testid="sky-view"]').boundingBox())!;
-    const dirX = box.width / 2 - masks[0].x, dirY = box.height / 2 - masks[0].y;
+    // The mask farthest from the view's centre (a mask already on the centre would not move towards it).
+    const off = (a: { x: number; y: number }) => Math.hypot(box.width / 2 - a.x, box.height / 2 - a.y);
+    const far = masks.reduce((a, b) => (off(b) > off(a) ? b : a));
+    const dirX = box.width / 2 - far.x, dirY = box.height / 2 - far.y;
     const n = Math.hypot(dirX, dirY) || 1;
-    await dragMask(page, masks[0].id, (dirX / n) * 160, (dirY / n) * 160);
+    await dragMask(page, far.id, (dirX / n) * 160, (dirY / n) * 160);
     await waitSolved(page);
     const moved = await anchors(page);
     const k = moved.findIndex((m, i) => Math.hypot(m.x - masks[i].x, m.y - masks[i].y) > 100);
