@@ -55,7 +55,7 @@ describe('refraction report of a plan', () => {
     }
     const lines = formatRefractionSummary(r);
     // Slits are cut for the middle of the science range, the guider works at its own wavelength.
-    expect(lines[0]).toMatch(/^Differential refraction \(seeing 0.7" FWHM, slits cut for 8400 A, guide 6500 A, science 7800-9000 A/);
+    expect(lines[0]).toMatch(/^Differential refraction \(seeing 0.7" FWHM, slits cut at 8400 A, guide 6500 A, science 7800-9000 A/);
     expect(lines[1]).toMatch(/m1: designed for HA \+1.00 h; hour-angle window/);
   });
 

@@ -159,7 +159,7 @@ const fmtH = (h: number) => `${h >= 0 ? '+' : ''}${h.toFixed(2)} h`;
 export function formatRefractionSummary(report: ObservingReport): string[] {
   const s = report.settings;
   const lines = [
-    `Differential refraction (seeing ${s.seeingFwhmArcsec}" FWHM, slits cut for ${(s.designWavelengthA ?? s.guideWavelengthA).toFixed(0)} A, guide ${s.guideWavelengthA.toFixed(0)} A, ` +
+    `Differential refraction (seeing ${s.seeingFwhmArcsec}" FWHM, slits cut at ${(s.designWavelengthA ?? s.guideWavelengthA).toFixed(0)} A, guide ${s.guideWavelengthA.toFixed(0)} A, ` +
       `science ${s.scienceRangeA[0].toFixed(0)}-${s.scienceRangeA[1].toFixed(0)} A, tracer slits losing < ${(s.maxLossFraction * 100).toFixed(0)} %, airmass <= ${s.maxAirmass}):`,
   ];
   for (const m of report.masks) {
