@@ -30,9 +30,10 @@ export function solveAndWrite(loaded: LoadedPlan, out: string, io: CliIO, opts: 
   // A setup where no science slit can exist is an error named by its cause, before any work.
   // Every profile of the plan (one per spectrograph), with the lines' windows over the velocity range.
   const window = lineWindowSettings(loaded.plan.goals);
-  const profiles = uniqueProfiles([{ id: loaded.profile.id, path: loaded.profilePath }, ...Object.entries(loaded.profilePaths).map(([ref, path]) => ({ id: loaded.profiles?.[ref]?.id ?? loaded.profile.id, path }))]);
-  const byId = new Map([loaded.profile, ...Object.values(loaded.profiles ?? {})].map((p) => [p.id, p]));
-  const impossible = profiles.flatMap((p) => scienceSlitProblems(byId.get(p.id)!, loaded.plan.goals.linesA, loaded.plan.galaxy.vsysKms, `instrument profile ${p.id} (${p.path})`, window));
+  const used = [{ profile: loaded.profile, path: loaded.profilePath }, ...Object.entries(loaded.profilePaths).map(([ref, path]) => ({ profile: loaded.profiles?.[ref] ?? loaded.profile, path }))]
+    .filter((u, k, all) => all.findIndex((v) => v.profile.id === u.profile.id) === k);
+  const profiles = used.map((u) => ({ id: u.profile.id, path: u.path }));
+  const impossible = used.flatMap((u) => scienceSlitProblems(u.profile, loaded.plan.goals.linesA, loaded.plan.galaxy.vsysKms, `instrument profile ${u.profile.id} (${u.path})`, window));
   if (impossible.length) throw new InputError(impossible);
   // The output place is checked, and its temporary folder made, before the solve.
   const folder = OutputFolder.open(out, [...CONTRACT_OUTPUT_FILES, 'excluded-targets.csv', ...Object.keys(opts.extraFiles ?? {})], {

@@ -5,7 +5,7 @@
  * is usable when the whole window of every line lies in one usable pixel range (inside the edge margins and at least
  * edgeMarginPixels from every gap).
  */
-import { intersectIntervals, observedWavelengthA, usablePixelRanges, type DetectorModel } from '../geometry/wavelength';
+import { DEFAULT_LINE_WINDOW, observedLineWindowsA, usableXIntervalsForWindowsArcsec, type DetectorModel } from '../geometry/wavelength';
 
 /** The line settings of a check: systemic velocity, half-range about it (km/s) and half-window (Angstrom). */
 export interface LineSettings {
@@ -17,39 +17,19 @@ export interface LineSettings {
   lineHalfWindowA: number;
 }
 
-export const LINE_WINDOW_DEFAULTS = { velocityHalfRangeKms: 500, lineHalfWindowA: 10 } as const;
+export const LINE_WINDOW_DEFAULTS = DEFAULT_LINE_WINDOW;
 
-/** Observed window [blue, red] in Angstrom (air) of each rest line for the settings. */
+/** Observed window [blue, red] in Angstrom (air) of each rest line for the settings (geometry/wavelength.ts). */
 export function observedWindowsA(s: LineSettings): [number, number][] {
-  return s.linesA.map((l) => [
-    observedWavelengthA(l, s.vsysKms - s.velocityHalfRangeKms) - s.lineHalfWindowA,
-    observedWavelengthA(l, s.vsysKms + s.velocityHalfRangeKms) + s.lineHalfWindowA,
-  ]);
-}
-
-/** Mask-x offset (arcsec) of pixel p for wavelength L: the inverse of the contract's rule p(x, L). */
-export function maskXForPixelArcsec(detector: DetectorModel, pixel: number, wavelengthA: number): number {
-  return (pixel - detector.pixels / 2 - (wavelengthA - detector.centralWavelengthA) / detector.dispersionAPerPixel) * detector.xArcsecPerPixel;
+  return observedLineWindowsA(s.linesA, s.vsysKms, s).map((w) => [w.loA, w.hiA]);
 }
 
 /** Mask-x intervals (arcsec, ascending) where one observed window [blueA, redA] lies wholly in one usable pixel range. */
 export function windowXIntervalsArcsec(detector: DetectorModel, windowA: readonly [number, number]): [number, number][] {
-  const out: [number, number][] = [];
-  for (const [p0, p1] of usablePixelRanges(detector)) {
-    // The blue end must reach p0 or beyond and the red end stay at p1 or below.
-    const lo = maskXForPixelArcsec(detector, p0, windowA[0]);
-    const hi = maskXForPixelArcsec(detector, p1, windowA[1]);
-    if (lo <= hi) out.push([lo, hi]);
-  }
-  return out;
+  return usableXIntervalsForWindowsArcsec(detector, [{ restA: windowA[0], loA: windowA[0], hiA: windowA[1] }]);
 }
 
-/** Mask-x intervals (arcsec, ascending) where every line window is usable: the intersection over the lines. */
+/** Mask-x intervals (arcsec, ascending) where every line window is usable: the same rule as the solver's. */
 export function linesXIntervalsArcsec(detector: DetectorModel, s: LineSettings): [number, number][] {
-  let xs: [number, number][] | null = null;
-  for (const w of observedWindowsA(s)) {
-    const lineXs = windowXIntervalsArcsec(detector, w);
-    xs = xs === null ? lineXs : intersectIntervals(xs, lineXs);
-  }
-  return xs ?? [];
+  return usableXIntervalsForWindowsArcsec(detector, observedLineWindowsA(s.linesA, s.vsysKms, s));
 }
