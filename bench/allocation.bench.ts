@@ -14,7 +14,7 @@ import { medianMs, printTable, type BenchRow } from './harness';
 import { generateScenario, scenarioCatalog } from '../src/core/scenario/generator';
 import { parsePlan, galaxyModel } from '../src/core/plan/validate';
 import { parseProfileText } from '../src/core/profile/load';
-import { targetWeights } from '../src/core/plan/pipeline';
+import { targetWeights } from '../src/core/pipeline/pipeline';
 import { allocateForPointings, allocationContext, jointProblemOf, reallocateOneMask } from '../src/core/solver/allocateMasks';
 import { allocateGreedyMaskByMask } from '../src/core/solver/jointAllocation';
 import { solveJointExact, type HighsLike } from '../src/core/solver/jointIlp';

@@ -8,7 +8,7 @@ import { medianMs, printTable, type BenchRow } from './harness';
 import { demoScenario, scenarioCatalog } from '../src/core/scenario/generator';
 import { parsePlan, galaxyModel } from '../src/core/plan/validate';
 import { parseProfile } from '../src/core/profile/load';
-import { solvePlan } from '../src/core/plan/pipeline';
+import { solvePlan } from '../src/core/pipeline/pipeline';
 import { LIVE_FORECAST_TRIALS } from '../src/core/forecast/live';
 import { DEFAULT_TRIALS, forecastPlan, planExposures } from '../src/core/forecast/forecast';
 

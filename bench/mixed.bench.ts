@@ -8,7 +8,7 @@ import { readFileSync } from 'node:fs';
 import { medianMs, printTable, type BenchRow } from './harness';
 import { parsePlan } from '../src/core/plan/validate';
 import { parseProfile } from '../src/core/profile/load';
-import { solvePlan, type PlanInputs } from '../src/core/plan/pipeline';
+import { solvePlan, type PlanInputs } from '../src/core/pipeline/pipeline';
 import { scenarioCatalog } from '../src/core/scenario/generator';
 import { mixedScenario } from '../src/core/scenario/mixedScenario';
 

@@ -10,7 +10,7 @@ import { medianMs, printTable, type BenchRow } from './harness';
 import { demoScenario, generateScenario, scenarioCatalog, type Scenario } from '../src/core/scenario/generator';
 import { parsePlan } from '../src/core/plan/validate';
 import { parseProfile } from '../src/core/profile/load';
-import { solvePlan, type PlanInputs } from '../src/core/plan/pipeline';
+import { solvePlan, type PlanInputs } from '../src/core/pipeline/pipeline';
 
 const profile = parseProfile(JSON.parse(readFileSync(new URL('../instrument-profiles/ridge10-narrow.json', import.meta.url), 'utf8')), 'ridge10-narrow');
 

@@ -8,8 +8,8 @@ import { medianMs, printTable, type BenchRow } from './harness';
 import { demoScenario, generateScenario, scenarioCatalog, type Scenario } from '../src/core/scenario/generator';
 import { parsePlan } from '../src/core/plan/validate';
 import { parseProfile } from '../src/core/profile/load';
-import { solvePlan } from '../src/core/plan/pipeline';
-import { observingReportForPlan } from '../src/core/observe/refractionReport';
+import { solvePlan } from '../src/core/pipeline/pipeline';
+import { observingReportForPlan } from '../src/core/pipeline/refractionReport';
 import { spectralReport } from '../src/core/spectro/spectralReport';
 
 const profile = parseProfile(JSON.parse(readFileSync(new URL('../instrument-profiles/ridge10-narrow.json', import.meta.url), 'utf8')), 'ridge10-narrow');

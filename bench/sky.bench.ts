@@ -7,7 +7,7 @@ import { nightTable } from '../src/core/observe/night';
 import { maskRefractionReport } from '../src/core/observe/maskRefraction';
 import { maskToSkyArcsec } from '../src/core/sky/frames';
 import { tangentCentre, tangentToSkyDeg } from '../src/core/sky/tangentPlane';
-import type { Slit } from '../src/core/solver/types';
+import type { Slit } from '../src/core/geometry/maskSolution';
 
 const SITE = { latDeg: 28.1, lonDeg: -112.7, elevationM: 3100 };
 const TARGET = { raDeg: 30, decDeg: 10 };

@@ -12,7 +12,7 @@ import { suiteScenario, SUITE_SIZE } from '../src/core/scenario/suite';
 import { scenarioCatalog } from '../src/core/scenario/generator';
 import { parsePlan } from '../src/core/plan/validate';
 import { parseProfile } from '../src/core/profile/load';
-import { solvePlan } from '../src/core/plan/pipeline';
+import { solvePlan } from '../src/core/pipeline/pipeline';
 
 const PROFILE_IDS = ['ridge10-narrow', 'quad8-square', 'broad65-wide'];
 const profiles = PROFILE_IDS.map((id) => parseProfile(JSON.parse(readFileSync(new URL(`../instrument-profiles/${id}.json`, import.meta.url), 'utf8')), id));

@@ -14,7 +14,7 @@ import type { InstrumentProfile } from '../core/profile/schema';
 import { assertCatalogUsable } from '../core/catalog/read';
 import { readCatalogFile } from './readCatalogFile';
 import type { CatalogReadResult, ColumnMapping } from '../core/catalog/types';
-import type { PlanInputs } from '../core/plan/pipeline';
+import type { PlanInputs } from '../core/pipeline/pipeline';
 import { planProfiles, planWithMaskInstruments } from '../core/plan/instruments';
 
 /** The profile references a raw plan object names (`instrument`, or each `instruments[].profile`), with the field of each. */

@@ -15,7 +15,7 @@ import { createHash } from 'node:crypto';
 import { existsSync, mkdirSync, readdirSync, readFileSync, renameSync, rmdirSync, rmSync, writeFileSync } from 'node:fs';
 import { basename, dirname, join, relative, resolve, sep } from 'node:path';
 import { InputError } from '../core/result';
-import type { PlanSolution } from '../core/plan/pipeline';
+import type { PlanSolution } from '../core/pipeline/pipeline';
 import { masksToCsv, slitsToCsv } from '../core/export/slitsCsv';
 import { catalogReportCsv } from '../core/export/catalogReport';
 import { MANIFEST_FILE, buildManifest, manifestText, parseManifest, profileDigest, type ManifestProfile } from '../core/check/manifest';

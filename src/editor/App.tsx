@@ -9,7 +9,7 @@ import { useControllerVersion } from './useController';
 import { SkyView, type MaskPose } from './view/SkyView';
 import { buildCatalogGeometry } from './view/catalogGeometry';
 import { galaxyModel } from '../core/plan/validate';
-import { galaxyRadiusAndAzimuth } from '../core/coverage/coverage';
+import { galaxyRadiusAndAzimuth } from '../core/sky/galaxyRadius';
 import { baseWeightsFor, slitOfObject, slitsByMask, weightsFor } from './derive';
 import { GalaxyPanel } from './panels/GalaxyPanel';
 import { ProfilePanel } from './panels/ProfilePanel';
@@ -29,8 +29,8 @@ import { BackdropPanel, useBackdrop } from './panels/BackdropPanel';
 import { downloadFile } from './io/download';
 import { ROLE_STYLE, ROLES } from './view/palette';
 import { RoleMark } from './panels/MasksPanel';
-import type { MaskExposureReport } from '../core/observe/exposure';
-import type { ObservingReport } from '../core/observe/refractionReport';
+import type { MaskExposureReport } from '../core/solver/exposure';
+import type { ObservingReport } from '../core/pipeline/refractionReport';
 
 export function App({ controller: c }: { controller: EditorController }) {
   useControllerVersion(c);

@@ -5,8 +5,8 @@
 import type { CatalogReadResult } from '../core/catalog/types';
 import type { PlanFile, PlanMask } from '../core/plan/schema';
 import { parsePlanText } from '../core/plan/validate';
-import { maskPlaced, planFullyPlaced } from '../core/plan/pipeline';
-import { withoutSolveOutputs } from '../core/observe/refractionReport';
+import { maskPlaced, planFullyPlaced } from '../core/pipeline/pipeline';
+import { withoutSolveOutputs } from '../core/pipeline/refractionReport';
 import { parseProfileText } from '../core/profile/load';
 import type { InstrumentProfile } from '../core/profile/schema';
 import { InputError, type Problem } from '../core/result';

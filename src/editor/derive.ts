@@ -5,11 +5,11 @@
 import type { CoverageReport } from '../core/coverage/coverage';
 import type { Target } from '../core/catalog/types';
 import type { PlanFile } from '../core/plan/schema';
-import { targetWeights, weighPlanTargets } from '../core/plan/pipeline';
-import type { MaskSolution, Slit, SlitRole } from '../core/solver/types';
+import { targetWeights, weighPlanTargets } from '../core/pipeline/pipeline';
+import type { MaskSolution, Slit, SlitRole } from '../core/geometry/maskSolution';
 import { ROLES } from './view/palette';
 import { galaxyModel } from '../core/plan/validate';
-import { galaxyRadiusAndAzimuth } from '../core/coverage/coverage';
+import { galaxyRadiusAndAzimuth } from '../core/sky/galaxyRadius';
 import { separationDeg } from '../core/sky/separation';
 
 export type RoleCounts = Record<SlitRole, number>;
@@ -48,7 +48,7 @@ export function weightsFor(plan: PlanFile, targets: readonly Target[]): Float64A
 
 /**
  * The weight of every target before a `force: "in"` lifts it above all others: what the user set or the rules give
- * (as targetWeights in plan/pipeline.ts computes before forcing; alignment stars 1, excluded targets 0).
+ * (as targetWeights in pipeline/pipeline.ts computes before forcing; alignment stars 1, excluded targets 0).
  */
 export function baseWeightsFor(plan: PlanFile, targets: readonly Target[]): Float64Array {
   const kept = new Map(weighPlanTargets(plan, targets).targets.map((t) => [t.id, t]));

@@ -12,7 +12,7 @@ import { readCatalog } from '../../src/core/catalog/read';
 import { readEcsvTable } from '../../src/core/catalog/ecsvReader';
 import { writeEcsv } from '../../src/core/export/ecsvWriter';
 import { slitTable } from '../../src/core/export/slitTable';
-import type { Slit } from '../../src/core/solver/types';
+import type { Slit } from '../../src/core/geometry/maskSolution';
 import type { MaskRow } from '../../src/core/export/slitsCsv';
 import type { Cell } from '../../src/core/catalog/types';
 

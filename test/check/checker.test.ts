@@ -2,7 +2,7 @@
 import { describe, expect, it } from 'vitest';
 import { checkOutput, type CheckInput } from '../../src/core/check/checkOutput';
 import { parseProfile } from '../../src/core/profile/load';
-import type { Slit } from '../../src/core/solver/types';
+import type { Slit } from '../../src/core/geometry/maskSolution';
 import { maskToSkyArcsec } from '../../src/core/sky/frames';
 import { tangentCentre, tangentToSkyDeg } from '../../src/core/sky/tangentPlane';
 

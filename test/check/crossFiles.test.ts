@@ -5,7 +5,7 @@ import { checkCoverage, radiusReAndAzimuthDeg } from '../../src/core/check/cover
 import { checkCatalogUse, checkPlanMasks } from '../../src/core/check/consistency';
 import { coverageReport } from '../../src/core/coverage/coverage';
 import type { GalaxyModel } from '../../src/core/plan/schema';
-import type { Slit, SlitRole } from '../../src/core/solver/types';
+import type { Slit, SlitRole } from '../../src/core/geometry/maskSolution';
 import { tangentCentre, tangentToSkyDeg } from '../../src/core/sky/tangentPlane';
 
 // Galaxy with q = 0.5, Re = 10", major axis at PA 30 deg, near RA 0 so the projection crosses 0/360.

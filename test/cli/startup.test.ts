@@ -46,7 +46,7 @@ describe('the bundle behaves as the sources', () => {
     const info = JSON.parse(readFileSync(join(ROOT, BUILD, 'build-info.json'), 'utf8'));
     const paths = info.sources.map((s: { path: string }) => s.path);
     expect(paths).toContain('src/cli/main.ts');
-    expect(paths).toContain('src/core/plan/pipeline.ts');
+    expect(paths).toContain('src/core/pipeline/pipeline.ts');
     expect(paths.some((p: string) => p.includes('node_modules'))).toBe(false);
   });
 

@@ -11,7 +11,7 @@ import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { tangentCentre, tangentToSkyDeg } from '../../src/core/sky/tangentPlane';
 import { maskToSkyArcsec } from '../../src/core/sky/frames';
-import { makeRng } from '../../src/core/scenario/random';
+import { makeRng } from '../../src/core/numeric/random';
 
 /** Seeded uniform numbers in [0, 1), the same on every run (the project's mulberry32 stream). */
 const seededUniform = (seed: number): (() => number) => makeRng(seed).next;

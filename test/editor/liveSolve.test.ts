@@ -6,7 +6,7 @@ import { liveSolve, resetLiveSolve } from '../../src/editor/worker/liveSolve';
 import { generateScenario, scenarioCatalog } from '../../src/core/scenario/generator';
 import { parsePlan } from '../../src/core/plan/validate';
 import { parseProfileText } from '../../src/core/profile/load';
-import { solvePlan } from '../../src/core/plan/pipeline';
+import { solvePlan } from '../../src/core/pipeline/pipeline';
 import { checkOutput } from '../../src/core/check/checkOutput';
 import type { PlanFile } from '../../src/core/plan/schema';
 

@@ -1,6 +1,6 @@
 /** fast-check arbitraries shared by the export tests: awkward text and slit lists. */
 import fc from 'fast-check';
-import type { Slit } from '../../src/core/solver/types';
+import type { Slit } from '../../src/core/geometry/maskSolution';
 
 /** Text with the characters that break naive CSV and spreadsheets: delimiters, quotes, line ends, formula starts, non-ASCII. */
 export const awkwardText = (minLength = 0) =>

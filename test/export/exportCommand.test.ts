@@ -8,7 +8,7 @@ import { masksToCsv, parseSlitsCsv, slitsToCsv, type MaskRow } from '../../src/c
 import { readEcsvTable } from '../../src/core/catalog/ecsvReader';
 import { readVoTable } from '../../src/core/catalog/votable';
 import { readFitsTable } from '../../src/core/catalog/fitsTable';
-import type { Slit } from '../../src/core/solver/types';
+import type { Slit } from '../../src/core/geometry/maskSolution';
 
 const masks: MaskRow[] = [
   { maskId: 'm1', instrument: 'ridge10-narrow', raDeg: 187.5, decDeg: -5.25, paDeg: 30 },

@@ -9,7 +9,7 @@ import { readEcsvTable } from '../../src/core/catalog/ecsvReader';
 import { parseCsvRecords } from '../../src/core/catalog/csvReader';
 import { parseSlitsCsv, type MaskRow } from '../../src/core/export/slitsCsv';
 import type { Cell } from '../../src/core/catalog/types';
-import type { Slit } from '../../src/core/solver/types';
+import type { Slit } from '../../src/core/geometry/maskSolution';
 
 /** A solved slit list: masks with awkward ids, and slits that each belong to one of them. */
 const solvedArb = fc

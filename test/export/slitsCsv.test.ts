@@ -3,7 +3,7 @@ import fc from 'fast-check';
 import { masksToCsv, parseMasksCsv, parseSlitsCsv, slitsToCsv, SLIT_COLUMNS, type MaskRow } from '../../src/core/export/slitsCsv';
 import { catalogReportCsv } from '../../src/core/export/catalogReport';
 import { InputError } from '../../src/core/result';
-import type { Slit } from '../../src/core/solver/types';
+import type { Slit } from '../../src/core/geometry/maskSolution';
 import { awkwardText, finite, slitArb } from './arbitraries';
 
 const exampleSlit: Slit = {

@@ -8,7 +8,7 @@ import { parsePlan } from '../../src/core/plan/validate';
 import { parseProfile } from '../../src/core/profile/load';
 import { galaxyModel } from '../../src/core/plan/validate';
 import { tangentCentre, tangentToSkyDeg } from '../../src/core/sky/tangentPlane';
-import type { MaskSolution, Slit } from '../../src/core/solver/types';
+import type { MaskSolution, Slit } from '../../src/core/geometry/maskSolution';
 import type { PlanFile } from '../../src/core/plan/schema';
 import type { ForecastSection } from '../../src/core/plan/forecastSection';
 

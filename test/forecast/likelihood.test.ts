@@ -5,7 +5,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { dispersionFisherErrorKms, fitDispersion, fitRotation } from '../../src/core/forecast/likelihood';
-import { makeRng } from '../../src/core/scenario/random';
+import { makeRng } from '../../src/core/numeric/random';
 import { meanAndStd } from '../../src/core/forecast/mocks';
 
 /** -ln L of a dispersion model, evaluated directly (for a brute-force maximum). */

@@ -13,7 +13,7 @@ import { writeVoTable } from '../../src/core/export/votableWriter';
 import { writeFitsTable } from '../../src/core/export/fitsWriter';
 import type { OutputTable } from '../../src/core/export/outputTable';
 import type { Cell } from '../../src/core/catalog/types';
-import type { RawTableWithMeta } from '../../src/core/formats/tableMeta';
+import type { RawTableWithMeta } from '../../src/core/catalog/tableMeta';
 import { InputError } from '../../src/core/result';
 import { tableArb } from './arbitraries';
 

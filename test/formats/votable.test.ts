@@ -9,7 +9,7 @@ import { readVoTable } from '../../src/core/catalog/votable';
 import { encodeBase64 } from '../../src/core/formats/base64';
 import { writeFitsTable } from '../../src/core/export/fitsWriter';
 import type { Cell } from '../../src/core/catalog/types';
-import type { RawTableWithMeta } from '../../src/core/formats/tableMeta';
+import type { RawTableWithMeta } from '../../src/core/catalog/tableMeta';
 import { InputError } from '../../src/core/result';
 
 const enc = (s: string) => new TextEncoder().encode(s);

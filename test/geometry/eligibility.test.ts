@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { alignmentBoxFits, eligibilityRules, scienceSlitEligible } from '../../src/core/geometry/eligibility';
+import { alignmentBoxFits, eligibilityRules, scienceSlitEligible } from '../../src/core/profile/eligibility';
 import { parseProfileText } from '../../src/core/profile/load';
 import { readFileSync } from 'node:fs';
 import { resolve } from 'node:path';

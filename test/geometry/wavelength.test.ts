@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { DEFAULT_LINE_WINDOW, detectorPixel, lineWindowSettings, linesUsableAtX, observedLineWindowsA, observedWavelengthA, pixelUsable, SPEED_OF_LIGHT_KMS, usableXIntervalsArcsec, usableXIntervalsForWindowsArcsec, windowsUsableAtX } from '../../src/core/geometry/wavelength';
+import { DEFAULT_LINE_WINDOW, detectorPixel, lineWindowSettings, linesUsableAtX, observedLineWindowsA, observedWavelengthA, pixelUsable, SPEED_OF_LIGHT_KMS, usableXIntervalsArcsec, usableXIntervalsForWindowsArcsec, windowsUsableAtX } from '../../src/core/profile/wavelength';
 
 const detector = { pixels: 4096, dispersionAPerPixel: 0.4, centralWavelengthA: 8500, xArcsecPerPixel: 0.16, gapsPixels: [[2040, 2100]] as [number, number][], edgeMarginPixels: 15 };
 

@@ -4,7 +4,7 @@ import { join, resolve } from 'node:path';
 import { parseProfileText } from '../../src/core/profile/load';
 import type { InstrumentProfile } from '../../src/core/profile/schema';
 import { parsePlan } from '../../src/core/plan/validate';
-import { solvePlan, type PlanSolution } from '../../src/core/plan/pipeline';
+import { solvePlan, type PlanSolution } from '../../src/core/pipeline/pipeline';
 import { mixedScenario, type ScenarioInstrument } from '../../src/core/scenario/mixedScenario';
 import { scenarioCatalog, type ScenarioOptions } from '../../src/core/scenario/generator';
 import { checkOutput, type Violation } from '../../src/core/check/checkOutput';

@@ -12,11 +12,11 @@ import { jointProblemOf, prepareMasks } from '../../src/core/solver/allocateMask
 import { instrumentsAllocationContext } from '../../src/core/solver/instrumentContexts';
 import { mixedScenario } from '../../src/core/scenario/mixedScenario';
 import { parsePlan, galaxyModel } from '../../src/core/plan/validate';
-import { targetWeights } from '../../src/core/plan/pipeline';
+import { targetWeights } from '../../src/core/pipeline/pipeline';
 import { tangentCentre, tangentToSkyDeg } from '../../src/core/sky/tangentPlane';
 import { generatedProfiles, shippedProfile } from './mixedCase';
 import type { InstrumentProfile } from '../../src/core/profile/schema';
-import type { MaskPointing } from '../../src/core/solver/types';
+import type { MaskPointing } from '../../src/core/geometry/maskSolution';
 
 let highs: HighsLike;
 beforeAll(async () => {

@@ -4,7 +4,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { tracerExposureModel, velocityChance, velocityChanceOfMag } from '../../src/core/solver/instrumentContexts';
-import { tracerExposure } from '../../src/core/observe/exposure';
+import { tracerExposure } from '../../src/core/solver/exposure';
 import { parsePlan } from '../../src/core/plan/validate';
 import { shippedProfile, solveMixed } from './mixedCase';
 

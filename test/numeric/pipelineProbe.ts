@@ -4,12 +4,12 @@
  * forced in), each solved with the masks kept. Returns the slits (as slits.csv text) and coverage of every solve.
  * Used by test/browser/portableMath.test.ts in Chromium and in node; only src/core is called.
  */
-import { solvePlan } from '../../src/core/plan/pipeline';
+import { solvePlan } from '../../src/core/pipeline/pipeline';
 import { parsePlanText } from '../../src/core/plan/validate';
 import { parseProfileText } from '../../src/core/profile/load';
 import { readCatalog } from '../../src/core/catalog/read';
 import { slitsToCsv } from '../../src/core/export/slitsCsv';
-import { makeRng } from '../../src/core/scenario/random';
+import { makeRng } from '../../src/core/numeric/random';
 import { tangentCentre, tangentToSkyDeg } from '../../src/core/sky/tangentPlane';
 import type { PlanFile } from '../../src/core/plan/schema';
 

@@ -5,7 +5,7 @@
  * show that both give the same bits (test/browser/portableMath.test.ts); the arguments themselves are made with
  * basic arithmetic and PMath only, so they are the same doubles in both.
  */
-import { makeRng } from '../../src/core/scenario/random';
+import { makeRng } from '../../src/core/numeric/random';
 import { PMath } from '../../src/core/numeric/portableMath';
 
 export type UnaryName = 'sin' | 'cos' | 'tan' | 'asin' | 'acos' | 'atan' | 'exp' | 'log' | 'log10';

@@ -6,11 +6,11 @@ import { parallacticAngleDeg } from '../../src/core/observe/parallactic';
 import { altitudeDeg } from '../../src/core/observe/horizon';
 import { ARCSEC_PER_RAD, RAD_PER_DEG } from '../../src/core/sky/angles';
 import { chooseDesignHourAngle, designHourAngleCandidatesH, exposureFit } from '../../src/core/observe/designHourAngle';
-import { observingReportForPlan } from '../../src/core/observe/refractionReport';
+import { observingReportForPlan } from '../../src/core/pipeline/refractionReport';
 import { parseProfileText } from '../../src/core/profile/load';
 import { parsePlan, galaxyModel } from '../../src/core/plan/validate';
 import { readFileSync } from 'node:fs';
-import type { MaskPointing, Slit } from '../../src/core/solver/types';
+import type { MaskPointing, Slit } from '../../src/core/geometry/maskSolution';
 
 const AIR = { pressureHPa: 690, temperatureC: 2, relativeHumidity: 0.2 };
 const LAT = 28.1;

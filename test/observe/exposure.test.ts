@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { pointSourceApertureFraction, tracerExposure, starlightExposure, maskExposureReport, type ExposureModel } from '../../src/core/observe/exposure';
+import { pointSourceApertureFraction, tracerExposure, starlightExposure, maskExposureReport, type ExposureModel } from '../../src/core/solver/exposure';
 import { erf } from '../../src/core/observe/slitLoss';
 import { signalToNoisePerA } from '../../src/core/spectro/signalToNoise';
 

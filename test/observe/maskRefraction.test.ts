@@ -7,7 +7,7 @@ import { altitudeDeg } from '../../src/core/observe/horizon';
 import { maskToSkyArcsec } from '../../src/core/sky/frames';
 import { tangentCentre, tangentToSkyDeg } from '../../src/core/sky/tangentPlane';
 import { ARCSEC_PER_RAD, RAD_PER_DEG } from '../../src/core/sky/angles';
-import type { MaskPointing, Slit, SlitRole } from '../../src/core/solver/types';
+import type { MaskPointing, Slit, SlitRole } from '../../src/core/geometry/maskSolution';
 
 const AIR = { pressureHPa: 690, temperatureC: 2, relativeHumidity: 0.2 };
 const LAT = 28.1;

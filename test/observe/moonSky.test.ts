@@ -34,7 +34,7 @@ describe('Krisciunas & Schaefer 1991 moonlit sky', () => {
 
 describe('the plan\'s observing.moon brightens the sky of the exposure estimates', () => {
   it('with the Moon up the sky is brighter; below the horizon it is the dark sky', async () => {
-    const { skyWithMoon } = await import('../../src/core/observe/refractionReport');
+    const { skyWithMoon } = await import('../../src/core/pipeline/refractionReport');
     const { parsePlan, galaxyModel } = await import('../../src/core/plan/validate');
     const { parseProfileText } = await import('../../src/core/profile/load');
     const { readFileSync } = await import('node:fs');

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
-import { observingSchema, resolveObservingSettings, detectorRangeA, designHourAnglesH, OBSERVING_DEFAULTS } from '../../src/core/observe/observingSettings';
+import { resolveObservingSettings, detectorRangeA, designHourAnglesH, OBSERVING_DEFAULTS } from '../../src/core/observe/observingSettings';
+import { observingSchema } from '../../src/core/plan/observingSection';
 import { parsePlan } from '../../src/core/plan/validate';
 import { parseProfileText } from '../../src/core/profile/load';
 import { InputError } from '../../src/core/result';

@@ -1,14 +1,14 @@
 import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
-import { refractionReport, withObservingReport, withoutSolveOutputs, observingReportForPlan, formatRefractionSummary, compactObservingReport } from '../../src/core/observe/refractionReport';
+import { refractionReport, withObservingReport, withoutSolveOutputs, observingReportForPlan, formatRefractionSummary, compactObservingReport } from '../../src/core/pipeline/refractionReport';
 import { resolveObservingSettings } from '../../src/core/observe/observingSettings';
 import { parseProfileText } from '../../src/core/profile/load';
 import { parsePlan, galaxyModel } from '../../src/core/plan/validate';
-import { solvePlan } from '../../src/core/plan/pipeline';
+import { solvePlan } from '../../src/core/pipeline/pipeline';
 import { readCatalog } from '../../src/core/catalog/read';
 import { maskToSkyArcsec } from '../../src/core/sky/frames';
 import { tangentCentre, tangentToSkyDeg } from '../../src/core/sky/tangentPlane';
-import type { MaskSolution, Slit } from '../../src/core/solver/types';
+import type { MaskSolution, Slit } from '../../src/core/geometry/maskSolution';
 
 const profile = parseProfileText(readFileSync('instrument-profiles/ridge10-narrow.json', 'utf8'));
 const planJson = {

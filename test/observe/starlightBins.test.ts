@@ -1,7 +1,7 @@
 /** Co-added integrated starlight per radial and azimuthal bin, with a systematic sky floor. */
 import { describe, expect, it } from 'vitest';
-import { coaddedSignalToNoise, starlightBins, starlightBinLines } from '../../src/core/observe/starlightBins';
-import type { ExposureModel } from '../../src/core/observe/exposure';
+import { coaddedSignalToNoise, starlightBins, starlightBinLines } from '../../src/core/solver/starlightBins';
+import type { ExposureModel } from '../../src/core/solver/exposure';
 
 describe('co-adding spectra (Howell 2006 CCD equation summed over independent spectra)', () => {
   const one = { signalE: 1000, varianceE2: 1000 + 40000, skyE: 30000 };

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { generateScenario, distanceModulusMag, DEMO_GALAXY } from '../../src/core/scenario/generator';
-import { makeRng } from '../../src/core/scenario/random';
+import { makeRng } from '../../src/core/numeric/random';
 import { weighTargets } from '../../src/core/solver/weighting';
 import { parsePlan } from '../../src/core/plan/validate';
 

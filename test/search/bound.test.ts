@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { galaxyModel } from '../../src/core/plan/validate';
-import { targetWeights } from '../../src/core/plan/pipeline';
+import { targetWeights } from '../../src/core/pipeline/pipeline';
 import { allocationContext } from '../../src/core/solver/allocateMasks';
 import { evaluatePointings, naiveCrossLayout, objectiveUpperBound, proxyModel, searchEnv } from '../../src/core/solver/pointingSearch';
 import { galaxyToSkyArcsec } from '../../src/core/sky/frames';

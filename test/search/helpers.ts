@@ -6,7 +6,7 @@ import { parseProfile } from '../../src/core/profile/load';
 import type { InstrumentProfile } from '../../src/core/profile/schema';
 import type { PlanFile } from '../../src/core/plan/schema';
 import { checkOutput } from '../../src/core/check/checkOutput';
-import type { PlanSolution } from '../../src/core/plan/pipeline';
+import type { PlanSolution } from '../../src/core/pipeline/pipeline';
 
 export const PROFILE_IDS = ['ridge10-narrow', 'quad8-square', 'broad65-wide'] as const;
 

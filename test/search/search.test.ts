@@ -1,9 +1,9 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { solvePlan } from '../../src/core/plan/pipeline';
+import { solvePlan } from '../../src/core/pipeline/pipeline';
 import { galaxyModel } from '../../src/core/plan/validate';
 import { allocationContext } from '../../src/core/solver/allocateMasks';
-import { targetWeights } from '../../src/core/plan/pipeline';
+import { targetWeights } from '../../src/core/pipeline/pipeline';
 import { evaluatePointings, naiveCrossLayout, planObjective, searchEnv } from '../../src/core/solver/pointingSearch';
 import { PROFILE_IDS, scenario, violations } from './helpers';
 

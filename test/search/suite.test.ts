@@ -15,7 +15,7 @@ import { loadProfile, PROFILE_IDS, violations } from './helpers';
 import { suiteScenario, SUITE_SIZE } from '../../src/core/scenario/suite';
 import { scenarioCatalog, type Scenario } from '../../src/core/scenario/generator';
 import { parsePlan } from '../../src/core/plan/validate';
-import { solvePlan } from '../../src/core/plan/pipeline';
+import { solvePlan } from '../../src/core/pipeline/pipeline';
 import { cli, ROOT } from '../cli/runCli';
 
 const profiles = PROFILE_IDS.map(loadProfile);

@@ -5,7 +5,7 @@ import proj4 from 'proj4';
 import { skyToTangentArcsec, tangentCentre, tangentToSkyDeg } from '../../src/core/sky/tangentPlane';
 import { separationDeg } from '../../src/core/sky/separation';
 import { ARCSEC_PER_RAD } from '../../src/core/sky/angles';
-import { makeRng } from '../../src/core/scenario/random';
+import { makeRng } from '../../src/core/numeric/random';
 
 /** Seeded uniform numbers in [0, 1), the same on every run (the project's mulberry32 stream). */
 const seededUniform = (seed: number): (() => number) => makeRng(seed).next;

@@ -3,7 +3,7 @@ import fc from 'fast-check';
 import { alignmentSpreadScore, chooseAlignmentBoxes, convexHullAreaArcsec2, type AlignmentCandidate } from '../../src/core/solver/alignment';
 import { lengthenSlits } from '../../src/core/solver/lengthen';
 import { rectInPolygon, type Corner } from '../../src/core/geometry/polygon';
-import { makeRng } from '../../src/core/scenario/random';
+import { makeRng } from '../../src/core/numeric/random';
 
 const cand = (object: number, x: number, y: number): AlignmentCandidate => ({ object, xArcsec: x, yArcsec: y });
 

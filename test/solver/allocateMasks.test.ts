@@ -5,12 +5,12 @@ import { resolve } from 'node:path';
 import { generateScenario, scenarioCatalog } from '../../src/core/scenario/generator';
 import { galaxyModel, parsePlan } from '../../src/core/plan/validate';
 import { parseProfileText } from '../../src/core/profile/load';
-import { targetWeights } from '../../src/core/plan/pipeline';
+import { targetWeights } from '../../src/core/pipeline/pipeline';
 import { allocateForPointings, allocationContext, reallocateOneMask } from '../../src/core/solver/allocateMasks';
 import { naiveCrossLayout } from '../../src/core/solver/pointingSearch';
 import { checkOutput } from '../../src/core/check/checkOutput';
 import { masksToCsv, parseMasksCsv, parseSlitsCsv, slitsToCsv } from '../../src/core/export/slitsCsv';
-import type { MaskSolution } from '../../src/core/solver/types';
+import type { MaskSolution } from '../../src/core/geometry/maskSolution';
 import { weightedIntervalScheduling } from '../../src/core/solver/intervalScheduling';
 
 const profile = parseProfileText(readFileSync(resolve(__dirname, '../../instrument-profiles/quad8-square.json'), 'utf8'));

@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest';
-import { coverageReport, galaxyRadiusAndAzimuth } from '../../src/core/coverage/coverage';
+import { coverageReport } from '../../src/core/coverage/coverage';
+import { galaxyRadiusAndAzimuth } from '../../src/core/sky/galaxyRadius';
 import type { GalaxyModel } from '../../src/core/plan/schema';
-import type { Slit } from '../../src/core/solver/types';
+import type { Slit } from '../../src/core/geometry/maskSolution';
 import { galaxyToSkyArcsec } from '../../src/core/sky/frames';
 import { tangentCentre, tangentToSkyDeg } from '../../src/core/sky/tangentPlane';
 

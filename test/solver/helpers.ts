@@ -2,7 +2,7 @@
 import type { CatalogReadResult, Target } from '../../src/core/catalog/types';
 import { tangentCentre, tangentToSkyDeg } from '../../src/core/sky/tangentPlane';
 import { maskToSkyArcsec } from '../../src/core/sky/frames';
-import type { PlanSolution } from '../../src/core/plan/pipeline';
+import type { PlanSolution } from '../../src/core/pipeline/pipeline';
 import { masksToCsv, parseMasksCsv, parseSlitsCsv, slitsToCsv } from '../../src/core/export/slitsCsv';
 import { checkOutput, type Violation } from '../../src/core/check/checkOutput';
 import type { InstrumentProfile } from '../../src/core/profile/schema';

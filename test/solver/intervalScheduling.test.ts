@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { weightedIntervalScheduling, buildIntervalIndex, solveIntervalIndex } from '../../src/core/solver/intervalScheduling';
-import { makeRng } from '../../src/core/scenario/random';
+import { makeRng } from '../../src/core/numeric/random';
 
 /** Brute force over every subset: the best total weight of pairwise compatible half-open intervals. */
 function bruteForce(starts: number[], ends: number[], w: number[]): number {

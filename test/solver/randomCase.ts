@@ -2,7 +2,7 @@
 import { parseProfile } from '../../src/core/profile/load';
 import { parsePlan } from '../../src/core/plan/validate';
 import { tangentCentre, tangentToSkyDeg } from '../../src/core/sky/tangentPlane';
-import { makeRng } from '../../src/core/scenario/random';
+import { makeRng } from '../../src/core/numeric/random';
 import type { Target } from '../../src/core/catalog/types';
 import { catalogOf } from './helpers';
 

@@ -1,6 +1,6 @@
 /** Random joint-allocation problems for tests and the benchmark: masks with overlapping object sets along y. */
 import { maskCandidateSet, type JointProblem } from '../../src/core/solver/jointAllocation';
-import { makeRng } from '../../src/core/scenario/random';
+import { makeRng } from '../../src/core/numeric/random';
 
 /**
  * `objects` objects with random weights; each mask sees a random share of them (shared objects fall on several

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { unitGrid, unitGridNear } from '../../src/core/solver/unitGrid';
 import { unitVectors } from '../../src/core/solver/maskTargets';
-import { makeRng } from '../../src/core/scenario/random';
+import { makeRng } from '../../src/core/numeric/random';
 
 describe('the spatial index of sky points', () => {
   it('a cone query returns, in increasing order, every point within the radius (brute-force angular distances), near the poles and across RA 0/360 too', () => {

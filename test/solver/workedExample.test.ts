@@ -8,7 +8,7 @@
 import { describe, expect, it } from 'vitest';
 import { parseProfile } from '../../src/core/profile/load';
 import { parsePlan } from '../../src/core/plan/validate';
-import { solvePlan } from '../../src/core/plan/pipeline';
+import { solvePlan } from '../../src/core/pipeline/pipeline';
 import { catalogOf, checkSolution, targetAt } from './helpers';
 
 const profile = parseProfile({

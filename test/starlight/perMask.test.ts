@@ -2,10 +2,10 @@
 // computation as the whole-plan stage (placeStarlightAndSky): for a mask alone, and, without the tracer trade,
 // for each mask of a plan given the cells the masks before it hold.
 import { describe, expect, it } from 'vitest';
-import { solvePlan } from '../../src/core/plan/pipeline';
+import { solvePlan } from '../../src/core/pipeline/pipeline';
 import { evaluateSlot, galaxyOnMask, galaxyRadiusAt, placeStarlightAndSky, placeStarlightOnMask, slitMeanMu, starlightSignalToNoise, starlightStage, starlightTaken, type GalaxyOnMask, type StarlightTrade } from '../../src/core/solver/starlight';
-import { centredRectFits, wavelengthOk } from '../../src/core/geometry/eligibility';
-import type { MaskSolution } from '../../src/core/solver/types';
+import { centredRectFits, wavelengthOk } from '../../src/core/profile/eligibility';
+import type { MaskSolution } from '../../src/core/geometry/maskSolution';
 import { scenario } from '../search/helpers';
 
 describe('starlight and sky slits on one mask', () => {

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { solvePlan } from '../../src/core/plan/pipeline';
-import { galaxyRadiusAndAzimuth } from '../../src/core/coverage/coverage';
+import { solvePlan } from '../../src/core/pipeline/pipeline';
+import { galaxyRadiusAndAzimuth } from '../../src/core/sky/galaxyRadius';
 import { starlightSettings, starlightSignalToNoise, slitMeanMu, galaxyOnMask, placeStarlightAndSky } from '../../src/core/solver/starlight';
 import { scenario, violations } from '../search/helpers';
 

@@ -1,8 +1,8 @@
 /** Howell's CCD equation with the sky-estimate term, galaxy light under tracers, and the photometric declaration. */
 import { describe, expect, it } from 'vitest';
 import { ccdSignalToNoise, exposureForSignalToNoiseS, signalToNoisePerA, skyEstimateFactor } from '../../src/core/spectro/signalToNoise';
-import { tracerExposure, maskExposureReport, type ExposureModel } from '../../src/core/observe/exposure';
-import { AB_MINUS_VEGA_MAG, resolvePhotometry, photometrySchema } from '../../src/core/spectro/photometry';
+import { tracerExposure, maskExposureReport, type ExposureModel } from '../../src/core/solver/exposure';
+import { AB_MINUS_VEGA_MAG, resolvePhotometry, photometrySchema } from '../../src/core/plan/photometry';
 import { planSchema } from '../../src/core/plan/schema';
 
 describe('CCD equation with the sky estimate (Howell, Handbook of CCD Astronomy, 2nd ed. 2006, sec. 4.4; Howell 1989, PASP 101, 616)', () => {

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { targetWeights, weighPlanTargets, solvePlan } from '../../src/core/plan/pipeline';
-import { coverageSummaryLines, excludedTargetsCsv } from '../../src/core/coverage/summary';
+import { targetWeights, weighPlanTargets, solvePlan } from '../../src/core/pipeline/pipeline';
+import { coverageSummaryLines, excludedTargetsCsv } from '../../src/core/pipeline/summary';
 import { scenario } from '../search/helpers';
 
 describe('weighting inside the pipeline', () => {

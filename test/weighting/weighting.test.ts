@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { weighTargets, weightingSchema, formulaWeight, exclusionCounts } from '../../src/core/solver/weighting';
+import { weighTargets, formulaWeight, exclusionCounts } from '../../src/core/solver/weighting';
+import { weightingSchema } from '../../src/core/plan/weightingSection';
 import type { Target } from '../../src/core/catalog/types';
 import type { GalaxyModel } from '../../src/core/plan/schema';
 import { galaxyToSkyArcsec } from '../../src/core/sky/frames';

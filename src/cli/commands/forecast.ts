@@ -13,7 +13,7 @@ import { InputError, type Problem } from '../../core/result';
 import { parseMasksCsv, parseSlitsCsv } from '../../core/export/slitsCsv';
 import { galaxyModel, parsePlanText } from '../../core/plan/validate';
 import type { ColumnMapping } from '../../core/catalog/types';
-import type { MaskSolution } from '../../core/solver/types';
+import type { MaskSolution } from '../../core/geometry/maskSolution';
 import { nightTable } from '../../core/observe/night';
 import { parseDateText } from '../../core/observe/observability';
 import { DEFAULT_TRIALS, forecastPlan, type Forecast, type ForecastInput } from '../../core/forecast/forecast';

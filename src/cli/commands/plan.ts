@@ -1,16 +1,16 @@
 /** `haloweave plan PLAN --out DIR`: solve a plan file and write the contract's output folder (atomically). */
-import { lineWindowSettings } from '../../core/geometry/wavelength';
+import { lineWindowSettings } from '../../core/profile/wavelength';
 import type { CliIO } from '../io';
 import { optionText, parseArgs, unknownOptions } from '../args';
 import { InputError, type Problem } from '../../core/result';
 import { scienceSlitProblems } from '../../core/plan/scienceFeasibility';
-import { solvePlan, type PlanSolution } from '../../core/plan/pipeline';
+import { solvePlan, type PlanSolution } from '../../core/pipeline/pipeline';
 import { loadPlanInputs, type LoadedPlan } from '../loadPlanInputs';
 import { OutputFolder, planOutputFiles, type OutputFolderOptions } from '../outputFolder';
 import { CONTRACT_OUTPUT_FILES } from '../../core/check/manifest';
-import { excludedTargetsCsv, planSummaryLines } from '../../core/coverage/summary';
+import { excludedTargetsCsv, planSummaryLines } from '../../core/pipeline/summary';
 import { unmetGoalLines } from '../../core/coverage/goals';
-import { instrumentYieldLines, instrumentYields } from '../../core/plan/instrumentYield';
+import { instrumentYieldLines, instrumentYields } from '../../core/pipeline/instrumentYield';
 
 const USAGE = 'usage: haloweave plan PLAN --out DIR [--quiet] [--strict]';
 

@@ -79,7 +79,7 @@ interface SolvedMask { id: string; hourAngleWindowH?: [number, number] | null }
 /**
  * Schedule requests of a galaxy from its solved output folder, and the coverage goals. Hours per mask: the survey's
  * hoursPerMask, else the plan's planned exposure, or (hoursFrom "median-tracer-sn") the exposure model's time for
- * the mask's median tracer slit to reach the target S/N (observe/exposure.ts); plus the overhead.
+ * the mask's median tracer slit to reach the target S/N (solver/exposure.ts); plus the overhead.
  */
 export function galaxyRequests(folder: string, planPath: string, priority: number, settings: SurveySettings): { requests: MaskRequest[]; goals: GoalRecord[]; masksPlanned: number; warnings: string[] } {
   const solvedPath = join(folder, 'solved.plan.json');

@@ -8,7 +8,7 @@
 import { parse as parseYaml } from 'yaml';
 import { InputError } from '../result';
 import type { ColumnInfo } from './types';
-import type { RawTableWithMeta, TableMetaItem } from '../formats/tableMeta';
+import type { RawTableWithMeta, TableMetaItem } from './tableMeta';
 import { delimitedRawTable, stringSource, stripBom, type CsvDialect, type TextSource } from './csvReader';
 
 /** The parsed ECSV header: columns, delimiter, table metadata and the number of header lines. */

@@ -8,7 +8,7 @@
  */
 import { InputError } from '../result';
 import type { Cell, ColumnInfo } from './types';
-import type { RawTableWithMeta, TableMetaItem } from '../formats/tableMeta';
+import type { RawTableWithMeta, TableMetaItem } from './tableMeta';
 import {
   type ElementCode, type TForm, decodeTextBytes, int64ToCell, parseTform, readInt64, readNumeric,
 } from '../formats/fits/binary';

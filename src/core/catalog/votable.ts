@@ -9,7 +9,7 @@
 import { XMLParser, XMLValidator } from 'fast-xml-parser';
 import { InputError } from '../result';
 import type { Cell, ColumnInfo, RowReject } from './types';
-import type { RawTableWithMeta, TableMetaItem } from '../formats/tableMeta';
+import type { RawTableWithMeta, TableMetaItem } from './tableMeta';
 import { decodeBase64 } from '../formats/base64';
 import { decodeTextBytes, int64ToCell, readInt64, readNumeric } from '../formats/fits/binary';
 import { walkHdus } from '../formats/fits/hdu';

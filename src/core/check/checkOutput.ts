@@ -4,7 +4,7 @@
  * shares no bookkeeping with the solver. Mask frame arcsec (x along dispersion, y along slits), sky degrees.
  */
 import type { InstrumentProfile } from '../profile/schema';
-import type { Slit } from '../solver/types';
+import type { Slit } from '../geometry/maskSolution';
 import { separationDeg } from '../sky/separation';
 import { maskToSkyArcsec } from '../sky/frames';
 import { tangentCentre, tangentToSkyDeg } from '../sky/tangentPlane';

@@ -4,7 +4,7 @@
  * line the report lists as not used must not carry a slit). Messages name the file and its line (counting the
  * header) or key.
  */
-import type { Slit } from '../solver/types';
+import type { Slit } from '../geometry/maskSolution';
 import type { Violation, CheckedMask } from './checkOutput';
 
 /** Tolerance for solved.plan.json vs masks.csv angles (degrees, about 4 micro-arcsec): both hold the same doubles. */

@@ -6,7 +6,7 @@
  * and sectors coverage.json declares. It shares no code with the solver's coverage module.
  */
 import type { GalaxyModel } from '../plan/schema';
-import type { Slit } from '../solver/types';
+import type { Slit } from '../geometry/maskSolution';
 import { skyToTangentArcsec, tangentCentre } from '../sky/tangentPlane';
 import type { Violation } from './checkOutput';
 import { PMath } from '../numeric/portableMath';

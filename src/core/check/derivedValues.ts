@@ -5,7 +5,7 @@
  * contract's column order. Sky positions in ICRS degrees; lengths in arcsec (mask frame).
  */
 import type { InstrumentProfile } from '../profile/schema';
-import type { Slit } from '../solver/types';
+import type { Slit } from '../geometry/maskSolution';
 import type { Target } from '../catalog/types';
 import { separationDeg } from '../sky/separation';
 import { SKY_TOL_ARCSEC, LENGTH_TOL_ARCSEC, type CheckedMask, type Violation } from './checkOutput';

@@ -4,11 +4,9 @@
  * sector of 45 degrees (phi = atan2(v, u) measured from the +u major axis towards +v, in [0, 360), not folded),
  * and the largest R/Re reached. Positions are the slit rows' (ra, dec), projected about the galaxy centre.
  */
-import { circularisedRadiusArcsec, galaxyAzimuthDeg, skyToGalaxyArcsec } from '../sky/frames';
-import { skyToTangentArcsec, tangentCentre } from '../sky/tangentPlane';
-import { wrap360Deg } from '../sky/angles';
+import { galaxyRadiusAndAzimuth } from '../sky/galaxyRadius';
 import type { GalaxyModel } from '../plan/schema';
-import type { Slit, SlitRole } from '../solver/types';
+import type { Slit, SlitRole } from '../geometry/maskSolution';
 import type { GoalStatus } from './goals';
 
 export const COVERAGE_FORMAT = 'haloweave.coverage/1';
@@ -44,17 +42,6 @@ export interface CoverageReport {
 }
 
 const ROLES: SlitRole[] = ['tracer', 'starlight', 'sky', 'alignment'];
-
-/** Circularised R/Re and azimuth (degrees from the major axis, [0, 360)) of a sky position (degrees) about the galaxy. */
-export function galaxyRadiusAndAzimuth(galaxy: GalaxyModel, raDeg: number, decDeg: number): { rRe: number; phiDeg: number } {
-  const t = skyToTangentArcsec(tangentCentre(galaxy.raDeg, galaxy.decDeg), raDeg, decDeg);
-  if (!t) return { rRe: Infinity, phiDeg: 0 };
-  const g = skyToGalaxyArcsec(t.xiArcsec, t.etaArcsec, galaxy.paDeg);
-  return {
-    rRe: circularisedRadiusArcsec(g.uArcsec, g.vArcsec, galaxy.axisRatio) / galaxy.reArcsec,
-    phiDeg: wrap360Deg(galaxyAzimuthDeg(g.uArcsec, g.vArcsec)),
-  };
-}
 
 /** Coverage per role of the slit rows (all masks together) against the goals (radii in Re). */
 export function coverageReport(galaxy: GalaxyModel, goals: { tracerReachRe: number; starlightReachRe: number }, slits: readonly Slit[]): CoverageReport {

@@ -6,8 +6,9 @@
 import type { GalaxyModel, PlanFile } from '../plan/schema';
 import type { InstrumentProfile } from '../profile/schema';
 import type { CoverageReport } from './coverage';
-import type { MaskSolution } from '../solver/types';
-import { starlightSettings, starlightSignalToNoise, type StarlightRules, type StarlightSettings } from '../solver/starlight';
+import type { MaskSolution } from '../geometry/maskSolution';
+import { starlightSettings, starlightSignalToNoise, type StarlightSettings } from '../solver/starlight';
+import type { StarlightRules } from '../plan/starlightSection';
 import { sersicBn, sersicMuMagPerArcsec2 } from '../sky/sersic';
 import { polygonBounds } from '../geometry/polygon';
 

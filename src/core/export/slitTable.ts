@@ -4,7 +4,7 @@
  * UCD1+ words per column (from the IVOA UCD1+ controlled vocabulary; see docs/formats.md).
  */
 import { InputError } from '../result';
-import type { Slit } from '../solver/types';
+import type { Slit } from '../geometry/maskSolution';
 import type { OutputColumn, OutputTable } from './outputTable';
 import type { MaskRow } from './slitsCsv';
 

@@ -4,7 +4,7 @@
  * text cells are formula-neutralised (see csvText.ts) and the readers undo that, so a round trip is exact.
  */
 import { InputError, type Problem } from '../result';
-import type { Slit, SlitRole } from '../solver/types';
+import type { Slit, SlitRole } from '../geometry/maskSolution';
 import { parseCsvRecords, type CsvRecord } from '../catalog/csvReader';
 import { toCsv, unneutraliseCell } from './csvText';
 

@@ -9,7 +9,7 @@
 import type { OutputColumn, OutputTable } from './outputTable';
 import type { Cell } from '../catalog/types';
 import { typedRows } from './typedCell';
-import { escapeXml } from './xmlText';
+import { escapeXml } from '../formats/xmlText';
 
 const NON_ASCII = /[^\x00-\x7f]/;
 

@@ -7,10 +7,12 @@
 import type { GalaxyModel, PlanFile } from '../plan/schema';
 import { PMath } from '../numeric/portableMath';
 import type { InstrumentProfile } from '../profile/schema';
-import type { MaskSolution } from '../solver/types';
-import { exposureModelOf, maskExposureReport, type MaskExposureReport } from '../observe/exposure';
-import { resolveObservingSettings, type ObservingSection } from '../observe/observingSettings';
-import { starlightSettings, type StarlightRules } from '../solver/starlight';
+import type { MaskSolution } from '../geometry/maskSolution';
+import { exposureModelOf, maskExposureReport, type MaskExposureReport } from '../solver/exposure';
+import { resolveObservingSettings } from '../observe/observingSettings';
+import type { ObservingSection } from '../plan/observingSection';
+import { starlightSettings } from '../solver/starlight';
+import type { StarlightRules } from '../plan/starlightSection';
 import { resolveForecastSettings, type ForecastSettings } from './settings';
 import { slitSamples } from './samples';
 import { clusterProbability } from './contamination';

@@ -5,7 +5,7 @@
  * and fits the rotation (all clusters), the dispersion in each radial bin (after removing the fitted rotation) and
  * the tracer mass. The quoted errors are the scatter of the fitted values over the trials.
  */
-import { makeRng } from '../scenario/random';
+import { makeRng } from '../numeric/random';
 import { PMath } from '../numeric/portableMath';
 import { fitDispersion, fitRotation } from './likelihood';
 import { modelSigmaKms, rotationVelocityKms } from './kinematicModel';

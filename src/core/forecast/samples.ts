@@ -1,11 +1,11 @@
 /**
  * The plan's own sampling as the forecast sees it: every tracer and starlight slit with its circularised radius
  * (Re), position angle about the galaxy centre (degrees East of North), azimuth from the major axis (galaxy frame,
- * degrees in [0, 360)) and S/N per Angstrom in the planned exposure (observe/exposure.ts).
+ * degrees in [0, 360)) and S/N per Angstrom in the planned exposure (solver/exposure.ts).
  */
 import type { GalaxyModel } from '../plan/schema';
-import type { MaskSolution } from '../solver/types';
-import type { MaskExposureReport } from '../observe/exposure';
+import type { MaskSolution } from '../geometry/maskSolution';
+import type { MaskExposureReport } from '../solver/exposure';
 import { skyToTangentArcsec, tangentCentre } from '../sky/tangentPlane';
 import { circularisedRadiusArcsec, galaxyAzimuthDeg, skyToGalaxyArcsec } from '../sky/frames';
 import { PMath } from '../numeric/portableMath';

@@ -6,7 +6,7 @@
  * lines broadened by the model dispersion; the spin parameter profile and its error come from mocks of the bins.
  */
 import { PMath } from '../numeric/portableMath';
-import { makeRng } from '../scenario/random';
+import { makeRng } from '../numeric/random';
 import type { SlitSample } from './samples';
 import { C_KMS, dispersionErrorKms, lineSigmaA, velocityErrorKms } from './velocityError';
 import { modelSigmaKms, rotationVelocityKms } from './kinematicModel';

@@ -9,7 +9,7 @@
  * Slit tilt is not applied to the projection (x is taken as the across-slit direction).
  * Hour angles are of the mask centre, hours, positive West; target hour angles follow from their RA offsets (J2000).
  */
-import type { MaskPointing, Slit, SlitRole } from '../solver/types';
+import type { MaskPointing, Slit, SlitRole } from '../geometry/maskSolution';
 import { skyToTangentArcsec, tangentCentre, tangentToSkyDeg } from '../sky/tangentPlane';
 import { skyToMaskArcsec } from '../sky/frames';
 import { altitudeDeg } from './horizon';

@@ -6,11 +6,11 @@
  */
 import { z } from 'zod';
 import { parseDecDeg, parseRaDeg } from '../sky/sexagesimal';
-import { weightingSchema } from '../solver/weighting';
-import { starlightSchema } from '../solver/starlight';
-import { searchSchema } from '../solver/objective';
-import { observingSchema } from '../observe/observingSettings';
-import { photometrySchema } from '../spectro/photometry';
+import { weightingSchema } from './weightingSection';
+import { starlightSchema } from './starlightSection';
+import { searchSchema } from './searchSection';
+import { observingSchema } from './observingSection';
+import { photometrySchema } from './photometry';
 import { forecastSectionSchema } from './forecastSection';
 
 export const PLAN_FORMAT = 'haloweave.plan/1';
@@ -87,7 +87,7 @@ export const targetOverrideSchema = z.looseObject({
 });
 
 /**
- * Slit allocation settings (plan/pipeline.ts, lengthening stage): `maxSlitLengthArcsec` caps a lengthened slit's
+ * Slit allocation settings (pipeline/pipeline.ts, lengthening stage): `maxSlitLengthArcsec` caps a lengthened slit's
  * total length along the mask y axis (arcsec; default a multiple of the profile's slits.minLengthArcsec).
  */
 export const allocationSchema = z.looseObject({
@@ -115,7 +115,7 @@ export const planSchema = z.looseObject({
   observing: observingSchema.optional(),
   /** Slit allocation settings (see allocationSchema). */
   allocation: allocationSchema.optional(),
-  /** Band and magnitude system of the catalog (spectro/photometry); absent: AB assumed. */
+  /** Band and magnitude system of the catalog (plan/photometry); absent: AB assumed. */
   photometry: photometrySchema.optional(),
   /** Assumptions of the science forecast (plan/forecastSection). */
   forecast: forecastSectionSchema.optional(),

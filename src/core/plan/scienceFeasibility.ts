@@ -2,11 +2,11 @@
  * Before a solve: can any science slit exist at all with this profile and plan? Names the rule that removes every
  * candidate: the redshifted lines off the detector at every x of the field, detector gaps covering every x where
  * they land, or a minimum slit longer than the field. Mask frame arcsec (x along dispersion, y along slits);
- * wavelengths in Angstrom (air); the wavelength rule of geometry/wavelength.ts at the lines' observed wavelengths.
+ * wavelengths in Angstrom (air); the wavelength rule of profile/wavelength.ts at the lines' observed wavelengths.
  */
 import type { InstrumentProfile } from '../profile/schema';
 import type { Problem } from '../result';
-import { detectorPixel, observedLineWindowsA, observedWavelengthA, usableXIntervalsArcsec, usableXIntervalsForWindowsArcsec, type LineWindowSettings } from '../geometry/wavelength';
+import { detectorPixel, observedLineWindowsA, observedWavelengthA, usableXIntervalsArcsec, usableXIntervalsForWindowsArcsec, type LineWindowSettings } from '../profile/wavelength';
 
 /** The x and y extents of a footprint (arcsec, mask frame). */
 function extents(footprint: readonly (readonly number[])[]): { x0: number; x1: number; y0: number; y1: number } {

@@ -2,7 +2,8 @@
 import { planSchema, type GalaxyModel, type PlanFile } from './schema';
 import { InputError, type Problem } from '../result';
 import { mergeProblems, zodIssuesToProblems } from '../profile/load';
-import { PLAN_RANGES, numberRangeProblems } from './numberRanges';
+import { PLAN_RANGES } from './numberRanges';
+import { numberRangeProblems } from '../profile/numberRanges';
 import { parseDecDeg, parseRaDeg } from '../sky/sexagesimal';
 import { instrumentKeyProblems } from './instruments';
 

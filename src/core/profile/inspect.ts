@@ -6,7 +6,7 @@
 import type { InstrumentProfile } from './schema';
 import type { Problem } from '../result';
 import { polygonBounds, rectInPolygon, type Corner } from '../geometry/polygon';
-import { intersectIntervals, usablePixelRanges } from '../geometry/wavelength';
+import { intersectIntervals, usablePixelRanges } from './wavelength';
 import { linesXIntervalsArcsec, observedWindowsA, type LineSettings } from './lineWindows';
 
 export interface ProfileInspection {

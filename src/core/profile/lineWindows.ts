@@ -5,7 +5,7 @@
  * is usable when the whole window of every line lies in one usable pixel range (inside the edge margins and at least
  * edgeMarginPixels from every gap).
  */
-import { DEFAULT_LINE_WINDOW, observedLineWindowsA, usableXIntervalsForWindowsArcsec, type DetectorModel } from '../geometry/wavelength';
+import { DEFAULT_LINE_WINDOW, observedLineWindowsA, usableXIntervalsForWindowsArcsec, type DetectorModel } from './wavelength';
 
 /** The line settings of a check: systemic velocity, half-range about it (km/s) and half-window (Angstrom). */
 export interface LineSettings {
@@ -19,7 +19,7 @@ export interface LineSettings {
 
 export const LINE_WINDOW_DEFAULTS = DEFAULT_LINE_WINDOW;
 
-/** Observed window [blue, red] in Angstrom (air) of each rest line for the settings (geometry/wavelength.ts). */
+/** Observed window [blue, red] in Angstrom (air) of each rest line for the settings (profile/wavelength.ts). */
 export function observedWindowsA(s: LineSettings): [number, number][] {
   return observedLineWindowsA(s.linesA, s.vsysKms, s).map((w) => [w.loA, w.hiA]);
 }

@@ -2,7 +2,7 @@
 import { profileSchema, type InstrumentProfile } from './schema';
 import { InputError, type Problem } from '../result';
 import { polygonSelfIntersects, type Corner } from '../geometry/polygon';
-import { PROFILE_RANGES, numberRangeProblems } from '../plan/numberRanges';
+import { PROFILE_RANGES, numberRangeProblems } from './numberRanges';
 
 /** Turn zod issues into problems named by their dotted key path, e.g. `slits.gapArcsec`; a missing key says so. */
 export function zodIssuesToProblems(source: string, issues: readonly { path: readonly PropertyKey[]; message: string }[]): Problem[] {

@@ -7,8 +7,8 @@
 import type { InstrumentProfile } from './schema';
 import type { ProfileInspection } from './inspect';
 import { windowXIntervalsArcsec, type LineSettings } from './lineWindows';
-import { escapeXml } from '../export/xmlText';
-import { intersectIntervals } from '../geometry/wavelength';
+import { escapeXml } from '../formats/xmlText';
+import { intersectIntervals } from './wavelength';
 
 const W = 960;
 const PLOT_W = 800;

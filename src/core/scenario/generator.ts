@@ -23,7 +23,7 @@ import { PLAN_FORMAT } from '../plan/schema';
 import { galaxyToSkyArcsec } from '../sky/frames';
 import { tangentCentre, tangentToSkyDeg } from '../sky/tangentPlane';
 import { toCsv } from '../export/csvText';
-import { makeRng, type Rng } from './random';
+import { makeRng, type Rng } from '../numeric/random';
 import { PMath, sq } from '../numeric/portableMath';
 
 /** The invented demo galaxy: name and position are made up; numbers typical of a nearby early-type galaxy. */

@@ -10,15 +10,15 @@ import type { Target } from '../catalog/types';
 import type { GalaxyModel } from '../plan/schema';
 import type { InstrumentProfile } from '../profile/schema';
 import type { Problem } from '../result';
-import { alignmentBoxFits, eligibilityRules, scienceSlitEligible, type EligibilityRules } from '../geometry/eligibility';
+import { alignmentBoxFits, eligibilityRules, scienceSlitEligible, type EligibilityRules } from '../profile/eligibility';
 import { chooseAlignmentBoxes, largestClearSet, type AlignmentCandidate } from './alignment';
 import { allocateJoint, compactJointProblem, maskCandidateSet, resolveOneMask, jointObjective, type JointOptions, type JointProblem, type JointSolution, type MaskCandidateSet } from './jointAllocation';
 import { maskBasis, maskPointToSkyDeg, projectIndicesToMaskArcsec, unitVectors, type UnitVectors } from './maskTargets';
 import { unitGrid, unitGridNear, type UnitGrid } from './unitGrid';
 import { ARCSEC_PER_RAD } from '../sky/angles';
 import { polygonBounds } from '../geometry/polygon';
-import type { LineWindowSettings } from '../geometry/wavelength';
-import type { MaskPointing, MaskSolution, Slit } from './types';
+import type { LineWindowSettings } from '../profile/wavelength';
+import type { MaskPointing, MaskSolution, Slit } from '../geometry/maskSolution';
 import { PMath } from '../numeric/portableMath';
 import { candidateValues, contextFor } from './maskContext';
 

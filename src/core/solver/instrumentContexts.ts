@@ -6,17 +6,19 @@
  *
  * What a tracer slit is worth on a mask: in a plan of one spectrograph, its weight. In a mixed plan, its weight
  * times the chance of a usable velocity with that mask's telescope, p = s^2 / (1 + s^2), s = (S/N per A reached in
- * the planned exposure) / (target S/N per A), from the CCD-equation exposure model (observe/exposure.ts): a
+ * the planned exposure) / (target S/N per A), from the CCD-equation exposure model (solver/exposure.ts): a
  * faint tracer is worth more on the larger aperture, a bright one about the same anywhere (docs/allocation.md).
  */
 import type { Target } from '../catalog/types';
 import type { GalaxyModel, PlanFile } from '../plan/schema';
 import type { InstrumentProfile } from '../profile/schema';
 import { allocationContext, type AllocationContext } from './allocateMasks';
-import { lineWindowSettings } from '../geometry/wavelength';
-import { starlightSettings, type StarlightRules } from './starlight';
-import { resolveObservingSettings, type ObservingSection } from '../observe/observingSettings';
-import { exposureModelOf, tracerExposure, type ExposureModel } from '../observe/exposure';
+import { lineWindowSettings } from '../profile/wavelength';
+import { starlightSettings } from './starlight';
+import type { StarlightRules } from '../plan/starlightSection';
+import { resolveObservingSettings } from '../observe/observingSettings';
+import type { ObservingSection } from '../plan/observingSection';
+import { exposureModelOf, tracerExposure, type ExposureModel } from './exposure';
 
 /** The tracer exposure model of a profile under the plan's starlight and observing settings (same as the observing report's). */
 export function tracerExposureModel(plan: Pick<PlanFile, 'goals' | 'galaxy' | 'starlight' | 'observing'>, profile: InstrumentProfile): ExposureModel {

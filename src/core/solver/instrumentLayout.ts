@@ -14,7 +14,7 @@ import { tangentCentre, tangentToSkyDeg } from '../sky/tangentPlane';
 import type { AllocationContext } from './allocateMasks';
 import { contextFor } from './maskContext';
 import { naiveCrossLayout } from './pointingSearch';
-import type { MaskPointing } from './types';
+import type { MaskPointing } from '../geometry/maskSolution';
 
 /** Start pointings of every mask (see the module comment); each carries its `instrument` in a mixed plan. */
 export function instrumentsCrossLayout(plan: PlanFile, galaxy: GalaxyModel, ctx: AllocationContext): MaskPointing[] {

@@ -8,10 +8,11 @@ import type { PlanFile } from '../plan/schema';
 import { polygonBounds } from '../geometry/polygon';
 import { PMath } from '../numeric/portableMath';
 import { candidateValues, contextFor } from './maskContext';
-import { placeStarlightAndSky, placeStarlightOnMask, starlightSettings, starlightStage, starlightTaken, type StarlightResult, type StarlightRules, type StarlightStage, type StarlightTrade } from './starlight';
+import { placeStarlightAndSky, placeStarlightOnMask, starlightSettings, starlightStage, starlightTaken, type StarlightResult, type StarlightStage, type StarlightTrade } from './starlight';
+import type { StarlightRules } from '../plan/starlightSection';
 import type { AllocationContext } from './allocateMasks';
 import type { ProxyMask, SearchEnv } from './pointingSearch';
-import type { MaskPointing, MaskSolution } from './types';
+import type { MaskPointing, MaskSolution } from '../geometry/maskSolution';
 
 const subEnvs = new WeakMap<SearchEnv, Map<string, SearchEnv>>();
 

@@ -5,7 +5,7 @@
  */
 import type { AllocationContext } from './allocateMasks';
 import type { InstrumentContext } from './instrumentContexts';
-import type { MaskPointing } from './types';
+import type { MaskPointing } from '../geometry/maskSolution';
 
 /** The context of a mask's own profile (its `instrument` id), or the plan's context when it has only one. */
 export function contextFor(ctx: AllocationContext, mask: Pick<MaskPointing, 'instrument'>): AllocationContext {

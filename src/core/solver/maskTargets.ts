@@ -4,7 +4,7 @@
  */
 import { skyToMaskArcsec, maskToSkyArcsec } from '../sky/frames';
 import { skyToTangentArcsec, tangentCentre, tangentToSkyDeg } from '../sky/tangentPlane';
-import type { MaskPointing } from './types';
+import type { MaskPointing } from '../geometry/maskSolution';
 import { ARCSEC_PER_RAD, RAD_PER_DEG } from '../sky/angles';
 import { PMath } from '../numeric/portableMath';
 

@@ -16,45 +16,21 @@
  * Surface brightness at a mask point uses the galaxy centre projected into the mask frame and a planar
  * rotation into the galaxy frame (second-order projection differences, below 0.1 arcsec over a mask, are ignored).
  */
-import { z } from 'zod';
+import type { StarlightRules } from '../plan/starlightSection';
 import type { InstrumentProfile } from '../profile/schema';
 import type { GalaxyModel, PlanFile } from '../plan/schema';
-import type { MaskSolution, Slit } from './types';
-import { centredRectFits, eligibilityRules, wavelengthOk, type EligibilityRules } from '../geometry/eligibility';
+import type { MaskSolution, Slit } from '../geometry/maskSolution';
+import { centredRectFits, eligibilityRules, wavelengthOk, type EligibilityRules } from '../profile/eligibility';
 import { skyToMaskArcsec, circularisedRadiusArcsec, galaxyAzimuthDeg } from '../sky/frames';
 import { skyToTangentArcsec, tangentCentre } from '../sky/tangentPlane';
 import { sersicBn, sersicMuMagPerArcsec2 } from '../sky/sersic';
 import { electronsPerAFromSurfaceBrightness, signalToNoisePerA, type SpectroSetup } from '../spectro/signalToNoise';
 import { maskPointToSkyDeg } from './maskTargets';
-import { lineWindowSettings, observedWavelengthA } from '../geometry/wavelength';
+import { lineWindowSettings, observedWavelengthA } from '../profile/wavelength';
 import { PMath } from '../numeric/portableMath';
-import { resolvePhotometry } from '../spectro/photometry';
+import { resolvePhotometry } from '../plan/photometry';
 import { sectorOf } from './objective';
 import { skySlitMuThreshold } from './skySlitRule';
-
-/** The plan's `starlight` section (docs/signal-to-noise.md lists every setting and its default). */
-export const starlightSchema = z.looseObject({
-  exposureS: z.number().positive().optional(),
-  throughput: z.number().gt(0).max(1).optional(),
-  skyMagPerArcsec2: z.number().min(10).max(30).optional(),
-  targetSnPerA: z.number().positive().optional(),
-  wavelengthA: z.number().positive().optional(),
-  slitLengthArcsec: z.number().positive().optional(),
-  /** Longest starlight slit (arcsec): slits lengthen with radius, up to this, to reach the S/N target (default 4 x slitLengthArcsec). */
-  maxSlitLengthArcsec: z.number().positive().optional(),
-  maxPerMask: z.number().int().min(0).optional(),
-  skyPerMask: z.number().int().min(0).optional(),
-  skyContrastMag: z.number().min(0).optional(),
-  obstructedFraction: z.number().min(0).lt(1).optional(),
-  /** Starlight slits are placed out to starlightReachRe + reachMarginRe (default 0.5), so the goal radius itself is reached. */
-  reachMarginRe: z.number().min(0).optional(),
-  /** false: starlight slits only in the space the tracers leave free (default true: trade where the objective gains). */
-  displaceTracers: z.boolean().optional(),
-  readNoiseE: z.number().min(0).optional(),
-  darkEPerPixelPerS: z.number().min(0).optional(),
-  yArcsecPerPixel: z.number().positive().optional(),
-});
-export type StarlightRules = z.infer<typeof starlightSchema>;
 
 /** Settings after defaults. */
 export interface StarlightSettings {
@@ -67,7 +43,7 @@ export interface StarlightSettings {
   maxPerMask: number;
   skyPerMask: number;
   skyContrastMag: number;
-  /** Added to a catalog-band magnitude (the galaxy's muE) to make it AB (plan key photometry; spectro/photometry.ts). */
+  /** Added to a catalog-band magnitude (the galaxy's muE) to make it AB (plan key photometry; plan/photometry.ts). */
   catalogToAbMag: number;
   /** Goal radius (goals.starlightReachRe; 0 turns starlight off) and the outer limit of placement, in Re. */
   reachRe: number;

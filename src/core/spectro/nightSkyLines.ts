@@ -3,7 +3,7 @@
  * which a redshifted required line falls on one of them. Line list: Osterbrock et al. 1996, PASP 108, 277 and
  * 1997, PASP 109, 614; Hanuschik 2003, A&A 407, 1157. Between about 8520 and 8760 A the sky is comparatively clean.
  */
-import { SPEED_OF_LIGHT_KMS } from '../geometry/wavelength';
+import { SPEED_OF_LIGHT_KMS } from '../profile/wavelength';
 
 /** OH lines (air, Angstrom) from 8340 to 8890 A (Osterbrock et al. 1996, 1997; Hanuschik 2003). */
 export const OH_LINES_A: readonly number[] = [

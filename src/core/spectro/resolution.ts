@@ -5,7 +5,7 @@
  * the resolving power R = lambda / FWHM, and the instrumental dispersion sigma = c / (R 2 sqrt(2 ln 2)) (Gaussian
  * line spread, FWHM = 2.3548 sigma).
  */
-import { SPEED_OF_LIGHT_KMS } from '../geometry/wavelength';
+import { SPEED_OF_LIGHT_KMS } from '../profile/wavelength';
 import type { InstrumentProfile } from '../profile/schema';
 import { FWHM_PER_SIGMA } from '../observe/slitLoss';
 

@@ -6,9 +6,9 @@
  */
 import type { InstrumentProfile } from '../profile/schema';
 import type { PlanFile } from '../plan/schema';
-import { lineWindowSettings, observedLineWindowsA, observedWavelengthA, type LineWindowSettings } from '../geometry/wavelength';
-import { eligibilityRules } from '../geometry/eligibility';
-import { resolvePhotometry, photometryLine, type Photometry } from './photometry';
+import { lineWindowSettings, observedLineWindowsA, observedWavelengthA, type LineWindowSettings } from '../profile/wavelength';
+import { eligibilityRules } from '../profile/eligibility';
+import { resolvePhotometry, photometryLine, type Photometry } from '../plan/photometry';
 import { slitResolution, type Resolution } from './resolution';
 import { OH_LIST_RANGE_A, skyLineHits, type SkyLineHit } from './nightSkyLines';
 

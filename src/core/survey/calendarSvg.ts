@@ -6,7 +6,7 @@
  * of galaxies ordered by their first night so it reads in the calendar's order. Readable for 100 galaxies: colours
  * differ in hue by the golden angle and alternate in lightness, and every legend entry carries its masks' count.
  */
-import { escapeXml } from '../export/xmlText';
+import { escapeXml } from '../formats/xmlText';
 import { jdOfDateText } from '../observe/night';
 import type { SurveySchedule } from './schedule';
 

@@ -6,7 +6,7 @@
  */
 import type { GalaxyModel } from '../../core/plan/schema';
 import type { InstrumentProfile } from '../../core/profile/schema';
-import type { MaskSolution } from '../../core/solver/types';
+import type { MaskSolution } from '../../core/geometry/maskSolution';
 import { maskToSkyArcsec } from '../../core/sky/frames';
 import { skyToTangentArcsec, tangentCentre } from '../../core/sky/tangentPlane';
 import { formatDecDms, formatRaHms } from '../../core/sky/sexagesimal';

@@ -4,9 +4,10 @@
  * Tracers: solid blue bars; starlight: orange bars with diagonal hatching, so the two differ without colour.
  */
 import { useRef } from 'react';
-import { galaxyRadiusAndAzimuth, type CoverageReport, type RoleCoverage } from '../../core/coverage/coverage';
+import type { CoverageReport, RoleCoverage } from '../../core/coverage/coverage';
+import { galaxyRadiusAndAzimuth } from '../../core/sky/galaxyRadius';
 import type { GalaxyModel } from '../../core/plan/schema';
-import type { MaskSolution } from '../../core/solver/types';
+import type { MaskSolution } from '../../core/geometry/maskSolution';
 import type { EditorController } from '../controller';
 import { countAxis } from './plotAxes';
 import { INK, ROLE_STYLE } from '../view/palette';

@@ -1,7 +1,7 @@
 /** Yield per spectrograph of a plan with several (plan key instruments): masks, tracer and starlight slits, tracer weight. */
 import type { EditorController } from '../controller';
-import { instrumentYields } from '../../core/plan/instrumentYield';
-import type { InstrumentsObservingReport } from '../../core/observe/instrumentsReport';
+import { instrumentYields } from '../../core/pipeline/instrumentYield';
+import type { InstrumentsObservingReport } from '../../core/pipeline/instrumentsReport';
 
 export function InstrumentYieldTable({ c }: { c: EditorController }) {
   const sol = c.session.solution;

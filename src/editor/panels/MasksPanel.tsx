@@ -10,9 +10,9 @@ import { moveMaskCommand, rotateMaskCommand, setMaskLockedCommand } from '../sto
 import { instrumentRef, setMaskInstrumentCommand } from '../store/instrumentCommands';
 import { formatDecDms, formatRaHms, parseDecDeg, parseRaDeg } from '../../core/sky/sexagesimal';
 import { wrap360Deg } from '../../core/sky/angles';
-import type { MaskSolution } from '../../core/solver/types';
+import type { MaskSolution } from '../../core/geometry/maskSolution';
 import type { PlanMask } from '../../core/plan/schema';
-import type { MaskExposureReport } from '../../core/observe/exposure';
+import type { MaskExposureReport } from '../../core/solver/exposure';
 import { slitResolution } from '../../core/spectro/resolution';
 import { ROLE_STYLE, ROLES } from '../view/palette';
 import { slitCountsByRole } from '../derive';

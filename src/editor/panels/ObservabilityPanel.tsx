@@ -1,7 +1,7 @@
 /**
  * Nights: dark hours with airmass below a limit for every night of a semester at the profile's site,
  * with the Moon's illuminated fraction, computed in a worker (src/core/observe/night.ts); and each mask's
- * recommended hour-angle window from the solution's refraction report (src/core/observe/refractionReport.ts).
+ * recommended hour-angle window from the solution's refraction report (src/core/pipeline/refractionReport.ts).
  */
 import { memo, useEffect, useRef, useState } from 'react';
 import { editorPlanSites } from '../io/planProfiles';

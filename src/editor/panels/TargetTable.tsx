@@ -9,7 +9,7 @@ import { memo, useEffect, useMemo, useRef, useState } from 'react';
 import type { EditorController } from '../controller';
 import type { Target } from '../../core/catalog/types';
 import type { PlanFile } from '../../core/plan/schema';
-import type { Slit } from '../../core/solver/types';
+import type { Slit } from '../../core/geometry/maskSolution';
 import { setOverridesCommand } from '../store/commands';
 import { shownNumber, shownWeight } from '../derive';
 

@@ -16,7 +16,7 @@ import type Konva from 'konva';
 import type { GalaxyModel } from '../../core/plan/schema';
 import { maskFootprint } from './maskFootprints';
 import type { InstrumentProfile } from '../../core/profile/schema';
-import type { Slit } from '../../core/solver/types';
+import type { Slit } from '../../core/geometry/maskSolution';
 import { skyToTangentArcsec, tangentCentre, tangentToSkyDeg } from '../../core/sky/tangentPlane';
 import { DEG_PER_RAD, wrap360Deg } from '../../core/sky/angles';
 import { circularisedRadiusArcsec, skyToGalaxyArcsec } from '../../core/sky/frames';

@@ -5,7 +5,7 @@
  * lightness steps (about L* 50, 62, 75, 88), and each role also has its own line style or shape,
  * so no reading depends on hue alone.
  */
-import type { SlitRole } from '../../core/solver/types';
+import type { SlitRole } from '../../core/geometry/maskSolution';
 
 export interface RoleStyle {
   colour: string;

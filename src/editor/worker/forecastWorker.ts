@@ -6,7 +6,7 @@
 import { forecastPlan, type Forecast } from '../../core/forecast/forecast';
 import type { GalaxyModel, PlanFile } from '../../core/plan/schema';
 import type { InstrumentProfile } from '../../core/profile/schema';
-import type { MaskSolution } from '../../core/solver/types';
+import type { MaskSolution } from '../../core/geometry/maskSolution';
 
 export interface ForecastRequest { id: number; plan: PlanFile; profile: InstrumentProfile; galaxy: GalaxyModel; masks: MaskSolution[]; trials: number; seed: number }
 export type ForecastReply = { id: number; forecast: Forecast; computeMs: number } | { id: number; error: string };

@@ -3,7 +3,7 @@
  * null for a mask whose solution object is the one it sent last time, and the client restores it from the previous
  * result it delivered. Both sides see every result in order, so "the previous result" is the same on both.
  */
-import type { MaskSolution } from '../../core/solver/types';
+import type { MaskSolution } from '../../core/geometry/maskSolution';
 
 /** The masks to post and the indices left out, given what was posted last (compared by identity). */
 export function elideKeptMasks(masks: readonly MaskSolution[], lastPosted: readonly MaskSolution[] | null): { masks: (MaskSolution | null)[]; kept: number[] } {

@@ -1,5 +1,5 @@
 /**
- * Fast re-solve while a mask is dragged: the pipeline's own stages (src/core/plan/pipeline.ts), with the
+ * Fast re-solve while a mask is dragged: the pipeline's own stages (src/core/pipeline/pipeline.ts), with the
  * allocation of the last solve kept, so moving one mask re-prepares and re-allocates only that mask
  * (solver/allocateMasks.ts `reallocateOneMask`: the other masks keep their tracers), then redoes starlight and
  * sky slits (solver/starlight.ts `placeStarlightOnMask`, with the cells, bins and reach of the other masks counted
@@ -12,14 +12,14 @@ import type { PlanFile } from '../../core/plan/schema';
 import type { InstrumentProfile } from '../../core/profile/schema';
 import { galaxyModel } from '../../core/plan/validate';
 import { wrap360Deg } from '../../core/sky/angles';
-import { addStarlightAndSky, lengthenMasks, placeMasks, planFullyPlaced, solvedPlanFile, targetWeights } from '../../core/plan/pipeline';
+import { addStarlightAndSky, lengthenMasks, placeMasks, planFullyPlaced, solvedPlanFile, targetWeights } from '../../core/pipeline/pipeline';
 import { allocateForPointings, allocationContext, reallocateOneMask, type AllocationContext, type PointingsAllocation } from '../../core/solver/allocateMasks';
-import { lineWindowSettings } from '../../core/geometry/wavelength';
+import { lineWindowSettings } from '../../core/profile/wavelength';
 import { coverageReport } from '../../core/coverage/coverage';
 import { objectiveContext } from '../../core/solver/objective';
 import { starlightTrade } from '../../core/solver/pointingSearch';
 import { placeStarlightOnMask, starlightStage, starlightTaken, type StarlightStage, type StarlightTaken } from '../../core/solver/starlight';
-import type { MaskPointing, MaskSolution } from '../../core/solver/types';
+import type { MaskPointing, MaskSolution } from '../../core/geometry/maskSolution';
 import type { SolveResult } from './protocol';
 
 interface LiveCache {

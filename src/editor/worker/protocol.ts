@@ -5,7 +5,7 @@
 import type { PlanFile } from '../../core/plan/schema';
 import type { InstrumentProfile } from '../../core/profile/schema';
 import type { CatalogReadResult } from '../../core/catalog/types';
-import type { MaskSolution } from '../../core/solver/types';
+import type { MaskSolution } from '../../core/geometry/maskSolution';
 import type { GalaxyModel } from '../../core/plan/schema';
 
 /**

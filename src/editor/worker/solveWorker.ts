@@ -3,7 +3,7 @@
  * The solver worker: runs the planning pipeline off the main thread and reports its own compute time.
  * It keeps the latest catalog and profile; each solve request carries only the plan.
  */
-import { maskPlaced, solvePlan } from '../../core/plan/pipeline';
+import { maskPlaced, solvePlan } from '../../core/pipeline/pipeline';
 import type { CatalogReadResult } from '../../core/catalog/types';
 import type { InstrumentProfile } from '../../core/profile/schema';
 import type { PlanFile } from '../../core/plan/schema';
@@ -12,7 +12,7 @@ import { InputError } from '../../core/result';
 import { liveSolve, resetLiveSolve } from './liveSolve';
 import { elideKeptMasks } from './keptMasks';
 import { editorPlanProfiles } from '../io/planProfiles';
-import type { MaskSolution } from '../../core/solver/types';
+import type { MaskSolution } from '../../core/geometry/maskSolution';
 
 let inputs: { version: number; profile: InstrumentProfile; catalog: CatalogReadResult } | null = null;
 

@@ -7,7 +7,7 @@ import type { CatalogReadResult } from '../../core/catalog/types';
 import type { PlanFile } from '../../core/plan/schema';
 import type { InstrumentProfile } from '../../core/profile/schema';
 import type { FromWorker, SolveMode, SolveResult } from './protocol';
-import type { MaskSolution } from '../../core/solver/types';
+import type { MaskSolution } from '../../core/geometry/maskSolution';
 import { restoreKeptMasks } from './keptMasks';
 
 export interface SolveOutcome {

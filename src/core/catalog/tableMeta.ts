@@ -1,5 +1,5 @@
 /** Table-level metadata read from a table file (VOTable PARAMs and INFOs, FITS header keywords), in file order. */
-import type { RawTable } from '../catalog/types';
+import type { RawTable } from './types';
 
 /** One metadata item: key, value, and the unit, UCD, datatype and description the file gives for it. */
 export interface TableMetaItem {

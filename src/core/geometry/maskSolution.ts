@@ -3,7 +3,7 @@
  * centre (gnomonic) at position angle paDeg (East of North).
  */
 
-import type { SlitShape } from '../geometry/slitGeometry';
+import type { SlitShape } from './slitGeometry';
 
 export type SlitRole = 'tracer' | 'starlight' | 'sky' | 'alignment';
 

@@ -8,12 +8,12 @@
  * Starlight slits take the Sérsic model's flux-mean surface brightness over the whole slit length, their sky
  * estimated from the mask's sky slits. Sky and alignment rows get no estimate.
  */
-import type { MaskSolution, Slit } from '../solver/types';
+import type { MaskSolution, Slit } from '../geometry/maskSolution';
 import type { GalaxyModel } from '../plan/schema';
 import { electronsPerAFromMag, electronsPerAFromSurfaceBrightness, exposureForSignalToNoiseS, signalToNoisePerA, type SlitObservation, type SpectroSetup } from '../spectro/signalToNoise';
-import { galaxyOnMask, slitMeanMu } from '../solver/starlight';
+import { galaxyOnMask, slitMeanMu } from './starlight';
 import { sersicBn } from '../sky/sersic';
-import { erf, FWHM_PER_SIGMA, slitTransmission } from './slitLoss';
+import { erf, FWHM_PER_SIGMA, slitTransmission } from '../observe/slitLoss';
 
 /** Extraction length along the slit for a point source, in units of the seeing FWHM (common practice 1.5-2.5). */
 export const POINT_EXTRACTION_FWHM = 2;
@@ -24,7 +24,7 @@ export interface ExposureModel {
   seeingFwhmArcsec: number;
   exposureTimeS: number;
   targetSnPerA: number;
-  /** Added to catalog magnitudes and the galaxy's surface brightness to make them AB (spectro/photometry.ts; default 0). */
+  /** Added to catalog magnitudes and the galaxy's surface brightness to make them AB (plan/photometry.ts; default 0). */
   catalogToAbMag?: number;
 }
 

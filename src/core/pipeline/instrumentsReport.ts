@@ -1,15 +1,15 @@
 /**
  * The observing report of a plan whose masks may use different spectrographs: each mask's refraction rows,
  * hour-angle window and exposure estimates at its own profile's site (latitude, air) and with its own telescope
- * and detector (observe/refractionReport.ts per profile, merged back in mask order). Hour angles in hours.
+ * and detector (pipeline/refractionReport.ts per profile, merged back in mask order). Hour angles in hours.
  */
 import type { GalaxyModel, PlanFile } from '../plan/schema';
 import type { InstrumentProfile } from '../profile/schema';
 import type { AllocationContext } from '../solver/allocateMasks';
 import { contextFor } from '../solver/maskContext';
-import type { MaskSolution } from '../solver/types';
+import type { MaskSolution } from '../geometry/maskSolution';
 import { observingReportForPlan, type ObservingReport } from './refractionReport';
-import type { ObservingSettings } from './observingSettings';
+import type { ObservingSettings } from '../observe/observingSettings';
 
 /** One spectrograph's part of a mixed plan's report: its profile id and label, its site, settings and masks. */
 export interface InstrumentObservingPart {

@@ -3,20 +3,22 @@
  * their slits, the profile's site (latitude, pressure, temperature, humidity) and the observing settings.
  * Pure; the planning pipeline adds it to the solution as `observingReport`.
  */
-import type { MaskSolution } from '../solver/types';
+import type { MaskSolution } from '../geometry/maskSolution';
 import type { GalaxyModel, PlanFile } from '../plan/schema';
 import type { InstrumentProfile } from '../profile/schema';
-import { maskRefractionReport, type MaskRefractionReport } from './maskRefraction';
-import { chooseDesignHourAngle, designHourAngleCandidatesH, exposureFit } from './designHourAngle';
-import { lineWindowsRangeA } from './observingSettings';
-import { lineWindowSettings, observedLineWindowsA } from '../geometry/wavelength';
-import { moonlitSkyMagPerArcsec2 } from './moonSky';
-import { AB_MINUS_VEGA_MAG, resolvePhotometry } from '../spectro/photometry';
-import { altitudeDeg } from './horizon';
-import { DEFAULT_SKY_SYSTEMATIC_FRACTION, starlightBinLines, starlightBins, type StarlightBin } from './starlightBins';
-import { designHourAnglesH, resolveObservingSettings, type ObservingSection, type ObservingSettings } from './observingSettings';
-import { exposureModelOf, maskExposureReport, type MaskExposureReport } from './exposure';
-import { starlightSettings, type StarlightRules } from '../solver/starlight';
+import { maskRefractionReport, type MaskRefractionReport } from '../observe/maskRefraction';
+import { chooseDesignHourAngle, designHourAngleCandidatesH, exposureFit } from '../observe/designHourAngle';
+import { lineWindowsRangeA } from '../observe/observingSettings';
+import { lineWindowSettings, observedLineWindowsA } from '../profile/wavelength';
+import { moonlitSkyMagPerArcsec2 } from '../observe/moonSky';
+import { AB_MINUS_VEGA_MAG, resolvePhotometry } from '../plan/photometry';
+import { altitudeDeg } from '../observe/horizon';
+import { DEFAULT_SKY_SYSTEMATIC_FRACTION, starlightBinLines, starlightBins, type StarlightBin } from '../solver/starlightBins';
+import { designHourAnglesH, resolveObservingSettings, type ObservingSettings } from '../observe/observingSettings';
+import type { ObservingSection } from '../plan/observingSection';
+import { exposureModelOf, maskExposureReport, type MaskExposureReport } from '../solver/exposure';
+import { starlightSettings } from '../solver/starlight';
+import type { StarlightRules } from '../plan/starlightSection';
 
 export interface RefractionReportInput {
   galaxy: GalaxyModel;
@@ -33,7 +35,7 @@ export interface ObservingReport {
   masks: MaskRefractionReport[];
   /** Per-mask exposure estimates (present when built by observingReportForPlan). */
   exposures?: MaskExposureReport[];
-  /** Co-added integrated-starlight bins (observe/starlightBins.ts), with the target and the sky floor used. */
+  /** Co-added integrated-starlight bins (solver/starlightBins.ts), with the target and the sky floor used. */
   starlightBins?: { bins: StarlightBin[]; targetSnPerA: number; skySystematicFraction: number };
 }
 

@@ -7,26 +7,28 @@
 import type { CatalogReadResult, Target } from '../catalog/types';
 import type { InstrumentProfile } from '../profile/schema';
 import type { Problem } from '../result';
-import type { GalaxyModel, PlanFile, PlanMask } from './schema';
-import { galaxyModel } from './validate';
+import type { GalaxyModel, PlanFile, PlanMask } from '../plan/schema';
+import { galaxyModel } from '../plan/validate';
 import { allocationContext, type AllocationContext, type PointingsAllocation } from '../solver/allocateMasks';
 import { lengthenSlits } from '../solver/lengthen';
-import { coverageReport, galaxyRadiusAndAzimuth, type CoverageReport } from '../coverage/coverage';
+import { coverageReport, type CoverageReport } from '../coverage/coverage';
+import { galaxyRadiusAndAzimuth } from '../sky/galaxyRadius';
 import { planGoals, type GoalStatus } from '../coverage/goals';
-import type { MaskPointing, MaskSolution } from '../solver/types';
-import { weighTargets, type WeightingResult, type WeightingRules } from '../solver/weighting';
+import type { MaskPointing, MaskSolution } from '../geometry/maskSolution';
+import { weighTargets, type WeightingResult } from '../solver/weighting';
+import type { WeightingRules } from '../plan/weightingSection';
 import { placeStarlightAndSky, starlightSettings } from '../solver/starlight';
 import { startLayouts, searchEnv, searchPointings, starlightTrade, type SearchReport } from '../solver/pointingSearch';
 import { objectiveContext } from '../solver/objective';
-import { withObservingReport, type ObservingReport } from '../observe/refractionReport';
-import { lineWindowSettings } from '../geometry/wavelength';
+import { withObservingReport, type ObservingReport } from './refractionReport';
+import { lineWindowSettings } from '../profile/wavelength';
 import { spectralReport, type SpectralReport } from '../spectro/spectralReport';
 import { instrumentsAllocationContext } from '../solver/instrumentContexts';
 import { instrumentsCrossLayout } from '../solver/instrumentLayout';
 import { placeStarlightForMasks } from '../solver/instrumentSearch';
 import { contextFor } from '../solver/maskContext';
-import { observingReportForMasks } from '../observe/instrumentsReport';
-import { planProfiles, planWithMaskInstruments } from './instruments';
+import { observingReportForMasks } from './instrumentsReport';
+import { planProfiles, planWithMaskInstruments } from '../plan/instruments';
 
 export interface PlanInputs {
   plan: PlanFile;
@@ -67,7 +69,7 @@ export interface PlanSolution {
   weighting: WeightingResult;
   /** The pointing search's report: objective of the starting (naive) layout and of the result (solver/pointingSearch). */
   search: SearchReport;
-  /** Refraction rows and recommended hour-angle window per mask, exposure estimates per slit (observe/refractionReport.ts). */
+  /** Refraction rows and recommended hour-angle window per mask, exposure estimates per slit (pipeline/refractionReport.ts). */
   observingReport?: ObservingReport;
   /** Photometry, line windows, resolving power and instrumental dispersion, OH-line flags, usable x per mask (spectro/spectralReport.ts). */
   spectralReport?: SpectralReport;

@@ -7,9 +7,9 @@
  * 2006, with the sky-estimate term); a systematic sky-subtraction error of a fraction f of the co-added sky adds
  * (f N_sky)^2 to the variance, which caps what co-adding can reach at about N_gal / (f N_sky).
  */
-import type { MaskSolution } from '../solver/types';
+import type { MaskSolution } from '../geometry/maskSolution';
 import type { GalaxyModel } from '../plan/schema';
-import { galaxyOnMask, galaxyRadiusAt, slitMeanMu } from '../solver/starlight';
+import { galaxyOnMask, galaxyRadiusAt, slitMeanMu } from './starlight';
 import { ccdTermsPerA, electronsPerAFromSurfaceBrightness, skyEstimateFactor } from '../spectro/signalToNoise';
 import { pointExtractionArcsec, type ExposureModel } from './exposure';
 import { sersicBn } from '../sky/sersic';

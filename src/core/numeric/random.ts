@@ -3,7 +3,7 @@
  * sequence on every machine (32-bit integer arithmetic only). Generator: mulberry32 (public-domain
  * 32-bit mixer, common practice for reproducible test data; not for cryptography).
  */
-import { PMath } from '../numeric/portableMath';
+import { PMath } from './portableMath';
 
 /** A stream of uniform numbers in [0, 1) plus derived draws. */
 export interface Rng {

@@ -3,8 +3,8 @@
  * their summed weight, starlight slits, and, from the observing report, the tracers reaching the target S/N per A in
  * the planned exposure and each site. For the plan summary and the editor's yield panel.
  */
-import type { MaskSolution } from '../solver/types';
-import type { InstrumentsObservingReport } from '../observe/instrumentsReport';
+import type { MaskSolution } from '../geometry/maskSolution';
+import type { InstrumentsObservingReport } from './instrumentsReport';
 
 export interface InstrumentYield {
   instrument: string;

@@ -5,7 +5,7 @@
  * [L_rest (1 + (v_sys - dv)/c) - w, L_rest (1 + (v_sys + dv)/c) + w] lands at edgeMargin <= p <= pixels - edgeMargin
  * and at least edgeMargin pixels away from every gap (dv = goals.velocityHalfRangeKms, w = goals.lineHalfWindowA).
  */
-import type { InstrumentProfile } from '../profile/schema';
+import type { InstrumentProfile } from './schema';
 
 /** Speed of light in km/s (SI definition). */
 export const SPEED_OF_LIGHT_KMS = 299792.458;

@@ -7,13 +7,13 @@
  * per mask), and the refraction window and exposure lines. Also the CSV of excluded targets
  * (`id,line,role,rule,reason`).
  */
-import type { CoverageReport } from './coverage';
+import type { CoverageReport } from '../coverage/coverage';
 import type { WeightingResult } from '../solver/weighting';
 import { exclusionCounts } from '../solver/weighting';
 import type { SearchReport } from '../solver/pointingSearch';
-import type { MaskSolution } from '../solver/types';
-import type { ObservingReport } from '../observe/refractionReport';
-import { formatRefractionSummary } from '../observe/refractionReport';
+import type { MaskSolution } from '../geometry/maskSolution';
+import type { ObservingReport } from './refractionReport';
+import { formatRefractionSummary } from './refractionReport';
 import { toCsv } from '../export/csvText';
 import { spectralSummaryLines, type SpectralReport } from '../spectro/spectralReport';
 

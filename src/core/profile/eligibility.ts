@@ -3,8 +3,8 @@
  * long, widthArcsec wide, tilt 0) lies inside the footprint, and for a science slit every required line's observed
  * window (v_sys +- velocityHalfRangeKms, widened by lineHalfWindowA) obeys the wavelength rule. Alignment boxes need only fit in the footprint.
  */
-import type { InstrumentProfile } from '../profile/schema';
-import { polygonBounds, stripFreeYRange, type Corner } from './polygon';
+import type { InstrumentProfile } from './schema';
+import { polygonBounds, stripFreeYRange, type Corner } from '../geometry/polygon';
 import { DEFAULT_LINE_WINDOW, observedLineWindowsA, observedWavelengthA, usableXIntervalsForWindowsArcsec, type LineWindowA, type LineWindowSettings } from './wavelength';
 
 /** Half a unit of the 4th decimal in which slits.csv writes x (arcsec), with room to spare. */
