@@ -1,8 +1,7 @@
 /**
- * Ranges a real observation can have, for every number of a plan file and of an instrument profile, checked on the
- * parsed JSON before anything else reads it: a reach of 1e9 effective radii, a line at 1e6 Angstrom or an exposure
- * of ten years is refused with a message instead of exhausting memory later. Non-finite numbers (JSON's 1e400
- * parses as Infinity) are refused everywhere. Paths are dotted key paths; `*` matches any array index or map key.
+ * Ranges a real observation can have for every number of a plan file, checked on the parsed JSON before anything
+ * else reads it (the checker and the instrument profile's ranges: profile/numberRanges.ts). Paths are dotted key
+ * paths; `*` matches any array index or map key.
  */
 import { numberRange as R, WAVELENGTH_RANGE_A as WAVELENGTH, type NumberRange } from '../profile/numberRanges';
 

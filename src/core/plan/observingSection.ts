@@ -1,6 +1,7 @@
 /**
  * The plan's `observing` section: conditions and choices for the refraction/hour-angle report and the exposure
- * estimates. Every key is optional; resolveObservingSettings fills the documented defaults (docs/observability.md).
+ * estimates. Every key is optional; resolveObservingSettings (observe/observingSettings.ts) fills the documented
+ * defaults (docs/observability.md).
  * Hour angles in hours (positive West), wavelengths Angstrom (air), seeing FWHM arcsec, times seconds.
  */
 import { z } from 'zod';
