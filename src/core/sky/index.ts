@@ -4,3 +4,4 @@ export * from './separation';
 export * from './tangentPlane';
 export * from './frames';
 export * from './sersic';
+export * from './galaxyRadius';
