@@ -22,8 +22,9 @@
  */
 import { describe, expect, it } from 'vitest';
 import { exposureModelOf, tracerExposure } from '../../src/core/observe/exposure';
-import { abPhotonFluxPerSCm2A, ccdSignalToNoise, type SpectroSetup } from '../../src/core/spectro/signalToNoise';
+import { abPhotonFluxPerSCm2A, ccdSignalToNoise } from '../../src/core/spectro/signalToNoise';
 import { AB_MINUS_VEGA_MAG, resolvePhotometry } from '../../src/core/spectro/photometry';
+import { HAND, HAND_SETUP, handCcdSn, handElectronsPerSPerA, handPhotonsAbZero } from './handCcd';
 
 /** Abramowitz & Stegun (1964) 7.1.26: erf to 1.5e-7 (an independent approximation, not the project's series). */
 function erfAS(x: number): number {
@@ -32,32 +33,22 @@ function erfAS(x: number): number {
   return x < 0 ? -y : y;
 }
 
-const H_ERG_S = 6.62607015e-27;
-const AREA_CM2 = Math.PI * 325 * 325;
-const THROUGHPUT = 0.2, EXPOSURE_S = 3600, WAVELENGTH_A = 8500;
-const SEEING = 0.8, SLIT_W = 1.0, PIX_Y = 0.2, DISP = 0.5, DARK = 0.002, RN = 4, SKY_AB = 20.15;
+const SEEING = 0.8, SLIT_W = 1.0, EXPOSURE_S = HAND.exposureS;
 
 /** The worked example, step by step (see the file comment): S/N per A of an AB = mag tracer. */
 function handWorked(magAb: number, slitLengthArcsec: number | null, galaxyMuAb: number | null = null) {
-  const photons0 = (3631e-23 / (H_ERG_S * WAVELENGTH_A * 1e-8)) * 1e-8;
-  const perS = photons0 * Math.pow(10, -0.4 * magAb) * AREA_CM2 * THROUGHPUT;
   const sigmaRoot2 = (SEEING / (2 * Math.sqrt(2 * Math.log(2)))) * Math.SQRT2;
   const extraction = 2 * SEEING;
   const frac = erfAS(SLIT_W / 2 / sigmaRoot2) * erfAS(extraction / 2 / sigmaRoot2);
-  const nStar = perS * frac * EXPOSURE_S;
-  const nPix = (extraction / PIX_Y) / DISP;
-  const perPixel = (mu: number) => photons0 * Math.pow(10, -0.4 * mu) * SLIT_W * PIX_Y * DISP * AREA_CM2 * THROUGHPUT * EXPOSURE_S;
-  const nS = perPixel(SKY_AB) + (galaxyMuAb === null ? 0 : perPixel(galaxyMuAb));
-  const k = slitLengthArcsec === null ? 1 : 1 + nPix / (((slitLengthArcsec - extraction) / PIX_Y) / DISP);
-  return { photons0, nStar, frac, nPix, nS, sn: nStar / Math.sqrt(nStar + nPix * k * (nS + DARK * EXPOSURE_S + RN * RN)) };
+  const nStar = handElectronsPerSPerA(magAb) * frac * EXPOSURE_S;
+  const nPix = extraction / HAND.yArcsecPerPixel / HAND.dispersionAPerPixel;
+  const nS = handElectronsPerSPerA(HAND.skyAb) * SLIT_W * HAND.yArcsecPerPixel * HAND.dispersionAPerPixel * EXPOSURE_S;
+  const sn = handCcdSn(nStar, extraction, SLIT_W, slitLengthArcsec === null ? null : slitLengthArcsec - extraction, galaxyMuAb);
+  return { photons0: handPhotonsAbZero(), nStar, frac, nPix, nS, sn };
 }
 
-const SETUP: SpectroSetup = {
-  apertureM: 6.5, obstructedFraction: 0, throughput: THROUGHPUT, dispersionAPerPixel: DISP, yArcsecPerPixel: PIX_Y,
-  readNoiseE: RN, darkEPerPixelPerS: DARK, wavelengthA: WAVELENGTH_A,
-};
 const model = (catalogToAbMag: number) => exposureModelOf(
-  { setup: SETUP, skyMagPerArcsec2: SKY_AB, catalogToAbMag },
+  { setup: HAND_SETUP, skyMagPerArcsec2: HAND.skyAb, catalogToAbMag },
   { seeingFwhmArcsec: SEEING, exposureTimeS: EXPOSURE_S, targetSnPerA: 5 },
 );
 const SLIT = { slitId: 's1', objectId: 'gc1', widthArcsec: SLIT_W };
@@ -104,7 +95,7 @@ describe('tracer S/N: worked example from published numbers (AB zero point, dark
     // Re-evaluate the CCD equation by hand at that time (every term scales with t except the read noise).
     const h = handWorked(22, 8);
     const s = t / EXPOSURE_S;
-    const sn = (h.nStar * s) / Math.sqrt(h.nStar * s + h.nPix * 1.25 * ((h.nS + DARK * EXPOSURE_S) * s + RN * RN));
+    const sn = (h.nStar * s) / Math.sqrt(h.nStar * s + h.nPix * 1.25 * ((h.nS + HAND.darkEPerPixelPerS * EXPOSURE_S) * s + HAND.readNoiseE * HAND.readNoiseE));
     expect(sn).toBeCloseTo(5, 4);
     // Fainter by 0.5 mag than the worked example: it needs more than the hour.
     expect(t).toBeGreaterThan(EXPOSURE_S);
