@@ -21,7 +21,7 @@ const RAD = Math.PI / 180;
 function hardieHere(zDeg: number): number {
   const s = 1 / Math.cos(zDeg * RAD);
   const u = s - 1;
-  // Written as a cubic in sec z with expanded coefficients (a second route to the same polynomial, not a copy).
+  // Rearranged with sec z = 1 + u, so the linear coefficient is 1 - 0.0018167 (the same polynomial, written anew).
   const c3 = -0.0008083, c2 = -0.002875, c1 = 1 - 0.0018167;
   return 1 + c1 * u + c2 * u * u + c3 * u * u * u;
 }
@@ -37,7 +37,7 @@ function young1994(zDeg: number): number {
   return (1.002432 * c * c + 0.148386 * c + 0.0096467) / (c * c * c + 0.149864 * c * c + 0.0102963 * c + 0.000303978);
 }
 
-/** Pickering (2002), Sky & Telescope 103 (Jan.), 32: X = 1 / sin(h + 244 / (165 + 47 h^1.1)), h the apparent altitude (deg). */
+/** Pickering (2002), DIO 12 (journal details from memory): X = 1 / sin(h + 244 / (165 + 47 h^1.1)), h the apparent altitude (deg). */
 function pickering(apparentAltDeg: number): number {
   const h = apparentAltDeg;
   return 1 / Math.sin((h + 244 / (165 + 47 * Math.pow(h, 1.1))) * RAD);
@@ -77,7 +77,7 @@ describe('airmass formulas of the literature (interpolative models, outside the 
       // Plane-parallel sec z from Math.cos (the project uses its portable cos).
       expect(secZAirmass(z)!).toBeCloseTo(1 / Math.cos(z * RAD), 9);
     }
-    // Same polynomial: agreement to rounding (measured max 2e-16).
+    // Same polynomial: agreement to rounding.
     expect(maxRel).toBeLessThan(1e-12);
     // Closed form at z = 60 deg (sec z = 2): 2 - 0.0018167 - 0.002875 - 0.0008083 = 1.9945 (Hardie 1962).
     expect(hardieAirmass(60)).toBeCloseTo(1.9945, 10);
