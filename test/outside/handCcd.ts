@@ -6,10 +6,19 @@
  */
 import type { SpectroSetup } from '../../src/core/spectro/signalToNoise';
 
-export const HAND = {
-  planckErgS: 6.62607015e-27, wavelengthA: 8500, areaCm2: Math.PI * 325 * 325, throughput: 0.2,
+/** A spectroscopic set-up for the hand calculation (units in the names; skyAb in AB mag/arcsec^2). */
+export interface HandSetup {
+  wavelengthA: number; areaCm2: number; throughput: number; dispersionAPerPixel: number; yArcsecPerPixel: number;
+  readNoiseE: number; darkEPerPixelPerS: number; exposureS: number; skyAb: number;
+}
+
+/** Planck constant, erg s (SI 2019 exact). */
+export const PLANCK_ERG_S = 6.62607015e-27;
+
+export const HAND: HandSetup = {
+  wavelengthA: 8500, areaCm2: Math.PI * 325 * 325, throughput: 0.2,
   dispersionAPerPixel: 0.5, yArcsecPerPixel: 0.2, readNoiseE: 4, darkEPerPixelPerS: 0.002, exposureS: 3600, skyAb: 20.15,
-} as const;
+};
 
 /** The same set-up in the project's terms (the object under test receives it; the hand side never reads it). */
 export const HAND_SETUP: SpectroSetup = {
@@ -18,13 +27,13 @@ export const HAND_SETUP: SpectroSetup = {
 };
 
 /** Photons s^-1 cm^-2 A^-1 of AB = 0 at the set-up's wavelength: 3631e-23 / (h lambda) * 1e-8 = 644.69 at 8500 A. */
-export function handPhotonsAbZero(): number {
-  return (3631e-23 / (HAND.planckErgS * HAND.wavelengthA * 1e-8)) * 1e-8;
+export function handPhotonsAbZero(h: HandSetup = HAND): number {
+  return (3631e-23 / (PLANCK_ERG_S * h.wavelengthA * 1e-8)) * 1e-8;
 }
 
 /** Detected electrons s^-1 A^-1 from AB magnitude m (or per arcsec^2 from a surface brightness). */
-export function handElectronsPerSPerA(magAb: number): number {
-  return handPhotonsAbZero() * Math.pow(10, -0.4 * magAb) * HAND.areaCm2 * HAND.throughput;
+export function handElectronsPerSPerA(magAb: number, h: HandSetup = HAND): number {
+  return handPhotonsAbZero(h) * Math.pow(10, -0.4 * magAb) * h.areaCm2 * h.throughput;
 }
 
 /**
@@ -32,10 +41,10 @@ export function handElectronsPerSPerA(magAb: number): number {
  * extractionArcsec along a slit of widthArcsec, the sky estimated from skyLengthArcsec of slit (null: known exactly),
  * and an optional galaxy background (AB mag/arcsec^2) under the source.
  */
-export function handCcdSn(nStarE: number, extractionArcsec: number, widthArcsec: number, skyLengthArcsec: number | null, galaxyMuAb: number | null = null): number {
-  const perPixel = (mu: number) => handElectronsPerSPerA(mu) * widthArcsec * HAND.yArcsecPerPixel * HAND.dispersionAPerPixel * HAND.exposureS;
-  const nPix = extractionArcsec / HAND.yArcsecPerPixel / HAND.dispersionAPerPixel;
-  const k = skyLengthArcsec === null ? 1 : 1 + nPix / (skyLengthArcsec / HAND.yArcsecPerPixel / HAND.dispersionAPerPixel);
-  const background = perPixel(HAND.skyAb) + (galaxyMuAb === null ? 0 : perPixel(galaxyMuAb));
-  return nStarE / Math.sqrt(nStarE + nPix * k * (background + HAND.darkEPerPixelPerS * HAND.exposureS + HAND.readNoiseE * HAND.readNoiseE));
+export function handCcdSn(nStarE: number, extractionArcsec: number, widthArcsec: number, skyLengthArcsec: number | null, galaxyMuAb: number | null = null, h: HandSetup = HAND): number {
+  const perPixel = (mu: number) => handElectronsPerSPerA(mu, h) * widthArcsec * h.yArcsecPerPixel * h.dispersionAPerPixel * h.exposureS;
+  const nPix = extractionArcsec / h.yArcsecPerPixel / h.dispersionAPerPixel;
+  const k = skyLengthArcsec === null ? 1 : 1 + nPix / (skyLengthArcsec / h.yArcsecPerPixel / h.dispersionAPerPixel);
+  const background = perPixel(h.skyAb) + (galaxyMuAb === null ? 0 : perPixel(galaxyMuAb));
+  return nStarE / Math.sqrt(nStarE + nPix * k * (background + h.darkEPerPixelPerS * h.exposureS + h.readNoiseE * h.readNoiseE));
 }
