@@ -1,8 +1,8 @@
 /**
  * Outside check of atmospheric (differential) refraction: the project's plane-parallel Edlén refraction
- * (Filippenko 1982, PASP 94, 715) against astropy's AltAz refraction (ERFA eraRefco: a model of the troposphere
- * by ray tracing, A tan z + B tan^3 z, with its own refractive index for the given pressure, temperature, humidity
- * and wavelength — nothing shared with Edlén's dispersion formula or our plane-parallel form).
+ * (Filippenko 1982, PASP 94, 715) against astropy's AltAz refraction (ERFA eraRefco: refraction constants A and B,
+ * R = A tan z + B tan^3 z, from its own model of the atmosphere and its own refractive index for the given pressure,
+ * temperature, humidity and wavelength — nothing shared with Edlén's dispersion formula or our plane-parallel form).
  * Filippenko's Table 1 itself is not used: its entries are not remembered reliably enough to be a check.
  */
 import { describe, expect, it } from 'vitest';
