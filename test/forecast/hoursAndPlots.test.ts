@@ -102,10 +102,11 @@ describe('starlight bins', () => {
     expect(one.starlightBins[0].snPerA).toBeGreaterThan(0);
     expect(four.starlightBins[0].slits).toBe(4);
     expect(four.starlightBins[0].snPerA).toBeCloseTo(2 * one.starlightBins[0].snPerA, 9);
-    // Photon-limited: the velocity error halves (before the floor in quadrature) when the S/N doubles.
+    // Photon-limited: the velocity error halves (before the floor in quadrature) when the S/N doubles; the calibrated
+    // ratio of a fit's scatter to the bound moves by under 1 % between these S/N (forecast/velocityCalibrationTable.ts).
     const v1 = one.starlightBins[0].velocityErrorKms!, v4 = four.starlightBins[0].velocityErrorKms!;
     const floor = one.settings.velocityErrors.floorKms;
-    expect(Math.sqrt(v4 * v4 - floor * floor) / Math.sqrt(v1 * v1 - floor * floor)).toBeCloseTo(0.5, 9);
+    expect(Math.sqrt(v4 * v4 - floor * floor) / Math.sqrt(v1 * v1 - floor * floor)).toBeCloseTo(0.5, 2);
     // The bin sits in the sector of its azimuth from the major axis, counter-clockwise from +u to +v.
     const b = four.starlightBins[0];
     expect(b.fromRe).toBe(1);

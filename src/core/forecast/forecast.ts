@@ -9,12 +9,12 @@ import { PMath } from '../numeric/portableMath';
 import type { InstrumentProfile } from '../profile/schema';
 import type { MaskSolution } from '../solver/types';
 import { exposureModelOf, maskExposureReport, type MaskExposureReport } from '../observe/exposure';
-import { resolveObservingSettings, type ObservingSection } from '../observe/observingSettings';
+import { OBSERVING_DEFAULTS, resolveObservingSettings, type ObservingSection } from '../observe/observingSettings';
 import { starlightSettings, type StarlightRules } from '../solver/starlight';
 import { resolveForecastSettings, type ForecastSettings } from './settings';
 import { slitSamples } from './samples';
 import { clusterProbability } from './contamination';
-import { instrumentalSigmaA, lineSigmaA, velocityErrorModel } from './velocityError';
+import { instrumentalSigmaA, lineSigmaA, velocityErrorModel, type LineSampling } from './velocityError';
 import { modelSigmaKms } from './kinematicModel';
 import { angleScatterDeg, binIndex, meanAndStd, runTracerMocks, type MockTracer } from './mocks';
 import { kpcPerArcsec } from './tracerMass';
@@ -119,7 +119,7 @@ export interface Forecast {
   starlightBins: StarlightBin[];
   spinProfile: SpinPoint[];
   fastRotatorThresholdLambda: number;
-  hours: { perMask: number[]; maskIds: string[]; total: number; masks: MaskHours[]; plannedExposureHours: number; targetSnPerA: number; completeness: number; overheadHoursPerMask: number; nights: NightsEstimate | null };
+  hours: { perMask: number[]; maskIds: string[]; total: number; masks: MaskHours[]; plannedExposureHours: number; targetSnPerA: number; targetSnSource: TargetSnSource; completeness: number; overheadHoursPerMask: number; nights: NightsEstimate | null };
   tracers: TracerForecast[];
   notes: string[];
 }
@@ -133,6 +133,8 @@ export interface ForecastInput {
   colours?: ReadonlyMap<string, number>;
   /** Observable dark hours per night of the semester (observe/night.ts), with the semester's first and last night. */
   nights?: { rows: readonly { date: string; darkHours: number }[]; from: string; to: string } | null;
+  /** The profile of each mask of a plan with several spectrographs (mask id to profile); masks absent use `profile`. */
+  maskProfiles?: ReadonlyMap<string, InstrumentProfile>;
   trials?: number;
   seed?: number | string;
 }
@@ -150,26 +152,68 @@ export function dispersionBinEdges(edgesRe: readonly number[], tracers: readonly
   return out;
 }
 
+/** Where the tracers' target S/N per Angstrom comes from: the plan's goals, its observing section, or the default. */
+export type TargetSnSource = 'goals.tracerSnPerA' | 'observing.targetSnPerA' | 'default';
+
+/** The tracers' target S/N per Angstrom of a plan: goals.tracerSnPerA, else observing.targetSnPerA, else the observing default. */
+export function tracerTargetSn(plan: PlanFile): { snPerA: number; source: TargetSnSource } {
+  const goal = plan.goals.tracerSnPerA;
+  if (goal !== undefined) return { snPerA: goal, source: 'goals.tracerSnPerA' };
+  const observing = (plan.observing as ObservingSection | undefined)?.targetSnPerA;
+  if (observing !== undefined) return { snPerA: observing, source: 'observing.targetSnPerA' };
+  return { snPerA: OBSERVING_DEFAULTS.targetSnPerA, source: 'default' };
+}
+
 /**
  * Exposure estimates (S/N per Angstrom of every tracer and starlight slit in the planned exposure, and times to the
- * target S/N) with the plan's settings, as the observing report of the plan computes them, without its refraction rows.
+ * tracers' target S/N) with the plan's settings and one profile, as the observing report computes them.
  */
 export function planExposures(plan: PlanFile, profile: InstrumentProfile, galaxy: GalaxyModel, masks: readonly MaskSolution[]): { exposures: MaskExposureReport[]; exposureTimeS: number; targetSnPerA: number } {
   const starlight = starlightSettings(plan.starlight as StarlightRules | undefined, profile, plan);
   const settings = resolveObservingSettings(plan.observing as ObservingSection | undefined, profile, { exposureTimeS: starlight.exposureS });
-  const model = exposureModelOf(starlight, settings);
-  return { exposures: masks.map((m) => maskExposureReport(m, galaxy, model)), exposureTimeS: settings.exposureTimeS, targetSnPerA: settings.targetSnPerA };
+  const model = exposureModelOf(starlight, { ...settings, targetSnPerA: tracerTargetSn(plan).snPerA });
+  return { exposures: masks.map((m) => maskExposureReport(m, galaxy, model)), exposureTimeS: settings.exposureTimeS, targetSnPerA: model.targetSnPerA };
+}
+
+/** Masks grouped by their spectrograph (profileOf a mask id), in the order the masks come. */
+export function masksByProfile(masks: readonly MaskSolution[], profileOf: (maskId: string) => InstrumentProfile): { profile: InstrumentProfile; masks: MaskSolution[] }[] {
+  const groups: { profile: InstrumentProfile; masks: MaskSolution[] }[] = [];
+  for (const m of masks) {
+    const p = profileOf(m.mask.id);
+    const g = groups.find((x) => x.profile === p);
+    if (g) g.masks.push(m);
+    else groups.push({ profile: p, masks: [m] });
+  }
+  return groups;
+}
+
+/** planExposures of a plan whose masks may use several spectrographs: each mask with its own profile's exposure model. */
+export function mixedPlanExposures(plan: PlanFile, galaxy: GalaxyModel, masks: readonly MaskSolution[], profileOf: (maskId: string) => InstrumentProfile): { exposures: MaskExposureReport[]; exposureTimeS: number; targetSnPerA: number } {
+  const parts = masksByProfile(masks, profileOf).map((g) => planExposures(plan, g.profile, galaxy, g.masks));
+  const byId = new Map(parts.flatMap((p) => p.exposures).map((e) => [e.maskId, e]));
+  return {
+    exposures: masks.map((m) => byId.get(m.mask.id)!),
+    exposureTimeS: parts[0]?.exposureTimeS ?? 0,
+    targetSnPerA: parts[0]?.targetSnPerA ?? tracerTargetSn(plan).snPerA,
+  };
 }
 
 /** Hours of every mask (time for the completeness fraction of its tracers to reach the target S/N, plus overhead). */
-export function planMaskHours(plan: PlanFile, profile: InstrumentProfile, galaxy: GalaxyModel, masks: readonly MaskSolution[], known?: ReturnType<typeof planExposures>): MaskHours[] {
+export function planMaskHours(plan: PlanFile, profile: InstrumentProfile, galaxy: GalaxyModel, masks: readonly MaskSolution[], known?: { exposures: MaskExposureReport[] }): MaskHours[] {
   const s = resolveForecastSettings(plan.forecast, galaxy, plan.goals.linesA);
-  const { exposures, exposureTimeS } = known ?? planExposures(plan, profile, galaxy, masks);
+  const { exposures } = known ?? planExposures(plan, profile, galaxy, masks);
   return masks.map((m) => {
     const ex = exposures.find((e) => e.maskId === m.mask.id);
     const times = (ex?.slits ?? []).filter((x) => x.role === 'tracer').map((x) => x.timeForTargetSnS);
-    return maskHours(m.mask.id, times, s.completeness, exposureTimeS, s.overheadHoursPerMask);
+    return maskHours(m.mask.id, times, s.completeness, ex?.exposureTimeS ?? 0, s.overheadHoursPerMask);
   });
+}
+
+/** How a profile records the lines of a cluster: instrumental sigma of its slits and the lines' own width, and its dispersion. */
+export function tracerLineSampling(profile: InstrumentProfile, intrinsicLineSigmaA: number, meanLineA: number): LineSampling {
+  const instrumentalA = instrumentalSigmaA(profile.slits.widthArcsec, profile.detector.xArcsecPerPixel, profile.detector.dispersionAPerPixel);
+  // Cluster lines are broadened by the instrument and the lines' own width only (internal dispersions of a few km/s).
+  return { sigmaLineA: lineSigmaA(instrumentalA, intrinsicLineSigmaA, 0, meanLineA), dispersionAPerPixel: profile.detector.dispersionAPerPixel };
 }
 
 /** Forecast of a solved plan (pure; the same seed and trials give the same numbers). */
@@ -177,19 +221,24 @@ export function forecastPlan(input: ForecastInput): Forecast {
   const { plan, profile, galaxy } = input;
   const trials = input.trials ?? DEFAULT_TRIALS, seed = input.seed ?? 1;
   const s = resolveForecastSettings(plan.forecast, galaxy, plan.goals.linesA);
-  const known = planExposures(plan, profile, galaxy, input.masks);
+  const profileOf = (maskId: string): InstrumentProfile => input.maskProfiles?.get(maskId) ?? profile;
+  const known = mixedPlanExposures(plan, galaxy, input.masks, profileOf);
   const { exposures } = known;
   const { tracers, starlight } = slitSamples(galaxy, input.masks, exposures);
   const kpcPerRe = kpcPerArcsec(s.distanceMpc) * galaxy.reArcsec;
   const linesA = plan.goals.linesA, meanLineA = linesA.reduce((a, b) => a + b, 0) / linesA.length;
-  const instrumentalA = instrumentalSigmaA(profile.slits.widthArcsec, profile.detector.xArcsecPerPixel, profile.detector.dispersionAPerPixel);
-  // Cluster lines are broadened by the instrument and the lines' own width only (internal dispersions of a few km/s).
-  const tracerLineA = lineSigmaA(instrumentalA, s.velocityErrors.intrinsicLineSigmaA, 0, meanLineA);
   const notes: string[] = [];
 
-  const errorAt = velocityErrorModel(tracerLineA, linesA, galaxy.vsysKms, s.velocityErrors);
+  // Each mask's slits with their own spectrograph's resolution, sampling and velocity-error relation.
+  const errorModels = new Map<InstrumentProfile, (snPerA: number) => number>();
+  const errorAt = (maskId: string): ((snPerA: number) => number) => {
+    const p = profileOf(maskId);
+    let m = errorModels.get(p);
+    if (!m) errorModels.set(p, (m = velocityErrorModel(tracerLineSampling(p, s.velocityErrors.intrinsicLineSigmaA, meanLineA), linesA, galaxy.vsysKms, s.velocityErrors)));
+    return m;
+  };
   const tf: TracerForecast[] = tracers.map((t) => {
-    const err = errorAt(t.snPerA);
+    const err = errorAt(t.maskId)(t.snPerA);
     return {
       maskId: t.maskId, slitId: t.slitId, objectId: t.objectId, radiusRe: t.radiusRe, paDeg: t.paDeg, snPerA: t.snPerA,
       velocityErrorKms: Number.isFinite(err) ? err : null,
@@ -235,10 +284,16 @@ export function forecastPlan(input: ForecastInput): Forecast {
   const massFrac = Number.isFinite(mass.std) && mass.mean > 0 ? mass.std / mass.mean : null;
   const distFrac = s.distanceErrorMpc / s.distanceMpc;
 
-  const sBins = starlightBins(starlight, s, { instrumentalA, linesA, vsysKms: galaxy.vsysKms });
+  const sampling = (maskId: string): LineSampling => {
+    const p = profileOf(maskId);
+    return { sigmaLineA: instrumentalSigmaA(p.slits.widthArcsec, p.detector.xArcsecPerPixel, p.detector.dispersionAPerPixel), dispersionAPerPixel: p.detector.dispersionAPerPixel };
+  };
+  const sBins = starlightBins(starlight, s, { instrumentalOf: sampling, linesA, vsysKms: galaxy.vsysKms });
   const spin = spinProfile(sBins, s.starlightBinsRe, trials, `${seed}:starlight`);
 
   const masksH = planMaskHours(plan, profile, galaxy, input.masks, known);
+  const target = tracerTargetSn(plan);
+  if (target.source === 'default') notes.push(`no tracer S/N target in the plan (goals.tracerSnPerA): hours are for S/N ${target.snPerA} per A, the default`);
   const total = masksH.reduce((a, m) => a + m.hours, 0);
   const nights = input.nights ? nightsNeeded(total, input.nights.rows, input.nights.from, input.nights.to) : null;
   if (!input.nights) notes.push('no semester given (forecast.semesterFrom/semesterTo in the plan, or --from/--to): nights not estimated');
@@ -263,7 +318,7 @@ export function forecastPlan(input: ForecastInput): Forecast {
     starlightBins: sBins, spinProfile: spin, fastRotatorThresholdLambda: fastRotatorThreshold(galaxy.axisRatio),
     hours: {
       perMask: masksH.map((m) => m.hours), maskIds: masksH.map((m) => m.maskId), total, masks: masksH,
-      plannedExposureHours: known.exposureTimeS / 3600, targetSnPerA: known.targetSnPerA, completeness: s.completeness,
+      plannedExposureHours: known.exposureTimeS / 3600, targetSnPerA: target.snPerA, targetSnSource: target.source, completeness: s.completeness,
       overheadHoursPerMask: s.overheadHoursPerMask, nights,
     },
     tracers: tf,
