@@ -107,11 +107,21 @@ export function loadForecastInput(shown: string, semester: { from: string | null
   }
   const from = semester.from ?? plan.forecast?.semesterFrom ?? null, to = semester.to ?? plan.forecast?.semesterTo ?? null;
   let nights: ForecastInput['nights'] = null;
+  const nightsOfProfile = new Map<string, NonNullable<ForecastInput['nights']>>();
   if (from && to) {
-    const site = { latDeg: profile.site.latDeg, lonDeg: profile.site.lonDeg, elevationM: profile.site.elevationM };
-    nights = { rows: nightTable(from, to, galaxy, site, { maxAirmass: plan.observing?.maxAirmass ?? 2, stepMinutes: 10 }), from, to };
+    // One night table per site; profiles at the same latitude and longitude share it.
+    const bySite = new Map<string, NonNullable<ForecastInput['nights']>>();
+    for (const p of profiles) {
+      const key = `${p.site.latDeg},${p.site.lonDeg}`;
+      if (!bySite.has(key)) {
+        const site = { latDeg: p.site.latDeg, lonDeg: p.site.lonDeg, elevationM: p.site.elevationM };
+        bySite.set(key, { rows: nightTable(from, to, galaxy, site, { maxAirmass: plan.observing?.maxAirmass ?? 2, stepMinutes: 10 }), from, to });
+      }
+      nightsOfProfile.set(p.id, bySite.get(key)!);
+    }
+    nights = nightsOfProfile.get(profile.id)!;
   }
-  return { plan, profile, maskProfiles, galaxy, masks: solutions, colours, nights };
+  return { plan, profile, maskProfiles, nightsOfProfile: profiles.length > 1 && nights ? nightsOfProfile : undefined, galaxy, masks: solutions, colours, nights };
 }
 
 /** A forecast with numbers rounded for the file (6 significant digits). */

@@ -20,7 +20,7 @@ import { angleScatterDeg, binIndex, meanAndStd, runTracerMocks, type MockTracer 
 import { kpcPerArcsec } from './tracerMass';
 import { spinProfile, starlightBins, type SpinPoint, type StarlightBin } from './starlightBins';
 import { fastRotatorThreshold } from './spin';
-import { maskHours, nightsNeeded, type MaskHours, type NightsEstimate } from './hours';
+import { maskHours, nightsNeeded, nightsOfSites, type MaskHours, type NightsEstimate, type SiteNights } from './hours';
 
 /** The `format` of forecast.json (interface contract, revision 2). */
 export const FORECAST_FORMAT = 'haloweave.forecast/1';
@@ -119,7 +119,9 @@ export interface Forecast {
   starlightBins: StarlightBin[];
   spinProfile: SpinPoint[];
   fastRotatorThresholdLambda: number;
-  hours: { perMask: number[]; maskIds: string[]; total: number; masks: MaskHours[]; plannedExposureHours: number; targetSnPerA: number; targetSnSource: TargetSnSource; completeness: number; overheadHoursPerMask: number; nights: NightsEstimate | null };
+  hours: { perMask: number[]; maskIds: string[]; total: number; masks: MaskHours[]; plannedExposureHours: number; targetSnPerA: number; targetSnSource: TargetSnSource; completeness: number; overheadHoursPerMask: number; nights: NightsEstimate | null;
+    /** Plans observed at several sites: hours and nights per site (the sites observe in parallel); null for one site. */
+    sites: SiteNights[] | null };
   tracers: TracerForecast[];
   notes: string[];
 }
@@ -133,6 +135,8 @@ export interface ForecastInput {
   colours?: ReadonlyMap<string, number>;
   /** Observable dark hours per night of the semester (observe/night.ts), with the semester's first and last night. */
   nights?: { rows: readonly { date: string; darkHours: number }[]; from: string; to: string } | null;
+  /** Several sites (a plan with spectrographs on different telescopes): each profile id's semester nights at its site. */
+  nightsOfProfile?: ReadonlyMap<string, { rows: readonly { date: string; darkHours: number }[]; from: string; to: string }>;
   /** The profile of each mask of a plan with several spectrographs (mask id to profile); masks absent use `profile`. */
   maskProfiles?: ReadonlyMap<string, InstrumentProfile>;
   trials?: number;
@@ -207,6 +211,19 @@ export function planMaskHours(plan: PlanFile, profile: InstrumentProfile, galaxy
     const times = (ex?.slits ?? []).filter((x) => x.role === 'tracer').map((x) => x.timeForTargetSnS);
     return maskHours(m.mask.id, times, s.completeness, ex?.exposureTimeS ?? 0, s.overheadHoursPerMask);
   });
+}
+
+/** Hours per observing site (profiles with the same latitude and longitude share one), in the order the masks come. */
+export function siteHours(masks: readonly MaskSolution[], hours: readonly MaskHours[], profileOf: (maskId: string) => InstrumentProfile): Omit<SiteNights, 'nights'>[] {
+  const out: Omit<SiteNights, 'nights'>[] = [];
+  masks.forEach((m, i) => {
+    const p = profileOf(m.mask.id);
+    let site = out.find((x) => x.latDeg === p.site.latDeg && x.lonDeg === p.site.lonDeg);
+    if (!site) out.push((site = { profileIds: [], latDeg: p.site.latDeg, lonDeg: p.site.lonDeg, hours: 0 }));
+    if (!site.profileIds.includes(p.id)) site.profileIds.push(p.id);
+    site.hours += hours[i].hours;
+  });
+  return out;
 }
 
 /** How a profile records the lines of a cluster: instrumental sigma of its slits and the lines' own width, and its dispersion. */
@@ -295,8 +312,15 @@ export function forecastPlan(input: ForecastInput): Forecast {
   const target = tracerTargetSn(plan);
   if (target.source === 'default') notes.push(`no tracer S/N target in the plan (goals.tracerSnPerA): hours are for S/N ${target.snPerA} per A, the default`);
   const total = masksH.reduce((a, m) => a + m.hours, 0);
-  const nights = input.nights ? nightsNeeded(total, input.nights.rows, input.nights.from, input.nights.to) : null;
-  if (!input.nights) notes.push('no semester given (forecast.semesterFrom/semesterTo in the plan, or --from/--to): nights not estimated');
+  const sites = siteHours(input.masks, masksH, profileOf);
+  let nights = input.nights ? nightsNeeded(total, input.nights.rows, input.nights.from, input.nights.to) : null;
+  let siteNights: SiteNights[] | null = null;
+  if (sites.length > 1 && input.nightsOfProfile) {
+    const bySite = nightsOfSites(sites, (id) => input.nightsOfProfile!.get(id)!);
+    siteNights = bySite.sites;
+    nights = bySite.overall;
+  } else if (sites.length > 1 && input.nights) notes.push('masks at several sites: nights estimated from the first site only');
+  if (!input.nights && !input.nightsOfProfile) notes.push('no semester given (forecast.semesterFrom/semesterTo in the plan, or --from/--to): nights not estimated');
 
   return {
     format: FORECAST_FORMAT, galaxyId: galaxy.id, trials, seed, errorPrecision: trialPrecision(trials), distanceMpc: s.distanceMpc, kpcPerRe, settings: s,
@@ -319,7 +343,7 @@ export function forecastPlan(input: ForecastInput): Forecast {
     hours: {
       perMask: masksH.map((m) => m.hours), maskIds: masksH.map((m) => m.maskId), total, masks: masksH,
       plannedExposureHours: known.exposureTimeS / 3600, targetSnPerA: target.snPerA, targetSnSource: target.source, completeness: s.completeness,
-      overheadHoursPerMask: s.overheadHoursPerMask, nights,
+      overheadHoursPerMask: s.overheadHoursPerMask, nights, sites: siteNights,
     },
     tracers: tf,
     notes,
