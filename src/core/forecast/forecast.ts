@@ -121,7 +121,9 @@ export interface Forecast {
   fastRotatorThresholdLambda: number;
   hours: { perMask: number[]; maskIds: string[]; total: number; masks: MaskHours[]; plannedExposureHours: number; targetSnPerA: number; targetSnSource: TargetSnSource; completeness: number; overheadHoursPerMask: number; nights: NightsEstimate | null;
     /** Plans observed at several sites: hours and nights per site (the sites observe in parallel); null for one site. */
-    sites: SiteNights[] | null };
+    sites: SiteNights[] | null;
+    /** Hours per observing site (one entry for a plan of one site): what a nights estimate needs besides the nights. */
+    siteHours: Omit<SiteNights, 'nights'>[] };
   tracers: TracerForecast[];
   notes: string[];
 }
@@ -343,7 +345,7 @@ export function forecastPlan(input: ForecastInput): Forecast {
     hours: {
       perMask: masksH.map((m) => m.hours), maskIds: masksH.map((m) => m.maskId), total, masks: masksH,
       plannedExposureHours: known.exposureTimeS / 3600, targetSnPerA: target.snPerA, targetSnSource: target.source, completeness: s.completeness,
-      overheadHoursPerMask: s.overheadHoursPerMask, nights, sites: siteNights,
+      overheadHoursPerMask: s.overheadHoursPerMask, nights, sites: siteNights, siteHours: sites,
     },
     tracers: tf,
     notes,
