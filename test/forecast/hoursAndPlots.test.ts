@@ -31,6 +31,34 @@ describe('hours and nights', () => {
     expect(planMaskHours(plan, profile, galaxyModel(plan), masks)).toEqual(f.hours.masks);
     expect(f.hours.masks[0].hours).toBeGreaterThan(0.25);
   });
+
+  it("take the tracers' S/N target from goals.tracerSnPerA, else observing.targetSnPerA, else the default 20 (with a note)", () => {
+    const base = planWith({ completeness: 0.5, overheadHoursPerMask: 0 });
+    const goals = { ...base.goals };
+    const at = (extra: Record<string, unknown>) => {
+      const plan = planWith({ completeness: 0.5, overheadHoursPerMask: 0 }, extra);
+      return forecastPlan({ plan, profile, galaxy: galaxyModel(plan), masks: tracerLayout(plan, ring(20, 2, 22)), trials: 10, seed: 1 });
+    };
+    const byDefault = at({});
+    expect(byDefault.hours.targetSnSource).toBe('default');
+    expect(byDefault.hours.targetSnPerA).toBe(20);
+    expect(byDefault.notes.join('\n')).toMatch(/goals\.tracerSnPerA/);
+    const observing = at({ observing: { targetSnPerA: 20 } });
+    expect(observing.hours.targetSnSource).toBe('observing.targetSnPerA');
+    const goal = at({ goals: { ...goals, tracerSnPerA: 10 }, observing: { targetSnPerA: 20 } });
+    expect(goal.hours.targetSnSource).toBe('goals.tracerSnPerA');
+    expect(goal.hours.targetSnPerA).toBe(10);
+    // CCD equation (Howell 2006, section 4.4): S/N grows as sqrt(t) when photon or sky noise dominates and as t when
+    // read noise does, so half the S/N takes between a quarter and a half of the time.
+    const ratio = goal.hours.masks[0].exposureHours! / observing.hours.masks[0].exposureHours!;
+    console.log(`exposure to S/N 10 over exposure to S/N 20: ${ratio.toFixed(3)}`);
+    expect(ratio).toBeGreaterThanOrEqual(0.25 - 1e-9);
+    expect(ratio).toBeLessThanOrEqual(0.5);
+  });
+
+  it('goals.tracerSnPerA is validated', () => {
+    expect(() => parsePlan({ ...demoPlanJson, goals: { ...demoPlanJson.goals, tracerSnPerA: -3 } }, 'p.plan.json')).toThrow(/tracerSnPerA/);
+  });
 });
 
 describe("the plan's forecast section", () => {
