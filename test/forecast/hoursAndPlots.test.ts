@@ -1,7 +1,8 @@
 /** Hours per mask and nights (docs/forecast.md "Hours and nights"), the plan's forecast section, and the SVG plots. */
 import { describe, expect, it } from 'vitest';
 import { maskHours, nightsNeeded } from '../../src/core/forecast/hours';
-import { forecastPlan, planMaskHours } from '../../src/core/forecast/forecast';
+import { forecastPlan } from '../../src/core/forecast/forecast';
+import { planMaskHours } from '../../src/core/forecast/planExposures';
 import { dispersionProfileSvg, rotationSvg, starlightMapSvg } from '../../src/core/forecast/plots';
 import { parsePlan, galaxyModel } from '../../src/core/plan/validate';
 import { InputError } from '../../src/core/result';

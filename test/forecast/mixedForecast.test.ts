@@ -9,7 +9,8 @@ import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { main } from '../../src/cli/main';
 import { loadForecastInput } from '../../src/cli/commands/forecast';
-import { forecastPlan, planExposures, type Forecast } from '../../src/core/forecast/forecast';
+import { forecastPlan, type Forecast } from '../../src/core/forecast/forecast';
+import { planExposures } from '../../src/core/forecast/planExposures';
 
 const quiet = { out: () => {}, err: () => {} };
 let dir: string;
