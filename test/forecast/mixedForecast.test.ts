@@ -11,6 +11,7 @@ import { main } from '../../src/cli/main';
 import { loadForecastInput } from '../../src/cli/commands/forecast';
 import { forecastPlan, type Forecast } from '../../src/core/forecast/forecast';
 import { planExposures } from '../../src/core/forecast/planExposures';
+import { editorMaskProfiles } from '../../src/editor/io/planProfiles';
 
 const quiet = { out: () => {}, err: () => {} };
 let dir: string;
@@ -28,6 +29,12 @@ describe('forecast of a mixed plan', () => {
     const ids = [...input.maskProfiles!.values()].map((p) => p.id);
     expect(new Set(ids)).toEqual(new Set(['ridge10-narrow', 'broad65-wide']));
     expect(input.maskProfiles!.size).toBe(4);
+  });
+
+  it('the editor finds the same profile for every mask from the solved plan', () => {
+    const editor = editorMaskProfiles(input.plan, input.profile)!;
+    expect(editor.size).toBe(4);
+    for (const [id, p] of input.maskProfiles!) expect(editor.get(id)!.id).toBe(p.id);
   });
 
   it('takes each tracer\'s S/N from its own profile\'s exposure model', () => {

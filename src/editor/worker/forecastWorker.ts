@@ -1,25 +1,14 @@
 /// <reference lib="webworker" />
 /**
  * The science forecast (src/core/forecast/forecast.ts) off the main thread: one request per layout, the reply
- * carries the forecast and its compute time; in a plan of several spectrographs each mask uses its own profile. The panel keeps at most one request in flight (latest wins).
+ * carries the forecast and its compute time; in a plan of several spectrographs each mask uses its own profile. The
+ * panel keeps at most one request in flight (latest wins).
  */
 import { forecastPlan, type Forecast } from '../../core/forecast/forecast';
 import type { GalaxyModel, PlanFile } from '../../core/plan/schema';
 import type { InstrumentProfile } from '../../core/profile/schema';
 import type { MaskSolution } from '../../core/solver/types';
-import { editorPlanProfiles } from '../io/planProfiles';
-
-/** Each mask's own profile in a plan with several spectrographs (the solved plan names it by id); undefined for one. */
-function editorMaskProfiles(plan: PlanFile, profile: InstrumentProfile): Map<string, InstrumentProfile> | undefined {
-  const profiles = editorPlanProfiles(plan, profile);
-  if (!profiles) return undefined;
-  const out = new Map<string, InstrumentProfile>();
-  for (const m of plan.masks ?? []) {
-    const own = m.instrument === undefined ? undefined : profiles[m.instrument] ?? Object.values(profiles).find((p) => p.id === m.instrument);
-    if (own) out.set(m.id, own);
-  }
-  return out;
-}
+import { editorMaskProfiles } from '../io/planProfiles';
 
 export interface ForecastRequest { id: number; plan: PlanFile; profile: InstrumentProfile; galaxy: GalaxyModel; masks: MaskSolution[]; trials: number; seed: number }
 export type ForecastReply = { id: number; forecast: Forecast; computeMs: number } | { id: number; error: string };
