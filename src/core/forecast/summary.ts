@@ -39,7 +39,7 @@ export function formatForecastSummary(f: Forecast): string[] {
   for (const b of f.dispersionProfile) {
     lines.push(`  ${`${num(b.fromRe)}-${num(b.toRe)}`.padStart(9)}  ${`${num(b.fromKpc)}-${num(b.toKpc)}`.padStart(10)}  ${num(b.n).padStart(6)}  ${num(b.sigmaKms, 0).padStart(5)}  ${pct(b.sigmaFracError).padStart(6)}  ${pct(b.idealFracError).padStart(6)}`);
   }
-  const source = f.hours.targetSnSource === 'default' ? 'default' : f.hours.targetSnSource;
+  const source = f.hours.targetSnSource === 'default' ? 'the default' : f.hours.targetSnSource;
   lines.push(`Hours per mask (${(f.hours.completeness * 100).toFixed(0)} % of tracer slits to S/N ${f.hours.targetSnPerA} per A from ${source}, + ${f.hours.overheadHoursPerMask} h overhead; planned exposure ${f.hours.plannedExposureHours.toFixed(2)} h): ` +
     f.hours.masks.map((m) => `${m.maskId} ${m.hours.toFixed(2)} h${m.exposureHours === null ? ' (target S/N out of reach: planned exposure)' : ''}`).join(', '));
   for (const site of f.hours.sites ?? []) {
