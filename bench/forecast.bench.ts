@@ -10,7 +10,8 @@ import { parsePlan, galaxyModel } from '../src/core/plan/validate';
 import { parseProfile } from '../src/core/profile/load';
 import { solvePlan } from '../src/core/pipeline/pipeline';
 import { LIVE_FORECAST_TRIALS } from '../src/core/forecast/live';
-import { DEFAULT_TRIALS, forecastPlan, planExposures } from '../src/core/forecast/forecast';
+import { DEFAULT_TRIALS, forecastPlan } from '../src/core/forecast/forecast';
+import { planExposures } from '../src/core/forecast/planExposures';
 
 const profile = parseProfile(JSON.parse(readFileSync(new URL('../instrument-profiles/ridge10-narrow.json', import.meta.url), 'utf8')), 'ridge10-narrow');
 

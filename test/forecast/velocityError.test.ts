@@ -56,9 +56,13 @@ describe('photon-noise velocity error', () => {
   it('applies the threshold, the noise factor and the floor', () => {
     const s = { minSnPerA: 5, noiseFactor: 2.5, floorKms: 5, intrinsicLineSigmaA: 1, equivalentWidthsA: CALCIUM_TRIPLET_EW_A };
     const lines = [8498.0, 8542.1, 8662.1];
-    expect(velocityErrorKms(4.9, 2, lines, 0, s)).toBe(Infinity);
-    const photon = photonVelocityErrorKms(10, 2, lines, CALCIUM_TRIPLET_EW_A);
-    expect(velocityErrorKms(10, 2, lines, 0, s)).toBeCloseTo(Math.hypot(2.5 * photon, 5), 9);
+    const sampling = { sigmaLineA: 2, dispersionAPerPixel: 0.4 };
+    expect(velocityErrorKms(4.9, sampling, lines, 0, s)).toBe(Infinity);
+    // At S/N 50 the bound is a few per cent of the line width: the calibrated ratio is within 1 % of 1, so the error is
+    // the noise factor times the bound of the line with the pixel box (variance dx^2/12) in quadrature, plus the floor.
+    const photon = photonVelocityErrorKms(50, Math.sqrt(4 + 0.16 / 12), lines, CALCIUM_TRIPLET_EW_A);
+    expect(velocityErrorKms(50, sampling, lines, 0, s) / Math.hypot(2.5 * photon, 5)).toBeCloseTo(1, 2);
+    expect(velocityErrorKms(50, sampling, lines, 0, { ...s, floorKms: 0, noiseFactor: 1 }) / photon).toBeGreaterThan(0.99);
   });
 
   it('instrumental sigma: a 1" slit imaged on 5 pixels of 0.5 A is 2.5 A FWHM, sigma = FWHM / 2.3548 (Gaussian)', () => {
@@ -72,10 +76,11 @@ describe('photon-noise velocity error', () => {
 });
 
 describe('velocity error as a function of S/N', () => {
-  it('equals velocityErrorKms at every S/N (the photon floor scales as 1/(S/N))', () => {
-    const s = { minSnPerA: 5, noiseFactor: 2.5, floorKms: 5, intrinsicLineSigmaA: 1, equivalentWidthsA: CALCIUM_TRIPLET_EW_A };
+  it('equals velocityErrorKms at every S/N', () => {
+    const s = { minSnPerA: 5, noiseFactor: 1, floorKms: 5, intrinsicLineSigmaA: 1, equivalentWidthsA: CALCIUM_TRIPLET_EW_A };
     const lines = [8498.0, 8542.1, 8662.1];
-    const at = velocityErrorModel(1.7, lines, 1500, s);
-    for (const sn of [4, 5, 7.3, 20, 150]) expect(at(sn)).toBeCloseTo(velocityErrorKms(sn, 1.7, lines, 1500, s), 10);
+    const sampling = { sigmaLineA: 1.7, dispersionAPerPixel: 0.33 };
+    const at = velocityErrorModel(sampling, lines, 1500, s);
+    for (const sn of [4, 5, 7.3, 20, 150]) expect(at(sn)).toBeCloseTo(velocityErrorKms(sn, sampling, lines, 1500, s), 10);
   });
 });

@@ -11,7 +11,7 @@ import { readFileSync } from 'node:fs';
 import { generateScenario, scenarioCatalog } from '../../src/core/scenario/generator';
 import { galaxyModel, parsePlan } from '../../src/core/plan/validate';
 import { parseProfile } from '../../src/core/profile/load';
-import { targetWeights } from '../../src/core/plan/pipeline';
+import { targetWeights } from '../../src/core/pipeline/pipeline';
 import { allocateForPointings, allocationContext, jointProblemOf } from '../../src/core/solver/allocateMasks';
 import { jointObjective } from '../../src/core/solver/jointAllocation';
 import { solveJointExact, type HighsLike } from '../../src/core/solver/jointIlp';

@@ -12,12 +12,12 @@ import { readFileSync } from 'node:fs';
 import { generateScenario, scenarioCatalog } from '../../src/core/scenario/generator';
 import { galaxyModel, parsePlan } from '../../src/core/plan/validate';
 import { parseProfile } from '../../src/core/profile/load';
-import { solvePlan, targetWeights } from '../../src/core/plan/pipeline';
+import { solvePlan, targetWeights } from '../../src/core/pipeline/pipeline';
 import { allocateForPointings, allocationContext } from '../../src/core/solver/allocateMasks';
 import { evaluatePointings, planObjective, searchEnv, type SearchEnv } from '../../src/core/solver/pointingSearch';
 import { polygonBounds } from '../../src/core/geometry/polygon';
 import { skyToTangentArcsec, tangentCentre, tangentToSkyDeg } from '../../src/core/sky/tangentPlane';
-import type { MaskPointing } from '../../src/core/solver/types';
+import type { MaskPointing } from '../../src/core/geometry/maskSolution';
 
 interface Case { name: string; profileId: string; seed: number; masks: number; floor: number; galaxy: { raDeg: number; decDeg: number; reArcsec: number; axisRatio: number; paDeg: number } }
 

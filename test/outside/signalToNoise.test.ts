@@ -21,9 +21,9 @@
  *   (6.116 with the sky known exactly).
  */
 import { describe, expect, it } from 'vitest';
-import { exposureModelOf, tracerExposure } from '../../src/core/observe/exposure';
+import { exposureModelOf, tracerExposure } from '../../src/core/solver/exposure';
 import { abPhotonFluxPerSCm2A, ccdSignalToNoise } from '../../src/core/spectro/signalToNoise';
-import { AB_MINUS_VEGA_MAG, resolvePhotometry } from '../../src/core/spectro/photometry';
+import { AB_MINUS_VEGA_MAG, resolvePhotometry } from '../../src/core/plan/photometry';
 import { HAND, HAND_SETUP, handCcdSn, handElectronsPerSPerA, handPhotonsAbZero } from './handCcd';
 
 /** Abramowitz & Stegun (1964) 7.1.26: erf to 1.5e-7 (an independent approximation, not the project's series). */

@@ -10,16 +10,17 @@
  */
 import { describe, expect, it } from 'vitest';
 import { sersicBn, sersicMuMagPerArcsec2 } from '../../src/core/sky/sersic';
-import { exposureModelOf, maskExposureReport } from '../../src/core/observe/exposure';
-import { starlightBins } from '../../src/core/observe/starlightBins';
-import { starlightSettings, starlightSignalToNoise, type StarlightRules, type StarlightSettings } from '../../src/core/solver/starlight';
+import { exposureModelOf, maskExposureReport } from '../../src/core/solver/exposure';
+import { starlightBins } from '../../src/core/solver/starlightBins';
+import { starlightSettings, starlightSignalToNoise, type StarlightSettings } from '../../src/core/solver/starlight';
+import type { StarlightRules } from '../../src/core/plan/starlightSection';
 import { readFileSync } from 'node:fs';
 import { generateScenario, scenarioCatalog } from '../../src/core/scenario/generator';
 import { parsePlan } from '../../src/core/plan/validate';
 import { parseProfile } from '../../src/core/profile/load';
-import { solvePlan } from '../../src/core/plan/pipeline';
+import { solvePlan } from '../../src/core/pipeline/pipeline';
 import type { GalaxyModel } from '../../src/core/plan/schema';
-import type { MaskSolution, Slit } from '../../src/core/solver/types';
+import type { MaskSolution, Slit } from '../../src/core/geometry/maskSolution';
 import { HAND, handCcdSn, handElectronsPerSPerA, HAND_SETUP, type HandSetup } from './handCcd';
 
 const RAD = Math.PI / 180;

@@ -14,6 +14,7 @@ import { parseMasksCsv, parseSlitsCsv } from '../../core/export/slitsCsv';
 import { galaxyModel, parsePlanText } from '../../core/plan/validate';
 import type { ColumnMapping } from '../../core/catalog/types';
 import type { MaskSolution } from '../../core/geometry/maskSolution';
+import type { InstrumentProfile } from '../../core/profile/schema';
 import { nightTable } from '../../core/observe/night';
 import { parseDateText } from '../../core/observe/observability';
 import { DEFAULT_TRIALS, forecastPlan, type Forecast, type ForecastInput } from '../../core/forecast/forecast';
@@ -78,8 +79,17 @@ export function loadForecastInput(shown: string, semester: { from: string | null
   const plan = parsePlanText(readIn(dir, shown, 'solved.plan.json'), join(shown, 'solved.plan.json'));
   const masks = parseMasksCsv(readIn(dir, shown, 'masks.csv'), join(shown, 'masks.csv'));
   const slits = parseSlitsCsv(readIn(dir, shown, 'slits.csv'), join(shown, 'slits.csv'));
-  // A plan of several spectrographs is forecast with its first profile's exposure model (docs/forecast.md).
-  const { profile } = loadProfile(planInstrumentRefs(plan)[0], dir, `${join(shown, 'solved.plan.json')}: instrument`);
+  // Every profile the plan names; each mask follows the one masks.csv names by id (the first for a single spectrograph).
+  const profiles = planInstrumentRefs(plan).map((ref) => loadProfile(ref, dir, `${join(shown, 'solved.plan.json')}: instrument`).profile);
+  const profile = profiles[0];
+  const maskProfiles = new Map<string, InstrumentProfile>();
+  for (const m of masks) {
+    const own = profiles.find((p) => p.id === m.instrument);
+    if (own) maskProfiles.set(m.maskId, own);
+    else if (profiles.length > 1) {
+      throw new InputError([{ where: `${join(shown, 'masks.csv')}: mask ${m.maskId}`, what: `instrument "${m.instrument}" is none of the plan's profiles (${profiles.map((p) => p.id).join(', ')})`, fix: 'run `haloweave check` on the folder, or plan it again' }]);
+    }
+  }
   const galaxy = galaxyModel(plan);
   const solutions: MaskSolution[] = masks.map((m) => ({
     mask: { id: m.maskId, raDeg: m.raDeg, decDeg: m.decDeg, paDeg: m.paDeg, locked: true },
@@ -97,11 +107,21 @@ export function loadForecastInput(shown: string, semester: { from: string | null
   }
   const from = semester.from ?? plan.forecast?.semesterFrom ?? null, to = semester.to ?? plan.forecast?.semesterTo ?? null;
   let nights: ForecastInput['nights'] = null;
+  const nightsOfProfile = new Map<string, NonNullable<ForecastInput['nights']>>();
   if (from && to) {
-    const site = { latDeg: profile.site.latDeg, lonDeg: profile.site.lonDeg, elevationM: profile.site.elevationM };
-    nights = { rows: nightTable(from, to, galaxy, site, { maxAirmass: plan.observing?.maxAirmass ?? 2, stepMinutes: 10 }), from, to };
+    // One night table per site; profiles at the same latitude and longitude share it.
+    const bySite = new Map<string, NonNullable<ForecastInput['nights']>>();
+    for (const p of profiles) {
+      const key = `${p.site.latDeg},${p.site.lonDeg}`;
+      if (!bySite.has(key)) {
+        const site = { latDeg: p.site.latDeg, lonDeg: p.site.lonDeg, elevationM: p.site.elevationM };
+        bySite.set(key, { rows: nightTable(from, to, galaxy, site, { maxAirmass: plan.observing?.maxAirmass ?? 2, stepMinutes: 10 }), from, to });
+      }
+      nightsOfProfile.set(p.id, bySite.get(key)!);
+    }
+    nights = nightsOfProfile.get(profile.id)!;
   }
-  return { plan, profile, galaxy, masks: solutions, colours, nights };
+  return { plan, profile, maskProfiles, nightsOfProfile: profiles.length > 1 && nights ? nightsOfProfile : undefined, galaxy, masks: solutions, colours, nights };
 }
 
 /** A forecast with numbers rounded for the file (6 significant digits). */

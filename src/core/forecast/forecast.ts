@@ -8,21 +8,17 @@ import type { GalaxyModel, PlanFile } from '../plan/schema';
 import { PMath } from '../numeric/portableMath';
 import type { InstrumentProfile } from '../profile/schema';
 import type { MaskSolution } from '../geometry/maskSolution';
-import { exposureModelOf, maskExposureReport, type MaskExposureReport } from '../solver/exposure';
-import { resolveObservingSettings } from '../observe/observingSettings';
-import type { ObservingSection } from '../plan/observingSection';
-import { starlightSettings } from '../solver/starlight';
-import type { StarlightRules } from '../plan/starlightSection';
 import { resolveForecastSettings, type ForecastSettings } from './settings';
 import { slitSamples } from './samples';
 import { clusterProbability } from './contamination';
-import { instrumentalSigmaA, lineSigmaA, velocityErrorModel } from './velocityError';
+import { instrumentalSigmaA, velocityErrorModel, type LineSampling } from './velocityError';
+import { mixedPlanExposures, planMaskHours, siteHours, tracerLineSampling, tracerTargetSn, type TargetSnSource } from './planExposures';
 import { modelSigmaKms } from './kinematicModel';
 import { angleScatterDeg, binIndex, meanAndStd, runTracerMocks, type MockTracer } from './mocks';
 import { kpcPerArcsec } from './tracerMass';
 import { spinProfile, starlightBins, type SpinPoint, type StarlightBin } from './starlightBins';
 import { fastRotatorThreshold } from './spin';
-import { maskHours, nightsNeeded, type MaskHours, type NightsEstimate } from './hours';
+import { nightsNeeded, nightsOfSites, type MaskHours, type NightsEstimate, type SiteNights } from './hours';
 
 /** The `format` of forecast.json (interface contract, revision 2). */
 export const FORECAST_FORMAT = 'haloweave.forecast/1';
@@ -121,7 +117,11 @@ export interface Forecast {
   starlightBins: StarlightBin[];
   spinProfile: SpinPoint[];
   fastRotatorThresholdLambda: number;
-  hours: { perMask: number[]; maskIds: string[]; total: number; masks: MaskHours[]; plannedExposureHours: number; targetSnPerA: number; completeness: number; overheadHoursPerMask: number; nights: NightsEstimate | null };
+  hours: { perMask: number[]; maskIds: string[]; total: number; masks: MaskHours[]; plannedExposureHours: number; targetSnPerA: number; targetSnSource: TargetSnSource; completeness: number; overheadHoursPerMask: number; nights: NightsEstimate | null;
+    /** Plans observed at several sites: hours and nights per site (the sites observe in parallel); null for one site. */
+    sites: SiteNights[] | null;
+    /** Hours per observing site (one entry for a plan of one site): what a nights estimate needs besides the nights. */
+    siteHours: Omit<SiteNights, 'nights'>[] };
   tracers: TracerForecast[];
   notes: string[];
 }
@@ -135,6 +135,10 @@ export interface ForecastInput {
   colours?: ReadonlyMap<string, number>;
   /** Observable dark hours per night of the semester (observe/night.ts), with the semester's first and last night. */
   nights?: { rows: readonly { date: string; darkHours: number }[]; from: string; to: string } | null;
+  /** Several sites (a plan with spectrographs on different telescopes): each profile id's semester nights at its site. */
+  nightsOfProfile?: ReadonlyMap<string, { rows: readonly { date: string; darkHours: number }[]; from: string; to: string }>;
+  /** The profile of each mask of a plan with several spectrographs (mask id to profile); masks absent use `profile`. */
+  maskProfiles?: ReadonlyMap<string, InstrumentProfile>;
   trials?: number;
   seed?: number | string;
 }
@@ -152,46 +156,29 @@ export function dispersionBinEdges(edgesRe: readonly number[], tracers: readonly
   return out;
 }
 
-/**
- * Exposure estimates (S/N per Angstrom of every tracer and starlight slit in the planned exposure, and times to the
- * target S/N) with the plan's settings, as the observing report of the plan computes them, without its refraction rows.
- */
-export function planExposures(plan: PlanFile, profile: InstrumentProfile, galaxy: GalaxyModel, masks: readonly MaskSolution[]): { exposures: MaskExposureReport[]; exposureTimeS: number; targetSnPerA: number } {
-  const starlight = starlightSettings(plan.starlight as StarlightRules | undefined, profile, plan);
-  const settings = resolveObservingSettings(plan.observing as ObservingSection | undefined, profile, { exposureTimeS: starlight.exposureS });
-  const model = exposureModelOf(starlight, settings);
-  return { exposures: masks.map((m) => maskExposureReport(m, galaxy, model)), exposureTimeS: settings.exposureTimeS, targetSnPerA: settings.targetSnPerA };
-}
-
-/** Hours of every mask (time for the completeness fraction of its tracers to reach the target S/N, plus overhead). */
-export function planMaskHours(plan: PlanFile, profile: InstrumentProfile, galaxy: GalaxyModel, masks: readonly MaskSolution[], known?: ReturnType<typeof planExposures>): MaskHours[] {
-  const s = resolveForecastSettings(plan.forecast, galaxy, plan.goals.linesA);
-  const { exposures, exposureTimeS } = known ?? planExposures(plan, profile, galaxy, masks);
-  return masks.map((m) => {
-    const ex = exposures.find((e) => e.maskId === m.mask.id);
-    const times = (ex?.slits ?? []).filter((x) => x.role === 'tracer').map((x) => x.timeForTargetSnS);
-    return maskHours(m.mask.id, times, s.completeness, exposureTimeS, s.overheadHoursPerMask);
-  });
-}
-
 /** Forecast of a solved plan (pure; the same seed and trials give the same numbers). */
 export function forecastPlan(input: ForecastInput): Forecast {
   const { plan, profile, galaxy } = input;
   const trials = input.trials ?? DEFAULT_TRIALS, seed = input.seed ?? 1;
   const s = resolveForecastSettings(plan.forecast, galaxy, plan.goals.linesA);
-  const known = planExposures(plan, profile, galaxy, input.masks);
+  const profileOf = (maskId: string): InstrumentProfile => input.maskProfiles?.get(maskId) ?? profile;
+  const known = mixedPlanExposures(plan, galaxy, input.masks, profileOf);
   const { exposures } = known;
   const { tracers, starlight } = slitSamples(galaxy, input.masks, exposures);
   const kpcPerRe = kpcPerArcsec(s.distanceMpc) * galaxy.reArcsec;
   const linesA = plan.goals.linesA, meanLineA = linesA.reduce((a, b) => a + b, 0) / linesA.length;
-  const instrumentalA = instrumentalSigmaA(profile.slits.widthArcsec, profile.detector.xArcsecPerPixel, profile.detector.dispersionAPerPixel);
-  // Cluster lines are broadened by the instrument and the lines' own width only (internal dispersions of a few km/s).
-  const tracerLineA = lineSigmaA(instrumentalA, s.velocityErrors.intrinsicLineSigmaA, 0, meanLineA);
   const notes: string[] = [];
 
-  const errorAt = velocityErrorModel(tracerLineA, linesA, galaxy.vsysKms, s.velocityErrors);
+  // Each mask's slits with their own spectrograph's resolution, sampling and velocity-error relation.
+  const errorModels = new Map<InstrumentProfile, (snPerA: number) => number>();
+  const errorAt = (maskId: string): ((snPerA: number) => number) => {
+    const p = profileOf(maskId);
+    let m = errorModels.get(p);
+    if (!m) errorModels.set(p, (m = velocityErrorModel(tracerLineSampling(p, s.velocityErrors.intrinsicLineSigmaA, meanLineA), linesA, galaxy.vsysKms, s.velocityErrors)));
+    return m;
+  };
   const tf: TracerForecast[] = tracers.map((t) => {
-    const err = errorAt(t.snPerA);
+    const err = errorAt(t.maskId)(t.snPerA);
     return {
       maskId: t.maskId, slitId: t.slitId, objectId: t.objectId, radiusRe: t.radiusRe, paDeg: t.paDeg, snPerA: t.snPerA,
       velocityErrorKms: Number.isFinite(err) ? err : null,
@@ -237,13 +224,26 @@ export function forecastPlan(input: ForecastInput): Forecast {
   const massFrac = Number.isFinite(mass.std) && mass.mean > 0 ? mass.std / mass.mean : null;
   const distFrac = s.distanceErrorMpc / s.distanceMpc;
 
-  const sBins = starlightBins(starlight, s, { instrumentalA, linesA, vsysKms: galaxy.vsysKms });
+  const sampling = (maskId: string): LineSampling => {
+    const p = profileOf(maskId);
+    return { sigmaLineA: instrumentalSigmaA(p.slits.widthArcsec, p.detector.xArcsecPerPixel, p.detector.dispersionAPerPixel), dispersionAPerPixel: p.detector.dispersionAPerPixel };
+  };
+  const sBins = starlightBins(starlight, s, { instrumentalOf: sampling, linesA, vsysKms: galaxy.vsysKms });
   const spin = spinProfile(sBins, s.starlightBinsRe, trials, `${seed}:starlight`);
 
   const masksH = planMaskHours(plan, profile, galaxy, input.masks, known);
+  const target = tracerTargetSn(plan);
+  if (target.source === 'default') notes.push(`no tracer S/N target in the plan (goals.tracerSnPerA): hours are for S/N ${target.snPerA} per A, the default`);
   const total = masksH.reduce((a, m) => a + m.hours, 0);
-  const nights = input.nights ? nightsNeeded(total, input.nights.rows, input.nights.from, input.nights.to) : null;
-  if (!input.nights) notes.push('no semester given (forecast.semesterFrom/semesterTo in the plan, or --from/--to): nights not estimated');
+  const sites = siteHours(input.masks, masksH, profileOf);
+  let nights = input.nights ? nightsNeeded(total, input.nights.rows, input.nights.from, input.nights.to) : null;
+  let siteNights: SiteNights[] | null = null;
+  if (sites.length > 1 && input.nightsOfProfile) {
+    const bySite = nightsOfSites(sites, (id) => input.nightsOfProfile!.get(id)!);
+    siteNights = bySite.sites;
+    nights = bySite.overall;
+  } else if (sites.length > 1 && input.nights) notes.push('masks at several sites: nights estimated from the first site only');
+  if (!input.nights && !input.nightsOfProfile) notes.push('no semester given (forecast.semesterFrom/semesterTo in the plan, or --from/--to): nights not estimated');
 
   return {
     format: FORECAST_FORMAT, galaxyId: galaxy.id, trials, seed, errorPrecision: trialPrecision(trials), distanceMpc: s.distanceMpc, kpcPerRe, settings: s,
@@ -265,8 +265,8 @@ export function forecastPlan(input: ForecastInput): Forecast {
     starlightBins: sBins, spinProfile: spin, fastRotatorThresholdLambda: fastRotatorThreshold(galaxy.axisRatio),
     hours: {
       perMask: masksH.map((m) => m.hours), maskIds: masksH.map((m) => m.maskId), total, masks: masksH,
-      plannedExposureHours: known.exposureTimeS / 3600, targetSnPerA: known.targetSnPerA, completeness: s.completeness,
-      overheadHoursPerMask: s.overheadHoursPerMask, nights,
+      plannedExposureHours: known.exposureTimeS / 3600, targetSnPerA: target.snPerA, targetSnSource: target.source, completeness: s.completeness,
+      overheadHoursPerMask: s.overheadHoursPerMask, nights, sites: siteNights, siteHours: sites,
     },
     tracers: tf,
     notes,

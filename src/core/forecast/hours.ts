@@ -51,3 +51,28 @@ export function nightsNeeded(totalHours: number, nights: readonly { date: string
   }
   return { nightsNeeded: sum >= totalHours ? count : null, nightsUsable: hours.length, hoursAvailable: available, from, to };
 }
+
+/** The nights of one site: its spectrographs' masks, their hours, and the nights estimate from the site's own nights. */
+export interface SiteNights {
+  /** Profile ids of the spectrographs at the site (same latitude and longitude). */
+  profileIds: string[];
+  latDeg: number;
+  lonDeg: number;
+  hours: number;
+  nights: NightsEstimate;
+}
+
+/**
+ * Nights of a plan whose masks are observed at several sites: each site's masks' hours against that site's nights
+ * (spectrographs at one site share its telescope time: their hours add); the sites observe in parallel, so the plan
+ * needs the largest of their nights (null when any site falls short).
+ */
+export function nightsOfSites(sites: readonly Omit<SiteNights, 'nights'>[], nightsOf: (profileId: string) => { rows: readonly { date: string; darkHours: number }[]; from: string; to: string }): { sites: SiteNights[]; overall: NightsEstimate } {
+  const out = sites.map((s) => {
+    const n = nightsOf(s.profileIds[0]);
+    return { ...s, nights: nightsNeeded(s.hours, n.rows, n.from, n.to) };
+  });
+  const short = out.find((s) => s.nights.nightsNeeded === null);
+  const longest = short ?? out.reduce((a, b) => (b.nights.nightsNeeded! > a.nights.nightsNeeded! ? b : a));
+  return { sites: out, overall: longest.nights };
+}

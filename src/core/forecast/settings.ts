@@ -61,7 +61,7 @@ export const FORECAST_DEFAULTS = {
   starlightRotationKms: 60,
   tracerDensitySlope: 3.5,
   minSnPerA: 5,
-  noiseFactor: 2.5,
+  noiseFactor: 1,
   floorKms: 5,
   intrinsicLineSigmaA: 1.5,
   fractionAtPivot: 0.2,

@@ -8,7 +8,7 @@
 import { PMath } from '../numeric/portableMath';
 import { makeRng } from '../numeric/random';
 import type { SlitSample } from './samples';
-import { C_KMS, dispersionErrorKms, lineSigmaA, velocityErrorKms } from './velocityError';
+import { C_KMS, dispersionErrorKms, lineSigmaA, velocityErrorKms, type LineSampling } from './velocityError';
 import { modelSigmaKms, rotationVelocityKms } from './kinematicModel';
 import { spinParameter, type SpinBin } from './spin';
 import { binIndex, meanAndStd } from './mocks';
@@ -42,7 +42,7 @@ export interface SpinPoint {
 }
 
 /** The starlight bins with slits, in order of radius then sector. */
-export function starlightBins(samples: readonly SlitSample[], s: ForecastSettings, line: { instrumentalA: number; linesA: readonly number[]; vsysKms: number }): StarlightBin[] {
+export function starlightBins(samples: readonly SlitSample[], s: ForecastSettings, line: { instrumentalOf: (maskId: string) => LineSampling; linesA: readonly number[]; vsysKms: number }): StarlightBin[] {
   const edges = s.starlightBinsRe, width = 360 / s.starlightSectors;
   const groups = new Map<number, SlitSample[]>();
   for (const x of samples) {
@@ -55,17 +55,23 @@ export function starlightBins(samples: readonly SlitSample[], s: ForecastSetting
   const k = s.kinematics;
   return [...groups.entries()].sort((a, b) => a[0] - b[0]).map(([key, list]) => {
     const r = Math.floor(key / s.starlightSectors), sector = key % s.starlightSectors;
-    let sn2 = 0, flux = 0, fr = 0, fv = 0;
+    let sn2 = 0, flux = 0, fr = 0, fv = 0, inst = 0, disp = 0;
     for (const x of list) {
       sn2 += x.snPerA * x.snPerA;
+      // Slits of several spectrographs in one bin: their instrumental width and sampling weighted by S/N squared.
+      const own = line.instrumentalOf(x.maskId);
+      inst += x.snPerA * x.snPerA * own.sigmaLineA;
+      disp += x.snPerA * x.snPerA * own.dispersionAPerPixel;
       const f = x.muMagPerArcsec2 === null ? x.areaArcsec2 : PMath.pow(10, -0.4 * x.muMagPerArcsec2) * x.areaArcsec2;
       flux += f;
       fr += f * x.radiusRe;
       fv += f * rotationVelocityKms(x.paDeg, k.starlightRotationKms, k.kinematicPaDeg);
     }
     const sn = Math.sqrt(sn2), radiusRe = fr / flux, sigma = modelSigmaKms(radiusRe, k);
-    const lineA = lineSigmaA(line.instrumentalA, s.velocityErrors.intrinsicLineSigmaA, sigma, meanLineA);
-    const ev = velocityErrorKms(sn, lineA, line.linesA, line.vsysKms, s.velocityErrors);
+    const first = line.instrumentalOf(list[0].maskId);
+    const lineA = lineSigmaA(sn2 > 0 ? inst / sn2 : first.sigmaLineA, s.velocityErrors.intrinsicLineSigmaA, sigma, meanLineA);
+    const sampling = { sigmaLineA: lineA, dispersionAPerPixel: sn2 > 0 ? disp / sn2 : first.dispersionAPerPixel };
+    const ev = velocityErrorKms(sn, sampling, line.linesA, line.vsysKms, s.velocityErrors);
     const finite = Number.isFinite(ev);
     return {
       fromRe: edges[r], toRe: edges[r + 1], sectorDeg: sector * width, sectorWidthDeg: width, slits: list.length, snPerA: sn,

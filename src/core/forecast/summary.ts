@@ -39,8 +39,14 @@ export function formatForecastSummary(f: Forecast): string[] {
   for (const b of f.dispersionProfile) {
     lines.push(`  ${`${num(b.fromRe)}-${num(b.toRe)}`.padStart(9)}  ${`${num(b.fromKpc)}-${num(b.toKpc)}`.padStart(10)}  ${num(b.n).padStart(6)}  ${num(b.sigmaKms, 0).padStart(5)}  ${pct(b.sigmaFracError).padStart(6)}  ${pct(b.idealFracError).padStart(6)}`);
   }
-  lines.push(`Hours per mask (${(f.hours.completeness * 100).toFixed(0)} % of tracer slits to S/N ${f.hours.targetSnPerA} per A, + ${f.hours.overheadHoursPerMask} h overhead; planned exposure ${f.hours.plannedExposureHours.toFixed(2)} h): ` +
+  const source = f.hours.targetSnSource === 'default' ? 'the default' : f.hours.targetSnSource;
+  lines.push(`Hours per mask (${(f.hours.completeness * 100).toFixed(0)} % of tracer slits to S/N ${f.hours.targetSnPerA} per A from ${source}, + ${f.hours.overheadHoursPerMask} h overhead; planned exposure ${f.hours.plannedExposureHours.toFixed(2)} h): ` +
     f.hours.masks.map((m) => `${m.maskId} ${m.hours.toFixed(2)} h${m.exposureHours === null ? ' (target S/N out of reach: planned exposure)' : ''}`).join(', '));
+  for (const site of f.hours.sites ?? []) {
+    const n = site.nights;
+    lines.push(`  site ${site.latDeg.toFixed(2)}, ${site.lonDeg.toFixed(2)} deg (${site.profileIds.join(', ')}): ${site.hours.toFixed(2)} h, ` +
+      (n.nightsNeeded === null ? `more than the ${n.nightsUsable} usable nights` : `${n.nightsNeeded} of ${n.nightsUsable} usable nights`));
+  }
   for (const n of f.notes) lines.push(`note: ${n}`);
   return lines;
 }

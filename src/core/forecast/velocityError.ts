@@ -3,12 +3,13 @@
  * 2001, A&A 374, 733, framework; the closed form below is derived in docs/forecast.md): a line of Gaussian sigma
  * sigmaLineA and equivalent width W in a spectrum of S/N per Angstrom s has a centroid error
  * sigmaLambda = 2 pi^(1/4) sigmaLineA^(3/2) / (s W). The lines are combined by inverse variance, converted to km/s
- * at each line's observed wavelength, scaled by a noise factor (template mismatch, sky residuals: real errors are
- * a few times the floor) and a systematic floor is added in quadrature.
+ * at each line's observed wavelength. The expected error of a real fit is the bound times a ratio calibrated by Monte
+ * Carlo chi-square fits of mock spectra (forecast/velocityCalibration.ts), with a template-mismatch floor in quadrature.
  */
 import { PMath } from '../numeric/portableMath';
 import { FWHM_PER_SIGMA } from '../observe/slitLoss';
 import type { VelocityErrorSettings } from './settings';
+import { calibrationRatio } from './velocityCalibrationTable';
 
 /** Speed of light, km/s (SI definition). */
 export const C_KMS = 299792.458;
@@ -41,21 +42,36 @@ export function lineSigmaA(instrumentalA: number, intrinsicA: number, sigmaKms: 
   return Math.sqrt(instrumentalA * instrumentalA + intrinsicA * intrinsicA + broadA * broadA);
 }
 
-/** Expected velocity error (km/s): noiseFactor x the photon floor, the floor added in quadrature; Infinity below minSnPerA. */
-export function velocityErrorKms(snPerA: number, sigmaLineA: number, linesA: readonly number[], vsysKms: number, s: VelocityErrorSettings): number {
-  if (!(snPerA >= s.minSnPerA)) return Infinity;
-  const photon = s.noiseFactor * photonVelocityErrorKms(snPerA, sigmaLineA, linesA, s.equivalentWidthsA, vsysKms);
-  return Math.sqrt(photon * photon + s.floorKms * s.floorKms);
+/** How a spectrograph records a line: its Gaussian sigma (Angstrom; instrumental, intrinsic, broadening) and the dispersion (A/pixel). */
+export interface LineSampling {
+  sigmaLineA: number;
+  dispersionAPerPixel: number;
 }
 
-/** velocityErrorKms as a function of S/N for one line width: the photon floor scales as 1/(S/N), computed once. */
-export function velocityErrorModel(sigmaLineA: number, linesA: readonly number[], vsysKms: number, s: VelocityErrorSettings): (snPerA: number) => number {
-  const atUnitSn = s.noiseFactor * photonVelocityErrorKms(1, sigmaLineA, linesA, s.equivalentWidthsA, vsysKms);
+/**
+ * Velocity error (km/s) as a function of S/N per Angstrom, from the Monte Carlo calibration
+ * (forecast/velocityCalibrationTable.ts): the photon bound of the lines (line sigma with the pixel box, variance
+ * dx^2/12, in quadrature) times the calibrated ratio of a chi-square fit's scatter to the bound at that bound-to-width
+ * ratio and sampling, times noiseFactor, with floorKms (template mismatch) in quadrature. Infinity below minSnPerA or
+ * where wrong minima dominate (bound beyond MAX_BOUND_TO_WIDTH line sigmas).
+ */
+export function velocityErrorModel(sampling: LineSampling, linesA: readonly number[], vsysKms: number, s: VelocityErrorSettings): (snPerA: number) => number {
+  const sigmaA = Math.sqrt(sampling.sigmaLineA * sampling.sigmaLineA + (sampling.dispersionAPerPixel * sampling.dispersionAPerPixel) / 12);
+  const atUnitSn = photonVelocityErrorKms(1, sigmaA, linesA, s.equivalentWidthsA, vsysKms);
+  const meanA = (linesA.reduce((a, b) => a + b, 0) / linesA.length) * (1 + vsysKms / C_KMS);
+  const sigmaKms = (sigmaA / meanA) * C_KMS;
+  const pixelsPerSigma = sigmaA / sampling.dispersionAPerPixel;
   return (snPerA) => {
     if (!(snPerA >= s.minSnPerA)) return Infinity;
-    const photon = atUnitSn / snPerA;
-    return Math.sqrt(photon * photon + s.floorKms * s.floorKms);
+    const bound = atUnitSn / snPerA;
+    const photon = s.noiseFactor * calibrationRatio(bound / sigmaKms, pixelsPerSigma) * bound;
+    return Number.isFinite(photon) ? Math.sqrt(photon * photon + s.floorKms * s.floorKms) : Infinity;
   };
+}
+
+/** Expected velocity error (km/s) at one S/N per Angstrom: velocityErrorModel evaluated once. */
+export function velocityErrorKms(snPerA: number, sampling: LineSampling, linesA: readonly number[], vsysKms: number, s: VelocityErrorSettings): number {
+  return velocityErrorModel(sampling, linesA, vsysKms, s)(snPerA);
 }
 
 /**

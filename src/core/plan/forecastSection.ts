@@ -35,9 +35,9 @@ export const forecastSectionSchema = z.looseObject({
     .looseObject({
       /** A tracer slit below this S/N per Angstrom gives no velocity. */
       minSnPerA: positive('S/N per Angstrom').optional(),
-      /** Factor between real errors and the photon-noise floor. */
+      /** Factor on the Monte Carlo velocity errors (sky residuals, calibration: what the mock fits leave out). */
       noiseFactor: z.number().min(1, 'must be at least 1').max(20).optional(),
-      /** Systematic floor added in quadrature, km/s. */
+      /** Template-mismatch floor added in quadrature, km/s. */
       floorKms: z.number().min(0).max(200).optional(),
       /** Intrinsic Gaussian sigma of the lines, Angstrom, added in quadrature to the instrumental width. */
       intrinsicLineSigmaA: z.number().min(0).max(20).optional(),

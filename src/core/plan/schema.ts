@@ -49,6 +49,8 @@ export const goalsSchema = z.looseObject({
   velocityHalfRangeKms: z.number().min(0, 'must be 0 or more (km/s about the systemic velocity)').max(5000, 'must be at most 5000 km/s').optional(),
   /** Wavelength rule: half-width (Angstrom) kept around each redshifted line for the line and its continuum (default 10). */
   lineHalfWindowA: z.number().min(0, 'must be 0 or more (Angstrom on each side of the line)').max(500, 'must be at most 500 Angstrom').optional(),
+  /** S/N per Angstrom the tracer slits are exposed for: drives the forecast's hours per mask (docs/forecast.md). */
+  tracerSnPerA: z.number().positive('must be greater than 0 (signal-to-noise per Angstrom)').max(1000, 'must be at most 1000').optional(),
 });
 
 export const planMaskSchema = z.looseObject({

@@ -30,3 +30,15 @@ export function editorPlanSites(plan: PlanFile, profile: InstrumentProfile): { i
   const all = Object.values(editorPlanProfiles(plan, profile) ?? { [profile.id]: profile });
   return all.filter((p, k) => all.findIndex((q) => q.id === p.id) === k).map((p) => ({ instrument: p.id, site: p.site }));
 }
+
+/** Each mask's own profile in a plan with several spectrographs (a solved plan names it by reference or id); undefined for one. */
+export function editorMaskProfiles(plan: PlanFile, profile: InstrumentProfile): Map<string, InstrumentProfile> | undefined {
+  const profiles = editorPlanProfiles(plan, profile);
+  if (!profiles) return undefined;
+  const out = new Map<string, InstrumentProfile>();
+  for (const m of plan.masks ?? []) {
+    const own = m.instrument === undefined ? undefined : profiles[m.instrument] ?? Object.values(profiles).find((p) => p.id === m.instrument);
+    if (own) out.set(m.id, own);
+  }
+  return out;
+}

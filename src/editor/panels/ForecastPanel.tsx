@@ -11,6 +11,11 @@ import { DEFAULT_TRIALS, trialPrecision } from '../../core/forecast/forecast';
 import { LIVE_FORECAST_TRIALS } from '../../core/forecast/live';
 import { dispersionProfileSvg, rotationSvg, starlightMapSvg } from '../../core/forecast/plots';
 import type { ForecastReply, ForecastRequest } from '../worker/forecastWorker';
+import type { NightsReply, NightsRequest } from '../worker/nightsWorker';
+import type { NightRow } from '../../core/observe/night';
+import { nightsOfSites, type NightsEstimate } from '../../core/forecast/hours';
+import { editorPlanSites } from '../io/planProfiles';
+import { semesterOf } from '../io/semester';
 import type { SolveResult } from '../worker/protocol';
 import { downloadFile } from '../io/download';
 import { Panel } from './Panel';
@@ -34,6 +39,58 @@ const ROWS: [string, string, (f: Forecast) => string, string][] = [
   ['hours', 'hours for all masks with overheads', (f) => num(f.hours.total, 1), 'fc-hours'],
 ];
 
+/** Nights a forecast's hours need, site by site (sites observe in parallel), from each site's nights; null until they are known. */
+function forecastNights(f: Forecast, rows: ReadonlyMap<string, NightRow[]> | null, sem: { from: string; to: string }): NightsEstimate | null {
+  if (!rows || !rows.size) return null;
+  const first = rows.values().next().value as NightRow[];
+  return nightsOfSites(f.hours.siteHours, (id) => ({ rows: rows.get(id) ?? first, from: sem.from, to: sem.to })).overall;
+}
+
+const nightsText = (n: NightsEstimate | null) => (n === null ? '…' : n.nightsNeeded === null ? `> ${n.nightsUsable}` : `${n.nightsNeeded} of ${n.nightsUsable}`);
+
+/**
+ * The semester's nights at every site of the plan (observe/night.ts in a worker, as the Nights panel computes them),
+ * by profile id: the plan's forecast.semesterFrom/semesterTo, else the current semester; observing.maxAirmass, else 2.
+ */
+function useSemesterNights(c: EditorController, galaxy: { raDeg: number; decDeg: number } | undefined) {
+  const plan = c.store!.doc.plan, profile = c.store!.doc.profile;
+  const given = plan.forecast?.semesterFrom && plan.forecast?.semesterTo ? { from: plan.forecast.semesterFrom, to: plan.forecast.semesterTo } : null;
+  const sem = given ? { ...given, label: `${given.from} to ${given.to}` } : semesterOf(new Date());
+  const maxAirmass = (plan.observing as { maxAirmass?: number } | undefined)?.maxAirmass ?? 2;
+  const sites = editorPlanSites(plan, profile);
+  const siteKey = sites.map((x) => `${x.instrument}@${x.site.latDeg},${x.site.lonDeg},${x.site.elevationM}`).join(';');
+  const [rows, setRows] = useState<Map<string, NightRow[]> | null>(null);
+  const worker = useRef<Worker | null>(null);
+  const pending = useRef<{ ids: Map<number, string>; got: Map<string, NightRow[]> }>({ ids: new Map(), got: new Map() });
+  const nextId = useRef(0);
+  useEffect(() => {
+    const w = new Worker(new URL('../worker/nightsWorker.ts', import.meta.url), { type: 'module' });
+    worker.current = w;
+    w.onmessage = (ev: MessageEvent<NightsReply>) => {
+      const p = pending.current, instrument = p.ids.get(ev.data.id);
+      if (instrument === undefined || 'error' in ev.data) return;
+      p.ids.delete(ev.data.id);
+      p.got.set(instrument, ev.data.rows);
+      if (!p.ids.size) setRows(new Map(p.got));
+    };
+    return () => w.terminate();
+  }, []);
+  useEffect(() => {
+    if (!galaxy || !worker.current) return;
+    pending.current = { ids: new Map(), got: new Map() };
+    setRows(null);
+    for (const x of sites) {
+      const id = ++nextId.current;
+      pending.current.ids.set(id, x.instrument);
+      const req: NightsRequest = { id, from: sem.from, to: sem.to, raDeg: galaxy.raDeg, decDeg: galaxy.decDeg, site: { latDeg: x.site.latDeg, lonDeg: x.site.lonDeg, elevationM: x.site.elevationM }, maxAirmass };
+      worker.current.postMessage(req);
+    }
+    // siteKey stands for `sites` (a new array each render).
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [sem.from, sem.to, maxAirmass, galaxy?.raDeg, galaxy?.decDeg, siteKey]);
+  return { rows, sem, maxAirmass };
+}
+
 /** The panel: current (or live, while dragging) and saved forecasts, one plot at a time. */
 export function ForecastPanel({ c }: { c: EditorController }) {
   const result: SolveResult | undefined = c.session.solution?.result;
@@ -47,6 +104,7 @@ export function ForecastPanel({ c }: { c: EditorController }) {
   const worker = useRef<Worker | null>(null);
   const state = useRef<{ id: number; busy: boolean; pending: ForecastRequest | null; meta: Map<number, { live: boolean; result: SolveResult }> }>({ id: 0, busy: false, pending: null, meta: new Map() });
   const lastFull = useRef<{ f: Forecast; result: SolveResult } | null>(null);
+  const nights = useSemesterNights(c, result?.galaxy);
 
   useEffect(() => {
     const w = new Worker(new URL('../worker/forecastWorker.ts', import.meta.url), { type: 'module' });
@@ -98,6 +156,11 @@ export function ForecastPanel({ c }: { c: EditorController }) {
               {ROWS.map(([label, title, get, id]) => (
                 <tr key={id} title={title}><td>{label}</td><td className="num" data-testid={id}>{get(f)}</td><td className="num dim" data-testid={`${id}-saved`}>{saved ? get(saved) : '–'}</td></tr>
               ))}
+              <tr title={`nights of the semester ${nights.sem.label} needed for the hours (best nights first; dark time with the galaxy below airmass ${nights.maxAirmass}; sites of a mixed plan in parallel), of the usable nights`}>
+                <td>nights</td>
+                <td className="num" data-testid="fc-nights" data-hours={f.hours.total} data-from={nights.sem.from} data-to={nights.sem.to} data-max-airmass={nights.maxAirmass}>{nightsText(forecastNights(f, nights.rows, nights.sem))}</td>
+                <td className="num dim" data-testid="fc-nights-saved">{saved ? nightsText(forecastNights(saved, nights.rows, nights.sem)) : '–'}</td>
+              </tr>
             </tbody>
           </table>
           <div className="row-tools">

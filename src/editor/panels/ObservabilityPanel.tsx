@@ -5,6 +5,7 @@
  */
 import { memo, useEffect, useRef, useState } from 'react';
 import { editorPlanSites } from '../io/planProfiles';
+import { semesterOf } from '../io/semester';
 import type { EditorController } from '../controller';
 import type { NightRow } from '../../core/observe/night';
 import type { GalaxyModel } from '../../core/plan/schema';
@@ -12,14 +13,6 @@ import type { NightsReply, NightsRequest } from '../worker/nightsWorker';
 import { INK, ROLE_STYLE } from '../view/palette';
 import { NumberField, Panel } from './Panel';
 import { monthYearLabel } from './plotAxes';
-
-/** Semesters of six months starting 1 February and 1 August (a common convention; the user may pick any). */
-function semesterOf(d: Date): { from: string; to: string; label: string } {
-  const y = d.getUTCFullYear(), m = d.getUTCMonth() + 1;
-  if (m >= 2 && m <= 7) return { from: `${y}-02-01`, to: `${y}-07-31`, label: `${y} Feb–Jul` };
-  const y0 = m === 1 ? y - 1 : y;
-  return { from: `${y0}-08-01`, to: `${y0 + 1}-01-31`, label: `${y0} Aug–${y0 + 1} Jan` };
-}
 
 /** Dark hours per night (bars) and the Moon's lit fraction (dashed line); memoised: it redraws only when the rows change, not on every solve. */
 const NightsChart = memo(function NightsChart({ rows }: { rows: NightRow[] }) {
