@@ -186,6 +186,7 @@ export function App({ controller: c }: { controller: EditorController }) {
                   onSelectMask={(id) => store.updateSession((s) => ({ ...s, activeMaskId: id }))}
                   onPreviewEnd={() => c.setLivePose(null)}
                   paSnapDeg={session.paSnapDeg}
+                  centreSnapArcsec={session.centreSnapArcsec}
                   focus={skyFocus}
                 />
               </div>

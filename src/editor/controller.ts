@@ -4,7 +4,8 @@
  */
 import type { CatalogReadResult } from '../core/catalog/types';
 import type { PlanFile, PlanMask } from '../core/plan/schema';
-import { parsePlanText } from '../core/plan/validate';
+import { galaxyModel, parsePlanText } from '../core/plan/validate';
+import { snapCentreDeg } from './view/centreSnap';
 import { maskPlaced, planFullyPlaced } from '../core/plan/pipeline';
 import { withoutSolveOutputs } from '../core/observe/refractionReport';
 import { parseProfileText } from '../core/profile/load';
@@ -156,6 +157,18 @@ export class EditorController {
   /** Set the PA snap for turning masks by their handle (0: off). */
   setPaSnap(deg: number): void {
     this.patch({ paSnapDeg: deg });
+  }
+
+  /** Set the centre steps for typed and dragged mask centres, arcsec (0: exact). */
+  setCentreSnap(stepArcsec: number): void {
+    this.patch({ centreSnapArcsec: stepArcsec });
+  }
+
+  /** Move a mask to a typed centre (degrees), on the centre steps about the galaxy centre: one undoable edit. */
+  moveMaskTyped(id: string, raDeg: number, decDeg: number): void {
+    if (!this.store) return;
+    const to = snapCentreDeg(galaxyModel(this.store.doc.plan), raDeg, decDeg, this.session.centreSnapArcsec);
+    this.store.run((d) => moveMaskCommand(d, id, to.raDeg, to.decDeg));
   }
 
   // ---- the pose of a mask being dragged or turned, for read-outs that follow it live (not an edit) ----
