@@ -56,7 +56,7 @@ describe('profile check panel', () => {
       await page.click(`${sel('panel-start-plan')} .panel-toggle`);
       const values: Record<string, string> = { id: 'Started A', ra: '10:47:15.0', dec: '-21:24:18', re: '40', q: '0.8', pa: '35', vsys: '1180', muE: '21.2' };
       for (const [k, v] of Object.entries(values)) await page.fill(sel(`start-${k}`), v);
-      await page.setInputFiles(sel('start-catalog'), path);
+      await page.setInputFiles(sel('start-files'), path);
       await page.click(sel('start-plan'));
       const plan = () => page.evaluate(() => (window as unknown as { haloweave: { store: { doc: { plan: { galaxy: { id: string }; catalogColumns?: Record<string, string> } } } } }).haloweave.store.doc.plan);
       await page.waitForFunction(() => (window as unknown as { haloweave: { store: { doc: { plan: { galaxy: { id: string } } } } } }).haloweave.store.doc.plan.galaxy.id === 'Started A', undefined, { timeout: 60_000 });
