@@ -1,7 +1,7 @@
 // A first plan from the user's own files in real Chromium (Debian's /usr/bin/chromium via playwright-core): a catalog
 // whose RA is in hours under another name and a profile of the user's own, dropped together on the start panel or
 // given one after the other; the galaxy typed (a missing field named, nothing typed lost); the plan opens on that
-// profile, is solved and shown with the catalog's summary. Also: the profile check's footprint corners typed as text
+// profile, is solved and shown with the catalog's summary, and is saved with the profile file it names. Also: the profile check's footprint corners typed as text
 // (a bad line named, a sliver refused) and the notice for a catalog read as Latin-1.
 import { describe, expect, it } from 'vitest';
 import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
@@ -71,6 +71,17 @@ describe('start a plan from dropped files', () => {
       expect(await page.textContent(sel('doc-name'))).toMatch(/my-candidates\.plan\.json •/);
       await waitSolved(page, 180_000);
       expect(Number(await page.textContent(sel('count-tracer')))).toBeGreaterThan(0);
+
+      // Saving writes the plan naming the profile file, and the profile file itself.
+      const downloads: import('playwright-core').Download[] = [];
+      page.on('download', (d) => downloads.push(d));
+      await page.click(sel('save-plan'));
+      await expect.poll(() => downloads.length, { timeout: 10_000 }).toBe(2);
+      expect(downloads.map((d) => d.suggestedFilename())).toEqual(['my-candidates.plan.json', 'my-ridge.profile.json']);
+      const saved = JSON.parse(readFileSync((await downloads[0].path())!, 'utf8'));
+      expect(saved.instrument).toBe('my-ridge.profile.json');
+      expect(JSON.parse(readFileSync((await downloads[1].path())!, 'utf8')).slits.widthArcsec).toBe(1.1);
+      expect(await page.textContent(sel('doc-name'))).not.toContain('•');
     } finally {
       await context.close();
     }
