@@ -57,6 +57,7 @@ export const ProfileCheckPanel = memo(function ProfileCheckPanel({ c, profile, p
   const changed = current !== profile;
   return (
     <Panel title="Profile check" testId="panel-profile-check" startOpen={false}>
+      <div className="form-rows">
       {EDITABLE_PROFILE_NUMBERS.map((n) => (
         <NumberField
           key={n.path.join('.')}
@@ -73,6 +74,7 @@ export const ProfileCheckPanel = memo(function ProfileCheckPanel({ c, profile, p
       <ListField label="detector gaps (px, first-last)" testId="profile-edit-gaps"
         shown={gapsText(current.detector.gapsPixels)} parse={(t) => { const p = parseGapsText(t); return { value: p.gaps, problems: p.problems }; }}
         onCommit={(v) => setEdited({ base: profile, now: withGaps(current, v) })} />
+      </div>
       {check.inspection && (
         <p className="small" data-testid="profile-check-usable">
           lines on the detector over {(100 * check.inspection.usableXFraction).toFixed(0)} % of the field at {lines.vsysKms} km/s

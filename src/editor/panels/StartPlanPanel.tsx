@@ -48,6 +48,7 @@ export function StartPlanPanel({ c }: { c: EditorController }) {
       </div>
       <Problems list={st.fileProblems} testId="start-file-problem" />
       {st.fileNotes.map((n, i) => <p key={i} className="small" data-testid="start-file-note">{n}</p>)}
+      <div className="form-rows">
       {START_FIELDS.map((f) => (
         <label key={f.key} className={`field ${bad.has(f.key) ? 'bad' : ''}`}>
           <span className="field-label">{f.label}</span>
@@ -55,6 +56,7 @@ export function StartPlanPanel({ c }: { c: EditorController }) {
             onChange={(e) => c.setStartValue(f.key, e.target.value)} />
         </label>
       ))}
+      </div>
       <button data-testid="start-plan" onClick={() => c.startPlan()}>Start the plan</button>
       <Problems list={st.formProblems} testId="start-bad" />
       {r && <Problems list={r.problems} testId="start-problem" />}
