@@ -11,6 +11,7 @@ import type { InstrumentProfile } from '../../core/profile/schema';
 import type { LoadedFile } from '../session';
 import type { DraftFromFile } from './draftFromFile';
 
+/** The form's fields: key, label shown, placeholder, and what to give when the field cannot be used. */
 export const START_FIELDS = [
   { key: 'id', label: 'name', placeholder: 'my galaxy', fix: 'any name; it becomes the plan\'s galaxy id' },
   { key: 'ra', label: 'RA', placeholder: '10:47:15.0 or degrees', fix: "the galaxy centre's RA, as 10:47:15.0 (hours) or 161.81 (degrees)" },
@@ -82,6 +83,7 @@ export interface StartState {
   result: DraftFromFile | null;
 }
 
+/** The start panel before anything is typed or given. */
 export function emptyStart(): StartState {
   return { values: {}, catalog: null, profile: null, fileProblems: [], formProblems: [], fileNotes: [], result: null };
 }
