@@ -522,13 +522,12 @@ export class EditorController {
 
   /** Give the start panel files (dropped together or one after the other, any order): a catalog and/or a profile. */
   async addStartFiles(files: File[]): Promise<void> {
-    const read = await Promise.all(files.map(async (f) => ({ f, ...(await loadedFileFrom(f)) })));
-    const next: Partial<StartState> = { fileProblems: [], fileNotes: [], result: null };
-    const problems: StartState['fileProblems'] = [], notes: string[] = [];
-    const catalogs = read.filter((r) => classifyFile(r.f.name, r.bytes) === 'catalog');
+    const read = (await Promise.all(files.map(async (f) => ({ f, ...(await loadedFileFrom(f)) })))).map((r) => ({ ...r, kind: classifyFile(r.f.name, r.bytes) }));
+    const next: Partial<StartState> = { result: null };
+    const problems: StartState['fileProblems'] = [];
+    const catalogs = read.filter((r) => r.kind === 'catalog');
     for (const r of read) {
-      if (r.encoding === 'latin1') notes.push(latin1Note(r.f.name));
-      const kind = classifyFile(r.f.name, r.bytes);
+      const kind = r.kind;
       if (kind === 'profile') {
         try {
           next.profile = { fileName: r.f.name, profile: parseProfileText(String(r.file.content), r.f.name) };
@@ -542,8 +541,13 @@ export class EditorController {
       }
     }
     if (catalogs.length > 1) problems.push({ where: catalogs.map((c) => c.f.name).join(', '), what: 'several catalogs given at once', fix: 'give one catalog: the last one given is used' });
-    if (catalogs.length) next.catalog = catalogs[catalogs.length - 1].file;
-    this.patchStart({ ...next, fileProblems: problems, fileNotes: notes });
+    if (catalogs.length) {
+      const taken = catalogs[catalogs.length - 1];
+      next.catalog = taken.file;
+      // The notes go with the catalog held: a profile given afterwards leaves them.
+      next.fileNotes = taken.encoding === 'latin1' ? [latin1Note(taken.f.name)] : [];
+    }
+    this.patchStart({ ...next, fileProblems: problems });
   }
 
   /** Forget the profile file given in the start panel: the document's profile is used again. */

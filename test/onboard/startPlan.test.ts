@@ -146,6 +146,11 @@ describe('start a plan in the editor: what a user can get wrong', () => {
     await c.addStartFiles([new File([latin], 'latin.csv')]);
     expect(c.start.fileNotes).toEqual(['latin.csv is not valid UTF-8: it was read as Latin-1 (Windows-1252); check accented names in it, or save it as UTF-8']);
     expect(String(c.start.catalog!.content)).toContain('Cléa');
+    // A profile given next leaves the catalog's note; another catalog replaces it.
+    await c.addStartFiles([new File([ownProfileText], 'my-spec.json')]);
+    expect(c.start.fileNotes).toHaveLength(1);
+    await c.addStartFiles([new File([catalogText], 'cands.csv')]);
+    expect(c.start.fileNotes).toEqual([]);
     // Opened on the window for the current plan: a warning message says the same.
     await c.openFiles([new File([latin], 'latin.csv')]);
     expect(c.session.notices.map((n) => n.text)).toContain('latin.csv is not valid UTF-8: it was read as Latin-1 (Windows-1252); check accented names in it, or save it as UTF-8');

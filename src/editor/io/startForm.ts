@@ -77,7 +77,7 @@ export interface StartState {
   fileProblems: Problem[];
   /** Problems with the typed fields at the last start. */
   formProblems: Problem[];
-  /** Findings about the files given (a text file read as Latin-1). */
+  /** Findings about the catalog held (read as Latin-1), kept while it is held. */
   fileNotes: string[];
   /** The last draft: its summary, choices and problems. */
   result: DraftFromFile | null;
