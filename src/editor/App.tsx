@@ -146,7 +146,7 @@ export function App({ controller: c }: { controller: EditorController }) {
             <GalaxyPanel c={c} galaxy={galaxy} plan={doc.plan} />
             <ProfilePanel c={c} profile={doc.profile} />
             <ProfileCheckPanel c={c} profile={doc.profile} plan={doc.plan} />
-            <StartPlanPanel c={c} profile={doc.profile} />
+            <StartPlanPanel c={c} />
             <MasksPanel c={c} solved={solvedMasks} exposures={exactExposures.current} galaxyPaDeg={galaxy.paDeg} />
             <SearchPanel c={c} />
             <BackdropPanel c={c} backdrop={backdrop} />
@@ -186,6 +186,7 @@ export function App({ controller: c }: { controller: EditorController }) {
                   onSelectMask={(id) => store.updateSession((s) => ({ ...s, activeMaskId: id }))}
                   onPreviewEnd={() => c.setLivePose(null)}
                   paSnapDeg={session.paSnapDeg}
+                  centreSnapArcsec={session.centreSnapArcsec}
                   focus={skyFocus}
                 />
               </div>
@@ -212,9 +213,10 @@ function safeGalaxy(plan: Parameters<typeof galaxyModel>[0]) {
   try { return galaxyModel(plan); } catch { return null; }
 }
 
-/** Save the plan file of the contract (a download named like the opened plan). */
+/** Save the plan file of the contract (a download named like the opened plan), and the profile file it names if any. */
 export function savePlan(c: EditorController): void {
   if (!c.store) return;
-  downloadFile(c.session.planName.endsWith('.json') ? c.session.planName : `${c.session.planName}.plan.json`, c.planFileText(), 'application/json');
+  // A profile of the user's own (opened from a file, or edited) is saved beside the plan, which names that file.
+  for (const f of c.savedFiles()) downloadFile(f.name, f.content, 'application/json');
   c.markSaved();
 }

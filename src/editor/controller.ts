@@ -4,7 +4,8 @@
  */
 import type { CatalogReadResult } from '../core/catalog/types';
 import type { PlanFile, PlanMask } from '../core/plan/schema';
-import { parsePlanText } from '../core/plan/validate';
+import { galaxyModel, parsePlanText } from '../core/plan/validate';
+import { snapCentreDeg } from './view/centreSnap';
 import { maskPlaced, planFullyPlaced } from '../core/pipeline/pipeline';
 import { withoutSolveOutputs } from '../core/pipeline/refractionReport';
 import { parseProfileText } from '../core/profile/load';
@@ -22,7 +23,10 @@ import { missingEditorProfiles } from './io/planProfiles';
 import { planInstrumentRefs } from '../core/plan/instruments';
 import { demoFiles } from './io/demo';
 import { classifyFile } from './io/classify';
-import { decodeText } from '../core/catalog/textDecoding';
+import { decodeText, type TextEncodingName } from '../core/catalog/textDecoding';
+import { emptyStart, galaxyFromForm, latin1Note, type StartKey, type StartState } from './io/startForm';
+import { draftFromFile } from './io/draftFromFile';
+import { ownProfileFileName, savedPlanFiles } from './io/profileFile';
 import { readAutosave, writeAutosave, clearAutosave } from './io/autosave';
 import type { MaskPose } from './view/SkyView';
 
@@ -35,12 +39,17 @@ function problemsOf(e: unknown, where: string): Problem[] {
 }
 
 /** Read a browser File into text (text formats) or bytes (FITS). */
-export async function loadedFileFrom(file: File): Promise<{ file: LoadedFile; bytes: Uint8Array }> {
+export async function loadedFileFrom(file: File): Promise<{ file: LoadedFile; bytes: Uint8Array; encoding: TextEncodingName | null }> {
   const bytes = new Uint8Array(await file.arrayBuffer());
   const isFits = new TextDecoder().decode(bytes.subarray(0, 9)) === 'SIMPLE  =';
+  if (isFits) return { file: { name: file.name, content: bytes }, bytes, encoding: null };
   // The decoder the command line uses: UTF-16/UTF-8 by byte-order mark, else UTF-8 when valid, else Latin-1.
-  return { file: { name: file.name, content: isFits ? bytes : decodeText(bytes).text }, bytes };
+  const { text, encoding } = decodeText(bytes);
+  return { file: { name: file.name, content: text }, bytes, encoding };
 }
+
+/** The rest wavelengths a plan started in the editor asks for: the calcium triplet in air, Angstrom (common practice). */
+const CALCIUM_TRIPLET_A = [8498.0, 8542.1, 8662.1];
 
 export interface ControllerOptions {
   /** Ask the user a yes/no question (default window.confirm). */
@@ -150,6 +159,18 @@ export class EditorController {
     this.patch({ paSnapDeg: deg });
   }
 
+  /** Set the centre steps for typed and dragged mask centres, arcsec (0: exact). */
+  setCentreSnap(stepArcsec: number): void {
+    this.patch({ centreSnapArcsec: stepArcsec });
+  }
+
+  /** Move a mask to a typed centre (degrees), on the centre steps about the galaxy centre: one undoable edit. */
+  moveMaskTyped(id: string, raDeg: number, decDeg: number): void {
+    if (!this.store) return;
+    const to = snapCentreDeg(galaxyModel(this.store.doc.plan), raDeg, decDeg, this.session.centreSnapArcsec);
+    this.store.run((d) => moveMaskCommand(d, id, to.raDeg, to.decDeg));
+  }
+
   // ---- the pose of a mask being dragged or turned, for read-outs that follow it live (not an edit) ----
   private livePose: MaskPose | null = null;
   private liveListeners = new Set<Listener>();
@@ -212,6 +233,7 @@ export class EditorController {
   /** Open files picked or dropped together: plan, catalog, profile and/or FITS image, each told apart by content. */
   async openFiles(files: File[]): Promise<{ imageFiles: File[] }> {
     const read = await Promise.all(files.map(async (f) => ({ f, ...(await loadedFileFrom(f)) })));
+    for (const r of read) if (r.encoding === 'latin1') this.notify('warning', latin1Note(r.f.name));
     const classified = read.map((r) => ({ ...r, kind: classifyFile(r.f.name, r.bytes) }));
     const plan = classified.find((c) => c.kind === 'plan');
     const profile = classified.find((c) => c.kind === 'profile');
@@ -240,7 +262,7 @@ export class EditorController {
   }
 
   /** Open a plan; its catalog is `catalogFile`, or the one already loaded when the names match. */
-  openPlanText(planFile: LoadedFile, catalogFile: LoadedFile | null, opts: { ask: boolean; profile?: InstrumentProfile }): boolean {
+  openPlanText(planFile: LoadedFile, catalogFile: LoadedFile | null, opts: { ask: boolean; profile?: InstrumentProfile; dirty?: boolean }): boolean {
     if (opts.ask && !this.mayDiscard()) return false;
     let plan: PlanFile;
     try {
@@ -280,7 +302,7 @@ export class EditorController {
     } else {
       this.notify('warning', `open the catalog "${plan.catalog}" (file picker or drop it on the window) to solve this plan`);
     }
-    this.install({ plan, profile }, catalog, catalog ? catFile : null, planFile.name, { dirty: false, place: true });
+    this.install({ plan, profile }, catalog, catalog ? catFile : null, planFile.name, { dirty: opts.dirty ?? false, place: true });
     return true;
   }
 
@@ -484,10 +506,85 @@ export class EditorController {
     if (placed) this.store.dispatch(setMasksCommand(this.store.doc, placed, 'pointing search'));
   }
 
+  // ---- starting a plan from the user's catalog and profile ----
+  /** The start panel's fields, files and last draft; kept here so nothing typed is lost when the panel closes. */
+  start: StartState = emptyStart();
+
+  private patchStart(p: Partial<StartState>): void {
+    this.start = { ...this.start, ...p };
+    this.emit();
+  }
+
+  /** Set one typed field of the start panel. */
+  setStartValue(key: StartKey, text: string): void {
+    this.patchStart({ values: { ...this.start.values, [key]: text } });
+  }
+
+  /** Give the start panel files (dropped together or one after the other, any order): a catalog and/or a profile. */
+  async addStartFiles(files: File[]): Promise<void> {
+    const read = (await Promise.all(files.map(async (f) => ({ f, ...(await loadedFileFrom(f)) })))).map((r) => ({ ...r, kind: classifyFile(r.f.name, r.bytes) }));
+    const next: Partial<StartState> = { result: null };
+    const problems: StartState['fileProblems'] = [];
+    const catalogs = read.filter((r) => r.kind === 'catalog');
+    for (const r of read) {
+      const kind = r.kind;
+      if (kind === 'profile') {
+        try {
+          next.profile = { fileName: r.f.name, profile: parseProfileText(String(r.file.content), r.f.name) };
+        } catch (e) {
+          problems.push(...problemsOf(e, r.f.name));
+        }
+      } else if (kind === 'plan') {
+        problems.push({ where: r.f.name, what: 'is a plan file, not a catalog or a profile', fix: 'open a plan with Open… or drop it on the window; give this panel your catalog and profile' });
+      } else if (kind === 'image') {
+        problems.push({ where: r.f.name, what: 'is a FITS image, not a catalog', fix: 'open it as the backdrop (drop it on the window); give this panel your catalog and profile' });
+      }
+    }
+    if (catalogs.length > 1) problems.push({ where: catalogs.map((c) => c.f.name).join(', '), what: 'several catalogs given at once', fix: 'give one catalog: the last one given is used' });
+    if (catalogs.length) {
+      const taken = catalogs[catalogs.length - 1];
+      next.catalog = taken.file;
+      // The notes go with the catalog held: a profile given afterwards leaves them.
+      next.fileNotes = taken.encoding === 'latin1' ? [latin1Note(taken.f.name)] : [];
+    }
+    this.patchStart({ ...next, fileProblems: problems });
+  }
+
+  /** Forget the profile file given in the start panel: the document's profile is used again. */
+  clearStartProfile(): void {
+    this.patchStart({ profile: null, result: null });
+  }
+
+  /**
+   * Draft a plan from the start panel's catalog, profile and galaxy as `haloweave draft` would write it, show what was
+   * found and chosen, and open it (asking first when there is unsaved work); the opened plan is solved and shown.
+   * Returns true when the plan was opened. Whatever fails, the typed fields and the files given stay.
+   */
+  startPlan(): boolean {
+    if (!this.store) return false;
+    const st = this.start;
+    const form = galaxyFromForm(st.values);
+    const formProblems = [...form.problems];
+    if (!st.catalog) formProblems.push({ where: 'start a plan: catalog', what: 'no catalog given', fix: 'drop your catalog file on this panel, or pick it with the file button' });
+    if (!form.galaxy || !st.catalog) {
+      this.patchStart({ formProblems, result: null });
+      return false;
+    }
+    const profile = st.profile?.profile ?? this.store.doc.profile;
+    // The plan names the profile as `haloweave draft` would with every file in one folder: a file by its name, a shipped one by id.
+    const instrument = st.profile ? st.profile.fileName : ownProfileFileName(profile) ?? profile.id;
+    const result = draftFromFile(st.catalog, profile, form.galaxy, CALCIUM_TRIPLET_A, { instrument });
+    this.patchStart({ formProblems: [], result });
+    if (!result.planText) return false;
+    // A drafted plan is not in any file yet: it opens as unsaved work.
+    return this.openPlanText({ name: result.planName, content: result.planText }, st.catalog, { ask: true, profile, dirty: true });
+  }
+
   // ---- saving ----
-  /** The plan file of the contract for the current document. */
-  planFileText(): string {
-    return JSON.stringify(this.store!.doc.plan, null, 2) + '\n';
+  /** The files "Save plan" writes: the plan, and the profile file it names when the profile is the user's own. */
+  savedFiles(): { name: string; content: string }[] {
+    const name = this.session.planName.endsWith('.json') ? this.session.planName : `${this.session.planName}.plan.json`;
+    return savedPlanFiles(this.store!.doc.plan, this.store!.doc.profile, name);
   }
 
   markSaved(): void {

@@ -55,6 +55,8 @@ export interface Session {
   focus: { index: number; n: number } | null;
   /** PA snap for turning a mask with its handle, degrees (0: off). */
   paSnapDeg: number;
+  /** Centre steps for typed and dragged mask centres: offsets from the galaxy centre in multiples of this, arcsec (0: exact). */
+  centreSnapArcsec: number;
   /** Counts requests to open and show the catalog's row report. */
   revealRejects: number;
 }
@@ -63,6 +65,6 @@ export function emptySession(): Session {
   return {
     catalog: null, catalogFile: null, planName: 'untitled.plan.json', solution: null, solvedDoc: null, solving: false, solveError: null,
     selection: new Set(), activeMaskId: null, preview: null, search: null, notices: [], backdropName: null, autosavedAt: null,
-    liveDrag: true, focus: null, paSnapDeg: 0, revealRejects: 0,
+    liveDrag: true, focus: null, paSnapDeg: 0, centreSnapArcsec: 0, revealRejects: 0,
   };
 }

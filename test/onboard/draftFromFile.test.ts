@@ -30,7 +30,7 @@ describe('start a plan in the editor from a catalog file', () => {
     expect(plan.catalogColumns).toEqual({ id: 'NAME', ra: 'alpha', raUnit: 'hour', dec: 'delta' });
     expect(plan.instrument).toBe('ridge10-narrow');
     expect(r.choices.map((c) => c.key)).toEqual(expect.arrayContaining(['goals.masks', 'goals.tracerReachRe', 'goals.starlightReachRe', 'goals.linesA']));
-    expect(r.notes[0]).toMatch(new RegExp(`${lines.length - 1} rows, ${lines.length - 1} usable`));
+    expect(r.summary!.catalog).toMatch(new RegExp(`${lines.length - 1} rows, ${lines.length - 1} usable`));
   });
 
   it('a galaxy centre away from the catalog, and lines off the detector, are problems with no plan', () => {

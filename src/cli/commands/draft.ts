@@ -14,6 +14,7 @@ import { readCatalogFile } from '../readCatalogFile';
 import { readRawTable } from '../../core/catalog/read';
 import { guessColumns } from '../../core/catalog/guessColumns';
 import { draftPlan, type DraftGalaxy } from '../../core/plan/draftPlan';
+import { draftSummary } from '../../core/plan/draftSummary';
 import { parsePlan } from '../../core/plan/validate';
 import { parseDecDeg, parseRaDeg } from '../../core/sky/sexagesimal';
 import { inspectProfile } from '../../core/profile/inspect';
@@ -92,20 +93,15 @@ export async function run(argv: string[], io: CliIO): Promise<number> {
   // The draft must be a plan the tool accepts as it stands.
   parsePlan(draft.plan, String(o.out));
 
-  io.out(`catalog ${catalogArg} (${catalog.format}): ${catalog.rowsRead} rows, ${catalog.targets.length} usable, ${new Set(catalog.rejects.map((r) => r.line)).size} rows with problems${catalog.rejects.length ? ` (first: line ${catalog.rejects[0].line}, ${catalog.rejects[0].column}: ${catalog.rejects[0].reason})` : ''}`);
+  const summary = draftSummary({ catalogName: catalogArg, catalog, guess, facts: draft.facts, profile, lines, usableXFraction: insp.usableXFraction });
+  io.out(summary.catalog);
   io.out('columns:');
-  for (const [field, f] of Object.entries(guess.fields)) {
-    const unit = f.unit === 'deg' ? ', degrees' : f.unit === 'hour' ? ', hours' : f.unit === 'text' ? ', sexagesimal text' : f.unit === 'file' ? ', unit from the file' : '';
-    io.out(`  ${field.padEnd(8)} <- ${f.column} (by ${f.how === 'name' ? 'its name' : 'its values'}${unit})`);
-  }
-  const unused = guess.profiles.map((p) => p.name).filter((n) => !Object.values(guess.fields).some((f) => f.column === n));
-  if (unused.length) io.out(`  carried through: ${unused.join(', ')}`);
+  for (const line of summary.columns) io.out(`  ${line}`);
+  if (summary.carried) io.out(`  ${summary.carried}`);
   for (const n of guess.notes) io.out(`  note: ${n}`);
-  const f = draft.facts;
-  if (f.tracers === 0) io.out('tracer candidates: none (every usable row is an alignment star): the plan can place boxes but no tracer slits');
-  else io.out(`tracer candidates: ${f.tracers}, R/Re median ${f.tracerRadiusRe[0].toFixed(1)}, 90 % within ${f.tracerRadiusRe[1].toFixed(1)}, farthest ${f.tracerRadiusRe[2].toFixed(1)}; magnitudes ${f.tracerMag[0].toFixed(2)} to ${f.tracerMag[2].toFixed(2)} (median ${f.tracerMag[1].toFixed(2)})`);
-  io.out(`alignment stars: ${f.alignmentRows} in the catalog, ${f.alignmentInRangeNear} of mag ${profile.alignment.magRange[0]}-${profile.alignment.magRange[1]} within ${(f.nearRadiusArcsec / 60).toFixed(1)} arcmin of the galaxy: about ${f.alignmentPerMaskExpected.toFixed(1)} a field (a mask needs ${profile.alignment.minCount})`);
-  io.out(`profile ${profile.id}: science slits possible on ${(100 * insp.usableXFraction).toFixed(0)} % of the field's x range at ${lines.vsysKms} +- ${lines.velocityHalfRangeKms} km/s`);
+  io.out(summary.tracers);
+  io.out(summary.alignment);
+  io.out(summary.profile);
   io.out('choices:');
   for (const c of draft.choices) io.out(`  ${c.key} = ${JSON.stringify(c.value)}: ${c.why}`);
   for (const w of [...insp.warnings, ...draft.warnings]) io.err(`haloweave draft: warning: ${w}`);

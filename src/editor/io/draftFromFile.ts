@@ -10,6 +10,7 @@ import type { LoadedFile } from '../session';
 import { readCatalog, readRawTable } from '../../core/catalog/read';
 import { guessColumns, type ColumnGuess } from '../../core/catalog/guessColumns';
 import { draftPlan, type DraftChoice, type DraftGalaxy } from '../../core/plan/draftPlan';
+import { draftSummary, type DraftSummary } from '../../core/plan/draftSummary';
 import { parsePlan } from '../../core/plan/validate';
 import { inspectProfile } from '../../core/profile/inspect';
 import { LINE_WINDOW_DEFAULTS } from '../../core/profile/lineWindows';
@@ -19,16 +20,21 @@ export interface DraftFromFile {
   planText: string | null;
   planName: string;
   choices: DraftChoice[];
-  /** What the catalog inspection found (columns by name or value, units) and the draft's warnings. */
+  /** What the catalog inspection found, worded as `haloweave draft` prints it; null when the catalog could not be read. */
+  summary: DraftSummary | null;
+  /** The column guess's findings and the draft's warnings (units guessed, too few alignment stars...). */
   notes: string[];
   problems: Problem[];
   guess: ColumnGuess | null;
 }
 
-/** Draft a plan from a catalog file for the galaxy with the given profile and rest lines (Angstrom). */
-export function draftFromFile(file: LoadedFile, profile: InstrumentProfile, galaxy: DraftGalaxy, linesA: number[]): DraftFromFile {
+/**
+ * Draft a plan from a catalog file for the galaxy with the given profile and rest lines (Angstrom). `instrument` is the
+ * plan's `instrument` value (default the profile's id; the profile file's name for a profile of the user's own).
+ */
+export function draftFromFile(file: LoadedFile, profile: InstrumentProfile, galaxy: DraftGalaxy, linesA: number[], opts: { instrument?: string } = {}): DraftFromFile {
   const planName = `${file.name.replace(/\.[^.]+$/, '')}.plan.json`;
-  const fail = (problems: Problem[], guess: ColumnGuess | null = null): DraftFromFile => ({ planText: null, planName, choices: [], notes: guess?.notes ?? [], problems, guess });
+  const fail = (problems: Problem[], guess: ColumnGuess | null = null): DraftFromFile => ({ planText: null, planName, choices: [], summary: null, notes: guess?.notes ?? [], problems, guess });
   const lines = { vsysKms: galaxy.vsysKms, linesA, ...LINE_WINDOW_DEFAULTS };
   const insp = inspectProfile(profile, lines, profile.id);
   if (insp.problems.length) return fail(insp.problems);
@@ -42,22 +48,18 @@ export function draftFromFile(file: LoadedFile, profile: InstrumentProfile, gala
     if (e instanceof InputError) return fail(e.problems);
     throw e;
   }
-  if (catalog.targets.length === 0) return fail([{ where: file.name, what: `none of the ${catalog.rowsRead} rows can be used`, fix: 'see the row report after opening the catalog' }], guess);
-  const draft = draftPlan({ galaxy, profile, instrument: profile.id, catalogPath: file.name, catalogColumns: guess.mapping, targets: catalog.targets, linesA });
+  if (catalog.targets.length === 0) {
+    const first = catalog.rejects.slice(0, 3).map((r) => `line ${r.line}, ${r.column}: ${r.reason}`).join('; ');
+    return fail([{ where: file.name, what: `none of the ${catalog.rowsRead} rows can be used${first ? ` (first: ${first})` : ''}`, fix: 'check the columns found below and the file' }], guess);
+  }
+  const draft = draftPlan({ galaxy, profile, instrument: opts.instrument ?? profile.id, catalogPath: file.name, catalogColumns: guess.mapping, targets: catalog.targets, linesA });
   parsePlan(draft.plan, planName);
-  const columns = Object.entries(guess.fields).map(([f, g]) => `${f} ← ${g.column} (by its ${g.how === 'name' ? 'name' : 'values'}${g.unit === 'hour' ? ', hours' : g.unit === 'text' ? ', sexagesimal' : ''})`);
-  const f = draft.facts;
   return {
     planText: JSON.stringify(draft.plan, null, 2) + '\n',
     planName,
     choices: draft.choices,
-    notes: [
-      `${catalog.rowsRead} rows, ${catalog.targets.length} usable; ${f.tracers} tracer candidates; ${f.alignmentInRangeNear} alignment stars of mag ${profile.alignment.magRange[0]}–${profile.alignment.magRange[1]} near the galaxy (about ${f.alignmentPerMaskExpected.toFixed(1)} a field, ${profile.alignment.minCount} needed)`,
-      `columns: ${columns.join(', ')}`,
-      ...guess.notes,
-      ...insp.warnings,
-      ...draft.warnings,
-    ],
+    summary: draftSummary({ catalogName: file.name, catalog, guess, facts: draft.facts, profile, lines, usableXFraction: insp.usableXFraction }),
+    notes: [...guess.notes, ...insp.warnings, ...draft.warnings],
     problems: [],
     guess,
   };

@@ -15,7 +15,7 @@ import type { LoadedFile } from '../session';
 import { maskChartSvg } from './maskChart';
 import { MANIFEST_FILE, buildManifest, manifestText, profileDigest } from '../../core/check/manifest';
 import { sha256HexOf } from '../../core/check/sha256';
-import { bundledProfileFor } from './profiles';
+import { ownProfileFileName, profileFileText } from './profileFile';
 import { strToU8, zipSync } from 'fflate';
 
 export interface ExportFile {
@@ -82,14 +82,13 @@ export function completeFolderFiles(result: SolveResult, profile: InstrumentProf
   const taken = new Set<string>([...FOLDER_FILES, 'excluded-targets.csv']);
   const free = (name: string) => (taken.has(name) ? `input-${name}` : name);
   const catalogName = catalogFile ? free(catalogFile.name.split(/[\\/]/).pop() || 'catalog.csv') : undefined;
-  const shipped = bundledProfileFor(profile.id);
-  const ownProfile = !shipped || JSON.stringify(shipped) !== JSON.stringify(profile);
-  const profileName = ownProfile ? free(`${profile.id.replace(/[^A-Za-z0-9_.-]+/g, '_')}.profile.json`) : undefined;
+  const own = ownProfileFileName(profile);
+  const profileName = own ? free(own) : undefined;
   const paths: FolderPaths = { ...(catalogName ? { catalog: catalogName } : {}), ...(profileName ? { instrument: profileName } : {}) };
   const files = outputFolderFiles(result, profile, catalog, paths);
   files.push({ name: 'excluded-targets.csv', content: excludedTargetsCsv(weightingOf(result, catalog)), mime: 'text/csv' });
   if (catalogFile && catalogName) files.push({ name: catalogName, content: catalogFile.content, mime: 'application/octet-stream' });
-  if (profileName) files.push({ name: profileName, content: JSON.stringify(profile, null, 2) + '\n', mime: 'application/json' });
+  if (profileName) files.push({ name: profileName, content: profileFileText(profile), mime: 'application/json' });
   return withManifest(files, profile);
 }
 

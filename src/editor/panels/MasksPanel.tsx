@@ -6,7 +6,8 @@
  */
 import { useState, useSyncExternalStore } from 'react';
 import type { EditorController } from '../controller';
-import { moveMaskCommand, rotateMaskCommand, setMaskLockedCommand } from '../store/commands';
+import { rotateMaskCommand, setMaskLockedCommand } from '../store/commands';
+import { CENTRE_SNAP_STEPS_ARCSEC } from '../view/centreSnap';
 import { instrumentRef, setMaskInstrumentCommand } from '../store/instrumentCommands';
 import { formatDecDms, formatRaHms, parseDecDeg, parseRaDeg } from '../../core/sky/sexagesimal';
 import { wrap360Deg } from '../../core/sky/angles';
@@ -59,9 +60,9 @@ function ActiveMaskEditor({ c, mask, galaxyPaDeg }: { c: EditorController; mask:
     <div className="mask-editor" data-testid="mask-editor">
       <div className="small"><b>{mask.id}</b> (active; [ and ] turn it by 1° in the sky view, Shift 10°)</div>
       <CoordField label="RA" value={mask.raDeg} format={(v) => formatRaHms(v, 2)} parse={parseRaDeg} testId="mask-ra"
-        onCommit={(v) => c.run((d) => moveMaskCommand(d, mask.id, v, mask.decDeg!))} />
+        onCommit={(v) => c.moveMaskTyped(mask.id, v, mask.decDeg!)} />
       <CoordField label="Dec" value={mask.decDeg} format={(v) => formatDecDms(v, 1)} parse={parseDecDeg} testId="mask-dec"
-        onCommit={(v) => c.run((d) => moveMaskCommand(d, mask.id, mask.raDeg!, v))} />
+        onCommit={(v) => c.moveMaskTyped(mask.id, mask.raDeg!, v)} />
       <div className="row-tools">
         <NumberField label="PA" unit="°" value={Math.round(pa * 1e4) / 1e4} min={-360} max={720} onCommit={setPa} testId="mask-pa" />
         <button data-testid="mask-turn-minus" title="turn by −1° (Shift+click −10°)" onClick={(e) => turn(e.shiftKey ? -10 : -1)}>−1°</button>
@@ -176,6 +177,11 @@ export function MasksPanel({ c, solved, exposures, galaxyPaDeg }: { c: EditorCon
         <label title="Turning by the handle moves in these steps (Shift while turning: 5°)">
           PA steps <select data-testid="pa-snap" value={c.session.paSnapDeg} onChange={(e) => c.setPaSnap(Number(e.target.value))}>
             <option value={0}>0.1°</option><option value={0.5}>0.5°</option><option value={1}>1°</option><option value={5}>5°</option>
+          </select>
+        </label>
+        <label title="Typed and dragged centres land on this grid of offsets from the galaxy centre (East and North)">
+          centre steps <select data-testid="centre-snap" value={c.session.centreSnapArcsec} onChange={(e) => c.setCentreSnap(Number(e.target.value))}>
+            {CENTRE_SNAP_STEPS_ARCSEC.map((s) => <option key={s} value={s}>{s === 0 ? 'exact' : `${s}″`}</option>)}
           </select>
         </label>
       </div>

@@ -1,80 +1,77 @@
 /**
- * Start a plan from your own catalog with the profile in use, as `haloweave draft` does: give the galaxy's centre, size,
- * shape and velocity, pick the catalog file; its columns and units are found, the goals chosen, and each choice
- * explained here. The drafted plan opens in the editor (asking first when there is unsaved work).
+ * Start a plan from your own catalog and profile, as `haloweave draft` does: drop the catalog and the profile on this
+ * panel (together, or one after the other, in either order; or pick them), type the galaxy's centre, size, shape and
+ * velocity. Its columns and units are found, the usable rows and the alignment stars near the galaxy counted, the goals
+ * chosen and each choice explained here; the drafted plan opens, is solved and shown (asking first when there is
+ * unsaved work). What was typed and given stays in the panel (held by the controller) whatever goes wrong.
  */
-import { useState } from 'react';
+import { useState, type DragEvent } from 'react';
 import type { EditorController } from '../controller';
-import { loadedFileFrom } from '../controller';
-import type { InstrumentProfile } from '../../core/profile/schema';
-import { formatProblem } from '../../core/result';
-import { parseDecDeg, parseRaDeg } from '../../core/sky/sexagesimal';
-import { draftFromFile, type DraftFromFile } from '../io/draftFromFile';
+import { formatProblem, type Problem } from '../../core/result';
+import { badStartFields, START_FIELDS } from '../io/startForm';
 import { Panel } from './Panel';
 
-const CALCIUM_TRIPLET_A = [8498.0, 8542.1, 8662.1];
-
-const FIELDS = [
-  { key: 'id', label: 'name', placeholder: 'my galaxy' },
-  { key: 'ra', label: 'RA', placeholder: '10:47:15.0 or degrees' },
-  { key: 'dec', label: 'Dec', placeholder: '-21:24:18 or degrees' },
-  { key: 're', label: 'Re (″, circularised)', placeholder: '40' },
-  { key: 'q', label: 'axis ratio b/a', placeholder: '0.8' },
-  { key: 'pa', label: 'major-axis PA (°)', placeholder: '35' },
-  { key: 'vsys', label: 'velocity (km/s)', placeholder: '1180' },
-  { key: 'distance', label: 'distance (Mpc, optional)', placeholder: 'from the velocity' },
-  { key: 'muE', label: 'μe (mag/″², optional)', placeholder: 'starlight off' },
-] as const;
-type Key = (typeof FIELDS)[number]['key'];
-
-/** The galaxy from the form, or the fields that are not valid. */
-function galaxyFrom(v: Partial<Record<Key, string>>): { galaxy?: Parameters<typeof draftFromFile>[2]; bad: string[] } {
-  const bad: string[] = [];
-  const ra = parseRaDeg(v.ra ?? ''), dec = parseDecDeg(v.dec ?? '');
-  const num = (k: Key, ok: (x: number) => boolean, optional = false) => {
-    const t = (v[k] ?? '').trim();
-    if (t === '' && optional) return undefined;
-    const x = Number(t);
-    if (t === '' || !Number.isFinite(x) || !ok(x)) bad.push(FIELDS.find((f) => f.key === k)!.label);
-    return x;
-  };
-  if (!ra.ok) bad.push('RA');
-  if (!dec.ok) bad.push('Dec');
-  const reArcsec = num('re', (x) => x > 0), axisRatio = num('q', (x) => x > 0 && x <= 1), paDeg = num('pa', (x) => Math.abs(x) <= 360);
-  const vsysKms = num('vsys', (x) => x >= -1000 && x <= 30000), distanceMpc = num('distance', (x) => x > 0, true), muE = num('muE', (x) => x >= 10 && x <= 35, true);
-  if (bad.length || !ra.ok || !dec.ok) return { bad };
-  return { galaxy: { id: (v.id ?? '').trim() || 'my galaxy', raDeg: ra.value, decDeg: dec.value, reArcsec: reArcsec!, axisRatio: axisRatio!, paDeg: paDeg!, vsysKms: vsysKms!, distanceMpc, muE }, bad };
+function Problems({ list, testId }: { list: readonly Problem[]; testId: string }) {
+  return <>{list.map((p, i) => <p key={i} className="small" role="alert" style={{ color: 'var(--bad)' }} data-testid={testId}>{formatProblem(p)}</p>)}</>;
 }
 
-export function StartPlanPanel({ c, profile }: { c: EditorController; profile: InstrumentProfile }) {
-  const [values, setValues] = useState<Partial<Record<Key, string>>>({});
-  const [file, setFile] = useState<File | null>(null);
-  const [result, setResult] = useState<DraftFromFile | null>(null);
-  const [bad, setBad] = useState<string[]>([]);
-  const start = async () => {
-    const g = galaxyFrom(values);
-    setBad(g.bad);
-    if (!g.galaxy || !file) return;
-    const { file: loaded } = await loadedFileFrom(file);
-    const r = draftFromFile(loaded, profile, g.galaxy, CALCIUM_TRIPLET_A);
-    setResult(r);
-    if (r.planText) c.openPlanText({ name: r.planName, content: r.planText }, loaded, { ask: true, profile });
+export function StartPlanPanel({ c }: { c: EditorController }) {
+  const st = c.start;
+  const [over, setOver] = useState(false);
+  const docProfile = c.store?.doc.profile;
+  const bad = badStartFields(st.formProblems);
+  const r = st.result;
+  const take = (e: DragEvent) => {
+    e.preventDefault();
+    e.stopPropagation(); // the window's drop would open the files for the current plan
+    setOver(false);
+    void c.addStartFiles([...(e.dataTransfer?.files ?? [])]);
   };
   return (
     <Panel title="Start a plan" testId="panel-start-plan" startOpen={false}>
-      <p className="dim small">Your catalog, the instrument above and the galaxy: columns and units are found, goals chosen and explained.</p>
-      {FIELDS.map((f) => (
-        <label key={f.key} className="field">
+      <p className="dim small">Your catalog and your instrument profile, and the galaxy: columns and units are found, goals chosen and explained.</p>
+      <div
+        className={`start-drop ${over ? 'over' : ''}`}
+        data-testid="start-drop"
+        onDragOver={(e) => { e.preventDefault(); e.stopPropagation(); setOver(true); }}
+        onDragLeave={() => setOver(false)}
+        onDrop={take}
+      >
+        <div className="small" data-testid="start-catalog-name">catalog: {st.catalog ? <b>{st.catalog.name}</b> : <span className="dim">drop it here (CSV, TSV, ECSV, VOTable, FITS)</span>}</div>
+        <div className="small" data-testid="start-profile-name">
+          profile: {st.profile
+            ? <><b>{st.profile.profile.id}</b> from {st.profile.fileName} <button className="link" data-testid="start-profile-clear" onClick={() => c.clearStartProfile()}>use {docProfile?.id}</button></>
+            : <span className="dim">{docProfile?.id} (the instrument above), or drop your profile file here</span>}
+        </div>
+        <input type="file" multiple data-testid="start-files" title="pick the catalog and/or the profile"
+          onChange={(e) => { void c.addStartFiles([...(e.target.files ?? [])]); e.target.value = ''; }} />
+      </div>
+      <Problems list={st.fileProblems} testId="start-file-problem" />
+      {st.fileNotes.map((n, i) => <p key={i} className="small" data-testid="start-file-note">{n}</p>)}
+      <div className="form-rows">
+      {START_FIELDS.map((f) => (
+        <label key={f.key} className={`field ${bad.has(f.key) ? 'bad' : ''}`}>
           <span className="field-label">{f.label}</span>
-          <input type="text" data-testid={`start-${f.key}`} placeholder={f.placeholder} value={values[f.key] ?? ''} onChange={(e) => setValues({ ...values, [f.key]: e.target.value })} />
+          <input type="text" data-testid={`start-${f.key}`} placeholder={f.placeholder} aria-invalid={bad.has(f.key)} value={st.values[f.key] ?? ''}
+            onChange={(e) => c.setStartValue(f.key, e.target.value)} />
         </label>
       ))}
-      <input type="file" data-testid="start-catalog" onChange={(e) => setFile(e.target.files?.[0] ?? null)} />
-      <button data-testid="start-plan" disabled={!file} onClick={() => void start()}>Start the plan</button>
-      {bad.length > 0 && <p className="small" style={{ color: 'var(--bad)' }} data-testid="start-bad">check: {bad.join(', ')}</p>}
-      {result?.problems.map((p, i) => <p key={i} className="small" style={{ color: 'var(--bad)' }} data-testid="start-problem">{formatProblem(p)}</p>)}
-      {result?.notes.map((n, i) => <p key={i} className="small dim" data-testid="start-note">{n}</p>)}
-      {result?.choices.map((ch) => <p key={ch.key} className="small" data-testid="start-choice"><b>{ch.key} = {JSON.stringify(ch.value)}</b>: {ch.why}</p>)}
+      </div>
+      <button data-testid="start-plan" onClick={() => c.startPlan()}>Start the plan</button>
+      <Problems list={st.formProblems} testId="start-bad" />
+      {r && <Problems list={r.problems} testId="start-problem" />}
+      {r?.summary && (
+        <div className="small" data-testid="start-summary">
+          <p data-testid="start-summary-catalog">{r.summary.catalog}</p>
+          <p className="dim">columns:</p>
+          <ul>{r.summary.columns.map((l) => <li key={l} data-testid="start-column">{l}</li>)}{r.summary.carried && <li className="dim">{r.summary.carried}</li>}</ul>
+          <p data-testid="start-summary-tracers">{r.summary.tracers}</p>
+          <p data-testid="start-summary-alignment">{r.summary.alignment}</p>
+          <p>{r.summary.profile}</p>
+        </div>
+      )}
+      {r?.notes.map((n, i) => <p key={i} className="small dim" data-testid="start-note">{n}</p>)}
+      {r?.choices.map((ch) => <p key={ch.key} className="small" data-testid="start-choice"><b>{ch.key} = {JSON.stringify(ch.value)}</b>: {ch.why}</p>)}
     </Panel>
   );
 }

@@ -78,3 +78,57 @@ export function asEditedProfile(profile: InstrumentProfile, original: Instrument
   if (!shippedIds.includes(profile.id) || JSON.stringify(profile) === JSON.stringify(original)) return profile;
   return { ...profile, id: `${profile.id}-edited`, label: `${profile.label} (edited)` };
 }
+
+/** Footprint corners as the panel shows them: one corner a line, `x y` in arcsec in the mask frame. */
+export function footprintText(footprint: readonly (readonly number[])[]): string {
+  return footprint.map(([x, y]) => `${x} ${y}`).join('\n');
+}
+
+/** Numbers of one line of a list typed by hand: separated by spaces, commas or semicolons. */
+const numbersOf = (line: string) => line.trim().split(/[\s,;]+/).filter(Boolean).map(Number);
+
+/**
+ * Footprint corners from the panel's text (one `x y` a line, arcsec, mask frame; blank lines skipped), or the problems,
+ * each naming its line. The polygon itself (enough corners, an area) is checked with the rest of the profile.
+ */
+export function parseFootprintText(text: string): { corners: [number, number][] | null; problems: Problem[] } {
+  const corners: [number, number][] = [];
+  const problems: Problem[] = [];
+  text.split(/\r?\n/).forEach((line, i) => {
+    if (line.trim() === '') return;
+    const v = numbersOf(line);
+    if (v.length !== 2 || !v.every(Number.isFinite)) {
+      problems.push({ where: `footprint, line ${i + 1}`, what: `"${line.trim()}" is not one corner`, fix: 'write each corner as two numbers, x and y in arcsec, e.g. -240 180' });
+    } else corners.push([v[0], v[1]]);
+  });
+  return problems.length ? { corners: null, problems } : { corners, problems };
+}
+
+/** Detector gaps as the panel shows them: `p0-p1` pixel ranges separated by commas. */
+export function gapsText(gaps: readonly (readonly number[])[]): string {
+  return gaps.map(([a, b]) => `${a}-${b}`).join(', ');
+}
+
+/** Detector gaps from the panel's text (`p0-p1, p0-p1`, pixels along the dispersion; empty for none), or the problems. */
+export function parseGapsText(text: string): { gaps: [number, number][] | null; problems: Problem[] } {
+  const gaps: [number, number][] = [];
+  const problems: Problem[] = [];
+  for (const part of text.split(',').map((s) => s.trim()).filter(Boolean)) {
+    const m = /^(-?[\d.]+(?:e-?\d+)?)\s*(?:-|to|\.\.)\s*(-?[\d.]+(?:e-?\d+)?)$/i.exec(part);
+    const a = m ? Number(m[1]) : NaN, b = m ? Number(m[2]) : NaN;
+    if (!Number.isFinite(a) || !Number.isFinite(b)) {
+      problems.push({ where: 'detector gaps', what: `"${part}" is not a pixel range`, fix: 'write each gap as first-last pixel, e.g. 2040-2070, gaps separated by commas' });
+    } else gaps.push([a, b]);
+  }
+  return problems.length ? { gaps: null, problems } : { gaps, problems };
+}
+
+/** A copy of the profile with other footprint corners (the original is not touched). */
+export function withFootprint(profile: InstrumentProfile, corners: [number, number][]): InstrumentProfile {
+  return { ...profile, footprint: corners };
+}
+
+/** A copy of the profile with other detector gaps (the original is not touched). */
+export function withGaps(profile: InstrumentProfile, gaps: [number, number][]): InstrumentProfile {
+  return { ...profile, detector: { ...profile.detector, gapsPixels: gaps } };
+}

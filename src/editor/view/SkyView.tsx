@@ -62,6 +62,8 @@ export interface SkyViewProps {
   onPreviewEnd?(): void;
   /** Snap for turning with the handle, degrees (0: off; Shift while turning snaps to 5°). */
   paSnapDeg?: number;
+  /** Centre steps for dragged masks: offsets from the galaxy centre rounded to this, arcsec (0 or absent: exact). */
+  centreSnapArcsec?: number;
   /** Ask the view to bring a sky position (tangent plane about the galaxy centre, arcsec) into view; `n` changes per request. */
   focus?: { xiArcsec: number; etaArcsec: number; n: number } | null;
   /** Receives the camera on every change (used by the benchmark and the read-outs). */
@@ -297,7 +299,10 @@ export function SkyView(props: SkyViewProps) {
       g.x = p.x; g.y = p.y;
       setBoxSel({ x0: g.startX, y0: g.startY, x1: p.x, y1: p.y });
     } else if (g.kind === 'move') {
-      const xi = g.maskXi + (s.xiArcsec - g.startXi), eta = g.maskEta + (s.etaArcsec - g.startEta);
+      // Offsets from the galaxy centre on the centre steps (view/centreSnap.ts), as a typed centre.
+      const step = props.centreSnapArcsec && props.centreSnapArcsec > 0 ? props.centreSnapArcsec : 0;
+      const onStep = (v: number) => (step ? Math.round(v / step) * step : v);
+      const xi = onStep(g.maskXi + (s.xiArcsec - g.startXi)), eta = onStep(g.maskEta + (s.etaArcsec - g.startEta));
       const sky = tangentToSkyDeg(centre, xi, eta);
       const pose = { ...g.pose, raDeg: sky.raDeg, decDeg: sky.decDeg };
       g.pose = pose; g.moved = true;
