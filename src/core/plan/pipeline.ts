@@ -207,7 +207,7 @@ export function solvePlan(inputs: PlanInputs, opts: SolveOptions = {}): PlanSolu
   const weighting = weighPlanTargets(plan, catalog.targets);
   const weights = targetWeights(plan, catalog.targets, warnings, weighting);
   const ctx = plan.instruments?.length
-    ? instrumentsAllocationContext(plan, planProfiles(plan, inputs.profiles ?? {}), galaxy, catalog.targets, weights)
+    ? instrumentsAllocationContext(plan, planProfiles(plan, inputs.profiles ?? {}), galaxy, catalog.targets, weights, inputs.profiles)
     : allocationContext(profile, galaxy, plan.goals.linesA, catalog.targets, weights, lineWindowSettings(plan.goals));
 
   progress(0.1, 'placing masks');

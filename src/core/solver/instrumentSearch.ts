@@ -7,7 +7,7 @@
 import type { PlanFile } from '../plan/schema';
 import { polygonBounds } from '../geometry/polygon';
 import { PMath } from '../numeric/portableMath';
-import { candidateValues, contextFor } from './maskContext';
+import { candidateValues, contextFor, withContextSections } from './maskContext';
 import { placeStarlightAndSky, placeStarlightOnMask, starlightSettings, starlightStage, starlightTaken, type StarlightResult, type StarlightRules, type StarlightStage, type StarlightTrade } from './starlight';
 import type { AllocationContext } from './allocateMasks';
 import type { ProxyMask, SearchEnv } from './pointingSearch';
@@ -23,7 +23,7 @@ export function envFor(env: SearchEnv, mask: Pick<MaskPointing, 'instrument'>): 
   let sub = byId.get(mask.instrument);
   if (!sub) {
     const ctx = contextFor(env.ctx, mask);
-    sub = ctx === env.ctx ? env : { ...env, ctx, starlight: starlightSettings(env.plan.starlight as StarlightRules | undefined, ctx.profile, env.plan) };
+    sub = ctx === env.ctx ? env : { ...env, ctx, starlight: starlightSettings(withContextSections(ctx, env.plan).starlight as StarlightRules | undefined, ctx.profile, env.plan) };
     byId.set(mask.instrument, sub);
   }
   return sub;
@@ -67,7 +67,7 @@ export function placeStarlightForMasks(ctx: AllocationContext, plan: Pick<PlanFi
   const stageOf = (ms: MaskSolution) => {
     const c = contextFor(ctx, ms.mask);
     let st = stages.get(c.profile.id);
-    if (!st) stages.set(c.profile.id, (st = starlightStage(ctx.galaxy, c.profile, plan, trade)));
+    if (!st) stages.set(c.profile.id, (st = starlightStage(ctx.galaxy, c.profile, withContextSections(c, plan), trade)));
     return st;
   };
   const done: MaskSolution[] = [];

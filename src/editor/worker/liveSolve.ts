@@ -26,7 +26,7 @@ import { placeStarlightOnMask, starlightStage, starlightTaken, type StarlightSta
 import type { MaskPointing, MaskSolution } from '../../core/solver/types';
 import type { SolveResult } from './protocol';
 import { instrumentsAllocationContext } from '../../core/solver/instrumentContexts';
-import { contextFor } from '../../core/solver/maskContext';
+import { contextFor, withContextSections } from '../../core/solver/maskContext';
 import { planProfiles, planWithMaskInstruments } from '../../core/plan/instruments';
 
 interface LiveCache {
@@ -56,9 +56,9 @@ function planKey(plan: PlanFile): string {
 
 /** The starlight stage of mask `ms`'s own profile, made once per profile. */
 function stageOf(c: LiveCache, ms: MaskSolution, plan: PlanFile): StarlightStage {
-  const { profile } = contextFor(c.ctx, ms.mask);
-  let st = c.stages.get(profile.id);
-  if (!st) c.stages.set(profile.id, (st = starlightStage(c.galaxy, profile, plan, c.trade)));
+  const own = contextFor(c.ctx, ms.mask);
+  let st = c.stages.get(own.profile.id);
+  if (!st) c.stages.set(own.profile.id, (st = starlightStage(c.galaxy, own.profile, withContextSections(own, plan), c.trade)));
   return st;
 }
 
@@ -88,7 +88,7 @@ export function liveSolve(planIn: PlanFile, profile: InstrumentProfile, catalog:
     const weightWarnings: string[] = [];
     const weights = targetWeights(plan, catalog.targets, weightWarnings);
     const ctx = plan.instruments?.length
-      ? instrumentsAllocationContext(plan, planProfiles(plan, profiles ?? {}), galaxy, catalog.targets, weights)
+      ? instrumentsAllocationContext(plan, planProfiles(plan, profiles ?? {}), galaxy, catalog.targets, weights, profiles)
       : allocationContext(profile, galaxy, plan.goals.linesA, catalog.targets, weights, lineWindowSettings(plan.goals));
     // Every mask placed (the case while dragging): allocate for the pointings as given, without a search.
     const given = givenPointings(plan);
