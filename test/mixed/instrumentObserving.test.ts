@@ -107,3 +107,31 @@ describe('observing settings per spectrograph', () => {
     expect(f(long, 'ridge10-narrow')).toBe(f(plain, 'ridge10-narrow'));
   });
 });
+
+describe('haloweave sky with an airmass limit per spectrograph', () => {
+  it('each site\'s dark hours below the airmass limit use its own instruments[].observing.maxAirmass', async () => {
+    const { mkdtempSync, writeFileSync, readFileSync } = await import('node:fs');
+    const { tmpdir } = await import('node:os');
+    const { join } = await import('node:path');
+    const { cli, ROOT } = await import('../cli/runCli');
+    const dir = mkdtempSync(join(tmpdir(), 'hw-sky-airmass-'));
+    const example = JSON.parse(readFileSync(join(ROOT, 'examples/mixed/two-telescopes.plan.json'), 'utf8'));
+    const nights = (instruments: unknown) => {
+      writeFileSync(join(dir, 'p.plan.json'), JSON.stringify({ ...example, catalog: join(ROOT, 'examples/mixed', example.catalog), instruments }));
+      const r = cli(['sky', join(dir, 'p.plan.json'), '--from', '2027-03-01', '--to', '2027-03-03', '--json'], dir);
+      expect(r.code, r.err).toBe(0);
+      return JSON.parse(r.out) as { instrument: string; darkHours: number; minAirmass: number }[];
+    };
+    const plain = nights([{ profile: 'ridge10-narrow', masks: 2 }, { profile: 'broad65-wide', masks: 2 }]);
+    const strict = nights([{ profile: 'ridge10-narrow', masks: 2 }, { profile: 'broad65-wide', masks: 2, observing: { maxAirmass: 1.1 } }]);
+    const of = (rows: typeof plain, id: string) => rows.filter((r) => r.instrument === id);
+    // The narrow field's site is unchanged; the wide field's hours shrink to the time spent below airmass 1.1.
+    expect(of(strict, 'ridge10-narrow')).toStrictEqual(of(plain, 'ridge10-narrow'));
+    of(strict, 'broad65-wide').forEach((r, k) => {
+      const p = of(plain, 'broad65-wide')[k];
+      expect(r.minAirmass).toBeLessThan(1.1); // the galaxy passes near the zenith there (dec -21.4, latitude -27.8)
+      expect(r.darkHours).toBeLessThan(p.darkHours);
+      expect(r.darkHours).toBeGreaterThan(0);
+    });
+  });
+});
