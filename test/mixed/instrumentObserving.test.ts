@@ -135,3 +135,22 @@ describe('haloweave sky with an airmass limit per spectrograph', () => {
     });
   });
 });
+
+describe('the spectral report of a plan with several spectrographs', () => {
+  it('gives each mask the usable x range of its own profile\'s footprint and detector, and one block per spectrograph', async () => {
+    const { solveMixed } = await import('./mixedCase');
+    const { spectralSummaryLines } = await import('../../src/core/spectro/spectralReport');
+    const c = solveMixed({ seed: 29, candidates: 800 }, [{ profile: narrow, masks: 1 }, { profile: wide, masks: 1 }]);
+    const r = c.solution.spectralReport!;
+    expect(r.instruments!.map((p) => p.profileId)).toStrictEqual(['ridge10-narrow', 'broad65-wide']);
+    const xExtent = (p: typeof narrow) => [Math.min(...p.footprint.map((q) => q[0])), Math.max(...p.footprint.map((q) => q[0]))];
+    for (const m of c.solution.masks) {
+      const own = m.mask.instrument === 'broad65-wide' ? wide : narrow;
+      const row = r.masks.find((x) => x.maskId === m.mask.id)!;
+      // The footprint's x extent read from the profile file.
+      expect(row.footprintXArcsec).toStrictEqual(xExtent(own));
+    }
+    const text = spectralSummaryLines(r).join('\n');
+    expect(text.match(/^spectral windows .* instrument (\S+) /gm)!.map((l) => l.split(' instrument ')[1].split(' ')[0])).toStrictEqual(['ridge10-narrow', 'broad65-wide']);
+  });
+});
