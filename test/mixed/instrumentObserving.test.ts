@@ -79,6 +79,8 @@ describe('observing settings per spectrograph', () => {
     expect(lines).toContain('1.00 h, S/N per A');
     const wideId = [...instrumentOf].find(([, v]) => v === 'broad65-wide')![0];
     expect(lines).toMatch(new RegExp(`${wideId}: designed for .*4\\.00 h exposure`));
+    // The wide field's own airmass limit is named beside its masks (the heading gives the narrow field's 2).
+    expect(lines).toMatch(new RegExp(`broad65-wide \\(masks ${wideId}\\): seeing 0\\.8" FWHM, guide \\d+ A, airmass <= 1\\.5`));
 
     // A longer exposure on the wide field makes its tracers worth more there: the same plan without it gives the
     // wide-field context lower values for faint tracers.

@@ -162,9 +162,16 @@ export function formatRefractionSummary(report: ObservingReport): string[] {
     `Differential refraction (seeing ${s.seeingFwhmArcsec}" FWHM, slits cut at ${(s.designWavelengthA ?? s.guideWavelengthA).toFixed(0)} A, guide ${s.guideWavelengthA.toFixed(0)} A, ` +
       `science ${s.scienceRangeA[0].toFixed(0)}-${s.scienceRangeA[1].toFixed(0)} A, tracer slits losing < ${(s.maxLossFraction * 100).toFixed(0)} %, airmass <= ${s.maxAirmass}):`,
   ];
-  // A report over several spectrographs carries each one's settings (observe/instrumentsReport.ts): each mask's own exposure.
-  const parts = (report as { instruments?: { maskIds: string[]; settings: ObservingSettings }[] }).instruments;
+  // A report over several spectrographs carries each one's settings (observe/instrumentsReport.ts): each mask's own exposure,
+  // and each spectrograph's seeing, guider and airmass limit when they differ from the heading's.
+  const parts = (report as { instruments?: { instrument: string; maskIds: string[]; settings: ObservingSettings }[] }).instruments;
   const exposureOf = (maskId: string) => parts?.find((p) => p.maskIds.includes(maskId))?.settings.exposureTimeS ?? s.exposureTimeS;
+  for (const p of parts ?? []) {
+    const o = p.settings;
+    if (o.seeingFwhmArcsec !== s.seeingFwhmArcsec || o.guideWavelengthA !== s.guideWavelengthA || o.maxAirmass !== s.maxAirmass) {
+      lines.push(`  ${p.instrument} (masks ${p.maskIds.join(', ')}): seeing ${o.seeingFwhmArcsec}" FWHM, guide ${o.guideWavelengthA.toFixed(0)} A, airmass <= ${o.maxAirmass}`);
+    }
+  }
   for (const m of report.masks) {
     const w = m.hourAngleWindowH;
     const where = (w === null ? 'no hour-angle window' : `hour-angle window ${fmtH(w[0])} to ${fmtH(w[1])}`) + (m.windowNote ? ` (${m.windowNote})` : '');
