@@ -23,7 +23,9 @@ export function envFor(env: SearchEnv, mask: Pick<MaskPointing, 'instrument'>): 
   let sub = byId.get(mask.instrument);
   if (!sub) {
     const ctx = contextFor(env.ctx, mask);
-    sub = ctx === env.ctx ? env : { ...env, ctx, starlight: starlightSettings(withContextSections(ctx, env.plan).starlight as StarlightRules | undefined, ctx.profile, env.plan) };
+    // The plan's first profile shares the plan's environment unless its own settings change the starlight exposure.
+    const starlight = withContextSections(ctx, env.plan).starlight;
+    sub = ctx === env.ctx && starlight === env.plan.starlight ? env : { ...env, ctx, starlight: starlightSettings(starlight as StarlightRules | undefined, ctx.profile, env.plan) };
     byId.set(mask.instrument, sub);
   }
   return sub;

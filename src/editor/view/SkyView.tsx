@@ -229,7 +229,7 @@ export function SkyView(props: SkyViewProps) {
       const pa = (m.paDeg * Math.PI) / 180, dx = xiArcsec - c.xiArcsec, dy = etaArcsec - c.etaArcsec;
       // Mask frame of the contract: y = xi sin PA + eta cos PA, x = xi cos PA - eta sin PA (offsets from the centre).
       // Each mask's own footprint (plan key instruments): a wide field is picked where it extends beyond a narrow one.
-      const polygon = maskFootprint(profile, m.instrument === profile.id ? undefined : m.instrument).polygon;
+      const polygon = maskFootprint(profile, m.instrument).polygon;
       if (pointInPolygon(dx * Math.cos(pa) - dy * Math.sin(pa), dx * Math.sin(pa) + dy * Math.cos(pa), polygon)) out.push(m.id);
     }
     return out;
