@@ -106,9 +106,14 @@ export function App({ controller: c }: { controller: EditorController }) {
   const focus = session.focus;
   const skyFocus = useMemo(() => (focus && geometry && focus.index < geometry.count
     ? { xiArcsec: geometry.xiArcsec[focus.index], etaArcsec: geometry.etaArcsec[focus.index], n: focus.n } : null), [focus, geometry]);
+  // Each mask's spectrograph (plan key instruments): its own `instrument`, else the one the share-out gave it in the solve.
+  const solvedInstrument = new Map(solvedMasks.map((m) => [m.mask.id, m.mask.instrument]));
   const poses: MaskPose[] = (doc?.plan.masks ?? [])
     .filter((m) => m.raDeg !== undefined && m.decDeg !== undefined)
-    .map((m) => ({ id: m.id, raDeg: m.raDeg!, decDeg: m.decDeg!, paDeg: m.paDeg ?? 0, locked: !!m.locked, ...(m.instrument !== undefined ? { instrument: m.instrument } : {}) }));
+    .map((m) => {
+      const instrument = m.instrument ?? (doc?.plan.instruments ? solvedInstrument.get(m.id) : undefined);
+      return { id: m.id, raDeg: m.raDeg!, decDeg: m.decDeg!, paDeg: m.paDeg ?? 0, locked: !!m.locked, ...(instrument !== undefined ? { instrument } : {}) };
+    });
   const slitTotal = solvedMasks.reduce((n, m) => n + m.slits.length, 0);
 
   return (

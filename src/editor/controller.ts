@@ -628,7 +628,10 @@ function placementsOf(plan: PlanFile, solved: PlanFile, askedFor: PlanFile | nul
     if (g && askedFor && g !== asked.get(s.id) && maskPlaced(g)) return g;
     // The placement only (the mask's other keys and lock kept): what else the solve wrote on a mask (its hour-angle
     // window) is output, not plan input.
-    return { ...(g ?? {}), id: s.id, raDeg: s.raDeg, decDeg: s.decDeg, paDeg: s.paDeg, locked: g?.locked ?? false };
+    // A plan with several spectrographs: the spectrograph the share-out gave the mask becomes its own, so the document
+    // draws and keeps it (and a later change of another mask's instrument does not move this one).
+    const instrument = g?.instrument ?? (plan.instruments?.length ? s.instrument : undefined);
+    return { ...(g ?? {}), id: s.id, raDeg: s.raDeg, decDeg: s.decDeg, paDeg: s.paDeg, locked: g?.locked ?? false, ...(instrument !== undefined ? { instrument } : {}) };
   });
 }
 

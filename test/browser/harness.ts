@@ -2,7 +2,7 @@
  * Browser test harness: Vite's dev server started in-process on a free port, and Debian's chromium
  * driven by playwright-core in a fresh context (nothing downloads a browser).
  */
-import { afterAll, beforeAll } from 'vitest';
+import { afterAll, beforeAll, expect } from 'vitest';
 import { createServer, type ViteDevServer } from 'vite';
 import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
 import { fileURLToPath } from 'node:url';
@@ -146,6 +146,23 @@ export function demoOnDisk(): { planPath: string; catalogPath: string; catalogNa
 export function runCli(args: string[]): { status: number; stdout: string; stderr: string } {
   const r = spawnSync(process.execPath, [join(ROOT, 'bin/haloweave.js'), ...args], { cwd: ROOT, encoding: 'utf8', timeout: 240_000 });
   return { status: r.status ?? -1, stdout: r.stdout, stderr: r.stderr };
+}
+
+/**
+ * An exported output folder (its catalog beside it) passes `haloweave check`, holds the `shown` numbers, and
+ * `haloweave plan` on its solved.plan.json writes the very same masks.csv, slits.csv and coverage.json: the editor's
+ * worker and the command line run the same src/core, whose transcendental functions are engine-independent
+ * (src/core/numeric/portableMath.ts). Returns the command line's folder.
+ */
+export function expectFolderAgreesWithCli(dir: string, shown: ReturnType<typeof numbersOfOutput>): string {
+  const check = runCli(['check', dir]);
+  expect(check.status, check.stderr + check.stdout).toBe(0);
+  expect(numbersOfOutput(readFileSync(join(dir, 'slits.csv'), 'utf8'), readFileSync(join(dir, 'coverage.json'), 'utf8'))).toStrictEqual(shown);
+  const again = mkdtempSync(join(tmpdir(), 'hw-again-'));
+  const r = runCli(['plan', join(dir, 'solved.plan.json'), '--out', again, '--quiet']);
+  expect(r.status, r.stderr).toBe(0);
+  for (const f of ['masks.csv', 'slits.csv', 'coverage.json']) expect(readFileSync(join(again, f), 'utf8'), f).toBe(readFileSync(join(dir, f), 'utf8'));
+  return again;
 }
 
 /** Slit counts per role from a slits.csv text and reach per role from a coverage.json text (as the CLI writes them). */

@@ -11,6 +11,7 @@ import { optionText, parseArgs, unknownOptions } from '../args';
 import { writeFileAtomic } from '../atomicWrite';
 import { parseMasksCsv, parseSlitsCsv } from '../../core/export/slitsCsv';
 import { slitTable } from '../../core/export/slitTable';
+import { perInstrumentPath, slitTablesByInstrument } from '../../core/export/perInstrument';
 import type { OutputTable } from '../../core/export/outputTable';
 import { outputTableToCsv } from '../../core/export/csvText';
 import { writeEcsv } from '../../core/export/ecsvWriter';
@@ -28,14 +29,6 @@ export const EXPORT_FORMATS: Record<string, (t: OutputTable) => string | Uint8Ar
 };
 
 const USAGE = 'usage: haloweave export DIR --format csv|ecsv|votable|fits|json --out FILE [--per-instrument]';
-
-/** FILE with `-<instrument id>` before its extension (slits.fits -> slits-ridge10-narrow.fits): one slit list per instrument. */
-export function perInstrumentPath(file: string, instrument: string): string {
-  const safe = instrument.replace(/[^A-Za-z0-9._-]+/g, '_');
-  const m = /^(.*?)(\.[A-Za-z0-9]+)?$/.exec(file)!;
-  const slash = Math.max(file.lastIndexOf('/'), file.lastIndexOf('\\'));
-  return m[2] && file.length - m[2].length > slash + 1 ? `${m[1]}-${safe}${m[2]}` : `${file}-${safe}`;
-}
 
 /** Read DIR/slits.csv and DIR/masks.csv into the slit-list table (throws InputError naming file, line and column). */
 export function readOutputFolderTable(dir: string): OutputTable {
@@ -111,19 +104,16 @@ export async function run(argv: string[], io: CliIO): Promise<number> {
     // One slit list per instrument: the rows of its masks, its own metadata (masks, slits, instrument).
     const slits = parseSlitsCsv(readFileSync(join(dir!, 'slits.csv'), 'utf8'), join(dir!, 'slits.csv'));
     const masks = parseMasksCsv(readFileSync(join(dir!, 'masks.csv'), 'utf8'), join(dir!, 'masks.csv'));
-    const instruments = [...new Set(masks.map((m) => m.instrument))];
-    const clashes = instruments.flatMap((i) => outProblems(perInstrumentPath(out!, i), dir!));
+    const parts = slitTablesByInstrument(slits, masks);
+    const clashes = parts.flatMap((p) => outProblems(perInstrumentPath(out!, p.instrument), dir!));
     if (clashes.length) {
       for (const e of clashes) io.err(`haloweave export: ${e}`);
       return 2;
     }
-    for (const instrument of instruments) {
-      const own = masks.filter((m) => m.instrument === instrument);
-      const ids = new Set(own.map((m) => m.maskId));
-      const part = slitTable(slits.filter((s) => ids.has(s.maskId)), own);
-      const file = perInstrumentPath(out!, instrument);
-      withFsProblems(`--out ${file}`, 'cannot write the exported file', () => writeFileAtomic(file, write(part)));
-      io.out(`wrote ${part.rows.length} slits of ${own.length} masks of ${instrument} to ${file} (${format!.toLowerCase()})`);
+    for (const part of parts) {
+      const file = perInstrumentPath(out!, part.instrument);
+      withFsProblems(`--out ${file}`, 'cannot write the exported file', () => writeFileAtomic(file, write(part.table)));
+      io.out(`wrote ${part.table.rows.length} slits of ${part.masks} masks of ${part.instrument} to ${file} (${format!.toLowerCase()})`);
     }
     return 0;
   }

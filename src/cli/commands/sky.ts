@@ -1,7 +1,8 @@
 /**
  * `haloweave sky PLAN --from DATE --to DATE [--max-airmass X] [--step-min N] [--json [--curve]]`: observability of the
  * plan's galaxy from its profile's site, one row a night (the local evening's date). Times are UTC. The airmass limit
- * defaults to the plan's observing.maxAirmass, else 2; --curve adds each night's sampled altitude/airmass to the JSON.
+ * defaults to the plan's observing.maxAirmass (in a plan with several spectrographs, each one's instruments[].observing
+ * value over it), else 2; --curve adds each night's sampled altitude/airmass to the JSON.
  */
 import { existsSync, readFileSync, statSync } from 'node:fs';
 import { dirname, resolve } from 'node:path';
@@ -12,7 +13,7 @@ import { parsePlanText, galaxyModel } from '../../core/plan/validate';
 import type { GalaxyModel } from '../../core/plan/schema';
 import type { InstrumentProfile } from '../../core/profile/schema';
 import { loadProfile, namedProfiles } from '../loadPlanInputs';
-import { planProfiles } from '../../core/plan/instruments';
+import { instrumentSections, planProfiles } from '../../core/plan/instruments';
 import { nightRows, nightTable, type NightRow } from '../../core/observe/night';
 import { parseDateText, observabilityVerdict } from '../../core/observe/observability';
 
@@ -21,7 +22,7 @@ const OPTIONS = ['from', 'to', 'max-airmass', 'step-min', 'json', 'curve'];
 const MAX_NIGHTS = 3660;
 
 /** Read the plan (validated) and its (first) profile, with every profile of a plan with several; the catalog is not needed here. */
-export function loadPlanAndProfile(planPathArg: string): { galaxy: GalaxyModel; profile: InstrumentProfile; profileId: string; profiles: InstrumentProfile[]; planMaxAirmass?: number } {
+export function loadPlanAndProfile(planPathArg: string): { galaxy: GalaxyModel; profile: InstrumentProfile; profileId: string; profiles: InstrumentProfile[]; planMaxAirmass?: number; maxAirmassOf: (profileId: string) => number | undefined } {
   const planPath = resolve(planPathArg);
   if (!existsSync(planPath) || !statSync(planPath).isFile()) {
     throw new InputError([{ where: planPathArg, what: 'plan file not found', fix: 'give the path of a *.plan.json file' }]);
@@ -30,7 +31,9 @@ export function loadPlanAndProfile(planPathArg: string): { galaxy: GalaxyModel; 
   const loaded: Record<string, InstrumentProfile> = {};
   for (const { ref, where } of namedProfiles(plan, planPathArg)) loaded[ref] ??= loadProfile(ref, dirname(planPath), where).profile;
   const profiles = planProfiles(plan, loaded, planPathArg);
-  return { galaxy: galaxyModel(plan), profile: profiles[0], profileId: profiles[0].id, profiles, planMaxAirmass: plan.observing?.maxAirmass };
+  // Several spectrographs: each one's own observing.maxAirmass (instruments[].observing) over the plan's.
+  const maxAirmassOf = (profileId: string) => instrumentSections(plan, profileId, loaded).observing?.maxAirmass;
+  return { galaxy: galaxyModel(plan), profile: profiles[0], profileId: profiles[0].id, profiles, planMaxAirmass: plan.observing?.maxAirmass, maxAirmassOf };
 }
 
 /** Options of the command, every problem reported at once. */
@@ -105,13 +108,13 @@ export function formatNightTable(rows: NightRow[], maxAirmass: number): string[]
 /** Run `haloweave sky`; exit 0 also when the galaxy is not observable (that is a result, not an error). */
 export async function run(argv: string[], io: CliIO): Promise<number> {
   const opts = readOptions(argv);
-  const { galaxy, profiles, planMaxAirmass } = loadPlanAndProfile(opts.planPath);
+  const { galaxy, profiles, planMaxAirmass, maxAirmassOf } = loadPlanAndProfile(opts.planPath);
   const o = { ...opts, maxAirmass: opts.maxAirmass ?? planMaxAirmass ?? 2 };
   if (profiles.length === 1) return siteNights(io, galaxy, profiles[0], o, null);
   // Several spectrographs: each site in turn; JSON rows name their instrument and site.
   const all: object[] = [];
   for (const p of profiles) {
-    siteNights(o.json ? { out: () => {}, err: io.err } : io, galaxy, p, o, all);
+    siteNights(o.json ? { out: () => {}, err: io.err } : io, galaxy, p, { ...o, maxAirmass: opts.maxAirmass ?? maxAirmassOf(p.id) ?? 2 }, all);
     if (!o.json) io.out('');
   }
   if (o.json) io.out(JSON.stringify(all, null, 2));

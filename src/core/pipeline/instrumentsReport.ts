@@ -6,7 +6,7 @@
 import type { GalaxyModel, PlanFile } from '../plan/schema';
 import type { InstrumentProfile } from '../profile/schema';
 import type { AllocationContext } from '../solver/allocateMasks';
-import { contextFor } from '../solver/maskContext';
+import { contextFor, withContextSections } from '../solver/maskContext';
 import type { MaskSolution } from '../geometry/maskSolution';
 import { observingReportForPlan, type ObservingReport } from './refractionReport';
 import type { ObservingSettings } from '../observe/observingSettings';
@@ -28,14 +28,15 @@ export interface InstrumentsObservingReport extends ObservingReport {
 /** The observing report of solved masks, each at its own profile's site (see the module comment). */
 export function observingReportForMasks(plan: PlanFile, ctx: AllocationContext, galaxy: GalaxyModel, masks: MaskSolution[]): InstrumentsObservingReport {
   if (!ctx.byInstrument) return observingReportForPlan(plan, ctx.profile, galaxy, masks);
-  const groups = new Map<string, { profile: InstrumentProfile; masks: MaskSolution[] }>();
+  const groups = new Map<string, { profile: InstrumentProfile; plan: PlanFile; masks: MaskSolution[] }>();
   for (const ms of masks) {
-    const profile = contextFor(ctx, ms.mask).profile;
-    const g = groups.get(profile.id) ?? { profile, masks: [] };
+    const own = contextFor(ctx, ms.mask), profile = own.profile;
+    // Each spectrograph's own observing settings (instruments[].observing over the plan's).
+    const g = groups.get(profile.id) ?? { profile, plan: withContextSections(own, plan), masks: [] };
     g.masks.push(ms);
     groups.set(profile.id, g);
   }
-  const parts = [...groups.values()].map((g) => ({ g, report: observingReportForPlan(plan, g.profile, galaxy, g.masks) }));
+  const parts = [...groups.values()].map((g) => ({ g, report: observingReportForPlan(g.plan, g.profile, galaxy, g.masks) }));
   const order = new Map(masks.map((m, i) => [m.mask.id, i]));
   const byOrder = <T extends { maskId: string }>(rows: T[]) => rows.sort((a, b) => order.get(a.maskId)! - order.get(b.maskId)!);
   return {

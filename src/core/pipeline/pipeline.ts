@@ -22,7 +22,7 @@ import { startLayouts, searchEnv, searchPointings, starlightTrade, type SearchRe
 import { objectiveContext } from '../solver/objective';
 import { withObservingReport, type ObservingReport } from './refractionReport';
 import { lineWindowSettings } from '../profile/wavelength';
-import { spectralReport, type SpectralReport } from '../spectro/spectralReport';
+import { spectralReportForGroups, type SpectralReport } from '../spectro/spectralReport';
 import { instrumentsAllocationContext } from '../solver/instrumentContexts';
 import { instrumentsCrossLayout } from '../solver/instrumentLayout';
 import { placeStarlightForMasks } from '../solver/instrumentSearch';
@@ -187,6 +187,18 @@ export function lengthenMasks(plan: PlanFile, planProfile: InstrumentProfile, ma
   });
 }
 
+/** The masks of each profile (first use first); one group of every mask with one profile. */
+function maskGroupsByProfile(ctx: AllocationContext, pointings: readonly MaskPointing[]): { profile: InstrumentProfile; maskIds: string[] }[] {
+  const groups = new Map<string, { profile: InstrumentProfile; maskIds: string[] }>();
+  for (const p of pointings) {
+    const profile = contextFor(ctx, p).profile;
+    const g = groups.get(profile.id) ?? { profile, maskIds: [] };
+    g.maskIds.push(p.id);
+    groups.set(profile.id, g);
+  }
+  return groups.size ? [...groups.values()] : [{ profile: ctx.profile, maskIds: [] }];
+}
+
 // ---- the solved plan file -----------------------------------------------------------------------------------
 
 /** The plan with every mask placed, keeping each mask's other keys. */
@@ -209,7 +221,7 @@ export function solvePlan(inputs: PlanInputs, opts: SolveOptions = {}): PlanSolu
   const weighting = weighPlanTargets(plan, catalog.targets);
   const weights = targetWeights(plan, catalog.targets, warnings, weighting);
   const ctx = plan.instruments?.length
-    ? instrumentsAllocationContext(plan, planProfiles(plan, inputs.profiles ?? {}), galaxy, catalog.targets, weights)
+    ? instrumentsAllocationContext(plan, planProfiles(plan, inputs.profiles ?? {}), galaxy, catalog.targets, weights, inputs.profiles)
     : allocationContext(profile, galaxy, plan.goals.linesA, catalog.targets, weights, lineWindowSettings(plan.goals));
 
   progress(0.1, 'placing masks');
@@ -253,7 +265,7 @@ export function solvePlan(inputs: PlanInputs, opts: SolveOptions = {}): PlanSolu
     observingReport = observingReportForMasks(plan, ctx, galaxy, masks);
     solved = withObservingReport(solved, observingReport);
   }
-  const spectral = spectralReport(plan, profile, pointings.map((p) => p.id));
+  const spectral = spectralReportForGroups(plan, maskGroupsByProfile(ctx, pointings), pointings.map((p) => p.id));
   progress(1, 'done');
   return { plan: solved, galaxy, masks, coverage, goals, warnings, problems: alloc.problems, weighting, search: placed.search, observingReport, spectralReport: spectral, stats };
 }

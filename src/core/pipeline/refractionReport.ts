@@ -164,19 +164,32 @@ export function formatRefractionSummary(report: ObservingReport): string[] {
     `Differential refraction (seeing ${s.seeingFwhmArcsec}" FWHM, slits cut at ${(s.designWavelengthA ?? s.guideWavelengthA).toFixed(0)} A, guide ${s.guideWavelengthA.toFixed(0)} A, ` +
       `science ${s.scienceRangeA[0].toFixed(0)}-${s.scienceRangeA[1].toFixed(0)} A, tracer slits losing < ${(s.maxLossFraction * 100).toFixed(0)} %, airmass <= ${s.maxAirmass}):`,
   ];
+  // A report over several spectrographs carries each one's settings (observe/instrumentsReport.ts): each mask's own exposure,
+  // and each spectrograph's seeing, guider and airmass limit when they differ from the heading's.
+  const parts = (report as { instruments?: { instrument: string; maskIds: string[]; settings: ObservingSettings }[] }).instruments;
+  const exposureOf = (maskId: string) => parts?.find((p) => p.maskIds.includes(maskId))?.settings.exposureTimeS ?? s.exposureTimeS;
+  for (const p of parts ?? []) {
+    const o = p.settings;
+    if (o.seeingFwhmArcsec !== s.seeingFwhmArcsec || o.guideWavelengthA !== s.guideWavelengthA || o.maxAirmass !== s.maxAirmass) {
+      lines.push(`  ${p.instrument} (masks ${p.maskIds.join(', ')}): seeing ${o.seeingFwhmArcsec}" FWHM, guide ${o.guideWavelengthA.toFixed(0)} A, airmass <= ${o.maxAirmass}`);
+    }
+  }
   for (const m of report.masks) {
     const w = m.hourAngleWindowH;
     const where = (w === null ? 'no hour-angle window' : `hour-angle window ${fmtH(w[0])} to ${fmtH(w[1])}`) + (m.windowNote ? ` (${m.windowNote})` : '');
-    const fit = exposureFit(w, s.exposureTimeS).text;
+    const fit = exposureFit(w, exposureOf(m.maskId)).text;
     lines.push(`  ${m.maskId}: designed for HA ${fmtH(m.designHourAngleH)}${m.designHourAngleChosen ? ' (chosen for the longest window)' : ''}; ${where}; ${fit}; ${m.windowSlitCount} tracer slits`);
   }
   if (report.exposures?.length) {
     const e0 = report.exposures[0];
-    lines.push(`Exposure estimate (${(e0.exposureTimeS / 3600).toFixed(2)} h, S/N per A at ${e0.wavelengthA.toFixed(0)} A, target ${e0.targetSnPerA}):`);
+    // One exposure time and target for all masks in the heading; each mask's own when its spectrograph has others.
+    const same = report.exposures.every((e) => e.exposureTimeS === e0.exposureTimeS && e.targetSnPerA === e0.targetSnPerA && e.wavelengthA === e0.wavelengthA);
+    const setup = (e: typeof e0) => `${(e.exposureTimeS / 3600).toFixed(2)} h, S/N per A at ${e.wavelengthA.toFixed(0)} A, target ${e.targetSnPerA}`;
+    lines.push(same ? `Exposure estimate (${setup(e0)}):` : 'Exposure estimate (each mask with its own spectrograph\'s exposure time and target):');
     for (const e of report.exposures) {
       const n = e.slits.filter((s) => s.role === 'tracer').length;
       const med = e.medianTracerSnPerA === null ? 'no tracer slits' : `median tracer S/N ${e.medianTracerSnPerA.toFixed(1)}`;
-      lines.push(`  ${e.maskId}: ${med}; ${e.tracersReachingTarget} of ${n} tracers reach the target`);
+      lines.push(`  ${e.maskId}: ${same ? '' : `${setup(e)}; `}${med}; ${e.tracersReachingTarget} of ${n} tracers reach the target`);
     }
   }
   if (report.starlightBins) lines.push(...starlightBinLines(report.starlightBins.bins, report.starlightBins.targetSnPerA, report.starlightBins.skySystematicFraction));

@@ -100,6 +100,26 @@ export function planWithMaskInstruments(plan: PlanFile, profiles: Readonly<Recor
   return { ...plan, masks: ids.map((id, k) => ({ ...(given.get(id) ?? { id }), instrument: profiles[refs[k]]?.id ?? refs[k] })) };
 }
 
+/** The plan's entry for spectrograph `profileId` (plan key instruments): the first naming that id or a file of that profile. */
+export function instrumentEntry(plan: Pick<PlanFile, 'instruments'>, profileId: string, profiles: Readonly<Record<string, InstrumentProfile>> = {}): NonNullable<PlanFile['instruments']>[number] | undefined {
+  return plan.instruments?.find((e) => e.profile === profileId || profiles[e.profile]?.id === profileId);
+}
+
+/**
+ * The plan's `observing` and `starlight` sections as the masks of spectrograph `profileId` see them: the entry's own
+ * `observing` keys over the plan's (key by key; a `moon` given there replaces the plan's whole), and its exposure time,
+ * when it gives one, also the starlight exposure of its masks (a mask is one exposure). The plan's own sections when
+ * the entry gives no `observing`.
+ */
+export function instrumentSections(plan: Pick<PlanFile, 'instruments' | 'observing' | 'starlight'>, profileId: string, profiles: Readonly<Record<string, InstrumentProfile>> = {}): Pick<PlanFile, 'observing' | 'starlight'> {
+  const own = instrumentEntry(plan, profileId, profiles)?.observing;
+  if (!own) return { observing: plan.observing, starlight: plan.starlight };
+  return {
+    observing: { ...plan.observing, ...own },
+    starlight: own.exposureTimeS !== undefined ? { ...plan.starlight, exposureS: own.exposureTimeS } : plan.starlight,
+  };
+}
+
 /** The distinct profiles of a plan, in the order its references list them (problems when two files share an id). */
 export function planProfiles(plan: PlanFile, profiles: Readonly<Record<string, InstrumentProfile>>, source = 'plan'): InstrumentProfile[] {
   const out: InstrumentProfile[] = [];

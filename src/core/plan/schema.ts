@@ -65,10 +65,17 @@ export const planMaskSchema = z.looseObject({
   instrument: z.string().min(1, 'name one of the plan\'s instruments (profile id or path)').optional(),
 });
 
+/** The observing keys one spectrograph of a mixed plan may set for its own masks (plan/instruments.ts instrumentSections). */
+export const instrumentObservingSchema = observingSchema.pick({
+  exposureTimeS: true, targetSnPerA: true, seeingFwhmArcsec: true, maxAirmass: true, moon: true, skySystematicFraction: true, guideWavelengthA: true,
+});
+
 /** One spectrograph of a mixed plan (contract revision 2): a profile id or path, and how many masks it takes. */
 export const planInstrumentSchema = z.looseObject({
   profile: z.string().min(1, 'name a profile id or a path to a profile file'),
   masks: z.number().int('must be a whole number of masks').min(0).max(50),
+  /** Observing settings of this spectrograph's masks (exposure time, target S/N, seeing...), over the plan's `observing`. */
+  observing: instrumentObservingSchema.optional(),
 });
 
 export const columnMappingSchema = z.looseObject({

@@ -15,10 +15,11 @@ import type { InstrumentProfile } from '../profile/schema';
 import { allocationContext, type AllocationContext } from './allocateMasks';
 import { lineWindowSettings } from '../profile/wavelength';
 import { starlightSettings } from './starlight';
-import type { StarlightRules } from '../plan/starlightSection';
+import { type StarlightRules } from '../plan/starlightSection';
 import { resolveObservingSettings } from '../observe/observingSettings';
-import type { ObservingSection } from '../plan/observingSection';
+import { type ObservingSection } from '../plan/observingSection';
 import { exposureModelOf, tracerExposure, type ExposureModel } from './exposure';
+import { instrumentSections } from '../plan/instruments';
 
 /** The tracer exposure model of a profile under the plan's starlight and observing settings (same as the observing report's). */
 export function tracerExposureModel(plan: Pick<PlanFile, 'goals' | 'galaxy' | 'starlight' | 'observing'>, profile: InstrumentProfile): ExposureModel {
@@ -50,6 +51,8 @@ export function velocityChanceOfMag(profile: InstrumentProfile, model: ExposureM
 
 /** A context of one profile within a mixed plan: besides the usual context, each target's value factor on it. */
 export interface InstrumentContext extends AllocationContext {
+  /** The plan's observing and starlight sections for this profile's masks (plan/instruments.ts instrumentSections). */
+  sections: Pick<PlanFile, 'observing' | 'starlight'>;
   /** Value of a tracer on this profile's masks per unit weight (0..1), by magnitude. */
   valueFactorOfMag: (mag: number) => number;
   /** valueFactorOfMag of every target (index as targets). */
@@ -59,18 +62,21 @@ export interface InstrumentContext extends AllocationContext {
 
 /**
  * The allocation context of a plan with several profiles (first profile first): the first profile's context with
- * `byInstrument` (profile id -> its context) set; each context carries its value factors. One profile: the plain context.
+ * `byInstrument` (profile id -> its context) set; each context carries its value factors, from its own observing
+ * settings (`instruments[].observing` over the plan's; `profilesByRef` maps the plan's references to their profiles).
+ * One profile: the plain context.
  */
-export function instrumentsAllocationContext(plan: PlanFile, profiles: readonly InstrumentProfile[], galaxy: GalaxyModel, targets: readonly Target[], weights: Float64Array): AllocationContext {
+export function instrumentsAllocationContext(plan: PlanFile, profiles: readonly InstrumentProfile[], galaxy: GalaxyModel, targets: readonly Target[], weights: Float64Array, profilesByRef: Readonly<Record<string, InstrumentProfile>> = {}): AllocationContext {
   if (profiles.length <= 1) return allocationContext(profiles[0], galaxy, plan.goals.linesA, targets, weights, lineWindowSettings(plan.goals));
   const byInstrument = new Map<string, AllocationContext>();
   let shared: Pick<AllocationContext, 'raDeg' | 'decDeg' | 'unit'> | null = null;
   for (const profile of profiles) {
     const base = allocationContext(profile, galaxy, plan.goals.linesA, targets, weights, lineWindowSettings(plan.goals));
     shared ??= base;
-    const valueFactorOfMag = velocityChanceOfMag(profile, tracerExposureModel(plan, profile));
+    const sections = instrumentSections(plan, profile.id, profilesByRef);
+    const valueFactorOfMag = velocityChanceOfMag(profile, tracerExposureModel({ ...plan, ...sections }, profile));
     const ctx: InstrumentContext = {
-      ...base, raDeg: shared.raDeg, decDeg: shared.decDeg, unit: shared.unit, byInstrument, valueFactorOfMag,
+      ...base, raDeg: shared.raDeg, decDeg: shared.decDeg, unit: shared.unit, byInstrument, valueFactorOfMag, sections,
       valueFactor: Float64Array.from(targets, (t) => (t.role === 'alignment' ? 0 : valueFactorOfMag(t.mag))),
     };
     byInstrument.set(profile.id, ctx);

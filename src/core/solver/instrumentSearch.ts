@@ -7,9 +7,9 @@
 import type { PlanFile } from '../plan/schema';
 import { polygonBounds } from '../geometry/polygon';
 import { PMath } from '../numeric/portableMath';
-import { candidateValues, contextFor } from './maskContext';
+import { candidateValues, contextFor, withContextSections } from './maskContext';
 import { placeStarlightAndSky, placeStarlightOnMask, starlightSettings, starlightStage, starlightTaken, type StarlightResult, type StarlightStage, type StarlightTrade } from './starlight';
-import type { StarlightRules } from '../plan/starlightSection';
+import { type StarlightRules } from '../plan/starlightSection';
 import type { AllocationContext } from './allocateMasks';
 import type { ProxyMask, SearchEnv } from './pointingSearch';
 import type { MaskPointing, MaskSolution } from '../geometry/maskSolution';
@@ -24,7 +24,9 @@ export function envFor(env: SearchEnv, mask: Pick<MaskPointing, 'instrument'>): 
   let sub = byId.get(mask.instrument);
   if (!sub) {
     const ctx = contextFor(env.ctx, mask);
-    sub = ctx === env.ctx ? env : { ...env, ctx, starlight: starlightSettings(env.plan.starlight as StarlightRules | undefined, ctx.profile, env.plan) };
+    // The plan's first profile shares the plan's environment unless its own settings change the starlight exposure.
+    const starlight = withContextSections(ctx, env.plan).starlight;
+    sub = ctx === env.ctx && starlight === env.plan.starlight ? env : { ...env, ctx, starlight: starlightSettings(starlight as StarlightRules | undefined, ctx.profile, env.plan) };
     byId.set(mask.instrument, sub);
   }
   return sub;
@@ -68,7 +70,7 @@ export function placeStarlightForMasks(ctx: AllocationContext, plan: Pick<PlanFi
   const stageOf = (ms: MaskSolution) => {
     const c = contextFor(ctx, ms.mask);
     let st = stages.get(c.profile.id);
-    if (!st) stages.set(c.profile.id, (st = starlightStage(ctx.galaxy, c.profile, plan, trade)));
+    if (!st) stages.set(c.profile.id, (st = starlightStage(ctx.galaxy, c.profile, withContextSections(c, plan), trade)));
     return st;
   };
   const done: MaskSolution[] = [];

@@ -12,6 +12,12 @@ export function contextFor(ctx: AllocationContext, mask: Pick<MaskPointing, 'ins
   return (mask.instrument !== undefined ? ctx.byInstrument?.get(mask.instrument) : undefined) ?? ctx;
 }
 
+/** The plan with the observing and starlight sections of a context's own profile (instruments[].observing); the plan itself with one profile. */
+export function withContextSections<P extends object>(ctx: AllocationContext, plan: P): P {
+  const own = (ctx as Partial<InstrumentContext>).sections;
+  return own ? { ...plan, ...own } : plan;
+}
+
 /** Per-candidate values of object indices on a mask of this context (weight x value factor), or undefined in a single-profile plan. */
 export function candidateValues(ctx: AllocationContext, objects: ArrayLike<number>): Float64Array | undefined {
   const f = (ctx as Partial<InstrumentContext>).valueFactor;

@@ -40,6 +40,8 @@ export interface SpectralReport {
   /** False when a line window leaves the span of the OH line list (no flag there means: not looked up). */
   skyLinesCovered: boolean;
   masks: MaskUsableX[];
+  /** A plan with several spectrographs: each one's own report (its masks only); `masks` above then lists every mask. */
+  instruments?: SpectralReport[];
 }
 
 /** The spectral report of a plan on one profile, for the given mask ids (usable x is a property of the profile and lines). */
@@ -71,10 +73,22 @@ export function spectralReport(plan: Pick<PlanFile, 'goals' | 'galaxy'> & { phot
   };
 }
 
+/**
+ * The spectral report of masks on several profiles (plan key instruments): each profile's report for its own masks,
+ * the first profile's at the top with every mask's usable x (mask order as given). One group: spectralReport.
+ */
+export function spectralReportForGroups(plan: Parameters<typeof spectralReport>[0], groups: readonly { profile: InstrumentProfile; maskIds: string[] }[], maskOrder: readonly string[]): SpectralReport {
+  if (groups.length <= 1) return spectralReport(plan, groups[0].profile, maskOrder);
+  const parts = groups.map((g) => spectralReport(plan, g.profile, g.maskIds));
+  const byId = new Map(parts.flatMap((p) => p.masks.map((m) => [m.maskId, m] as const)));
+  return { ...parts[0], masks: maskOrder.map((id) => byId.get(id)!).filter(Boolean), instruments: parts };
+}
+
 const f1 = (v: number) => v.toFixed(1);
 
-/** Plain-text lines for the plan summary. */
+/** Plain-text lines for the plan summary (one block per spectrograph when the report has several). */
 export function spectralSummaryLines(r: SpectralReport): string[] {
+  if (r.instruments) return [photometryLine(r.photometry), ...r.instruments.flatMap((p) => spectralSummaryLines(p).slice(1))];
   const out = [photometryLine(r.photometry)];
   out.push(`spectral windows (v_sys +- ${r.window.velocityHalfRangeKms} km/s, +- ${r.window.lineHalfWindowA} A) and instrument ${r.profileId} (slit ${r.slitWidthArcsec}"):`);
   for (const l of r.lines) {

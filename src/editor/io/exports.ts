@@ -5,7 +5,8 @@
  */
 import type { CatalogReadResult } from '../../core/catalog/types';
 import type { InstrumentProfile } from '../../core/profile/schema';
-import { masksToCsv, slitsToCsv } from '../../core/export/slitsCsv';
+import { masksToCsv, slitsToCsv, type MaskRow } from '../../core/export/slitsCsv';
+import { editorPlanProfiles } from './planProfiles';
 import { catalogReportCsv } from '../../core/export/catalogReport';
 import { excludedTargetsCsv } from '../../core/pipeline/summary';
 import type { WeightingResult } from '../../core/solver/weighting';
@@ -32,7 +33,13 @@ export interface FolderPaths { catalog?: string; instrument?: string }
  * `paths` rewrites the plan's catalog and instrument (files written beside it in an output folder).
  */
 export function solvedPlanText(result: SolveResult, paths: FolderPaths = {}): string {
-  const plan = { ...result.plan, ...paths, masks: (result.plan.masks ?? []).map((m) => ({ ...m, locked: true })) };
+  const { instrument, ...rest } = paths;
+  // A plan with several spectrographs names the document's own profile file as its first instrument.
+  const instruments = result.plan.instruments;
+  const own = instrument === undefined ? {} : instruments?.length
+    ? { instruments: instruments.map((x, k) => (k === 0 ? { ...x, profile: instrument } : x)) }
+    : { instrument };
+  const plan = { ...result.plan, ...rest, ...own, masks: (result.plan.masks ?? []).map((m) => ({ ...m, locked: true })) };
   return JSON.stringify(plan, null, 2) + '\n';
 }
 
@@ -40,7 +47,7 @@ export function solvedPlanText(result: SolveResult, paths: FolderPaths = {}): st
 export function outputFolderFiles(result: SolveResult, profile: InstrumentProfile, catalog: CatalogReadResult, paths: FolderPaths = {}): ExportFile[] {
   // Rows of each mask in order of y, as `haloweave plan` writes them.
   const slits = result.masks.flatMap((m) => [...m.slits].sort((a, b) => a.yArcsec - b.yArcsec));
-  const maskRows = result.masks.map((m) => ({ maskId: m.mask.id, instrument: profile.id, raDeg: m.mask.raDeg, decDeg: m.mask.decDeg, paDeg: m.mask.paDeg }));
+  const maskRows = maskRowsOf(result, profile);
   const files: ExportFile[] = [
     { name: 'masks.csv', content: masksToCsv(maskRows), mime: 'text/csv' },
     { name: 'slits.csv', content: slitsToCsv(slits), mime: 'text/csv' },
@@ -49,14 +56,27 @@ export function outputFolderFiles(result: SolveResult, profile: InstrumentProfil
     { name: 'solved.plan.json', content: solvedPlanText(result, paths), mime: 'application/json' },
     { name: 'catalog-report.csv', content: catalogReportCsv(catalog.rejects), mime: 'text/csv' },
   ];
-  return withManifest(files, profile);
+  return withManifest(files, resultProfiles(result, profile));
 }
 
-/** `files` followed by the manifest `haloweave check` requires of a complete folder: every file's size and hash, and the profile. */
-function withManifest(files: readonly ExportFile[], profile: InstrumentProfile): ExportFile[] {
+/** masks.csv rows of a solution: each mask with its own instrument (plan key instruments), else the document's profile. */
+export function maskRowsOf(result: SolveResult, profile: InstrumentProfile): MaskRow[] {
+  return result.masks.map((m) => ({ maskId: m.mask.id, instrument: m.mask.instrument ?? profile.id, raDeg: m.mask.raDeg, decDeg: m.mask.decDeg, paDeg: m.mask.paDeg }));
+}
+
+/** Every profile the solution's masks use, each once, the document's first (a plan of one spectrograph: the document's). */
+function resultProfiles(result: SolveResult, profile: InstrumentProfile): InstrumentProfile[] {
+  const all = [profile, ...Object.values(editorPlanProfiles(result.plan, profile) ?? {})];
+  return all.filter((p, k) => all.findIndex((q) => q.id === p.id) === k);
+}
+
+/** `files` followed by the manifest `haloweave check` requires of a complete folder: every file's size and hash, and the profiles. */
+function withManifest(files: readonly ExportFile[], profiles: readonly InstrumentProfile[]): ExportFile[] {
   const own = files.filter((f) => f.name !== MANIFEST_FILE);
   const bytes = new Map(own.map((f) => [f.name, typeof f.content === 'string' ? new TextEncoder().encode(f.content) : f.content]));
-  const manifest = buildManifest(bytes, sha256HexOf, { writtenBy: 'haloweave editor 0.1.0', writtenUtc: new Date().toISOString(), profiles: [{ id: profile.id, sha256: profileDigest(profile) }] });
+  const manifest = buildManifest(bytes, sha256HexOf, {
+    writtenBy: 'haloweave editor 0.1.0', writtenUtc: new Date().toISOString(), profiles: profiles.map((p) => ({ id: p.id, sha256: profileDigest(p) })),
+  });
   return [...own, { name: MANIFEST_FILE, content: manifestText(manifest), mime: 'application/json' }];
 }
 
@@ -89,7 +109,7 @@ export function completeFolderFiles(result: SolveResult, profile: InstrumentProf
   files.push({ name: 'excluded-targets.csv', content: excludedTargetsCsv(weightingOf(result, catalog)), mime: 'text/csv' });
   if (catalogFile && catalogName) files.push({ name: catalogName, content: catalogFile.content, mime: 'application/octet-stream' });
   if (profileName) files.push({ name: profileName, content: profileFileText(profile), mime: 'application/json' });
-  return withManifest(files, profile);
+  return withManifest(files, resultProfiles(result, profile));
 }
 
 /** A zip archive holding `files` in one folder `folder/` (deflated; dates left at the archive's default). */
@@ -107,11 +127,13 @@ export function maskChartName(maskId: string): string {
   return `mask-${maskId.replace(/[^A-Za-z0-9_.-]+/g, '_')}.svg`;
 }
 
-/** One SVG chart per mask. */
+/** One SVG chart per mask, each with its own profile's footprint. */
 export function maskChartFiles(result: SolveResult, profile: InstrumentProfile, reachRe: number): ExportFile[] {
+  // Each mask drawn with its own instrument's footprint (plan key instruments).
+  const byId = new Map(resultProfiles(result, profile).map((p) => [p.id, p]));
   return result.masks.map((ms) => ({
     name: maskChartName(ms.mask.id),
-    content: maskChartSvg(ms, result.galaxy, profile, reachRe),
+    content: maskChartSvg(ms, result.galaxy, byId.get(ms.mask.instrument ?? profile.id) ?? profile, reachRe),
     mime: 'image/svg+xml',
   }));
 }

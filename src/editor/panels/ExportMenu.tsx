@@ -7,7 +7,8 @@ import { useCallback, useRef, useState } from 'react';
 import type { EditorController } from '../controller';
 import { downloadFile } from '../io/download';
 import { archiveFolderName, completeFolderFiles, FOLDER_FILES, maskChartFiles, maskChartName, outputFolderFiles, zipFolder, type ExportFile } from '../io/exports';
-import { FORMAT_FILES, slitListFiles } from '../io/slitFormats';
+import { FORMAT_FILES, perInstrumentSlitFiles, slitListFiles } from '../io/slitFormats';
+import { perInstrumentPath } from '../../core/export/perInstrument';
 import { useDismissable } from './usePopup';
 
 export function ExportMenu({ c }: { c: EditorController }) {
@@ -18,13 +19,14 @@ export function ExportMenu({ c }: { c: EditorController }) {
   const sol = c.session.solution;
   const catalog = c.session.catalog;
   const ready = !!(sol && catalog && c.store);
-  const files = (): { folder: ExportFile[]; formats: ExportFile[]; charts: ExportFile[] } => {
-    if (!ready) return { folder: [], formats: [], charts: [] };
+  const files = (): { folder: ExportFile[]; formats: ExportFile[]; charts: ExportFile[]; perInstrument: ExportFile[] } => {
+    if (!ready) return { folder: [], formats: [], charts: [], perInstrument: [] };
     const profile = c.store!.doc.profile;
     return {
       folder: outputFolderFiles(sol!.result, profile, catalog!),
       formats: slitListFiles(sol!.result, profile),
       charts: maskChartFiles(sol!.result, profile, c.store!.doc.plan.goals.tracerReachRe),
+      perInstrument: perInstrumentSlitFiles(sol!.result, profile),
     };
   };
   const save = (list: ExportFile[]) => { list.forEach((f) => downloadFile(f.name, f.content, f.mime)); setOpen(false); };
@@ -39,7 +41,10 @@ export function ExportMenu({ c }: { c: EditorController }) {
     folder: FOLDER_FILES.map((name) => ({ name })),
     formats: FORMAT_FILES.map((name) => ({ name })),
     charts: sol!.result.masks.map((m) => ({ name: maskChartName(m.mask.id) })),
+    // A plan with several spectrographs: per format, one file per instrument (named as `haloweave export --per-instrument` does).
+    instruments: sol!.result.plan.instruments?.length ? [...new Set(sol!.result.masks.map((m) => m.mask.instrument ?? c.store!.doc.profile.id))] : [],
   } : null;
+  const perInstrumentOf = (format: string) => (names?.instruments ?? []).map((i) => perInstrumentPath(format, i));
   return (
     <div className="menu" ref={root}>
       <button disabled={!ready} onClick={() => setOpen(!open)} data-testid="export-menu" aria-expanded={open}>Export ▾</button>
@@ -55,6 +60,12 @@ export function ExportMenu({ c }: { c: EditorController }) {
           <div className="menu-title">Slit list in other formats</div>
           {names.formats.map((f) => (
             <button key={f.name} data-testid={`export-${f.name}`} onClick={() => save(files().formats.filter((x) => x.name === f.name))}>{f.name}</button>
+          ))}
+          {names.instruments.length > 0 && <div className="menu-title">One slit list per instrument ({names.instruments.join(', ')})</div>}
+          {names.instruments.length > 0 && FORMAT_FILES.map((f) => (
+            <button key={f} data-testid={`export-per-instrument-${f}`} title={perInstrumentOf(f).join(', ')}
+              onClick={() => { const want = new Set(perInstrumentOf(f)); save(files().perInstrument.filter((x) => want.has(x.name))); }}>
+              {perInstrumentOf(f).join(' + ')}</button>
           ))}
           <div className="menu-title">Charts for a proposal</div>
           <button data-testid="export-charts" onClick={() => save(files().charts)}>SVG chart of every mask</button>

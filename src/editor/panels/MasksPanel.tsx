@@ -82,20 +82,26 @@ function ExposureTable({ c, exposures }: { c: EditorController; exposures: reado
   const profile = c.store!.doc.profile;
   const res = slitResolution(profile.detector, profile.slits.widthArcsec, profile.detector.centralWavelengthA);
   const e0 = exposures?.[0];
+  // A plan with several spectrographs may expose their masks differently (instruments[].observing): then per row.
+  const same = !exposures || exposures.every((e) => e.exposureTimeS === e0!.exposureTimeS && e.targetSnPerA === e0!.targetSnPerA && e.wavelengthA === e0!.wavelengthA);
   return (
     <div className="exposure" data-testid="exposure">
       <h4>Exposure estimate</h4>
       {!e0 ? <p className="dim small">appears with the next full solve</p> : (
         <>
-          <div className="small dim">{(e0.exposureTimeS / 3600).toFixed(2)} h per mask; S/N per Å at {e0.wavelengthA.toFixed(0)} Å, target {e0.targetSnPerA}</div>
+          {same ? <div className="small dim">{(e0.exposureTimeS / 3600).toFixed(2)} h per mask; S/N per Å at {e0.wavelengthA.toFixed(0)} Å, target {e0.targetSnPerA}</div>
+            : <div className="small dim">each mask with its own spectrograph's exposure and target S/N per Å</div>}
           <table className="mini">
-            <thead><tr><th>mask</th><th className="num" title="median signal-to-noise per Angstrom of the mask's tracer slits">median S/N</th><th className="num" title="tracer slits reaching the target S/N in the exposure">at target</th></tr></thead>
+            <thead><tr><th>mask</th>{!same && <th className="num" title="exposure time of the mask (its spectrograph's)">h</th>}{!same && <th className="num" title="target S/N per Angstrom (its spectrograph's)">target</th>}<th className="num" title="median signal-to-noise per Angstrom of the mask's tracer slits">median S/N</th><th className="num" title="tracer slits reaching the target S/N in the exposure">at target</th></tr></thead>
             <tbody>
               {exposures!.map((e) => {
                 const n = e.slits.filter((s) => s.role === 'tracer').length;
                 return (
-                  <tr key={e.maskId} data-testid={`exposure-${e.maskId}`} data-median-sn={e.medianTracerSnPerA ?? ''} data-reaching={e.tracersReachingTarget}>
+                  <tr key={e.maskId} data-testid={`exposure-${e.maskId}`} data-median-sn={e.medianTracerSnPerA ?? ''} data-reaching={e.tracersReachingTarget}
+                    data-exposure-s={e.exposureTimeS} data-target-sn={e.targetSnPerA}>
                     <td>{e.maskId}</td>
+                    {!same && <td className="num">{(e.exposureTimeS / 3600).toFixed(2)}</td>}
+                    {!same && <td className="num">{e.targetSnPerA}</td>}
                     <td className="num">{e.medianTracerSnPerA === null ? '–' : e.medianTracerSnPerA.toFixed(1)}</td>
                     <td className="num">{e.tracersReachingTarget} of {n}</td>
                   </tr>

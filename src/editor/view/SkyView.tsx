@@ -230,7 +230,9 @@ export function SkyView(props: SkyViewProps) {
       const m = order[k], c = maskXiEta(m);
       const pa = (m.paDeg * Math.PI) / 180, dx = xiArcsec - c.xiArcsec, dy = etaArcsec - c.etaArcsec;
       // Mask frame of the contract: y = xi sin PA + eta cos PA, x = xi cos PA - eta sin PA (offsets from the centre).
-      if (pointInPolygon(dx * Math.cos(pa) - dy * Math.sin(pa), dx * Math.sin(pa) + dy * Math.cos(pa), profile.footprint)) out.push(m.id);
+      // Each mask's own footprint (plan key instruments): a wide field is picked where it extends beyond a narrow one.
+      const polygon = maskFootprint(profile, m.instrument).polygon;
+      if (pointInPolygon(dx * Math.cos(pa) - dy * Math.sin(pa), dx * Math.sin(pa) + dy * Math.cos(pa), polygon)) out.push(m.id);
     }
     return out;
   };

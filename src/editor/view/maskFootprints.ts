@@ -7,6 +7,8 @@ import type { InstrumentProfile } from '../../core/profile/schema';
 import { bundledProfileFor } from '../io/profiles';
 
 export interface FootprintShape {
+  /** The polygon [[x, y], ...] (arcsec, mask frame), for hit tests. */
+  polygon: readonly (readonly [number, number])[];
   points: number[];
   yMaxArcsec: number;
 }
@@ -16,7 +18,7 @@ const shapes = new WeakMap<InstrumentProfile, FootprintShape>();
 /** The flattened polygon and top y (arcsec) of a profile's footprint (cached per profile object). */
 export function footprintShape(profile: InstrumentProfile): FootprintShape {
   let s = shapes.get(profile);
-  if (!s) shapes.set(profile, (s = { points: profile.footprint.flatMap((c) => [c[0], c[1]]), yMaxArcsec: Math.max(...profile.footprint.map((c) => c[1])) }));
+  if (!s) shapes.set(profile, (s = { polygon: profile.footprint as FootprintShape['polygon'], points: profile.footprint.flatMap((c) => [c[0], c[1]]), yMaxArcsec: Math.max(...profile.footprint.map((c) => c[1])) }));
   return s;
 }
 

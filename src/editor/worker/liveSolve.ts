@@ -6,6 +6,10 @@
  * as taken, and one prepared starlight stage for the whole drag) and lengthening on that mask only, and coverage over all. The result is a live preview; when the
  * drag ends, the editor solves the committed plan with the full `solvePlan`, so the numbers it keeps
  * are exactly the pipeline's.
+ *
+ * A plan with several spectrographs (plan key `instruments`) takes the same path with per-mask contexts
+ * (solver/instrumentContexts.ts): the moved mask is re-prepared and re-allocated with its own profile's footprint,
+ * rules and tracer values, and its starlight, sky and lengthening follow its own profile's stage.
  */
 import type { CatalogReadResult } from '../../core/catalog/types';
 import type { PlanFile } from '../../core/plan/schema';
@@ -21,6 +25,9 @@ import { starlightTrade } from '../../core/solver/pointingSearch';
 import { placeStarlightOnMask, starlightStage, starlightTaken, type StarlightStage, type StarlightTaken } from '../../core/solver/starlight';
 import type { MaskPointing, MaskSolution } from '../../core/geometry/maskSolution';
 import type { SolveResult } from './protocol';
+import { instrumentsAllocationContext } from '../../core/solver/instrumentContexts';
+import { contextFor, withContextSections } from '../../core/solver/maskContext';
+import { planProfiles, planWithMaskInstruments } from '../../core/plan/instruments';
 
 interface LiveCache {
   key: string;
@@ -32,18 +39,27 @@ interface LiveCache {
   alloc: PointingsAllocation;
   /** Every mask after starlight, sky and lengthening, for the current allocation. */
   finished: MaskSolution[] | null;
-  /** The starlight stage of the plan (settings, rules, trade), prepared once. */
-  stage: StarlightStage;
+  /** The starlight stage of each profile (settings, rules, trade), by profile id, prepared once per profile. */
+  stages: Map<string, StarlightStage>;
+  trade: ReturnType<typeof starlightTrade>;
   /** Starlight coverage of every mask but `index` (those stay as they are while `index` is dragged). */
   taken: { index: number; value: StarlightTaken } | null;
 }
 
 let cache: LiveCache | null = null;
 
-/** Everything of the plan except the mask placements (a change there needs a full rebuild). */
+/** Everything of the plan except the mask placements (a change there, or of a mask's instrument, needs a full rebuild). */
 function planKey(plan: PlanFile): string {
   const { masks, ...rest } = plan;
-  return JSON.stringify([rest, (masks ?? []).map((m) => m.id)]);
+  return JSON.stringify([rest, (masks ?? []).map((m) => [m.id, m.instrument ?? null])]);
+}
+
+/** The starlight stage of mask `ms`'s own profile, made once per profile. */
+function stageOf(c: LiveCache, ms: MaskSolution, plan: PlanFile): StarlightStage {
+  const own = contextFor(c.ctx, ms.mask);
+  let st = c.stages.get(own.profile.id);
+  if (!st) c.stages.set(own.profile.id, (st = starlightStage(c.galaxy, own.profile, withContextSections(own, plan), c.trade)));
+  return st;
 }
 
 const samePointing = (a: MaskPointing, b: MaskPointing) => a.raDeg === b.raDeg && a.decDeg === b.decDeg && a.paDeg === b.paDeg;
@@ -52,25 +68,34 @@ const samePointing = (a: MaskPointing, b: MaskPointing) => a.raDeg === b.raDeg &
 function givenPointings(plan: PlanFile): MaskPointing[] | null {
   const masks = plan.masks ?? [];
   if (!planFullyPlaced(plan)) return null;
-  return masks.map((m) => ({ id: m.id, raDeg: m.raDeg!, decDeg: m.decDeg!, paDeg: wrap360Deg(m.paDeg!), locked: true }));
+  return masks.map((m) => ({
+    id: m.id, raDeg: m.raDeg!, decDeg: m.decDeg!, paDeg: wrap360Deg(m.paDeg!), locked: true, ...(m.instrument !== undefined ? { instrument: m.instrument } : {}),
+  }));
 }
 
-/** Live solve of `plan` (every placed mask kept where it is); `inputs` identifies the catalog and profile. */
-export function liveSolve(plan: PlanFile, profile: InstrumentProfile, catalog: CatalogReadResult, inputs: object): SolveResult {
+/**
+ * Live solve of `plan` (every placed mask kept where it is); `inputs` identifies the catalog and profile. A plan with
+ * `instruments` needs `profiles`, every profile by the plan's reference (as solvePlan's PlanInputs.profiles).
+ */
+export function liveSolve(planIn: PlanFile, profile: InstrumentProfile, catalog: CatalogReadResult, inputs: object, profiles?: Readonly<Record<string, InstrumentProfile>>): SolveResult {
   const t0 = performance.now();
   let moved = -1;
+  // Several spectrographs: every mask listed with its own profile id, as solvePlan does.
+  const plan = planWithMaskInstruments(planIn, profiles ?? {});
   const key = planKey(plan);
   if (!cache || cache.key !== key || cache.inputs !== inputs) {
     const galaxy = galaxyModel(plan);
     const weightWarnings: string[] = [];
     const weights = targetWeights(plan, catalog.targets, weightWarnings);
-    const ctx = allocationContext(profile, galaxy, plan.goals.linesA, catalog.targets, weights, lineWindowSettings(plan.goals));
+    const ctx = plan.instruments?.length
+      ? instrumentsAllocationContext(plan, planProfiles(plan, profiles ?? {}), galaxy, catalog.targets, weights, profiles)
+      : allocationContext(profile, galaxy, plan.goals.linesA, catalog.targets, weights, lineWindowSettings(plan.goals));
     // Every mask placed (the case while dragging): allocate for the pointings as given, without a search.
     const given = givenPointings(plan);
     const placed = given ? { pointings: given, allocation: allocateForPointings(ctx, given) } : placeMasks(plan, galaxy, profile, ctx);
     const objective = objectiveContext(plan.goals, plan.search, Array.from(ctx.tracerIndices, (i) => ctx.weights[i]));
-    const stage = starlightStage(galaxy, profile, plan, starlightTrade(objective));
-    cache = { key, inputs, ctx, galaxy, weightWarnings, pointings: placed.pointings, alloc: placed.allocation, finished: null, stage, taken: null };
+    const trade = starlightTrade(objective);
+    cache = { key, inputs, ctx, galaxy, weightWarnings, pointings: placed.pointings, alloc: placed.allocation, finished: null, stages: new Map(), trade, taken: null };
   } else {
     const c = cache;
     const next = givenPointings(plan);
@@ -98,15 +123,16 @@ export function liveSolve(plan: PlanFile, profile: InstrumentProfile, catalog: C
   if (cache.finished && moved >= 0) {
     // One mask moved and the others kept their tracers: redo starlight, sky and lengthening on that mask only
     // (the full solve after the drag redoes them on all masks together).
+    const stage = stageOf(cache, cache.alloc.masks[moved], plan);
     if (!cache.taken || cache.taken.index !== moved) {
       const finished = cache.finished;
-      cache.taken = { index: moved, value: starlightTaken(cache.stage, finished.filter((_, i) => i !== moved)) };
+      cache.taken = { index: moved, value: starlightTaken(stage, finished.filter((_, i) => i !== moved)) };
     }
-    const one = placeStarlightOnMask(cache.stage, cache.alloc.masks[moved], cache.taken.value);
+    const one = placeStarlightOnMask(stage, cache.alloc.masks[moved], cache.taken.value);
     warnings.push(...one.warnings);
     t2 = performance.now();
     masks = cache.finished.slice();
-    masks[moved] = lengthenMasks(plan, profile, [one.mask])[0];
+    masks[moved] = lengthenMasks(plan, profile, [one.mask], cache.ctx)[0];
   } else if (cache.finished && moved < 0) {
     t2 = performance.now();
     masks = cache.finished;
@@ -114,7 +140,7 @@ export function liveSolve(plan: PlanFile, profile: InstrumentProfile, catalog: C
     cache.taken = null;
     masks = addStarlightAndSky(plan, cache.ctx, cache.alloc.masks, warnings);
     t2 = performance.now();
-    masks = lengthenMasks(plan, profile, masks);
+    masks = lengthenMasks(plan, profile, masks, cache.ctx);
   }
   cache.finished = masks;
   const t3 = performance.now();

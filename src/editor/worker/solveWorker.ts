@@ -47,10 +47,10 @@ function postResult(requestId: number, mode: SolveMode, result: SolveResult, com
 function solve(plan: PlanFile, mode: SolveMode, requestId: number): void {
   if (!inputs) throw new Error('the worker has no catalog and profile yet');
   const t0 = performance.now();
-  // A plan with several spectrographs is solved in full, each mask with its own profile (liveSolve knows one).
+  // A plan with several spectrographs: each mask with its own profile, in the full solve and in the live one.
   const profiles = editorPlanProfiles(plan, inputs.profile);
-  if (mode === 'preview' && !profiles) {
-    const result = liveSolve(lockedPlan(plan), inputs.profile, inputs.catalog, inputs);
+  if (mode === 'preview') {
+    const result = liveSolve(lockedPlan(plan), inputs.profile, inputs.catalog, inputs, profiles);
     postResult(requestId, mode, result, performance.now() - t0);
     return;
   }
