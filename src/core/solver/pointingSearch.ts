@@ -216,12 +216,12 @@ export interface SearchResult {
  * The candidate set of intervals already sorted by end (equal lengths, sorted by start): the interval index of
  * solver/intervalScheduling (order by end, pred[k] = number of intervals ending at or before start k) in one pass.
  */
-function equalLengthCandidateSet(objects: Int32Array, starts: Float64Array, ends: Float64Array): MaskCandidateSet {
+function equalLengthCandidateSet(objects: Int32Array, starts: Float64Array, ends: Float64Array, identity: Int32Array): MaskCandidateSet {
   const n = objects.length;
-  const order = new Int32Array(n), pred = new Int32Array(n);
+  // The order is the identity: a read-only view of a shared 0, 1, 2, ... array (nothing allocated for it).
+  const order = identity.subarray(0, n), pred = new Int32Array(n);
   let j = 0;
   for (let k = 0; k < n; k++) {
-    order[k] = k;
     while (j < k && ends[j] <= starts[k]) j++;
     pred[k] = j;
   }
@@ -254,6 +254,7 @@ export function proxyModel(env: SearchEnv): (p: MaskPointing, liberal?: boolean)
   const nT = ctx.tracerIndices.length;
   const bufObj = new Int32Array(nT), bufY = new Float64Array(nT), keys = new Float64Array(nT);
   const sortWork: SortWork = { out: new Int32Array(nT), start: new Int32Array(nT + 1), fill: new Int32Array(nT) };
+  const identity = Int32Array.from({ length: nT }, (_, k) => k);
   // Tracers binned in square cells of the galaxy's tangent plane, so a trial only visits cells near the mask. The cells
   // are flat typed arrays (cell c holds positions cellStart[c] .. cellStart[c + 1] - 1, in first-seen cell order and
   // catalog order inside a cell), with each tracer's unit vector and tangent-plane offset copied alongside.
@@ -335,7 +336,7 @@ export function proxyModel(env: SearchEnv): (p: MaskPointing, liberal?: boolean)
     // The allocation's own alignment rule (shared stars allowed; boxes clear of each other along y).
     const alignmentMax = liberal ? 0 : alignmentCapacity(ctx, p).compatibleMax;
     // The liberal set feeds a proven bound: its interval index is built exactly (sorted by end), not from the packed keys.
-    return { set: liberal ? maskCandidateSet(objects, starts, ends) : equalLengthCandidateSet(objects, starts, ends), y, alignmentMax };
+    return { set: liberal ? maskCandidateSet(objects, starts, ends) : equalLengthCandidateSet(objects, starts, ends, identity), y, alignmentMax };
   };
 }
 
