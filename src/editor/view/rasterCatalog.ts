@@ -76,7 +76,7 @@ function stamp(px: Uint32Array, w: number, h: number, cx: number, cy: number, of
 }
 
 /** Raster the catalog for camera `cam` into `px` (w x h device pixels, `pr` device pixels per CSS pixel). */
-export function rasterCatalog(px: Uint32Array, w: number, h: number, pr: number, g: CatalogGeometry, cam: Camera, selected: ReadonlySet<number>, onSlit: Uint8Array | null): void {
+export function rasterCatalog(px: Uint32Array, w: number, h: number, pr: number, g: CatalogGeometry, cam: Camera, selected: ReadonlySet<number>, onSlit: Uint8Array | null): number {
   const s = cam.pxPerArcsec;
   const ox = cam.widthPx / 2 + cam.centreXiArcsec * s, oy = cam.heightPx / 2 + cam.centreEtaArcsec * s;
   const zf = Math.max(0.7, Math.min(2.2, Math.pow(s / 0.6, 0.35))) * pr;
@@ -89,8 +89,10 @@ export function rasterCatalog(px: Uint32Array, w: number, h: number, pr: number,
     Y[i] = Math.round((oy - g.etaArcsec[i] * s) * pr);
   }
   const inside = (i: number, m: number) => X[i] > -m && Y[i] > -m && X[i] < w + m && Y[i] < h + m;
+  let drawn = 0;
   for (let i = 0; i < g.count; i++) {
     if (!inside(i, 12)) continue;
+    drawn++;
     const k = g.kind[i];
     if (k === KIND_TRACER) stamp(px, w, h, X[i], Y[i], disc(g.radiusPx[i] * zf), shades[g.shade[i]]);
     else if (k === KIND_EXCLUDED) {
@@ -121,4 +123,5 @@ export function rasterCatalog(px: Uint32Array, w: number, h: number, pr: number,
     stamp(px, w, h, X[i], Y[i], ring(r, 3.2 * pr), black);
     stamp(px, w, h, X[i], Y[i], ring(r, 1.5 * pr), white);
   }
+  return drawn;
 }
