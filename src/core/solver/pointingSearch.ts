@@ -283,8 +283,9 @@ export function proxyModel(env: SearchEnv): (p: MaskPointing, liberal?: boolean)
     cellStart[nCells] = at;
   }
   cells.clear();
-  // The galaxy's and a mask's tangent planes differ by far less than this near the galaxy (second order in the
-  // distance between the two tangent points: under 0.1 arcsec within a degree); a cell is visited when its centre,
+  // The galaxy's and a mask's tangent planes differ by far less than this margin near the galaxy: the scales differ by
+  // a fraction of order d^2 (d: distance between the two tangent points, radians), about 0.2" at 600" from a mask
+  // centre 1 degree away, so 30" holds for masks up to about 10 degrees from the galaxy; a cell is visited when its centre,
   // in the mask frame, lies within the footprint bounds grown by the cell's half-diagonal and this margin, and a
   // tracer is projected exactly only when its own offset passes the same bounds grown by the margin alone.
   const margin = 30, grow = cell * Math.SQRT1_2 + margin;

@@ -75,6 +75,28 @@ function stamp(px: Uint32Array, w: number, h: number, cx: number, cy: number, of
   }
 }
 
+/** Pixel offsets of an excluded object's cross (both diagonals, half-length r px) and of an alignment star's diamond outline (radius r px), cached by r. */
+const crossCache = new Map<number, Int16Array>();
+const diamondCache = new Map<number, Int16Array>();
+function cross(r: number): Int16Array {
+  let d = crossCache.get(r);
+  if (!d) {
+    const pts: number[] = [];
+    for (let k = -r; k <= r; k++) pts.push(k, k, k, -k);
+    crossCache.set(r, (d = Int16Array.from(pts)));
+  }
+  return d;
+}
+function diamond(r: number): Int16Array {
+  let d = diamondCache.get(r);
+  if (!d) {
+    const pts: number[] = [];
+    for (let k = 0; k <= r; k++) pts.push(k, -r + k, r - k, k, -k, r - k, -r + k, -k);
+    diamondCache.set(r, (d = Int16Array.from(pts)));
+  }
+  return d;
+}
+
 /** Raster the catalog for camera `cam` into `px` (w x h device pixels, `pr` device pixels per CSS pixel). */
 export function rasterCatalog(px: Uint32Array, w: number, h: number, pr: number, g: CatalogGeometry, cam: Camera, selected: ReadonlySet<number>, onSlit: Uint8Array | null): number {
   const s = cam.pxPerArcsec;
@@ -95,19 +117,8 @@ export function rasterCatalog(px: Uint32Array, w: number, h: number, pr: number,
     drawn++;
     const k = g.kind[i];
     if (k === KIND_TRACER) stamp(px, w, h, X[i], Y[i], disc(g.radiusPx[i] * zf), shades[g.shade[i]]);
-    else if (k === KIND_EXCLUDED) {
-      const r = Math.round(2.2 * zf);
-      for (let d = -r; d <= r; d++) {
-        for (const [x, y] of [[X[i] + d, Y[i] + d], [X[i] + d, Y[i] - d]]) if (x >= 0 && y >= 0 && x < w && y < h) px[y * w + x] = excluded;
-      }
-    } else if (k === KIND_ALIGNMENT) {
-      const r = Math.round((g.radiusPx[i] + 2) * zf);
-      for (let d = 0; d <= r; d++) {
-        for (const [x, y] of [[X[i] + d, Y[i] - r + d], [X[i] + r - d, Y[i] + d], [X[i] - d, Y[i] + r - d], [X[i] - r + d, Y[i] - d]]) {
-          if (x >= 0 && y >= 0 && x < w && y < h) px[y * w + x] = align;
-        }
-      }
-    }
+    else if (k === KIND_EXCLUDED) stamp(px, w, h, X[i], Y[i], cross(Math.round(2.2 * zf)), excluded);
+    else if (k === KIND_ALIGNMENT) stamp(px, w, h, X[i], Y[i], diamond(Math.round((g.radiusPx[i] + 2) * zf)), align);
   }
   if (onSlit && onSlit.length === g.count) {
     for (let i = 0; i < g.count; i++) {
