@@ -16,6 +16,7 @@ import { main } from '../../src/cli/main';
 import { parseProfile } from '../../src/core/profile/load';
 import { suiteScenario, scaleScenario } from '../../src/core/scenario/suite';
 import { PROFILE_IDS, loadProfile } from '../search/helpers';
+import type { Scenario } from '../../src/core/scenario/generator';
 
 const REF = join(__dirname, '../reference/slits-sha256.json');
 const update = process.env.HALOWEAVE_UPDATE_SLIT_HASHES === '1';
@@ -37,6 +38,15 @@ async function planHash(planPath: string, name: string): Promise<string> {
   return sha(join(out, 'slits.csv'));
 }
 
+/** Write a generated scenario's plan and catalog into a fresh folder, solve it, and return the slits.csv hash. */
+async function scenarioHash(s: Scenario, name: string): Promise<string> {
+  const dir = join(work, name);
+  mkdirSync(dir, { recursive: true });
+  writeFileSync(join(dir, s.options.catalogFile), s.catalogCsv);
+  writeFileSync(join(dir, 'case.plan.json'), JSON.stringify(s.plan, null, 2));
+  return planHash(join(dir, 'case.plan.json'), name);
+}
+
 function check(name: string, hash: string): void {
   if (update) { recorded[name] = hash; return; }
   expect(hash, `${name}: slits.csv differs from the recorded output`).toBe(recorded[name]);
@@ -52,21 +62,11 @@ describe('slits.csv byte-identical to the recorded outputs', () => {
 
   const profiles = PROFILE_IDS.map(loadProfile);
   it.each([1, 6, 11, 19])('generated-galaxy suite case %i', async (i) => {
-    const s = suiteScenario(i, profiles);
-    const dir = join(work, `suite-${i}`);
-    mkdirSync(dir, { recursive: true });
-    writeFileSync(join(dir, s.options.catalogFile), s.catalogCsv);
-    writeFileSync(join(dir, 'case.plan.json'), JSON.stringify(s.plan, null, 2));
-    check(`suite-${i}`, await planHash(join(dir, 'case.plan.json'), `suite-${i}`));
+    check(`suite-${i}`, await scenarioHash(suiteScenario(i, profiles), `suite-${i}`));
   }, 120_000);
 
   it.each([3000, 20000])('scale scenario of %i candidates', async (n) => {
     const profile = parseProfile(JSON.parse(readFileSync(join(__dirname, '../../instrument-profiles/ridge10-narrow.json'), 'utf8')), 'ridge10-narrow');
-    const s = scaleScenario(n, profile);
-    const dir = join(work, `scale-${n}`);
-    mkdirSync(dir, { recursive: true });
-    writeFileSync(join(dir, s.options.catalogFile), s.catalogCsv);
-    writeFileSync(join(dir, 'case.plan.json'), JSON.stringify(s.plan, null, 2));
-    check(`scale-${n}`, await planHash(join(dir, 'case.plan.json'), `scale-${n}`));
+    check(`scale-${n}`, await scenarioHash(scaleScenario(n, profile), `scale-${n}`));
   }, 180_000);
 });
