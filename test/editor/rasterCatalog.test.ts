@@ -46,3 +46,34 @@ describe('catalog raster marks', () => {
     }
   });
 });
+
+describe('catalog raster over a large catalog (grid index)', () => {
+  it('draws exactly the rows inside its area and its marker margin, for views zoomed in, out and off to a side', () => {
+    let seed = 12345;
+    const rnd = () => ((seed = (seed * 1103515245 + 12345) % 2147483648) / 2147483648);
+    const n = 20000;
+    const g: CatalogGeometry = {
+      count: n, xiArcsec: new Float64Array(n), etaArcsec: new Float64Array(n), radiusPx: new Float32Array(n).fill(1.5),
+      kind: new Uint8Array(n), shade: new Uint8Array(n), ids: Array.from({ length: n }, (_, i) => `r${i}`),
+    };
+    for (let i = 0; i < n; i++) { g.xiArcsec[i] = (rnd() - 0.5) * 4000 * rnd(); g.etaArcsec[i] = (rnd() - 0.5) * 3000; }
+    g.xiArcsec[7] = NaN; // a row with no position is never drawn
+    const w = 300, h = 200;
+    for (const view of [
+      { pxPerArcsec: 0.05, centreXiArcsec: 0, centreEtaArcsec: 0 },
+      { pxPerArcsec: 0.6, centreXiArcsec: 300, centreEtaArcsec: -200 },
+      { pxPerArcsec: 3, centreXiArcsec: -1500, centreEtaArcsec: 1400 },
+      { pxPerArcsec: 1, centreXiArcsec: 9000, centreEtaArcsec: 0 },
+    ]) {
+      const c = { ...view, widthPx: w, heightPx: h } as Camera;
+      const drawn = rasterCatalog(new Uint32Array(w * h), w, h, 1, g, c, new Set(), null);
+      // Screen position of a row: x = w/2 - (xi - centre xi) * scale, y = h/2 - (eta - centre eta) * scale (North up, East left).
+      let expected = 0;
+      for (let i = 0; i < n; i++) {
+        const x = Math.round(w / 2 - (g.xiArcsec[i] - c.centreXiArcsec) * c.pxPerArcsec), y = Math.round(h / 2 - (g.etaArcsec[i] - c.centreEtaArcsec) * c.pxPerArcsec);
+        if (x > -12 && y > -12 && x < w + 12 && y < h + 12) expected++;
+      }
+      expect(drawn, JSON.stringify(view)).toBe(expected);
+    }
+  });
+});

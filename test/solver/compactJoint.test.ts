@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { allocateJoint, compactJointProblem, jointObjective } from '../../src/core/solver/jointAllocation';
+import { allocateGreedyMaskByMask, allocateJoint, compactJointProblem, jointObjective, resolveOneMask } from '../../src/core/solver/jointAllocation';
+import { weightedIntervalScheduling } from '../../src/core/solver/intervalScheduling';
 import { randomJointProblem } from './randomJoint';
 
 describe('the joint problem over the objects on the masks only', () => {
@@ -21,6 +22,24 @@ describe('the joint problem over the objects on the masks only', () => {
       expect(jointObjective(compact, b.chosen)).toBe(jointObjective(problem, a.chosen));
       // A second call reuses its scratch map: the same result again.
       expect(compactJointProblem(problem.weights, problem.masks).masks[0].objects).toEqual(compact.masks[0].objects);
+    }
+  });
+
+  it('re-solves one mask of a large catalog exactly with the others fixed, and leaves its scratch clean', () => {
+    const problem = randomJointProblem('resolve-large', { objects: 5000, masks: 4, perMask: 200, lengthArcsec: 600 });
+    const base = allocateGreedyMaskByMask(problem).chosen;
+    for (let round = 0; round < 2; round++) {
+      for (let m = 0; m < 4; m++) {
+        const next = resolveOneMask(problem, base, m);
+        // The other masks keep their slits; mask m gets the optimum over the objects no other mask holds.
+        for (let b = 0; b < 4; b++) if (b !== m) expect(next[b]).toEqual(base[b]);
+        const held = new Set(base.flatMap((sel, b) => (b === m ? [] : sel.map((k) => problem.masks[b].objects[k]))));
+        const set = problem.masks[m];
+        const w = Array.from(set.objects, (o) => (held.has(o) ? 0 : problem.weights[o]));
+        const opt = weightedIntervalScheduling(set.starts, set.ends, w).total;
+        expect(next[m].reduce((a, k) => a + w[k], 0)).toBeCloseTo(opt, 9);
+        expect(next[m].every((k) => !held.has(set.objects[k]))).toBe(true);
+      }
     }
   });
 });

@@ -270,6 +270,19 @@ export class RowValidator {
 
   private readonly why: CellWhy = { reason: null };
 
+  /** Per extra column, one copy of each short text seen (a column of a few kinds repeated over a million rows). */
+  private readonly internPools: Map<string, string>[] = [];
+
+  /** `text` itself, or the equal string kept from an earlier row of extra column k (short texts, up to 4096 kinds a column). */
+  private interned(k: number, text: string): string {
+    if (text.length > 24) return text;
+    const pool = (this.internPools[k] ??= new Map());
+    const seen = pool.get(text);
+    if (seen !== undefined) return seen;
+    if (pool.size < 4096) pool.set(text, text);
+    return text;
+  }
+
   private reject(line: number, field: number, reason: string): void {
     // A reason quoting a huge cell is cut: the report names the row, it need not repeat megabytes of it.
     this.rejects.push({ line, column: truncateText(this.names[field], 200), reason: truncateText(reason, 200) });
@@ -332,7 +345,7 @@ export class RowValidator {
     let extra = NO_EXTRA;
     if (extraIdx.length > 0) {
       extra = {};
-      for (let k = 0; k < extraIdx.length; k++) extra[this.names[extraIdx[k]]] = row.text(extraIdx[k]);
+      for (let k = 0; k < extraIdx.length; k++) extra[this.names[extraIdx[k]]] = this.interned(k, row.text(extraIdx[k]));
     }
     this.targets.push({ id, raDeg, decDeg, mag, color, priority, role, line, extra });
   }

@@ -15,8 +15,8 @@ import { coverageReport, type CoverageReport } from '../coverage/coverage';
 import { galaxyRadiusAndAzimuth } from '../sky/galaxyRadius';
 import { planGoals, type GoalStatus } from '../coverage/goals';
 import type { MaskPointing, MaskSolution } from '../geometry/maskSolution';
-import { weighTargets, type WeightingResult } from '../solver/weighting';
-import type { WeightingRules } from '../plan/weightingSection';
+import { keptColumnsOf, weighTargets, type WeightingResult } from '../solver/weighting';
+import { type WeightingRules } from '../plan/weightingSection';
 import { placeStarlightAndSky, starlightSettings } from '../solver/starlight';
 import { startLayouts, searchEnv, searchPointings, starlightTrade, type SearchReport } from '../solver/pointingSearch';
 import { objectiveContext } from '../solver/objective';
@@ -95,6 +95,11 @@ export const DEFAULT_MAX_LENGTH_FACTOR = 3;
  */
 export function targetWeights(plan: PlanFile, targets: readonly Target[], warnings: string[], weighting: WeightingResult = weighPlanTargets(plan, targets)): Float64Array {
   const w = new Float64Array(targets.length);
+  const cols = keptColumnsOf(weighting, targets);
+  if (cols) {
+    for (let j = 0; j < cols.index.length; j++) { const i = cols.index[j]; w[i] = targets[i].role === 'alignment' ? 1 : cols.weight[j]; }
+    return withOverrides(plan, targets, warnings, w);
+  }
   // The kept targets are a subsequence of the catalog in catalog order (weighTargets keeps the order), so one walk
   // pairs them without an index of every id; a list of another order falls back to the lookup by id.
   const kept = weighting.targets;
@@ -108,6 +113,11 @@ export function targetWeights(plan: PlanFile, targets: readonly Target[], warnin
     const byId = new Map(kept.map((t) => [t.id, t]));
     targets.forEach((t, i) => { const k = byId.get(t.id); w[i] = k ? (t.role === 'alignment' ? 1 : k.weight) : 0; });
   }
+  return withOverrides(plan, targets, warnings, w);
+}
+
+/** Weights w with targetOverrides' `force: "in"` applied (an unknown id is a warning). */
+function withOverrides(plan: PlanFile, targets: readonly Target[], warnings: string[], w: Float64Array): Float64Array {
   const overrides = Object.entries(plan.targetOverrides ?? {});
   if (overrides.length === 0) return w;
   const index = new Map(targets.map((t, i) => [t.id, i]));

@@ -72,7 +72,7 @@ export function coverageSummaryLines(s: SummaryInput): string[] {
     lines.push('weighting rules:');
     for (const r of s.weighting.rulesText) lines.push(`  ${r}`);
     const counts = exclusionCounts(s.weighting.excluded);
-    lines.push(`  ${s.weighting.targets.length} targets kept, ${s.weighting.excluded.length} excluded${counts.length ? ': ' + counts.map((c) => `${c.count} by ${c.rule}`).join(', ') : ''}`);
+    lines.push(`  ${s.weighting.kept?.index.length ?? s.weighting.targets.length} targets kept, ${s.weighting.excluded.length} excluded${counts.length ? ': ' + counts.map((c) => `${c.count} by ${c.rule}`).join(', ') : ''}`);
   }
   if (s.search) {
     const r = s.search;

@@ -137,11 +137,25 @@ function bestResponse(problem: JointProblem, owner: Int32Array, chosen: number[]
   for (const k of chosen[m]) owner[set.objects[k]] = m;
 }
 
-/** Re-solve one mask exactly with the others fixed (the editor's drag); returns a new selection, never a worse total. */
+/** Scratch owner per catalog object for resolveOneMask (-1: no mask); every entry set is reset before return. */
+let ownerScratch = new Int32Array(0);
+
+/**
+ * Re-solve one mask exactly with the others fixed (the editor's drag, the search's trial move); returns a new
+ * selection, never a worse total. O(candidates of mask m + slits chosen on all masks): only the chosen objects are
+ * marked in a scratch owner array kept between calls, so nothing of the catalog's size is built or scanned.
+ */
 export function resolveOneMask(problem: JointProblem, chosen: readonly (readonly number[])[], m: number): number[][] {
-  problem = overMaskObjects(problem);
   const next = chosen.map((s) => s.slice());
-  bestResponse(problem, ownerOf(problem, next), next, m);
+  if (ownerScratch.length < problem.weights.length) ownerScratch = new Int32Array(problem.weights.length).fill(-1);
+  const owner = ownerScratch;
+  // As ownerOf: masks in order, a later mask's claim overwriting an earlier one's.
+  next.forEach((sel, b) => { for (const k of sel) owner[problem.masks[b].objects[k]] = b; });
+  try {
+    bestResponse(problem, owner, next, m);
+  } finally {
+    for (const sels of [chosen, next]) sels.forEach((sel, b) => { for (const k of sel) owner[problem.masks[b].objects[k]] = -1; });
+  }
   return next;
 }
 

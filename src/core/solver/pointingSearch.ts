@@ -218,12 +218,12 @@ export interface SearchResult {
  * The candidate set of intervals already sorted by end (equal lengths, sorted by start): the interval index of
  * solver/intervalScheduling (order by end, pred[k] = number of intervals ending at or before start k) in one pass.
  */
-function equalLengthCandidateSet(objects: Int32Array, starts: Float64Array, ends: Float64Array): MaskCandidateSet {
+function equalLengthCandidateSet(objects: Int32Array, starts: Float64Array, ends: Float64Array, identity: Int32Array): MaskCandidateSet {
   const n = objects.length;
-  const order = new Int32Array(n), pred = new Int32Array(n);
+  // The order is the identity: a read-only view of a shared 0, 1, 2, ... array (nothing allocated for it).
+  const order = identity.subarray(0, n), pred = new Int32Array(n);
   let j = 0;
   for (let k = 0; k < n; k++) {
-    order[k] = k;
     while (j < k && ends[j] <= starts[k]) j++;
     pred[k] = j;
   }
@@ -253,8 +253,13 @@ export function proxyModel(env: SearchEnv): (p: MaskPointing, liberal?: boolean)
   const L = profile.slits.minLengthArcsec, gap = profile.slits.gapArcsec;
   const slitRaster = footprintRaster(profile.footprint, profile.slits.widthArcsec / 2, L / 2);
   const { x: ux, y: uy, z: uz } = ctx.unit;
-  const bufObj = new Int32Array(ctx.tracerIndices.length), bufY = new Float64Array(ctx.tracerIndices.length);
-  // Tracers binned in square cells of the galaxy's tangent plane, so a trial only visits cells near the mask.
+  const nT = ctx.tracerIndices.length;
+  const bufObj = new Int32Array(nT), bufY = new Float64Array(nT), keys = new Float64Array(nT);
+  const sortWork: SortWork = { out: new Int32Array(nT), start: new Int32Array(nT + 1), fill: new Int32Array(nT) };
+  const identity = Int32Array.from({ length: nT }, (_, k) => k);
+  // Tracers binned in square cells of the galaxy's tangent plane, so a trial only visits cells near the mask. The cells
+  // are flat typed arrays (cell c holds positions cellStart[c] .. cellStart[c + 1] - 1, in first-seen cell order and
+  // catalog order inside a cell), with each tracer's unit vector and tangent-plane offset copied alongside.
   const cell = 60, gc = tangentCentre(ctx.galaxy.raDeg, ctx.galaxy.decDeg);
   const cells = new Map<number, number[]>();
   const key = (cx: number, cy: number) => (cx + 32768) * 65536 + (cy + 32768);
@@ -265,10 +270,28 @@ export function proxyModel(env: SearchEnv): (p: MaskPointing, liberal?: boolean)
     if (!list) cells.set(k, (list = []));
     list.push(i);
   }
-  const cellList = [...cells.entries()].map(([k, list]) => ({ k, list: Int32Array.from(list), cxi: (Math.floor(k / 65536) - 32768 + 0.5) * cell, ceta: ((k % 65536) - 32768 + 0.5) * cell }));
-  // A cell is visited when its centre, in the mask frame, lies within the footprint bounds grown by the cell's
-  // half-diagonal and a margin for the difference between the galaxy's and the mask's tangent planes.
-  const grow = cell * Math.SQRT1_2 + 30;
+  const nCells = cells.size;
+  const cellKeyOf = new Float64Array(nCells), cellXi = new Float64Array(nCells), cellEta = new Float64Array(nCells), cellStart = new Int32Array(nCells + 1);
+  const pObj = new Int32Array(nT), pX = new Float64Array(nT), pY = new Float64Array(nT), pZ = new Float64Array(nT);
+  const pXi = new Float64Array(nT), pEta = new Float64Array(nT);
+  {
+    let c = 0, at = 0;
+    for (const [k, list] of cells) {
+      cellKeyOf[c] = k; cellXi[c] = (Math.floor(k / 65536) - 32768 + 0.5) * cell; cellEta[c] = ((k % 65536) - 32768 + 0.5) * cell;
+      cellStart[c] = at;
+      for (const i of list) { pObj[at] = i; pX[at] = ux[i]; pY[at] = uy[i]; pZ[at] = uz[i]; pXi[at] = env.xi[i]; pEta[at] = env.eta[i]; at++; }
+      c++;
+    }
+    cellStart[nCells] = at;
+  }
+  cells.clear();
+  // The galaxy's and a mask's tangent planes differ by far less than this margin near the galaxy: the scales differ by
+  // a fraction of order d^2 (d: distance between the two tangent points, radians), about 0.2" at 600" from a mask
+  // centre 1 degree away, so 30" holds for masks up to about 10 degrees from the galaxy; a cell is visited when its centre,
+  // in the mask frame, lies within the footprint bounds grown by the cell's half-diagonal and this margin, and a
+  // tracer is projected exactly only when its own offset passes the same bounds grown by the margin alone.
+  const margin = 30, grow = cell * Math.SQRT1_2 + margin;
+  const loX = b.minX - margin, hiX = b.maxX + margin, loY = b.minY - margin, hiY = b.maxY + margin;
 
   return (p: MaskPointing, liberal = false): ProxyMask => {
     const basis = maskBasis(p);
@@ -278,29 +301,35 @@ export function proxyModel(env: SearchEnv): (p: MaskPointing, liberal?: boolean)
     const up = maskPointToSkyDeg(p, 0, 60), pu = skyToTangentArcsec(gc, up.raDeg, up.decDeg);
     const upA = pc && pu ? PMath.atan2(pu.xiArcsec - pc.xiArcsec, pu.etaArcsec - pc.etaArcsec) : p.paDeg * RAD_PER_DEG;
     const gsp = PMath.sin(upA), gcp = PMath.cos(upA);
+    const pcXi = pc ? pc.xiArcsec : 0, pcEta = pc ? pc.etaArcsec : 0;
     // Candidates in y order (so that the interval index's sort by end is a single pass), no allocation per target.
     let n = 0;
-    for (const c of cellList) {
-      if (pc && c.k >= 0) {
-        const dxi = c.cxi - pc.xiArcsec, deta = c.ceta - pc.etaArcsec;
+    for (let c = 0; c < nCells; c++) {
+      const culled = pc !== null && cellKeyOf[c] >= 0;
+      if (culled) {
+        const dxi = cellXi[c] - pcXi, deta = cellEta[c] - pcEta;
         const mx = dxi * gcp - deta * gsp, my = dxi * gsp + deta * gcp;
         if (mx < b.minX - grow || mx > b.maxX + grow || my < b.minY - grow || my > b.maxY + grow) continue;
       }
-      for (const i of c.list) {
-      const px = ux[i], py = uy[i], pz = uz[i];
-      const cosC = maskCosC(basis, px, py, pz);
-      if (cosC < 0.9) continue; // farther than ~25 degrees: never on a mask
-      unitToMaskArcsec(basis, px, py, pz, cosC, at);
-      const x = at.xArcsec, y = at.yArcsec;
-      if (x < b.minX || x > b.maxX || y < b.minY || y > b.maxY) continue;
-      if (!wavelengthOk(ctx.rules, x) || (!liberal && !rasterFits(slitRaster, x, y))) continue;
-      bufObj[n] = i; bufY[n] = y; n++;
+      for (let q = cellStart[c], qEnd = cellStart[c + 1]; q < qEnd; q++) {
+        if (culled) {
+          const dxi = pXi[q] - pcXi, deta = pEta[q] - pcEta;
+          const mx = dxi * gcp - deta * gsp, my = dxi * gsp + deta * gcp;
+          if (mx < loX || mx > hiX || my < loY || my > hiY) continue;
+        }
+        const px = pX[q], py = pY[q], pz = pZ[q];
+        const cosC = maskCosC(basis, px, py, pz);
+        if (cosC < 0.9) continue; // farther than ~25 degrees: never on a mask
+        unitToMaskArcsec(basis, px, py, pz, cosC, at);
+        const x = at.xArcsec, y = at.yArcsec;
+        if (x < b.minX || x > b.maxX || y < b.minY || y > b.maxY) continue;
+        if (!wavelengthOk(ctx.rules, x) || (!liberal && !rasterFits(slitRaster, x, y))) continue;
+        bufObj[n] = pObj[q]; bufY[n] = y; n++;
       }
     }
     // Order by y quantised to 1e-4 arcsec (ordering only), ties by position: a bucket sort, O(n) for spread-out y.
-    const keys = new Float64Array(n);
     for (let k = 0; k < n; k++) keys[k] = Math.floor((bufY[k] + 1e4) * 1e4);
-    const byY = orderByKey(keys);
+    const byY = orderByKeyInto(keys, n, sortWork);
     const objects = new Int32Array(n), y = new Float64Array(n), starts = new Float64Array(n), ends = new Float64Array(n);
     for (let k = 0; k < n; k++) {
       const j = byY[k];
@@ -310,9 +339,12 @@ export function proxyModel(env: SearchEnv): (p: MaskPointing, liberal?: boolean)
     // The allocation's own alignment rule (shared stars allowed; boxes clear of each other along y).
     const alignmentMax = liberal ? 0 : alignmentCapacity(ctx, p).compatibleMax;
     // The liberal set feeds a proven bound: its interval index is built exactly (sorted by end), not from the packed keys.
-    return { set: liberal ? maskCandidateSet(objects, starts, ends) : equalLengthCandidateSet(objects, starts, ends), y, alignmentMax };
+    return { set: liberal ? maskCandidateSet(objects, starts, ends) : equalLengthCandidateSet(objects, starts, ends, identity), y, alignmentMax };
   };
 }
+
+/** Reusable buffers of orderByKeyInto for up to out.length keys (start: length + 1). */
+interface SortWork { out: Int32Array; start: Int32Array; fill: Int32Array }
 
 /**
  * Positions 0..n-1 of `keys` ordered by (key, position) ascending, the order of a stable sort: a counting sort into
@@ -320,16 +352,21 @@ export function proxyModel(env: SearchEnv): (p: MaskPointing, liberal?: boolean)
  */
 export function orderByKey(keys: Float64Array): Int32Array {
   const n = keys.length;
-  const out = new Int32Array(n);
+  return orderByKeyInto(keys, n, { out: new Int32Array(n), start: new Int32Array(n + 1), fill: new Int32Array(n) }).slice(0, n);
+}
+
+/** orderByKey of the first n keys, in `work`'s buffers (no allocation): the result is work.out's first n entries. */
+function orderByKeyInto(keys: Float64Array, n: number, work: SortWork): Int32Array {
+  const { out, start, fill } = work;
   if (n === 0) return out;
   let lo = Infinity, hi = -Infinity;
   for (let k = 0; k < n; k++) { if (keys[k] < lo) lo = keys[k]; if (keys[k] > hi) hi = keys[k]; }
   const scale = hi > lo ? (n - 1) / (hi - lo) : 0;
   const bucketOf = (k: number) => Math.min(n - 1, Math.floor((keys[k] - lo) * scale));
-  const start = new Int32Array(n + 1);
+  start.fill(0, 0, n + 1);
   for (let k = 0; k < n; k++) start[bucketOf(k) + 1]++;
   for (let b = 0; b < n; b++) start[b + 1] += start[b];
-  const fill = start.slice(0, n);
+  fill.set(start.subarray(0, n));
   // Positions enter their bucket in increasing order, so equal keys keep position order (a stable insertion sort).
   for (let k = 0; k < n; k++) out[fill[bucketOf(k)]++] = k;
   for (let b = 0; b < n; b++) {

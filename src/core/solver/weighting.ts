@@ -47,8 +47,31 @@ export interface ExcludedTarget {
   reason: string;
 }
 
+/**
+ * The kept targets as columns (struct of arrays), one entry per kept target in catalog order: its position in the
+ * target list given to weighTargets, and its weight, source, forcing, R/Re and azimuth. What the solver needs,
+ * without one object per catalog row.
+ */
+export interface KeptColumns {
+  /** Position of each kept target in the list given to weighTargets (increasing). */
+  index: Int32Array;
+  weight: Float64Array;
+  /** Index into WEIGHT_SOURCES. */
+  source: Uint8Array;
+  /** 1 when forced in by targetOverrides. */
+  forced: Uint8Array;
+  radiusRe: Float64Array;
+  azimuthDeg: Float64Array;
+}
+
+/** The weight sources in the order of KeptColumns.source's codes. */
+export const WEIGHT_SOURCES: readonly WeightSource[] = ['formula', 'priority', 'override', 'alignment'];
+
 export interface WeightingResult {
+  /** The kept targets as objects (built from `kept` and the catalog rows on first read, then kept). */
   targets: WeightedTarget[];
+  /** The kept targets as columns (the solver's path; no per-row objects). */
+  kept?: KeptColumns;
   excluded: ExcludedTarget[];
   /** A text line per rule in effect, e.g. "magnitude window 18.0 <= mag <= 23.0". */
   rulesText: string[];
@@ -129,13 +152,21 @@ export function weighTargets(targets: readonly Target[], galaxy: GalaxyModel, ru
     radiusExponent: fr.radiusExponent ?? WEIGHT_DEFAULTS.radiusExponent,
   };
   const regions = (rules.exclusions ?? []).map((r, i) => ({ r, i, c: regionCentreSkyArcsec(r, galaxy) }));
-  const out: WeightedTarget[] = [];
+  const n = targets.length;
+  const keptIndex = new Int32Array(n), keptWeight = new Float64Array(n), keptSource = new Uint8Array(n), keptForced = new Uint8Array(n);
+  const keptRadius = new Float64Array(n), keptAzimuth = new Float64Array(n);
+  let nKept = 0;
+  const keep = (i: number, weight: number, source: WeightSource, forced: boolean, radiusRe: number, azimuthDeg: number) => {
+    keptIndex[nKept] = i; keptWeight[nKept] = weight; keptSource[nKept] = WEIGHT_SOURCES.indexOf(source); keptForced[nKept] = forced ? 1 : 0;
+    keptRadius[nKept] = radiusRe; keptAzimuth[nKept] = azimuthDeg; nKept++;
+  };
   const excluded: ExcludedTarget[] = [];
   const ov = overrides ?? {};
   const hasOverrides = Object.keys(ov).length > 0;
   const s0 = PMath.sin(galaxy.paDeg * RAD_PER_DEG), c0 = PMath.cos(galaxy.paDeg * RAD_PER_DEG);
   // Plain loops without closures: this runs once per catalog row.
-  for (const t of targets) {
+  for (let ti = 0; ti < n; ti++) {
+    const t = targets[ti];
     const p = skyToTangentArcsec(centre, t.raDeg, t.decDeg);
     const xi = p ? p.xiArcsec : Infinity, eta = p ? p.etaArcsec : Infinity;
     // Galaxy frame (interface contract): u = xi sin(theta) + eta cos(theta), v = xi cos(theta) - eta sin(theta).
@@ -154,7 +185,7 @@ export function weighTargets(targets: readonly Target[], galaxy: GalaxyModel, ru
       }
     }
     if (!rule && t.role === 'alignment') {
-      out.push(Object.assign({}, t, { weight: 0, weightSource: 'alignment' as const, forced: o?.force === 'in', radiusRe, azimuthDeg }));
+      keep(ti, 0, 'alignment', o?.force === 'in', radiusRe, azimuthDeg);
       continue;
     }
     if (!rule && !lifted) {
@@ -170,10 +201,44 @@ export function weighTargets(targets: readonly Target[], galaxy: GalaxyModel, ru
       if (!(weight > 0) || !Number.isFinite(weight)) { rule = 'weight'; reason = `weight ${weight} is not a positive number`; }
     }
     if (rule) { excluded.push({ id: t.id, line: t.line, role: t.role, rule, reason }); continue; }
-    // Object.assign rather than object spread: several times faster here once transpiled.
-    out.push(Object.assign({}, t, { weight, weightSource, forced: o?.force === 'in', radiusRe, azimuthDeg }));
+    keep(ti, weight, weightSource, o?.force === 'in', radiusRe, azimuthDeg);
   }
-  return { targets: out, excluded, rulesText: describeRules(rules, formula, ov), formula };
+  const kept: KeptColumns = {
+    index: keptIndex.slice(0, nKept), weight: keptWeight.slice(0, nKept), source: keptSource.slice(0, nKept), forced: keptForced.slice(0, nKept),
+    radiusRe: keptRadius.slice(0, nKept), azimuthDeg: keptAzimuth.slice(0, nKept),
+  };
+  const result = { kept, excluded, rulesText: describeRules(rules, formula, ov), formula } as WeightingResult;
+  weighedFrom.set(kept, targets);
+  // The objects only when someone reads them (the editor's panels, exports): an own enumerable property, so a
+  // structured clone or a spread of the result still carries them.
+  let objects: WeightedTarget[] | null = null;
+  Object.defineProperty(result, 'targets', {
+    enumerable: true,
+    configurable: true,
+    get: () => (objects ??= keptTargetObjects(targets, kept)),
+    set: (v: WeightedTarget[]) => { objects = v; },
+  });
+  return result;
+}
+
+/** The target list each KeptColumns was computed from (positions in `index` refer to it). */
+const weighedFrom = new WeakMap<KeptColumns, readonly Target[]>();
+
+/** The kept columns of a weighting when it was computed from exactly this target list, else null. */
+export function keptColumnsOf(weighting: WeightingResult, targets: readonly Target[]): KeptColumns | null {
+  return weighting.kept && weighedFrom.get(weighting.kept) === targets ? weighting.kept : null;
+}
+
+/** The kept targets as WeightedTarget objects (catalog row plus weight, source, forcing, R/Re and azimuth). */
+export function keptTargetObjects(targets: readonly Target[], kept: KeptColumns): WeightedTarget[] {
+  const out: WeightedTarget[] = new Array(kept.index.length);
+  for (let j = 0; j < out.length; j++) {
+    // Object.assign rather than object spread: several times faster here once transpiled.
+    out[j] = Object.assign({}, targets[kept.index[j]], {
+      weight: kept.weight[j], weightSource: WEIGHT_SOURCES[kept.source[j]], forced: kept.forced[j] === 1, radiusRe: kept.radiusRe[j], azimuthDeg: kept.azimuthDeg[j],
+    });
+  }
+  return out;
 }
 
 /** One text line per rule in effect, for the report and the plan summary. */

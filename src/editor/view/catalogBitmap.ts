@@ -69,9 +69,12 @@ export class CatalogLayer {
     if (this.off.height !== h) this.off.height = h;
     const c = this.off.getContext('2d')!;
     const img = c.createImageData(w, h);
-    rasterCatalog(new Uint32Array(img.data.buffer), w, h, pr, this.data.g!, big, this.data.selected, this.data.onSlit);
+    const drawn = rasterCatalog(new Uint32Array(img.data.buffer), w, h, pr, this.data.g!, big, this.data.selected, this.data.onSlit);
     c.putImageData(img, 0, 0);
     this.renders++;
+    // For tests and benchmarks: markers in the last raster (the view and half a view around it), and the raster's area.
+    this.canvas.dataset.rasterDots = String(drawn);
+    this.canvas.dataset.rasterArea = `${big.centreXiArcsec},${big.centreEtaArcsec},${big.widthPx},${big.heightPx},${big.pxPerArcsec}`;
     this.rendered = { cam: big, inputs };
     return this.rendered;
   }

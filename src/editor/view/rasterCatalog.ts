@@ -8,6 +8,7 @@
 import type { Camera } from './camera';
 import { KIND_ALIGNMENT, KIND_EXCLUDED, KIND_TRACER, type CatalogGeometry } from './catalogGeometry';
 import { INK, ROLE_STYLE, SHADE_STEPS, weightShade } from './palette';
+import { rowsNear } from './catalogIndex';
 
 /** CSS colour "#rrggbb" or "rgb(r, g, b)" to a little-endian RGBA word for a Uint32Array view of ImageData. */
 export function rgbaWord(css: string, alpha = 255): number {
@@ -75,50 +76,71 @@ function stamp(px: Uint32Array, w: number, h: number, cx: number, cy: number, of
   }
 }
 
+/** Pixel offsets of an excluded object's cross (both diagonals, half-length r px) and of an alignment star's diamond outline (radius r px), cached by r. */
+const crossCache = new Map<number, Int16Array>();
+const diamondCache = new Map<number, Int16Array>();
+function cross(r: number): Int16Array {
+  let d = crossCache.get(r);
+  if (!d) {
+    const pts: number[] = [];
+    for (let k = -r; k <= r; k++) pts.push(k, k, k, -k);
+    crossCache.set(r, (d = Int16Array.from(pts)));
+  }
+  return d;
+}
+function diamond(r: number): Int16Array {
+  let d = diamondCache.get(r);
+  if (!d) {
+    const pts: number[] = [];
+    for (let k = 0; k <= r; k++) pts.push(k, -r + k, r - k, k, -k, r - k, -r + k, -k);
+    diamondCache.set(r, (d = Int16Array.from(pts)));
+  }
+  return d;
+}
+
 /** Raster the catalog for camera `cam` into `px` (w x h device pixels, `pr` device pixels per CSS pixel). */
-export function rasterCatalog(px: Uint32Array, w: number, h: number, pr: number, g: CatalogGeometry, cam: Camera, selected: ReadonlySet<number>, onSlit: Uint8Array | null): void {
+export function rasterCatalog(px: Uint32Array, w: number, h: number, pr: number, g: CatalogGeometry, cam: Camera, selected: ReadonlySet<number>, onSlit: Uint8Array | null): number {
   const s = cam.pxPerArcsec;
   const ox = cam.widthPx / 2 + cam.centreXiArcsec * s, oy = cam.heightPx / 2 + cam.centreEtaArcsec * s;
   const zf = Math.max(0.7, Math.min(2.2, Math.pow(s / 0.6, 0.35))) * pr;
   const shades = Array.from({ length: SHADE_STEPS }, (_, b) => rgbaWord(weightShade((b + 0.5) / SHADE_STEPS)));
   const align = rgbaWord(ROLE_STYLE.alignment.colour), excluded = rgbaWord(INK.excluded);
   const tracerRing = rgbaWord(ROLE_STYLE.tracer.colour), white = rgbaWord(INK.selection), black = rgbaWord('#000000');
-  const X = new Int32Array(g.count), Y = new Int32Array(g.count);
-  for (let i = 0; i < g.count; i++) {
-    X[i] = Math.round((ox - g.xiArcsec[i] * s) * pr);
-    Y[i] = Math.round((oy - g.etaArcsec[i] * s) * pr);
+  // Only the rows near the raster's area (a grid index of the geometry), in catalog order: a raster costs what it shows.
+  const pad = 14;
+  const near = rowsNear(g, (ox - (w + pad) / pr) / s, (ox + pad / pr) / s, (oy - (h + pad) / pr) / s, (oy + pad / pr) / s);
+  const X = new Int32Array(near.length), Y = new Int32Array(near.length);
+  for (let q = 0; q < near.length; q++) {
+    X[q] = Math.round((ox - g.xiArcsec[near[q]] * s) * pr);
+    Y[q] = Math.round((oy - g.etaArcsec[near[q]] * s) * pr);
   }
-  const inside = (i: number, m: number) => X[i] > -m && Y[i] > -m && X[i] < w + m && Y[i] < h + m;
-  for (let i = 0; i < g.count; i++) {
-    if (!inside(i, 12)) continue;
+  const inside = (q: number, m: number) => X[q] > -m && Y[q] > -m && X[q] < w + m && Y[q] < h + m;
+  let drawn = 0;
+  for (let q = 0; q < near.length; q++) {
+    if (!inside(q, 12)) continue;
+    const i = near[q];
+    drawn++;
     const k = g.kind[i];
-    if (k === KIND_TRACER) stamp(px, w, h, X[i], Y[i], disc(g.radiusPx[i] * zf), shades[g.shade[i]]);
-    else if (k === KIND_EXCLUDED) {
-      const r = Math.round(2.2 * zf);
-      for (let d = -r; d <= r; d++) {
-        for (const [x, y] of [[X[i] + d, Y[i] + d], [X[i] + d, Y[i] - d]]) if (x >= 0 && y >= 0 && x < w && y < h) px[y * w + x] = excluded;
-      }
-    } else if (k === KIND_ALIGNMENT) {
-      const r = Math.round((g.radiusPx[i] + 2) * zf);
-      for (let d = 0; d <= r; d++) {
-        for (const [x, y] of [[X[i] + d, Y[i] - r + d], [X[i] + r - d, Y[i] + d], [X[i] - d, Y[i] + r - d], [X[i] - r + d, Y[i] - d]]) {
-          if (x >= 0 && y >= 0 && x < w && y < h) px[y * w + x] = align;
-        }
-      }
-    }
+    if (k === KIND_TRACER) stamp(px, w, h, X[q], Y[q], disc(g.radiusPx[i] * zf), shades[g.shade[i]]);
+    else if (k === KIND_EXCLUDED) stamp(px, w, h, X[q], Y[q], cross(Math.round(2.2 * zf)), excluded);
+    else if (k === KIND_ALIGNMENT) stamp(px, w, h, X[q], Y[q], diamond(Math.round((g.radiusPx[i] + 2) * zf)), align);
   }
   if (onSlit && onSlit.length === g.count) {
-    for (let i = 0; i < g.count; i++) {
-      if (!onSlit[i] || !inside(i, 12)) continue;
+    for (let q = 0; q < near.length; q++) {
+      const i = near[q];
+      if (!onSlit[i] || !inside(q, 12)) continue;
       const r = g.radiusPx[i] * zf + 2.2 * pr;
-      if (onSlit[i] === 2) stamp(px, w, h, X[i], Y[i], squareRing(r + 2 * pr, 1.6 * pr), align);
-      else stamp(px, w, h, X[i], Y[i], ring(r, 1.4 * pr), tracerRing);
+      if (onSlit[i] === 2) stamp(px, w, h, X[q], Y[q], squareRing(r + 2 * pr, 1.6 * pr), align);
+      else stamp(px, w, h, X[q], Y[q], ring(r, 1.4 * pr), tracerRing);
     }
   }
   for (const i of selected) {
-    if (i < 0 || i >= g.count || !inside(i, 12)) continue;
+    if (i < 0 || i >= g.count) continue;
+    const x = Math.round((ox - g.xiArcsec[i] * s) * pr), y = Math.round((oy - g.etaArcsec[i] * s) * pr);
+    if (!(x > -12 && y > -12 && x < w + 12 && y < h + 12)) continue;
     const r = g.radiusPx[i] * zf + 4.5 * pr;
-    stamp(px, w, h, X[i], Y[i], ring(r, 3.2 * pr), black);
-    stamp(px, w, h, X[i], Y[i], ring(r, 1.5 * pr), white);
+    stamp(px, w, h, x, y, ring(r, 3.2 * pr), black);
+    stamp(px, w, h, x, y, ring(r, 1.5 * pr), white);
   }
+  return drawn;
 }
