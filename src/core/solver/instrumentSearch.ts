@@ -11,6 +11,7 @@ import { candidateValues, contextFor } from './maskContext';
 import { placeStarlightAndSky, placeStarlightOnMask, starlightSettings, starlightStage, starlightTaken, type StarlightResult, type StarlightRules, type StarlightStage, type StarlightTrade } from './starlight';
 import type { AllocationContext } from './allocateMasks';
 import type { ProxyMask, SearchEnv } from './pointingSearch';
+import { refractionLossModel } from './refractionTerm';
 import type { MaskPointing, MaskSolution } from './types';
 
 const subEnvs = new WeakMap<SearchEnv, Map<string, SearchEnv>>();
@@ -23,7 +24,10 @@ export function envFor(env: SearchEnv, mask: Pick<MaskPointing, 'instrument'>): 
   let sub = byId.get(mask.instrument);
   if (!sub) {
     const ctx = contextFor(env.ctx, mask);
-    sub = ctx === env.ctx ? env : { ...env, ctx, starlight: starlightSettings(env.plan.starlight as StarlightRules | undefined, ctx.profile, env.plan) };
+    sub = ctx === env.ctx ? env : {
+      ...env, ctx, starlight: starlightSettings(env.plan.starlight as StarlightRules | undefined, ctx.profile, env.plan),
+      refractionLoss: refractionLossModel(env.plan, ctx.profile, env.objective.weights.aRefraction),
+    };
     byId.set(mask.instrument, sub);
   }
   return sub;

@@ -37,6 +37,7 @@ import type { MaskPointing, MaskSolution } from './types';
 import { PMath } from '../numeric/portableMath';
 import { contextFor, tracerRowValue } from './maskContext';
 import { envFor, footprintScaleArcsec, instrumentsProxyModel, placeStarlightForMasks } from './instrumentSearch';
+import { refractionLossModel, type RefractionLoss } from './refractionTerm';
 
 /** Where a start layout puts its k-th free mask (of nFree): offset (u major, v minor, arcsec) and the long side's direction (degrees from the major axis). */
 type FreePlacement = (k: number, nFree: number, halfLongArcsec: number) => { uArcsec: number; vArcsec: number; longDirDeg: number };
@@ -133,6 +134,8 @@ export interface SearchEnv {
   xi: Float64Array;
   eta: Float64Array;
   bn: number;
+  /** Fraction of a mask's tracer light lost to refraction across its slits (solver/refractionTerm.ts); null when search.objective.aRefraction is 0. */
+  refractionLoss: RefractionLoss | null;
 }
 
 /** Build the evaluation environment (cached target positions) for a plan and an allocation context. */
@@ -149,9 +152,10 @@ export function searchEnv(plan: PlanFile, ctx: AllocationContext): SearchEnv {
     azimuthDeg[i] = r.phiDeg;
   }
   const tracerWeights = Array.from(ctx.tracerIndices, (i) => ctx.weights[i]);
+  const objective = objectiveContext(plan.goals, plan.search as SearchRules | undefined, tracerWeights);
   return {
-    ctx, plan, radiusRe, azimuthDeg, xi, eta, bn: sersicBn(g.sersicN),
-    objective: objectiveContext(plan.goals, plan.search as SearchRules | undefined, tracerWeights),
+    ctx, plan, radiusRe, azimuthDeg, xi, eta, bn: sersicBn(g.sersicN), objective,
+    refractionLoss: refractionLossModel(plan, ctx.profile, objective.weights.aRefraction),
     starlight: starlightSettings(plan.starlight as StarlightRules | undefined, ctx.profile, plan),
   };
 }
@@ -160,11 +164,16 @@ export function searchEnv(plan: PlanFile, ctx: AllocationContext): SearchEnv {
 export function planObjective(env: SearchEnv, masks: readonly MaskSolution[]): ObjectiveValue {
   const t = emptyTally(env.objective);
   const g = env.ctx.galaxy;
-  for (const ms of masks) for (const s of ms.slits) {
-    if (s.role !== 'tracer' && s.role !== 'starlight') continue;
-    const r = galaxyRadiusAndAzimuth(g, s.raDeg, s.decDeg);
-    if (s.role === 'tracer') addTracer(t, tracerRowValue(contextFor(env.ctx, ms.mask), s.priority, s.mag), r.rRe, r.phiDeg);
-    else addStarlight(t, r.rRe, r.phiDeg);
+  for (const ms of masks) {
+    const before = t.yieldWeight;
+    for (const s of ms.slits) {
+      if (s.role !== 'tracer' && s.role !== 'starlight') continue;
+      const r = galaxyRadiusAndAzimuth(g, s.raDeg, s.decDeg);
+      if (s.role === 'tracer') addTracer(t, tracerRowValue(contextFor(env.ctx, ms.mask), s.priority, s.mag), r.rRe, r.phiDeg);
+      else addStarlight(t, r.rRe, r.phiDeg);
+    }
+    const loss = envFor(env, ms.mask).refractionLoss;
+    if (loss) t.refractionLossWeight += (t.yieldWeight - before) * loss(ms.mask);
   }
   return objectiveValue(env.objective, t);
 }
@@ -657,6 +666,7 @@ function proxyTally(planEnv: SearchEnv, pointing: MaskPointing, p: ProxyMask, ch
     const o = p.set.objects[k];
     addTracer(t, p.set.values ? p.set.values[k] : ctx.weights[o], env.radiusRe[o], env.azimuthDeg[o]);
   }
+  if (env.refractionLoss) t.refractionLossWeight = t.yieldWeight * env.refractionLoss(pointing);
   if (env.starlight.reachRe <= 0) return t;
   const g = ctx.galaxy;
   const om = galaxyOnMask(pointing, g, env.bn);
