@@ -10,9 +10,11 @@
  * then a seeded pattern search: for step sizes halving level by level, each unlocked mask in turn tries radial,
  * tangential and PA moves plus seeded random moves, a move being evaluated by re-solving that one mask exactly with
  * the others fixed; then kicks (one mask jumps elsewhere, is searched locally, and the jump stays only if the layout
- * ends better). The effort budget (search.effort) scales all counts. Finally the best pointings are re-allocated
- * jointly; if that full evaluation does not have fewer alignment problems, or as few and a higher objective, than the
- * naive cross, the cross is returned, so the search never ends worse than it.
+ * ends better). The effort budget (search.effort) scales all counts. While the naive cross is a valid layout, a layout
+ * short of its tracer weight or capped tracer reach ranks below any that is not. Finally the best pointings are
+ * re-allocated jointly; unless that full evaluation has fewer alignment problems than the naive cross, or as few and
+ * at least the cross's objective, tracer weight and capped tracer reach (one of them higher), the cross is returned:
+ * the search never ends worse than it on any of the three.
  * Speed: target positions are cached in the galaxy's tangent plane (xi East, eta North, arcsec), and each trial
  * projects exactly only the targets inside the mask's rotated bounding box (plus a margin).
  */
