@@ -64,10 +64,9 @@ export function designWindowScorer(input: Omit<MaskRefractionInput, 'designHourA
     const airmass = alt > 0 ? hardieAirmass(90 - alt) : null;
     return airmass !== null && airmass <= s.maxAirmass;
   };
-  const onGrid = grid.map((h) => {
-    const ok = centreOk(h);
-    return { ok, across: ok ? windowAcrossAt(ctx, h) : null };
-  });
+  // Positions at every grid hour angle with the centre up (also beyond the airmass limit, so that the bisection towards
+  // an airmass-limited end interpolates too).
+  const onGrid = grid.map((h) => ({ ok: centreOk(h), across: windowAcrossAt(ctx, h) }));
   return (d: number) => {
     const design = windowDesignAcross(ctx, d);
     const lim = Float64Array.from(design.widthArcsec, limitOf);
