@@ -2,9 +2,8 @@
  * The generated-galaxy suite (src/core/scenario/suite.ts): 32 invented galaxies unlike the demo (Re 10" to 120",
  * q 0.3 to 1, v 0 to 6000 km/s, Dec -85 to +85, RA across 0/360, 10 to 60 alignment stars, 1 500 to 20 000
  * candidates, 4 and 6 masks, every shipped profile). Every case is solved in-process: valid masks (the independent
- * checker of src/core/check finds nothing), at least the naive cross's objective, tracer weight and capped tracer reach,
- * and every goal reported with a
- * reason when unmet. A sample goes through the real CLI, `haloweave check` and the Python contract check
+ * checker of src/core/check finds nothing), at least the naive cross's objective, tracer weight and capped tracer reach
+ * whenever the cross is valid, and every goal reported with a reason when unmet. A sample goes through the real CLI, `haloweave check` and the Python contract check
  * (test/contract/contract_check.py, astropy; an independent implementation of the contract's rules).
  */
 import { afterAll, describe, expect, it } from 'vitest';

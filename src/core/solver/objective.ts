@@ -6,7 +6,7 @@
  *               + aStarlightBin * (starlight bins of 1 Re, b < starlightReachRe, holding at least one slit)
  *               + aStarlightSector * (starlight sectors of 45 degrees holding at least one slit inside the goal)
  *               + aStarlightReach * min(Rsl / starlightReachRe, 1) ]
- *     - aRefraction * sum_m Y_m * f_m                           (f_m: light mask m loses to refraction, paRefractionLoss)
+ *     - aRefraction * sum_m Y_m * f_m                           (f_m: light mask m loses to refraction, refractionTerm.ts)
  *
  * Y is the summed weight of the allocated tracers; W is the mean weight of the usable tracer candidates, so each
  * coverage term is counted in "typical tracers"; n_b, n_s are tracer slits per radial bin / sector; Rsl is the
@@ -93,7 +93,7 @@ export interface Tally {
   starlightReachRe: number;
   /** Largest R/Re of an allocated tracer (0 without one). */
   tracerReachRe: number;
-  /** Tracer weight lost to refraction across the slits: each mask's tracer weight times its loss fraction (paRefractionLoss). */
+  /** Tracer weight lost to refraction across the slits: each mask's tracer weight times its loss fraction (solver/refractionTerm.ts). */
   refractionLossWeight: number;
 }
 
