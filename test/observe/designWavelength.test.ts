@@ -52,7 +52,7 @@ describe('hour-angle window against the exposure time', () => {
     const input = { mask, slits, latDeg: LAT, air: AIR, settings: wide };
     const cands = designHourAngleCandidatesH([-5, 5], 0.25);
     expect(cands).toContain(0);
-    expect(cands[1] - cands[0]).toBe(1);
+    expect(cands[1] - cands[0]).toBe(0.25);
     const best = chooseDesignHourAngle(input, cands, 3600);
     expect(best.windowContainsDesign).toBe(true);
     const len = (w: [number, number] | null) => (w ? w[1] - w[0] : 0);

@@ -2,8 +2,8 @@
  * The generated-galaxy suite (src/core/scenario/suite.ts): 32 invented galaxies unlike the demo (Re 10" to 120",
  * q 0.3 to 1, v 0 to 6000 km/s, Dec -85 to +85, RA across 0/360, 10 to 60 alignment stars, 1 500 to 20 000
  * candidates, 4 and 6 masks, every shipped profile). Every case is solved in-process: valid masks (the independent
- * checker of src/core/check finds nothing), at least the naive cross's objective, and every goal reported with a
- * reason when unmet. A sample goes through the real CLI, `haloweave check` and the Python contract check
+ * checker of src/core/check finds nothing), at least the naive cross's objective, tracer weight and capped tracer reach
+ * whenever the cross is valid, and every goal reported with a reason when unmet. A sample goes through the real CLI, `haloweave check` and the Python contract check
  * (test/contract/contract_check.py, astropy; an independent implementation of the contract's rules).
  */
 import { afterAll, describe, expect, it } from 'vitest';
@@ -70,8 +70,14 @@ describe('generated-galaxy suite', () => {
     expect(sol.masks.length).toBe((s.plan.goals as { masks: number }).masks);
     const naive = solvePlan({ plan: parsePlan({ ...s.plan, search: { enabled: false } }), profile, catalog }, { skipObservingReport: true });
     // The naive cross is either not a valid layout (too few alignment boxes on a mask) or does no better.
+    // When it is valid, the result is at least as good on the objective, on tracer weight and on tracer reach capped
+    // at the goal (the observer gains nothing from tracers beyond it). Reach is read from the coverage of the written
+    // slits, weight and objective from the reports of the two solves.
     if (naive.problems.length === 0) {
+      const goal = (s.plan.goals as { tracerReachRe: number }).tracerReachRe;
       expect(sol.search.objective.total).toBeGreaterThanOrEqual(naive.search.objective.total - 1e-9);
+      expect(sol.search.objective.yieldWeight).toBeGreaterThanOrEqual(naive.search.objective.yieldWeight * (1 - 1e-9));
+      expect(Math.min(sol.coverage.roles.tracer.maxReachRe, goal)).toBeGreaterThanOrEqual(Math.min(naive.coverage.roles.tracer.maxReachRe, goal) - 1e-9);
       ratios.push(sol.search.objective.total / naive.search.objective.total);
     }
     // Goals: each named, with a reason exactly when unmet (coverage.json carries the same list: the CLI sample below).

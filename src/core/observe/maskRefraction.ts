@@ -16,7 +16,7 @@ import { altitudeDeg } from './horizon';
 import { parallacticAngleDeg } from './parallactic';
 import { hardieAirmass } from './airmass';
 import { edlenRefractivity, type AirConditions } from './refractiveIndex';
-import { lossRelativeToCentred, slitTransmission } from './slitLoss';
+import { lossRelativeToCentred, offsetAtLoss, slitTransmission } from './slitLoss';
 import { ARCSEC_PER_RAD, RAD_PER_DEG } from '../sky/angles';
 import { PMath } from '../numeric/portableMath';
 
@@ -256,6 +256,53 @@ function acrossAt(ctx: MaskRefractionContext, g: SlitGeometry, haH: number, c: {
   return true;
 }
 
+/**
+ * Mask x (arcsec) of every window-role slit's image at mask-centre hour angle haH, relative to the guided centre, at
+ * the blue and red ends of the science range: [blue_0, red_0, blue_1, red_1, ...] in the order of ctx.slits' window
+ * slits, NaN for a target below the horizon; null when the mask centre is. maskRowAt's arithmetic, for the fast choice
+ * of a design hour angle (observe/designHourAngle.ts), which compares these with windowDesignAcross.
+ */
+export function windowAcrossAt(ctx: MaskRefractionContext, haH: number): Float64Array | null {
+  const c = centreLift(ctx, haH);
+  if (!c) return null;
+  const win = ctx.slits.filter((g) => g.windowRole);
+  const out = new Float64Array(2 * win.length);
+  const x = new Float64Array(3);
+  win.forEach((g, i) => {
+    const ok = acrossAt(ctx, g, haH, c, x);
+    out[2 * i] = ok ? x[1] : NaN;
+    out[2 * i + 1] = ok ? x[2] : NaN;
+  });
+  return out;
+}
+
+/**
+ * Mask x (arcsec) where every window-role slit is cut when the mask is designed for hour angle designH (the design
+ * wavelength's image relative to the guided centre, as maskRefractionContext sets it), and each such slit's width.
+ */
+export function windowDesignAcross(ctx: MaskRefractionContext, designH: number): { xArcsec: Float64Array; widthArcsec: Float64Array } {
+  const c0 = centreLift(ctx, designH) ?? { xArcsec: 0, yArcsec: 0 };
+  const win = ctx.slits.filter((g) => g.windowRole);
+  const xArcsec = new Float64Array(win.length), widthArcsec = new Float64Array(win.length);
+  win.forEach((g, i) => {
+    const u = liftPerUnitRefractivity(ctx, designH * 15 - g.dRaDeg, g.sinDec, g.cosDec);
+    xArcsec[i] = u ? slitLift(g, u, ctx.kArcsec.design, c0).xArcsec : 0;
+    widthArcsec[i] = g.widthArcsec;
+  });
+  return { xArcsec, widthArcsec };
+}
+
+const offsetLimits = new WeakMap<MaskRefractionContext, Map<number, number>>();
+
+/** Across-slit offset (arcsec) at which a slit of widthArcsec reaches the loss limit (offsetAtLoss), once per context and width. */
+function offsetLimitOf(ctx: MaskRefractionContext, widthArcsec: number): number {
+  let byWidth = offsetLimits.get(ctx);
+  if (!byWidth) offsetLimits.set(ctx, (byWidth = new Map()));
+  let v = byWidth.get(widthArcsec);
+  if (v === undefined) byWidth.set(widthArcsec, (v = offsetAtLoss(widthArcsec, ctx.input.settings.seeingFwhmArcsec, ctx.input.settings.maxLossFraction)));
+  return v;
+}
+
 /** The summary row of the mask at hour angle haH (window-role slits only; no per-slit rows are built). */
 export function maskRowAt(ctx: MaskRefractionContext, haH: number, stopAtFirstFailure = false): MaskHourAngleRow {
   const { input } = ctx;
@@ -273,18 +320,26 @@ export function maskRowAt(ctx: MaskRefractionContext, haH: number, stopAtFirstFa
   const { seeingFwhmArcsec, maxLossFraction } = input.settings;
   const x = new Float64Array(3);
   if (lift && !(stopAtFirstFailure && airmass > input.settings.maxAirmass)) {
+    // The loss grows with |offset|: per slit width, only the largest offset's loss is computed (the error function is
+    // the costly part), and the count over the limit compares offsets with the width's offset at the loss limit.
+    const widest = new Map<number, { offset: number; g: SlitGeometry }>();
     for (const g of ctx.slits) {
       if (!g.windowRole || !acrossAt(ctx, g, haH, lift, x)) continue;
       const totalBlue = x[1] - g.design.xArcsec, totalRed = x[2] - g.design.xArcsec;
-      const worst = Math.abs(totalBlue) >= Math.abs(totalRed) ? totalBlue : totalRed;
-      const loss = lossRelativeToCentred(slitTransmission(worst, g.widthArcsec, seeingFwhmArcsec), g.centredTransmission);
+      const worst = Math.max(Math.abs(totalBlue), Math.abs(totalRed));
       maxD = Math.max(maxD, Math.abs(x[1] - x[0]), Math.abs(x[2] - x[0]));
       maxS = Math.max(maxS, Math.abs(x[0] - g.design.xArcsec));
-      if (loss >= maxL) { maxL = loss; row.worstSlitId = g.slit.slitId; }
-      if (loss >= maxLossFraction) {
+      const w = widest.get(g.widthArcsec);
+      if (!w) widest.set(g.widthArcsec, { offset: worst, g });
+      else if (worst >= w.offset) { w.offset = worst; w.g = g; }
+      if (worst >= offsetLimitOf(ctx, g.widthArcsec)) {
         row.slitsOverLimit++;
         if (stopAtFirstFailure) break;
       }
+    }
+    for (const { offset, g } of widest.values()) {
+      const loss = lossRelativeToCentred(slitTransmission(offset, g.widthArcsec, seeingFwhmArcsec), g.centredTransmission);
+      if (loss >= maxL) { maxL = loss; row.worstSlitId = g.slit.slitId; }
     }
   }
   row.maxDispersionAcrossArcsec = maxD;

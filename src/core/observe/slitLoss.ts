@@ -44,3 +44,18 @@ export function lossRelativeToCentred(transmission: number, centredTransmission:
 export function relativeSlitLoss(offsetArcsec: number, widthArcsec: number, seeingFwhmArcsec: number): number {
   return lossRelativeToCentred(slitTransmission(offsetArcsec, widthArcsec, seeingFwhmArcsec), slitTransmission(0, widthArcsec, seeingFwhmArcsec));
 }
+
+/** Smallest across-slit offset (arcsec) at which the loss relative to a centred image reaches maxLoss (Infinity if never). */
+export function offsetAtLoss(widthArcsec: number, seeingFwhmArcsec: number, maxLoss: number): number {
+  const centred = slitTransmission(0, widthArcsec, seeingFwhmArcsec);
+  const loss = (x: number) => lossRelativeToCentred(slitTransmission(x, widthArcsec, seeingFwhmArcsec), centred);
+  let hi = widthArcsec + 10 * seeingFwhmArcsec;
+  if (!(loss(hi) >= maxLoss)) return Infinity;
+  let lo = 0;
+  if (loss(lo) >= maxLoss) return 0;
+  for (let i = 0; i < 80 && hi - lo > 1e-13; i++) {
+    const mid = (lo + hi) / 2;
+    if (loss(mid) >= maxLoss) hi = mid; else lo = mid;
+  }
+  return hi;
+}

@@ -13,6 +13,8 @@ export const objectiveWeightsSchema = z.looseObject({
   aStarlightBin: z.number().min(0).optional(),
   aStarlightReach: z.number().min(0).optional(),
   aStarlightSector: z.number().min(0).optional(),
+  /** Weight of the light free masks lose to refraction across their slits (fraction of each mask's tracer weight); 0 turns the term off. */
+  aRefraction: z.number().min(0).optional(),
 });
 
 /** The plan's `search` section. */

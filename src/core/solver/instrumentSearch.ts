@@ -12,6 +12,7 @@ import { placeStarlightAndSky, placeStarlightOnMask, starlightSettings, starligh
 import { type StarlightRules } from '../plan/starlightSection';
 import type { AllocationContext } from './allocateMasks';
 import type { ProxyMask, SearchEnv } from './pointingSearch';
+import { refractionLossModel } from './refractionTerm';
 import type { MaskPointing, MaskSolution } from '../geometry/maskSolution';
 
 const subEnvs = new WeakMap<SearchEnv, Map<string, SearchEnv>>();
@@ -25,8 +26,12 @@ export function envFor(env: SearchEnv, mask: Pick<MaskPointing, 'instrument'>): 
   if (!sub) {
     const ctx = contextFor(env.ctx, mask);
     // The plan's first profile shares the plan's environment unless its own settings change the starlight exposure.
-    const starlight = withContextSections(ctx, env.plan).starlight;
-    sub = ctx === env.ctx && starlight === env.plan.starlight ? env : { ...env, ctx, starlight: starlightSettings(starlight as StarlightRules | undefined, ctx.profile, env.plan) };
+    const sections = withContextSections(ctx, env.plan);
+    const starlight = sections.starlight;
+    sub = ctx === env.ctx && starlight === env.plan.starlight ? env : {
+      ...env, ctx, starlight: starlightSettings(starlight as StarlightRules | undefined, ctx.profile, env.plan),
+      refractionLoss: refractionLossModel(sections, ctx.profile, env.objective.weights.aRefraction),
+    };
     byId.set(mask.instrument, sub);
   }
   return sub;

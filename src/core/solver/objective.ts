@@ -6,6 +6,7 @@
  *               + aStarlightBin * (starlight bins of 1 Re, b < starlightReachRe, holding at least one slit)
  *               + aStarlightSector * (starlight sectors of 45 degrees holding at least one slit inside the goal)
  *               + aStarlightReach * min(Rsl / starlightReachRe, 1) ]
+ *     - aRefraction * sum_m Y_m * f_m                           (f_m: light mask m loses to refraction, refractionTerm.ts)
  *
  * Y is the summed weight of the allocated tracers; W is the mean weight of the usable tracer candidates, so each
  * coverage term is counted in "typical tracers"; n_b, n_s are tracer slits per radial bin / sector; Rsl is the
@@ -15,7 +16,7 @@
  */
 import type { SearchRules } from '../plan/searchSection';
 
-export const OBJECTIVE_DEFAULTS = { aBin: 5, kBin: 5, aSector: 4, kSector: 10, aStarlightBin: 10, aStarlightReach: 10, aStarlightSector: 4 } as const;
+export const OBJECTIVE_DEFAULTS = { aBin: 5, kBin: 5, aSector: 4, kSector: 10, aStarlightBin: 10, aStarlightReach: 10, aStarlightSector: 4, aRefraction: 1 } as const;
 export type ObjectiveWeights = { -readonly [K in keyof typeof OBJECTIVE_DEFAULTS]: number };
 
 export const SECTORS = 8;
@@ -56,6 +57,10 @@ export interface Tally {
   /** Starlight slits per 45-degree sector, counted inside the starlight goal radius (plus its placement margin of 1 Re). */
   starlightSectors: Float64Array;
   starlightReachRe: number;
+  /** Largest R/Re of an allocated tracer (0 without one). */
+  tracerReachRe: number;
+  /** Tracer weight lost to refraction across the slits: each mask's tracer weight times its loss fraction (solver/refractionTerm.ts). */
+  refractionLossWeight: number;
 }
 
 /** An empty tally for the context's goals. */
@@ -67,6 +72,8 @@ export function emptyTally(ctx: ObjectiveContext): Tally {
     starlightBins: new Float64Array(Math.max(0, Math.ceil(ctx.starlightReachRe - 1e-12))),
     starlightSectors: new Float64Array(SECTORS),
     starlightReachRe: 0,
+    tracerReachRe: 0,
+    refractionLossWeight: 0,
   };
 }
 
@@ -78,6 +85,7 @@ export function addTracer(t: Tally, weight: number, rRe: number, azimuthDeg: num
   t.yieldWeight += weight;
   if (rRe < t.tracerBins.length) t.tracerBins[Math.floor(rRe)]++;
   t.tracerSectors[sectorOf(azimuthDeg)]++;
+  if (rRe > t.tracerReachRe) t.tracerReachRe = rRe;
 }
 
 /** Add one starlight slit at R/Re and azimuth (degrees from the major axis). */
@@ -97,6 +105,8 @@ export function mergeTallies(ctx: ObjectiveContext, tallies: readonly Tally[]): 
     t.starlightBins.forEach((v, i) => (out.starlightBins[i] += v));
     t.starlightSectors.forEach((v, i) => (out.starlightSectors[i] += v));
     out.starlightReachRe = Math.max(out.starlightReachRe, t.starlightReachRe);
+    out.tracerReachRe = Math.max(out.tracerReachRe, t.tracerReachRe);
+    out.refractionLossWeight += t.refractionLossWeight;
   }
   return out;
 }
@@ -108,6 +118,10 @@ export interface ObjectiveValue {
   binTerm: number;
   sectorTerm: number;
   starlightTerm: number;
+  /** Minus aRefraction x the tracer weight lost to refraction across the slits (0 or negative). */
+  refractionTerm: number;
+  /** Largest R/Re of an allocated tracer (uncapped; the search compares it capped at goals.tracerReachRe). */
+  tracerReachRe: number;
 }
 
 /** J of a merged tally (see the module comment). */
@@ -124,5 +138,6 @@ export function objectiveValue(ctx: ObjectiveContext, t: Tally): ObjectiveValue 
   const slReach = ctx.starlightReachRe > 0 ? Math.min(t.starlightReachRe / ctx.starlightReachRe, 1) : 0;
   const binTerm = W * w.aBin * bins, sectorTerm = W * w.aSector * sectors;
   const starlightTerm = W * (w.aStarlightBin * slBins + w.aStarlightSector * slSectors + w.aStarlightReach * slReach);
-  return { total: t.yieldWeight + binTerm + sectorTerm + starlightTerm, yieldWeight: t.yieldWeight, binTerm, sectorTerm, starlightTerm };
+  const refractionTerm = w.aRefraction > 0 ? -w.aRefraction * t.refractionLossWeight : 0;
+  return { total: t.yieldWeight + binTerm + sectorTerm + starlightTerm + refractionTerm, yieldWeight: t.yieldWeight, binTerm, sectorTerm, starlightTerm, refractionTerm, tracerReachRe: t.tracerReachRe };
 }

@@ -10,9 +10,11 @@
  * then a seeded pattern search: for step sizes halving level by level, each unlocked mask in turn tries radial,
  * tangential and PA moves plus seeded random moves, a move being evaluated by re-solving that one mask exactly with
  * the others fixed; then kicks (one mask jumps elsewhere, is searched locally, and the jump stays only if the layout
- * ends better). The effort budget (search.effort) scales all counts. Finally the best pointings are re-allocated
- * jointly; if that full evaluation does not have fewer alignment problems, or as few and a higher objective, than the
- * naive cross, the cross is returned, so the search never ends worse than it.
+ * ends better). The effort budget (search.effort) scales all counts. While the naive cross is a valid layout, a layout
+ * short of its tracer weight or capped tracer reach ranks below any that is not. Finally the best pointings are
+ * re-allocated jointly; unless that full evaluation has fewer alignment problems than the naive cross, or as few and
+ * at least the cross's objective, tracer weight and capped tracer reach (one of them higher), the cross is returned:
+ * the search never ends worse than it on any of the three.
  * Speed: target positions are cached in the galaxy's tangent plane (xi East, eta North, arcsec), and each trial
  * projects exactly only the targets inside the mask's rotated bounding box (plus a margin).
  */
@@ -39,6 +41,7 @@ import type { MaskPointing, MaskSolution } from '../geometry/maskSolution';
 import { PMath } from '../numeric/portableMath';
 import { contextFor, tracerRowValue } from './maskContext';
 import { envFor, footprintScaleArcsec, instrumentsProxyModel, placeStarlightForMasks } from './instrumentSearch';
+import { refractionLossModel, type RefractionLoss } from './refractionTerm';
 
 /** Where a start layout puts its k-th free mask (of nFree): offset (u major, v minor, arcsec) and the long side's direction (degrees from the major axis). */
 type FreePlacement = (k: number, nFree: number, halfLongArcsec: number) => { uArcsec: number; vArcsec: number; longDirDeg: number };
@@ -135,6 +138,8 @@ export interface SearchEnv {
   xi: Float64Array;
   eta: Float64Array;
   bn: number;
+  /** Fraction of a mask's tracer light lost to refraction across its slits (solver/refractionTerm.ts); null when search.objective.aRefraction is 0. */
+  refractionLoss: RefractionLoss | null;
 }
 
 /** Build the evaluation environment (cached target positions) for a plan and an allocation context. */
@@ -151,9 +156,10 @@ export function searchEnv(plan: PlanFile, ctx: AllocationContext): SearchEnv {
     azimuthDeg[i] = r.phiDeg;
   }
   const tracerWeights = Array.from(ctx.tracerIndices, (i) => ctx.weights[i]);
+  const objective = objectiveContext(plan.goals, plan.search as SearchRules | undefined, tracerWeights);
   return {
-    ctx, plan, radiusRe, azimuthDeg, xi, eta, bn: sersicBn(g.sersicN),
-    objective: objectiveContext(plan.goals, plan.search as SearchRules | undefined, tracerWeights),
+    ctx, plan, radiusRe, azimuthDeg, xi, eta, bn: sersicBn(g.sersicN), objective,
+    refractionLoss: refractionLossModel(plan, ctx.profile, objective.weights.aRefraction),
     starlight: starlightSettings(plan.starlight as StarlightRules | undefined, ctx.profile, plan),
   };
 }
@@ -162,11 +168,16 @@ export function searchEnv(plan: PlanFile, ctx: AllocationContext): SearchEnv {
 export function planObjective(env: SearchEnv, masks: readonly MaskSolution[]): ObjectiveValue {
   const t = emptyTally(env.objective);
   const g = env.ctx.galaxy;
-  for (const ms of masks) for (const s of ms.slits) {
-    if (s.role !== 'tracer' && s.role !== 'starlight') continue;
-    const r = galaxyRadiusAndAzimuth(g, s.raDeg, s.decDeg);
-    if (s.role === 'tracer') addTracer(t, tracerRowValue(contextFor(env.ctx, ms.mask), s.priority, s.mag), r.rRe, r.phiDeg);
-    else addStarlight(t, r.rRe, r.phiDeg);
+  for (const ms of masks) {
+    const before = t.yieldWeight;
+    for (const s of ms.slits) {
+      if (s.role !== 'tracer' && s.role !== 'starlight') continue;
+      const r = galaxyRadiusAndAzimuth(g, s.raDeg, s.decDeg);
+      if (s.role === 'tracer') addTracer(t, tracerRowValue(contextFor(env.ctx, ms.mask), s.priority, s.mag), r.rRe, r.phiDeg);
+      else addStarlight(t, r.rRe, r.phiDeg);
+    }
+    const loss = envFor(env, ms.mask).refractionLoss;
+    if (loss) t.refractionLossWeight += (t.yieldWeight - before) * loss(ms.mask);
   }
   return objectiveValue(env.objective, t);
 }
@@ -390,10 +401,12 @@ interface SearchState {
   value: number;
   /** Summed alignment shortfall (boxes missing below alignment.minCount over all masks): 0 is a valid layout. */
   short: number;
+  /** How far the layout falls short of the valid naive cross on tracer weight and capped tracer reach (0: not short; crossDeficit). */
+  deficit: number;
 }
 
 /** A trial move's outcome, committed only when kept. */
-interface MoveTrial { m: number; pp: PlanePointing; pointing: MaskPointing; prox: ProxyMask; chosen: number[][]; tally: Tally; value: number; short: number }
+interface MoveTrial { m: number; pp: PlanePointing; pointing: MaskPointing; prox: ProxyMask; chosen: number[][]; tally: Tally; value: number; short: number; deficit: number }
 
 /** Effort settings after defaults (plan `search`; `effort` scales every count, 10 gives the "10x longer search"). */
 export interface SearchBudget { levels: number; passes: number; randomTrials: number; kicks: number; starts: number }
@@ -457,8 +470,12 @@ export function searchPointings(env: SearchEnv, start: readonly MaskPointing[], 
     const chosen = improveByBestResponse(problemOf(proxies), allocateGreedyMaskByMask(problemOf(proxies)).chosen, 3);
     const tallies = proxies.map((p, m) => proxyTally(env, pointings[m], p, chosen[m]));
     evaluations++;
-    return { plane, pointings, proxies, chosen, tallies, value: objectiveValue(env.objective, mergeTallies(env.objective, tallies)).total, short: proxies.reduce((a, p) => a + shortOf(p), 0) };
+    const v = objectiveValue(env.objective, mergeTallies(env.objective, tallies));
+    return { plane, pointings, proxies, chosen, tallies, value: v.total, short: proxies.reduce((a, p) => a + shortOf(p), 0), deficit: crossDeficit(floor, v, env.objective.tracerReachRe) };
   };
+  // The floor: the naive cross on the proxy model, when it is a valid layout. The search keeps to layouts at least as
+  // good on tracer weight and capped tracer reach (the final comparison with the fully allocated cross settles it).
+  let floor: CrossFloor | null = null;
   const copy = (st: SearchState): SearchState => ({ ...st, plane: st.plane.slice(), pointings: st.pointings.slice(), proxies: st.proxies.slice(), chosen: st.chosen.slice(), tallies: st.tallies.slice() });
   /** Evaluate moving mask m to pp: the moved mask re-solved exactly with the others fixed (null when off the field). */
   const trial = (st: SearchState, m: number, pp: PlanePointing): MoveTrial | null => {
@@ -469,18 +486,22 @@ export function searchPointings(env: SearchEnv, start: readonly MaskPointing[], 
     const next = st.proxies.slice();
     next[m] = prox;
     const short = st.short - shortOf(st.proxies[m]) + shortOf(prox);
-    if (short > st.short) return { m, pp, pointing, prox, chosen: st.chosen, tally: st.tallies[m], value: -Infinity, short };
+    if (short > st.short) return { m, pp, pointing, prox, chosen: st.chosen, tally: st.tallies[m], value: -Infinity, short, deficit: Infinity };
     const chosen = resolveOneMask(problemOf(next), st.chosen.map((c, i) => (i === m ? [] : c)), m);
     const tally = proxyTally(env, pointing, prox, chosen[m]);
     const tallies = st.tallies.slice();
     tallies[m] = tally;
-    return { m, pp, pointing, prox, chosen, tally, value: objectiveValue(env.objective, mergeTallies(env.objective, tallies)).total, short };
+    const v = objectiveValue(env.objective, mergeTallies(env.objective, tallies));
+    return { m, pp, pointing, prox, chosen, tally, value: v.total, short, deficit: crossDeficit(floor, v, env.objective.tracerReachRe) };
   };
-  /** Alignment first (fewer boxes missing always wins), then the objective. */
-  const better = (t: { short: number; value: number }, st: { short: number; value: number }) => t.short < st.short || (t.short === st.short && t.value > st.value * (1 + 1e-9) + 1e-9);
+  /** Alignment first (fewer boxes missing always wins), then the shortfall against the valid cross, then the objective. */
+  const better = (t: { short: number; value: number; deficit: number }, st: { short: number; value: number; deficit: number }) =>
+    t.short < st.short || (t.short === st.short && (t.deficit < st.deficit - 1e-12 || (t.deficit <= st.deficit + 1e-12 && t.value > st.value * (1 + 1e-9) + 1e-9)));
+  /** Ranking of the start layouts: alignment first, then the objective. */
+  const betterStart = (t: { short: number; value: number }, st: { short: number; value: number }) => t.short < st.short || (t.short === st.short && t.value > st.value * (1 + 1e-9) + 1e-9);
   const commit = (st: SearchState, t: MoveTrial) => {
     st.plane[t.m] = t.pp; st.pointings[t.m] = t.pointing; st.proxies[t.m] = t.prox; st.chosen = t.chosen; st.tallies[t.m] = t.tally;
-    st.value = t.value; st.short = t.short;
+    st.value = t.value; st.short = t.short; st.deficit = t.deficit;
     accepted++;
   };
   const tryMove = (st: SearchState, m: number, pp: PlanePointing): boolean => {
@@ -557,7 +578,12 @@ export function searchPointings(env: SearchEnv, start: readonly MaskPointing[], 
   };
 
   // Starts: every layout evaluated on the proxy; the best few (fewest boxes missing, then the objective) searched.
-  const ranked = starts.map((l) => ({ name: l.name, st: init(l.pointings) })).sort((x, y) => (better(x.st, y.st) ? -1 : better(y.st, x.st) ? 1 : 0));
+  const crossState = init(start);
+  if (crossState.short === 0) {
+    const v = objectiveValue(env.objective, mergeTallies(env.objective, crossState.tallies));
+    floor = { yieldWeight: v.yieldWeight, cappedReachRe: Math.min(v.tracerReachRe, env.objective.tracerReachRe) };
+  }
+  const ranked = starts.map((l) => ({ name: l.name, st: l.pointings === start ? crossState : init(l.pointings) })).sort((x, y) => (betterStart(x.st, y.st) ? -1 : betterStart(y.st, x.st) ? 1 : 0));
   let best: { name: string; st: SearchState } | null = null;
   for (const { name, st } of ranked.slice(0, Math.max(1, budget.starts))) {
     for (const m of free) repair(st, m);
@@ -603,13 +629,18 @@ export function searchPointings(env: SearchEnv, start: readonly MaskPointing[], 
   // The search's alignment rule is the allocation's (alignmentCapacity), so a start short of boxes has problems in full.
   const startShort = start.reduce((a, p) => a + shortOf(proxyMask(p)), 0);
   if (finalProblems === 0 && startShort > 0) return won({ startAlignmentShort: startShort });
+  const goalRe = env.objective.tracerReachRe;
   if (finalProblems === 0) {
-    const upperBound = objectiveUpperBound(env, start.map((p) => proxyMask(p, true).set));
-    if (final.value.total > upperBound) return won({ startObjectiveUpperBound: upperBound });
+    const ub = upperBounds(env, start.map((p) => proxyMask(p, true).set));
+    // Beating every bound (objective, tracer weight, capped reach) beats the cross on all three without allocating it.
+    if (final.value.total > ub.total && final.value.yieldWeight >= ub.yieldWeight && Math.min(final.value.tracerReachRe, goalRe) >= Math.min(ub.tracerReachRe, goalRe)) {
+      return won({ startObjectiveUpperBound: ub.total });
+    }
   }
   const e = startEval();
   evaluations++;
-  if (finalProblems < e.allocation.problems.length || (finalProblems === e.allocation.problems.length && final.value.total > e.value.total)) return won({ startObjective: e.value });
+  // With as many problems as the cross, the result must dominate it: objective, tracer weight and capped reach.
+  if (finalProblems < e.allocation.problems.length || (finalProblems === e.allocation.problems.length && dominatesCross(final.value, e.value, goalRe))) return won({ startObjective: e.value });
   return keep(evaluations, accepted);
 }
 
@@ -621,15 +652,50 @@ export function searchPointings(env: SearchEnv, start: readonly MaskPointing[], 
  * and every coverage term is bounded by its maximum (all bins and sectors full, every starlight bin, full reach).
  */
 export function objectiveUpperBound(env: SearchEnv, supersets: readonly MaskCandidateSet[]): number {
-  let y = 0;
+  return upperBounds(env, supersets).total;
+}
+
+/**
+ * Proven upper bounds from candidate supersets (see objectiveUpperBound): the objective, the tracer weight (sum of
+ * each mask's exact optimum alone) and the tracer reach (largest R/Re of any candidate in the supersets).
+ * The refraction term is at most 0, so dropping it keeps the bound.
+ */
+export function upperBounds(env: SearchEnv, supersets: readonly MaskCandidateSet[]): { total: number; yieldWeight: number; tracerReachRe: number } {
+  let y = 0, reach = 0;
   for (const set of supersets) {
     const w = new Float64Array(set.objects.length);
-    for (let k = 0; k < w.length; k++) w[k] = env.ctx.weights[set.objects[k]];
+    for (let k = 0; k < w.length; k++) {
+      w[k] = env.ctx.weights[set.objects[k]];
+      if (w[k] > 0 && env.radiusRe[set.objects[k]] > reach) reach = env.radiusRe[set.objects[k]];
+    }
     y += solveIntervalIndex(set.index, w).total;
   }
   const o = env.objective, W = o.unitWeight, a = o.weights;
   const t = emptyTally(o);
-  return y + W * (a.aBin * t.tracerBins.length + a.aSector * t.tracerSectors.length + (o.starlightReachRe > 0 ? a.aStarlightBin * t.starlightBins.length + a.aStarlightSector * t.starlightSectors.length + a.aStarlightReach : 0));
+  const total = y + W * (a.aBin * t.tracerBins.length + a.aSector * t.tracerSectors.length + (o.starlightReachRe > 0 ? a.aStarlightBin * t.starlightBins.length + a.aStarlightSector * t.starlightSectors.length + a.aStarlightReach : 0));
+  return { total, yieldWeight: y, tracerReachRe: reach };
+}
+
+/** The valid naive cross's tracer weight and tracer reach (R/Re, capped at goals.tracerReachRe) on the search's model. */
+interface CrossFloor { yieldWeight: number; cappedReachRe: number }
+
+/**
+ * How far a layout falls short of the cross: relative tracer-weight shortfall plus capped-reach shortfall in units of
+ * the reach goal (0 when at least as good on both, or without a valid cross).
+ */
+function crossDeficit(floor: CrossFloor | null, v: ObjectiveValue, goalRe: number): number {
+  if (!floor) return 0;
+  const dW = Math.max(0, floor.yieldWeight * (1 - 1e-12) - v.yieldWeight) / Math.max(floor.yieldWeight, 1e-300);
+  const dR = Math.max(0, floor.cappedReachRe - 1e-12 - Math.min(v.tracerReachRe, goalRe)) / Math.max(goalRe, 1e-300);
+  return dW + dR;
+}
+
+/** Whether a result is at least as good as the cross on the objective, the tracer weight and the capped tracer reach, and better on one. */
+export function dominatesCross(v: ObjectiveValue, cross: ObjectiveValue, goalRe: number): boolean {
+  const tol = (x: number) => 1e-9 * Math.max(1, Math.abs(x));
+  const r = Math.min(v.tracerReachRe, goalRe), rc = Math.min(cross.tracerReachRe, goalRe);
+  const atLeast = v.total >= cross.total - tol(cross.total) && v.yieldWeight >= cross.yieldWeight - tol(cross.yieldWeight) && r >= rc - 1e-9;
+  return atLeast && (v.total > cross.total + tol(cross.total) || v.yieldWeight > cross.yieldWeight + tol(cross.yieldWeight) || r > rc + 1e-9);
 }
 
 /** Tally of one proxy mask with a selection: its tracers, and its starlight slits estimated on the free space. */
@@ -641,6 +707,7 @@ function proxyTally(planEnv: SearchEnv, pointing: MaskPointing, p: ProxyMask, ch
     const o = p.set.objects[k];
     addTracer(t, p.set.values ? p.set.values[k] : ctx.weights[o], env.radiusRe[o], env.azimuthDeg[o]);
   }
+  if (env.refractionLoss) t.refractionLossWeight = t.yieldWeight * env.refractionLoss(pointing);
   if (env.starlight.reachRe <= 0) return t;
   const g = ctx.galaxy;
   const om = galaxyOnMask(pointing, g, env.bn);
