@@ -10,6 +10,7 @@ import { wrap360Deg } from '../sky/angles';
 import type { GalaxyModel } from '../plan/schema';
 import type { Slit, SlitRole } from '../solver/types';
 import type { GoalStatus } from './goals';
+import type { StarlightBinsFile } from '../observe/starlightBins';
 
 export const COVERAGE_FORMAT = 'haloweave.coverage/1';
 export const SECTOR_COUNT = 8;
@@ -41,6 +42,8 @@ export interface CoverageReport {
   roles: Record<SlitRole, RoleCoverage>;
   /** The plan's goals against the result (coverage/goals.ts), added when coverage.json is written: [{name, target, achieved, met, reason}]. */
   goals?: GoalStatus[];
+  /** Integrated starlight per bin (observe/starlightBins.ts), added by the planning pipeline when starlight is on. */
+  starlightBins?: StarlightBinsFile;
 }
 
 const ROLES: SlitRole[] = ['tracer', 'starlight', 'sky', 'alignment'];

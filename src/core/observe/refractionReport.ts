@@ -10,9 +10,7 @@ import { maskRefractionReport, type MaskRefractionReport } from './maskRefractio
 import { chooseDesignHourAngle, designHourAngleCandidatesH, exposureFit } from './designHourAngle';
 import { lineWindowsRangeA } from './observingSettings';
 import { lineWindowSettings, observedLineWindowsA } from '../geometry/wavelength';
-import { moonlitSkyMagPerArcsec2 } from './moonSky';
-import { AB_MINUS_VEGA_MAG, resolvePhotometry } from '../spectro/photometry';
-import { altitudeDeg } from './horizon';
+import { planSkyMagPerArcsec2 } from './planSky';
 import { DEFAULT_SKY_SYSTEMATIC_FRACTION, starlightBinLines, starlightBins, type StarlightBin } from './starlightBins';
 import { designHourAnglesH, resolveObservingSettings, type ObservingSection, type ObservingSettings } from './observingSettings';
 import { exposureModelOf, maskExposureReport, type MaskExposureReport } from './exposure';
@@ -72,7 +70,7 @@ export function observingReportForPlan(plan: PlanFile, profile: InstrumentProfil
     scienceRangeA: lineWindowsRangeA(observedLineWindowsA(plan.goals.linesA, galaxy.vsysKms, lineWindowSettings(plan.goals))),
   });
   const report = refractionReport({ galaxy, masks, site: profile.site, settings, designHourAnglesH: designHourAnglesH(plan, settings) });
-  const model = exposureModelOf(starlight, settings, skyWithMoon(plan, profile, galaxy, starlight.skyMagPerArcsec2));
+  const model = exposureModelOf(starlight, settings);
   const skySystematicFraction = (plan.observing as ObservingSection | undefined)?.skySystematicFraction ?? DEFAULT_SKY_SYSTEMATIC_FRACTION;
   const bins = plan.goals.starlightReachRe > 0
     ? { bins: starlightBins(masks, galaxy, model, { reachRe: plan.goals.starlightReachRe, targetSnPerA: starlight.targetSnPerA, skySystematicFraction }), targetSnPerA: starlight.targetSnPerA, skySystematicFraction }
@@ -81,18 +79,11 @@ export function observingReportForPlan(plan: PlanFile, profile: InstrumentProfil
 }
 
 /**
- * The sky (AB mag/arcsec^2) the exposure estimates use: the dark sky of the starlight settings, brightened by the Moon
- * of observing.moon (Krisciunas & Schaefer 1991) with the galaxy at its transit altitude.
+ * The sky (AB mag/arcsec^2) the exposure estimates use: the dark sky brightened by the plan's Moon (observe/planSky.ts:
+ * observing.moon as given, else computed for observing.date / dateRange; Krisciunas & Schaefer 1991).
  */
 export function skyWithMoon(plan: PlanFile, profile: InstrumentProfile, galaxy: GalaxyModel, darkSkyAbMagPerArcsec2: number): number {
-  const moon = (plan.observing as ObservingSection | undefined)?.moon;
-  if (!moon) return darkSkyAbMagPerArcsec2;
-  const ph = resolvePhotometry(plan.photometry);
-  const bandAbMinusVega = ph.system === 'Vega' ? ph.catalogToAbMag : AB_MINUS_VEGA_MAG[ph.band] ?? AB_MINUS_VEGA_MAG.I;
-  return moonlitSkyMagPerArcsec2(darkSkyAbMagPerArcsec2, {
-    phaseAngleDeg: moon.phaseAngleDeg, separationDeg: moon.separationDeg, moonZenithDeg: 90 - moon.altitudeDeg,
-    targetZenithDeg: Math.min(89, 90 - altitudeDeg(0, galaxy.decDeg, profile.site.latDeg)), extinctionV: moon.extinctionV ?? 0.15,
-  }, bandAbMinusVega);
+  return planSkyMagPerArcsec2(darkSkyAbMagPerArcsec2, plan.observing as ObservingSection | undefined, plan.photometry, profile.site, galaxy);
 }
 
 const r4 = (v: number) => Math.round(v * 1e4) / 1e4;

@@ -13,6 +13,8 @@ import { allocationContext, type AllocationContext, type PointingsAllocation } f
 import { lengthenSlits } from '../solver/lengthen';
 import { coverageReport, galaxyRadiusAndAzimuth, type CoverageReport } from '../coverage/coverage';
 import { planGoals, type GoalStatus } from '../coverage/goals';
+import { coaddStarlightBins, planStarlightModels } from '../solver/starlightCoadd';
+import { starlightBins, starlightBinsForFile } from '../observe/starlightBins';
 import type { MaskPointing, MaskSolution } from '../solver/types';
 import { weighTargets, type WeightingResult, type WeightingRules } from '../solver/weighting';
 import { placeStarlightAndSky, starlightSettings } from '../solver/starlight';
@@ -220,15 +222,23 @@ export function solvePlan(inputs: PlanInputs, opts: SolveOptions = {}): PlanSolu
   let masks = placed.withStarlight;
   warnings.push(...placed.starlightWarnings);
 
+  progress(0.76, 'co-adding starlight per bin');
+  const coadd = planStarlightModels(plan, ctx);
+  masks = coaddStarlightBins(masks, coadd.stageOf, coadd.modelOf, coadd.settings).masks;
+
   progress(0.8, 'lengthening slits');
   masks = lengthenMasks(plan, profile, masks, ctx);
 
   progress(0.9, 'measuring coverage');
   const allSlits = masks.flatMap((m) => m.slits);
   const coverage = coverageReport(galaxy, plan.goals, allSlits);
+  const starlightBinsResult = plan.goals.starlightReachRe > 0
+    ? { bins: starlightBins(masks, galaxy, coadd.modelOf, coadd.settings), ...coadd.settings }
+    : undefined;
+  if (starlightBinsResult) coverage.starlightBins = starlightBinsForFile(starlightBinsResult);
   let candidateReachRe = 0;
   for (const i of ctx.tracerIndices) candidateReachRe = Math.max(candidateReachRe, galaxyRadiusAndAzimuth(galaxy, ctx.raDeg[i], ctx.decDeg[i]).rRe);
-  const goals = planGoals(plan, galaxy, profile, masks, coverage, candidateReachRe, starlightSettings(plan.starlight, profile, plan).maxSlitLengthArcsec);
+  const goals = planGoals(plan, galaxy, profile, masks, coverage, candidateReachRe, starlightSettings(plan.starlight, profile, plan).maxSlitLengthArcsec, starlightBinsResult);
 
   const stats = {
     masks: alloc.prepared.map((p, m) => ({
