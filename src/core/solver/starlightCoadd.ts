@@ -55,7 +55,7 @@ export function coaddStarlightBins(masks: readonly MaskSolution[], stageOf: (ms:
     const g = galaxyOnMask(ms.mask, st.galaxy, st.bn);
     for (const sp of maskSpectra(ms, g, m, c.reachRe)) add(`${sp.fromRe}:${sp.sectorDeg}`, sp.part);
     const skyArcsec = skySlitLengthArcsec(ms);
-    if (!(skyArcsec > 0) || st.s.reachRe <= 0) return;
+    if (!(skyArcsec > 0) || st.s.reachRe <= 0 || st.s.maxPerMask === 0) return;
     const slots = freeSlots(ms.slits, st.rules, st.gapArcsec, st.s.slitLengthArcsec);
     const windows = st.s.maxSlitLengthArcsec > st.s.slitLengthArcsec ? starlightWindows(slots, st.gapArcsec, st.s.maxSlitLengthArcsec) : slots.map((span, k) => ({ span, slots: [k] }));
     const xs = slotPositions(st.rules, X_STEP_ARCSEC);
