@@ -8,13 +8,11 @@
  * (f N_sky)^2 to the variance, which caps what co-adding can reach at about N_gal / (f N_sky).
  */
 import type { MaskSolution } from '../solver/types';
-import type { GalaxyModel } from '../plan/schema';
-import { galaxyOnMask, galaxyRadiusAt, slitMeanMu, type GalaxyOnMask } from '../solver/starlight';
+import type { GalaxyModel, PlanFile } from '../plan/schema';
+import { galaxyOnMask, galaxyRadiusAt, slitMeanMu, starlightSettings, type GalaxyOnMask, type StarlightRules } from '../solver/starlight';
 import { ccdTermsPerA, electronsPerAFromSurfaceBrightness, skyEstimateFactor } from '../spectro/signalToNoise';
 import { exposureModelOf, pointExtractionArcsec, type ExposureModel } from './exposure';
 import { resolveObservingSettings, type ObservingSection } from './observingSettings';
-import { starlightSettings, type StarlightRules } from '../solver/starlight';
-import type { PlanFile } from '../plan/schema';
 import type { InstrumentProfile } from '../profile/schema';
 import { sersicBn, sersicMuMagPerArcsec2 } from '../sky/sersic';
 import { PMath } from '../numeric/portableMath';

@@ -12,7 +12,7 @@ import { galaxyModel } from './validate';
 import { allocationContext, type AllocationContext, type PointingsAllocation } from '../solver/allocateMasks';
 import { lengthenSlits } from '../solver/lengthen';
 import { coverageReport, galaxyRadiusAndAzimuth, type CoverageReport } from '../coverage/coverage';
-import { planGoals, type GoalStatus } from '../coverage/goals';
+import { planGoals, type GoalStatus, type StarlightBinsResult } from '../coverage/goals';
 import { coaddStarlightBins, planStarlightModels } from '../solver/starlightCoadd';
 import { starlightBins, starlightBinsForFile } from '../observe/starlightBins';
 import type { MaskPointing, MaskSolution } from '../solver/types';
@@ -174,6 +174,22 @@ export function addStarlightAndSky(plan: PlanFile, ctx: AllocationContext, masks
   return r.masks;
 }
 
+/** Stage 4b: starlight slits added to bins short of the co-added target, over every mask (solver/starlightCoadd.ts). */
+export function coaddStarlight(plan: PlanFile, ctx: AllocationContext, masks: MaskSolution[]): MaskSolution[] {
+  if (plan.goals.starlightReachRe <= 0) return masks;
+  const m = planStarlightModels(plan, ctx);
+  return coaddStarlightBins(masks, m.stageOf, m.modelOf, m.settings).masks;
+}
+
+/** The co-added starlight bins of finished masks (observe/starlightBins.ts), also written into `coverage.starlightBins`. */
+export function measureStarlightBins(plan: PlanFile, ctx: AllocationContext, galaxy: GalaxyModel, masks: readonly MaskSolution[], coverage: CoverageReport): StarlightBinsResult | undefined {
+  if (plan.goals.starlightReachRe <= 0) return undefined;
+  const m = planStarlightModels(plan, ctx);
+  const r = { bins: starlightBins(masks, galaxy, m.modelOf, m.settings), ...m.settings };
+  coverage.starlightBins = starlightBinsForFile(r);
+  return r;
+}
+
 // ---- stage 5: lengthening --------------------------------------------------------------------------------
 
 /** Lengthen every slit (boxes stay fixed) into the free space of its mask; `ctx` (optional) gives each mask its own profile. */
@@ -223,8 +239,7 @@ export function solvePlan(inputs: PlanInputs, opts: SolveOptions = {}): PlanSolu
   warnings.push(...placed.starlightWarnings);
 
   progress(0.76, 'co-adding starlight per bin');
-  const coadd = planStarlightModels(plan, ctx);
-  masks = coaddStarlightBins(masks, coadd.stageOf, coadd.modelOf, coadd.settings).masks;
+  masks = coaddStarlight(plan, ctx, masks);
 
   progress(0.8, 'lengthening slits');
   masks = lengthenMasks(plan, profile, masks, ctx);
@@ -232,10 +247,7 @@ export function solvePlan(inputs: PlanInputs, opts: SolveOptions = {}): PlanSolu
   progress(0.9, 'measuring coverage');
   const allSlits = masks.flatMap((m) => m.slits);
   const coverage = coverageReport(galaxy, plan.goals, allSlits);
-  const starlightBinsResult = plan.goals.starlightReachRe > 0
-    ? { bins: starlightBins(masks, galaxy, coadd.modelOf, coadd.settings), ...coadd.settings }
-    : undefined;
-  if (starlightBinsResult) coverage.starlightBins = starlightBinsForFile(starlightBinsResult);
+  const starlightBinsResult = measureStarlightBins(plan, ctx, galaxy, masks, coverage);
   let candidateReachRe = 0;
   for (const i of ctx.tracerIndices) candidateReachRe = Math.max(candidateReachRe, galaxyRadiusAndAzimuth(galaxy, ctx.raDeg[i], ctx.decDeg[i]).rRe);
   const goals = planGoals(plan, galaxy, profile, masks, coverage, candidateReachRe, starlightSettings(plan.starlight, profile, plan).maxSlitLengthArcsec, starlightBinsResult);
