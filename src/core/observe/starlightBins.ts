@@ -202,7 +202,8 @@ export function starlightBinLines(bins: readonly StarlightBin[], targetSnPerA: n
   for (const r of radii) {
     const row = bins.filter((x) => x.fromRe === r);
     const met = row.filter((x) => x.met).length;
-    out.push(`  ${r}-${r + 1} Re: ${met} of ${row.length} sectors reach it; ${row.map((x) => `${x.sectorDeg}-${x.sectorDeg + 45} deg S/N ${x.snPerA.toFixed(1)}`).join(', ')}`);
+    const cell = (x: StarlightBin) => `${x.sectorDeg}-${x.sectorDeg + 45} deg S/N ${x.snPerA.toFixed(1)} (${x.starlightSlits} starlight + ${x.tracerSkyParts} tracer-sky spectra${x.floorCapSnPerA !== null && x.floorCapSnPerA < x.targetSnPerA ? `; floor caps it at ${x.floorCapSnPerA.toFixed(1)}` : ''})`;
+    out.push(`  ${r}-${r + 1} Re: ${met} of ${row.length} sectors reach it; ${row.map(cell).join(', ')}`);
   }
   return out;
 }
