@@ -11,7 +11,11 @@ import { unixMsFromJd } from '../../src/core/observe/time';
 import { planMoon, planSkyMagPerArcsec2 } from '../../src/core/observe/planSky';
 import { starlightSettings } from '../../src/core/solver/starlight';
 import { parsePlan } from '../../src/core/plan/validate';
-import { loadProfile } from '../search/helpers';
+import { loadProfile, scenario } from '../search/helpers';
+import { solvePlan } from '../../src/core/plan/pipeline';
+import { planStarlightModels } from '../../src/core/solver/starlightCoadd';
+import { starlightBins } from '../../src/core/observe/starlightBins';
+import type { AllocationContext } from '../../src/core/solver/allocateMasks';
 import { InputError } from '../../src/core/result';
 
 const sites = [
@@ -122,6 +126,25 @@ describe('the plan sky with the Moon of a date', () => {
     expect(planMoon(given.observing, site, galaxy)!.source).toBe('given');
     expect(planSkyMagPerArcsec2(19.6, given.observing, given.photometry, site, galaxy)).toBe(19.6);
   });
+
+  it('the co-added starlight bins of a solved plan are measured under that Moon', () => {
+    const { plan, profile: prof, catalog } = scenario({ seed: 5, candidates: 400 }, (p) => { p.observing = { date: fullNight }; });
+    const sol = solvePlan({ plan, profile: prof, catalog }, { skipObservingReport: true });
+    const g = { raDeg: sol.galaxy.raDeg, decDeg: sol.galaxy.decDeg };
+    const up = moonAtTime(designTimeJd(fullNight, g, prof.site.lonDeg), g, prof.site).altitudeDeg > 0;
+    expect(up).toBe(true); // a full Moon at local midnight is up at this site: the comparison below is not empty
+    const ctx = { profile: prof, galaxy: sol.galaxy } as AllocationContext;
+    const lit = planStarlightModels(sol.plan, ctx), dark = planStarlightModels({ ...sol.plan, observing: {} }, ctx);
+    expect(lit.modelOf(sol.masks[0]).skyMagPerArcsec2).toBe(starlightSettings(sol.plan.starlight, prof, sol.plan).skyMagPerArcsec2);
+    const a = starlightBins(sol.masks, sol.galaxy, lit.modelOf, lit.settings), b = starlightBins(sol.masks, sol.galaxy, dark.modelOf, dark.settings);
+    expect(a.length).toBe(b.length);
+    expect(a.length).toBeGreaterThan(0);
+    for (let i = 0; i < a.length; i++) {
+      if (up) expect(a[i].snPerAWithoutFloor).toBeLessThan(b[i].snPerAWithoutFloor);
+      else expect(a[i].snPerAWithoutFloor).toBe(b[i].snPerAWithoutFloor);
+    }
+    expect(sol.coverage.starlightBins!.bins.map((x) => x.snPerA)).toEqual(a.map((x) => Math.round(x.snPerA * 100) / 100));
+  }, 60_000);
 
   it('refuses a date that is not one, saying the form to use', () => {
     for (const bad of ['2027-02-30', '15/03/2027', '2027-03-15T25:00Z']) {
