@@ -115,7 +115,7 @@ export function compactObservingReport(report: ObservingReport): ObservingReport
     })),
     starlightBins: report.starlightBins && {
       ...report.starlightBins,
-      bins: report.starlightBins.bins.map((b) => ({ ...b, snPerA: Math.round(b.snPerA * 100) / 100, snPerAWithoutFloor: Math.round(b.snPerAWithoutFloor * 100) / 100 })),
+      bins: report.starlightBins.bins.map((b) => ({ ...b, reachRe: r4(b.reachRe), snPerA: Math.round(b.snPerA * 100) / 100, snPerAWithoutFloor: Math.round(b.snPerAWithoutFloor * 100) / 100, floorCapSnPerA: b.floorCapSnPerA === null ? null : Math.round(b.floorCapSnPerA * 100) / 100 })),
     },
   };
 }
