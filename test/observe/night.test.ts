@@ -7,7 +7,8 @@ import { hardieAirmass, altitudeForAirmassDeg } from '../../src/core/observe/air
 import { meanPlaceOfDateDeg } from '../../src/core/observe/precession';
 import { greenwichApparentSiderealDeg, jdeFromJdUt, nutationAt } from '../../src/core/observe/time';
 import { moonTrack, moonEquatorialOfDate, topocentricEquatorial } from '../../src/core/observe/moon';
-import { observabilityVerdict, parseDateText } from '../../src/core/observe/observability';
+import { observabilityVerdict } from '../../src/core/observe/observability';
+import { parseDateText } from '../../src/core/sky/calendarText';
 
 // Invented sites: both hemispheres, high and low elevation, one at high latitude.
 const SITES = [

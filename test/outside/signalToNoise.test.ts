@@ -1,7 +1,7 @@
 /**
  * Outside check of the exposure model's S/N for a tracer: a worked example from published numbers, computed in
  * this file with its own arithmetic (Math, Abramowitz & Stegun's erf), compared with the project's public API
- * (observe/exposure.ts exposureModelOf + tracerExposure; spectro/photometry.ts for a Vega-band catalog).
+ * (solver/exposure.ts exposureModelOf + tracerExposure; plan/photometry.ts for a Vega-band catalog).
  *
  * Worked example (per Angstrom of spectrum at 8500 A, exposure 3600 s):
  * - AB zero point 3631 Jy (Oke & Gunn 1983, ApJ 266, 713): photons s^-1 cm^-2 A^-1 of AB = 0 at 8500 A

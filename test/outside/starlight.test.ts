@@ -4,8 +4,8 @@
  * (their eqs. 9-12, from memory; confirmed here by integrating the profile numerically, a second route), the surface
  * brightness at 1, 2 and 3 Re on the major and minor axes, and the S/N per A of a slit there by Howell's CCD
  * equation. Compared with the project's public functions for given slits: sky/sersic.ts (mu, b_n),
- * observe/exposure.ts maskExposureReport (the Sérsic flux-mean over the slit and its S/N with the sky estimated from
- * the mask's sky slits), solver/starlight.ts starlightSignalToNoise, observe/starlightBins.ts (one slit per bin).
+ * solver/exposure.ts maskExposureReport (the Sérsic flux-mean over the slit and its S/N with the sky estimated from
+ * the mask's sky slits), solver/starlight.ts starlightSignalToNoise, solver/starlightBins.ts (one slit per bin).
  * Slits are placed in this file; allocation (which slits the solver would choose) is not what is checked here.
  */
 import { describe, expect, it } from 'vitest';

@@ -81,7 +81,7 @@ describe('generated-galaxy suite', () => {
       ratios.push(sol.search.objective.total / naive.search.objective.total);
     }
     // Goals: each named, with a reason exactly when unmet (coverage.json carries the same list: the CLI sample below).
-    expect(sol.goals.map((x) => x.name)).toEqual(['masks', 'tracerReachRe', 'tracerRadialBins', 'starlightReachRe']);
+    expect(sol.goals.map((x) => x.name)).toEqual(['masks', 'tracerReachRe', 'tracerRadialBins', 'starlightReachRe', 'starlightBins']);
     for (const x of sol.goals) {
       expect(x.met).toBe(x.reason === '');
       expect(Number.isFinite(x.achieved)).toBe(true);

@@ -11,20 +11,23 @@ const plan = { galaxy: { ...galaxy, ra: galaxy.raDeg, dec: galaxy.decDeg }, goal
 
 describe('starlight goal shortfall', () => {
   it('names the S/N at the goal radius and a slit length and exposure that reach the target there', () => {
-    const s = starlightSettings({ exposureS: 3600, targetSnPerA: 5 }, profile, plan);
+    // Eight sky slits: with the sky estimated from a fixed length of sky slit (Howell's 1 + n_pix/n_B), a longer slit
+    // gains less and less, so a length that reaches the target exists only with enough sky.
+    const s = starlightSettings({ exposureS: 3600, targetSnPerA: 3, skyPerMask: 8 }, profile, plan);
     const w = profile.slits.widthArcsec, L = s.maxSlitLengthArcsec;
     const sn = starlightSnAtRadius(galaxy, 4, L, w, s);
-    expect(sn).toBeLessThan(5); // at 4 Re in one hour: short of the goal
+    expect(sn).toBeLessThan(3); // at 4 Re in one hour: short of the goal
     const reason = starlightShortfall(galaxy, profile, s, L);
     expect(reason).toContain(`S/N ${sn.toFixed(2)} per A at the goal radius R = 4.00 Re`);
+    expect(reason).toMatch(/a starlight slit of [\d.]+"/);
     const length = Number(/a starlight slit of ([\d.]+)"/.exec(reason)?.[1]);
     const hours = Number(/an exposure of ([\d.]+) h/.exec(reason)?.[1]);
     // The named slit length reaches the target; 5 % shorter does not (the S/N rises with the slit's area).
-    expect(starlightSnAtRadius(galaxy, 4, length * 1.0001, w, s)).toBeGreaterThanOrEqual(5);
-    expect(starlightSnAtRadius(galaxy, 4, length * 0.95, w, s)).toBeLessThan(5);
+    expect(starlightSnAtRadius(galaxy, 4, length * 1.0001, w, s)).toBeGreaterThanOrEqual(3);
+    expect(starlightSnAtRadius(galaxy, 4, length * 0.95, w, s)).toBeLessThan(3);
     // The named exposure (rounded to 0.1 h) reaches it within that rounding; 10 % less does not.
-    expect(starlightSnAtRadius(galaxy, 4, L, w, { ...s, exposureS: (hours + 0.05) * 3600 })).toBeGreaterThanOrEqual(5);
-    expect(starlightSnAtRadius(galaxy, 4, L, w, { ...s, exposureS: hours * 0.9 * 3600 })).toBeLessThan(5);
+    expect(starlightSnAtRadius(galaxy, 4, L, w, { ...s, exposureS: (hours + 0.05) * 3600 })).toBeGreaterThanOrEqual(3);
+    expect(starlightSnAtRadius(galaxy, 4, L, w, { ...s, exposureS: hours * 0.9 * 3600 })).toBeLessThan(3);
   });
 
   it('says the light allows the goal when the S/N is reached there, and points at the free space instead', () => {

@@ -16,7 +16,7 @@ import type { ColumnMapping } from '../../core/catalog/types';
 import type { MaskSolution } from '../../core/geometry/maskSolution';
 import type { InstrumentProfile } from '../../core/profile/schema';
 import { nightTable } from '../../core/observe/night';
-import { parseDateText } from '../../core/observe/observability';
+import { parseDateText } from '../../core/sky/calendarText';
 import { DEFAULT_TRIALS, forecastPlan, type Forecast, type ForecastInput } from '../../core/forecast/forecast';
 import { dispersionProfileSvg, rotationSvg, starlightMapSvg } from '../../core/forecast/plots';
 import { formatComparison, formatForecastSummary } from '../../core/forecast/summary';

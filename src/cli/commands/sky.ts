@@ -15,7 +15,8 @@ import type { InstrumentProfile } from '../../core/profile/schema';
 import { loadProfile, namedProfiles } from '../loadPlanInputs';
 import { instrumentSections, planProfiles } from '../../core/plan/instruments';
 import { nightRows, nightTable, type NightRow } from '../../core/observe/night';
-import { parseDateText, observabilityVerdict } from '../../core/observe/observability';
+import { observabilityVerdict } from '../../core/observe/observability';
+import { parseDateText } from '../../core/sky/calendarText';
 
 const OPTIONS = ['from', 'to', 'max-airmass', 'step-min', 'json', 'curve'];
 /** Longest range accepted, in nights (ten years). */

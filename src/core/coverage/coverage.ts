@@ -8,6 +8,7 @@ import { galaxyRadiusAndAzimuth } from '../sky/galaxyRadius';
 import type { GalaxyModel } from '../plan/schema';
 import type { Slit, SlitRole } from '../geometry/maskSolution';
 import type { GoalStatus } from './goals';
+import type { StarlightBinsFile } from '../solver/starlightBins';
 
 export const COVERAGE_FORMAT = 'haloweave.coverage/1';
 export const SECTOR_COUNT = 8;
@@ -39,6 +40,8 @@ export interface CoverageReport {
   roles: Record<SlitRole, RoleCoverage>;
   /** The plan's goals against the result (coverage/goals.ts), added when coverage.json is written: [{name, target, achieved, met, reason}]. */
   goals?: GoalStatus[];
+  /** Integrated starlight per bin (solver/starlightBins.ts), added by the planning pipeline when starlight is on. */
+  starlightBins?: StarlightBinsFile;
 }
 
 const ROLES: SlitRole[] = ['tracer', 'starlight', 'sky', 'alignment'];

@@ -11,6 +11,7 @@ import { starlightSettings, starlightSignalToNoise, type StarlightSettings } fro
 import type { StarlightRules } from '../plan/starlightSection';
 import { sersicBn, sersicMuMagPerArcsec2 } from '../sky/sersic';
 import { polygonBounds } from '../geometry/polygon';
+import type { StarlightBin } from '../solver/starlightBins';
 
 /** One goal of coverage.json (contract: name, target, achieved, met, reason). */
 export interface GoalStatus {
@@ -64,10 +65,11 @@ export function starlightShortfall(galaxy: GalaxyModel, profile: InstrumentProfi
 /**
  * Goals of a solved plan: `masks` (masks holding tracer slits), `tracerReachRe` (largest R/Re of a tracer slit; met when
  * the outermost 1-Re bin inside the goal holds one), `tracerRadialBins` (1-Re bins to the goal holding a tracer slit) and,
- * unless starlight is off, `starlightReachRe` (largest R/Re of a starlight slit; met at the goal radius).
+ * unless starlight is off, the starlight goals: with the co-added bins (`bins`), `starlightReachRe` and
+ * `starlightBins` (starlightBinGoals); without them, `starlightReachRe` as the largest R/Re of a starlight slit.
  * `candidateReachRe`: the largest R/Re of a usable tracer candidate, to tell a short catalog from short masks.
  */
-export function planGoals(plan: PlanFile, galaxy: GalaxyModel, profile: InstrumentProfile, masks: readonly MaskSolution[], coverage: CoverageReport, candidateReachRe: number, maxStarlightSlitArcsec: number): GoalStatus[] {
+export function planGoals(plan: PlanFile, galaxy: GalaxyModel, profile: InstrumentProfile, masks: readonly MaskSolution[], coverage: CoverageReport, candidateReachRe: number, maxStarlightSlitArcsec: number, starlightBins?: StarlightBinsResult): GoalStatus[] {
   const goals: GoalStatus[] = [];
   const g = plan.goals;
   const withTracers = masks.filter((m) => m.slits.some((s) => s.role === 'tracer')).length;
@@ -98,14 +100,72 @@ export function planGoals(plan: PlanFile, galaxy: GalaxyModel, profile: Instrume
   });
   if (g.starlightReachRe > 0) {
     const s = starlightSettings(plan.starlight as StarlightRules | undefined, profile, plan);
-    const sl = coverage.roles.starlight;
-    const met = sl.maxReachRe >= g.starlightReachRe;
-    goals.push({
-      name: 'starlightReachRe', target: g.starlightReachRe, achieved: Number(sl.maxReachRe.toFixed(4)), met,
-      reason: met ? '' : starlightShortfall(galaxy, profile, s, maxStarlightSlitArcsec),
-    });
+    if (starlightBins) goals.push(...starlightBinGoals(galaxy, profile, s, maxStarlightSlitArcsec, starlightBins));
+    else {
+      const sl = coverage.roles.starlight;
+      const met = sl.maxReachRe >= g.starlightReachRe;
+      goals.push({
+        name: 'starlightReachRe', target: g.starlightReachRe, achieved: Number(sl.maxReachRe.toFixed(4)), met,
+        reason: met ? '' : starlightShortfall(galaxy, profile, s, maxStarlightSlitArcsec),
+      });
+    }
   }
   return goals;
+}
+
+/** The co-added starlight bins of a solved plan with the floor and target they were measured with. */
+export interface StarlightBinsResult {
+  bins: StarlightBin[];
+  targetSnPerA: number;
+  skySystematicFraction: number;
+  reachRe: number;
+}
+
+/** Why one bin is short of the target, in the observer's terms (empty when met). */
+export function starlightBinReason(b: StarlightBin, skySystematicFraction: number): string {
+  if (b.met) return '';
+  const where = `${b.fromRe}-${b.toRe} Re, ${b.sectorDeg}-${b.sectorDeg + 45} deg`;
+  if (b.floorCapSnPerA !== null && b.floorCapSnPerA < b.targetSnPerA) {
+    return `${where}: the sky-subtraction floor (${(100 * skySystematicFraction).toFixed(2)} % of the sky) caps co-added S/N at ${f2(b.floorCapSnPerA)} per A even at the bin's inner edge, below the target ${f2(b.targetSnPerA)}, whatever the number of slits: lower observing.skySystematicFraction (a sky subtraction that does better) or starlight.targetSnPerA`;
+  }
+  return `${where}: ${b.starlightSlits} starlight slit(s) and ${b.tracerSkyParts} tracer sky part(s) co-add to S/N ${f2(b.snPerA)} per A (target ${f2(b.targetSnPerA)}) and no free slit space is left there that would reach it: move a mask over this bin, add masks, or lengthen the exposure`;
+}
+
+/**
+ * Starlight goals from the co-added bins (solver/starlightBins.ts): `starlightReachRe` is met when the outermost 1-Re
+ * bin inside the goal has a sector whose co-added S/N reaches the target (achieved: the largest R/Re of a spectrum in a
+ * bin that reaches it); `starlightBins` counts the bins inside the goal holding galaxy light that reach the target,
+ * each short one named with its cause (the floor, or no room left).
+ */
+export function starlightBinGoals(galaxy: GalaxyModel, profile: InstrumentProfile, s: StarlightSettings, maxSlitArcsec: number, r: StarlightBinsResult): GoalStatus[] {
+  const inside = r.bins.filter((b) => b.fromRe < r.reachRe);
+  const met = inside.filter((b) => b.met);
+  const outer = Math.ceil(r.reachRe - 1e-12) - 1;
+  const outerBins = inside.filter((b) => b.fromRe === outer);
+  const reachMet = outerBins.some((b) => b.met);
+  const achieved = met.reduce((a, b) => Math.max(a, b.reachRe), 0);
+  let reachReason = '';
+  if (!reachMet) {
+    const best = outerBins.reduce<StarlightBin | null>((a, b) => (!a || b.snPerA > a.snPerA ? b : a), null);
+    reachReason = best
+      ? `no sector of the outermost bin ${outer}-${outer + 1} Re reaches the co-added target; best ${starlightBinReason(best, r.skySystematicFraction)}`
+      : `no spectrum holds galaxy light in the outermost bin ${outer}-${outer + 1} Re; ${starlightShortfall(galaxy, profile, s, maxSlitArcsec)}`;
+  }
+  const short = inside.filter((b) => !b.met);
+  const capped = short.filter((b) => b.floorCapSnPerA !== null && b.floorCapSnPerA < b.targetSnPerA);
+  const room = short.filter((b) => !capped.includes(b));
+  const name = (b: StarlightBin) => `${b.fromRe}-${b.toRe} Re ${b.sectorDeg}-${b.sectorDeg + 45} deg`;
+  const causes: string[] = [];
+  if (capped.length) {
+    causes.push(`${capped.length} bin(s) cannot reach S/N ${f2(r.targetSnPerA)} with any number of slits, the sky-subtraction floor (${(100 * r.skySystematicFraction).toFixed(2)} % of the sky) capping them at ${capped.map((b) => `${f2(b.floorCapSnPerA!)} (${name(b)})`).join(', ')}: lower observing.skySystematicFraction (a sky subtraction that does better) or starlight.targetSnPerA`);
+  }
+  if (room.length) {
+    causes.push(`${room.length} bin(s) short for want of free slit space: ${room.map((b) => `${name(b)} S/N ${f2(b.snPerA)} from ${b.starlightSlits} starlight slit(s) and ${b.tracerSkyParts} tracer sky part(s)`).join(', ')}: move a mask over them, add masks, or lengthen the exposure`);
+  }
+  return [
+    { name: 'starlightReachRe', target: r.reachRe, achieved: Number(achieved.toFixed(4)), met: reachMet, reason: reachReason },
+    { name: 'starlightBins', target: inside.length, achieved: met.length, met: met.length >= inside.length && inside.length > 0, reason: causes.length ? causes.join('; ') : inside.length ? '' : 'no spectrum holds galaxy light inside the goal radius' },
+  ];
 }
 
 /** One line per unmet goal, for stderr. */

@@ -1,6 +1,6 @@
 /**
  * Exposure and telescope time of a solved plan for the forecast: the S/N of every tracer and starlight slit in the
- * planned exposure with each mask's own spectrograph (observe/exposure.ts), the tracers' S/N target and where it comes
+ * planned exposure with each mask's own spectrograph (solver/exposure.ts), the tracers' S/N target and where it comes
  * from, hours per mask and per observing site, and how each spectrograph records a cluster's lines. Times seconds in
  * the exposure reports, hours here; wavelengths Angstrom.
  */

@@ -1,21 +1,8 @@
-/** Date text for observability ranges and the plain-language verdict when a target cannot be observed. */
-import { fail, ok, type Result } from '../result';
+/** The plain-language verdict when a target cannot be observed. */
 import { altitudeForAirmassDeg } from './airmass';
 import { transitAltitudeDeg } from './horizon';
 import type { NightRow, SkyTarget } from './night';
 import type { SiteGeodetic } from './moon';
-
-/** Parse a calendar date YYYY-MM-DD (Gregorian, years 1900-2199); the error says what is wrong. */
-export function parseDateText(text: string): Result<string> {
-  const m = /^(\d{4})-(\d{2})-(\d{2})$/.exec(text.trim());
-  if (!m) return fail(`"${text}" is not a date of the form YYYY-MM-DD`);
-  const [y, mo, d] = [Number(m[1]), Number(m[2]), Number(m[3])];
-  if (y < 1900 || y > 2199) return fail(`year ${y} is outside 1900-2199, where the Sun and Moon theories are used here`);
-  if (mo < 1 || mo > 12) return fail(`"${text}" has month ${mo}; months run 01-12`);
-  const days = new Date(Date.UTC(y, mo, 0)).getUTCDate();
-  if (d < 1 || d > days) return fail(`"${text}" has day ${d}; ${m[1]}-${m[2]} has ${days} days`);
-  return ok(`${m[1]}-${m[2]}-${m[3]}`);
-}
 
 /**
  * Null when the target has dark time below the airmass limit on some night; otherwise a sentence starting

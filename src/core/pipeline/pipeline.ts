@@ -13,7 +13,9 @@ import { allocationContext, type AllocationContext, type PointingsAllocation } f
 import { lengthenSlits } from '../solver/lengthen';
 import { coverageReport, type CoverageReport } from '../coverage/coverage';
 import { galaxyRadiusAndAzimuth } from '../sky/galaxyRadius';
-import { planGoals, type GoalStatus } from '../coverage/goals';
+import { planGoals, type GoalStatus, type StarlightBinsResult } from '../coverage/goals';
+import { coaddStarlightBins, planStarlightModels } from '../solver/starlightCoadd';
+import { starlightBins, starlightBinsForFile } from '../solver/starlightBins';
 import type { MaskPointing, MaskSolution } from '../geometry/maskSolution';
 import { keptColumnsOf, weighTargets, type WeightingResult } from '../solver/weighting';
 import { type WeightingRules } from '../plan/weightingSection';
@@ -184,6 +186,22 @@ export function addStarlightAndSky(plan: PlanFile, ctx: AllocationContext, masks
   return r.masks;
 }
 
+/** Stage 4b: starlight slits added to bins short of the co-added target, over every mask (solver/starlightCoadd.ts). */
+export function coaddStarlight(plan: PlanFile, ctx: AllocationContext, masks: MaskSolution[]): MaskSolution[] {
+  if (plan.goals.starlightReachRe <= 0) return masks;
+  const m = planStarlightModels(plan, ctx);
+  return coaddStarlightBins(masks, m.stageOf, m.modelOf, m.settings).masks;
+}
+
+/** The co-added starlight bins of finished masks (solver/starlightBins.ts), also written into `coverage.starlightBins`. */
+export function measureStarlightBins(plan: PlanFile, ctx: AllocationContext, galaxy: GalaxyModel, masks: readonly MaskSolution[], coverage: CoverageReport): StarlightBinsResult | undefined {
+  if (plan.goals.starlightReachRe <= 0) return undefined;
+  const m = planStarlightModels(plan, ctx);
+  const r = { bins: starlightBins(masks, galaxy, m.modelOf, m.settings), ...m.settings };
+  coverage.starlightBins = starlightBinsForFile(r);
+  return r;
+}
+
 // ---- stage 5: lengthening --------------------------------------------------------------------------------
 
 /** Lengthen every slit (boxes stay fixed) into the free space of its mask; `ctx` (optional) gives each mask its own profile. */
@@ -244,15 +262,19 @@ export function solvePlan(inputs: PlanInputs, opts: SolveOptions = {}): PlanSolu
   let masks = placed.withStarlight;
   warnings.push(...placed.starlightWarnings);
 
+  progress(0.76, 'co-adding starlight per bin');
+  masks = coaddStarlight(plan, ctx, masks);
+
   progress(0.8, 'lengthening slits');
   masks = lengthenMasks(plan, profile, masks, ctx);
 
   progress(0.9, 'measuring coverage');
   const allSlits = masks.flatMap((m) => m.slits);
   const coverage = coverageReport(galaxy, plan.goals, allSlits);
+  const starlightBinsResult = measureStarlightBins(plan, ctx, galaxy, masks, coverage);
   let candidateReachRe = 0;
   for (const i of ctx.tracerIndices) candidateReachRe = Math.max(candidateReachRe, galaxyRadiusAndAzimuth(galaxy, ctx.raDeg[i], ctx.decDeg[i]).rRe);
-  const goals = planGoals(plan, galaxy, profile, masks, coverage, candidateReachRe, starlightSettings(plan.starlight, profile, plan).maxSlitLengthArcsec);
+  const goals = planGoals(plan, galaxy, profile, masks, coverage, candidateReachRe, starlightSettings(plan.starlight, profile, plan).maxSlitLengthArcsec, starlightBinsResult);
 
   const stats = {
     masks: alloc.prepared.map((p, m) => ({

@@ -10,15 +10,13 @@ import { maskRefractionReport, type MaskRefractionReport } from '../observe/mask
 import { chooseDesignHourAngle, designHourAngleCandidatesH, exposureFit } from '../observe/designHourAngle';
 import { lineWindowsRangeA } from '../observe/observingSettings';
 import { lineWindowSettings, observedLineWindowsA } from '../profile/wavelength';
-import { moonlitSkyMagPerArcsec2 } from '../observe/moonSky';
-import { AB_MINUS_VEGA_MAG, resolvePhotometry } from '../plan/photometry';
-import { altitudeDeg } from '../observe/horizon';
+import { planSkyMagPerArcsec2 } from '../observe/planSky';
 import { DEFAULT_SKY_SYSTEMATIC_FRACTION, starlightBinLines, starlightBins, type StarlightBin } from '../solver/starlightBins';
 import { designHourAnglesH, resolveObservingSettings, type ObservingSettings } from '../observe/observingSettings';
 import type { ObservingSection } from '../plan/observingSection';
 import { exposureModelOf, maskExposureReport, type MaskExposureReport } from '../solver/exposure';
 import { starlightSettings } from '../solver/starlight';
-import type { StarlightRules } from '../plan/starlightSection';
+import { type StarlightRules } from '../plan/starlightSection';
 
 export interface RefractionReportInput {
   galaxy: GalaxyModel;
@@ -74,7 +72,7 @@ export function observingReportForPlan(plan: PlanFile, profile: InstrumentProfil
     scienceRangeA: lineWindowsRangeA(observedLineWindowsA(plan.goals.linesA, galaxy.vsysKms, lineWindowSettings(plan.goals))),
   });
   const report = refractionReport({ galaxy, masks, site: profile.site, settings, designHourAnglesH: designHourAnglesH(plan, settings) });
-  const model = exposureModelOf(starlight, settings, skyWithMoon(plan, profile, galaxy, starlight.skyMagPerArcsec2));
+  const model = exposureModelOf(starlight, settings);
   const skySystematicFraction = (plan.observing as ObservingSection | undefined)?.skySystematicFraction ?? DEFAULT_SKY_SYSTEMATIC_FRACTION;
   const bins = plan.goals.starlightReachRe > 0
     ? { bins: starlightBins(masks, galaxy, model, { reachRe: plan.goals.starlightReachRe, targetSnPerA: starlight.targetSnPerA, skySystematicFraction }), targetSnPerA: starlight.targetSnPerA, skySystematicFraction }
@@ -83,18 +81,11 @@ export function observingReportForPlan(plan: PlanFile, profile: InstrumentProfil
 }
 
 /**
- * The sky (AB mag/arcsec^2) the exposure estimates use: the dark sky of the starlight settings, brightened by the Moon
- * of observing.moon (Krisciunas & Schaefer 1991) with the galaxy at its transit altitude.
+ * The sky (AB mag/arcsec^2) the exposure estimates use: the dark sky brightened by the plan's Moon (observe/planSky.ts:
+ * observing.moon as given, else computed for observing.date / dateRange; Krisciunas & Schaefer 1991).
  */
 export function skyWithMoon(plan: PlanFile, profile: InstrumentProfile, galaxy: GalaxyModel, darkSkyAbMagPerArcsec2: number): number {
-  const moon = (plan.observing as ObservingSection | undefined)?.moon;
-  if (!moon) return darkSkyAbMagPerArcsec2;
-  const ph = resolvePhotometry(plan.photometry);
-  const bandAbMinusVega = ph.system === 'Vega' ? ph.catalogToAbMag : AB_MINUS_VEGA_MAG[ph.band] ?? AB_MINUS_VEGA_MAG.I;
-  return moonlitSkyMagPerArcsec2(darkSkyAbMagPerArcsec2, {
-    phaseAngleDeg: moon.phaseAngleDeg, separationDeg: moon.separationDeg, moonZenithDeg: 90 - moon.altitudeDeg,
-    targetZenithDeg: Math.min(89, 90 - altitudeDeg(0, galaxy.decDeg, profile.site.latDeg)), extinctionV: moon.extinctionV ?? 0.15,
-  }, bandAbMinusVega);
+  return planSkyMagPerArcsec2(darkSkyAbMagPerArcsec2, plan.observing as ObservingSection | undefined, plan.photometry, profile.site, galaxy);
 }
 
 const r4 = (v: number) => Math.round(v * 1e4) / 1e4;
@@ -126,7 +117,7 @@ export function compactObservingReport(report: ObservingReport): ObservingReport
     })),
     starlightBins: report.starlightBins && {
       ...report.starlightBins,
-      bins: report.starlightBins.bins.map((b) => ({ ...b, snPerA: Math.round(b.snPerA * 100) / 100, snPerAWithoutFloor: Math.round(b.snPerAWithoutFloor * 100) / 100 })),
+      bins: report.starlightBins.bins.map((b) => ({ ...b, reachRe: r4(b.reachRe), snPerA: Math.round(b.snPerA * 100) / 100, snPerAWithoutFloor: Math.round(b.snPerAWithoutFloor * 100) / 100, floorCapSnPerA: b.floorCapSnPerA === null ? null : Math.round(b.floorCapSnPerA * 100) / 100 })),
     },
   };
 }
@@ -164,7 +155,7 @@ export function formatRefractionSummary(report: ObservingReport): string[] {
     `Differential refraction (seeing ${s.seeingFwhmArcsec}" FWHM, slits cut at ${(s.designWavelengthA ?? s.guideWavelengthA).toFixed(0)} A, guide ${s.guideWavelengthA.toFixed(0)} A, ` +
       `science ${s.scienceRangeA[0].toFixed(0)}-${s.scienceRangeA[1].toFixed(0)} A, tracer slits losing < ${(s.maxLossFraction * 100).toFixed(0)} %, airmass <= ${s.maxAirmass}):`,
   ];
-  // A report over several spectrographs carries each one's settings (observe/instrumentsReport.ts): each mask's own exposure,
+  // A report over several spectrographs carries each one's settings (pipeline/instrumentsReport.ts): each mask's own exposure,
   // and each spectrograph's seeing, guider and airmass limit when they differ from the heading's.
   const parts = (report as { instruments?: { instrument: string; maskIds: string[]; settings: ObservingSettings }[] }).instruments;
   const exposureOf = (maskId: string) => parts?.find((p) => p.maskIds.includes(maskId))?.settings.exposureTimeS ?? s.exposureTimeS;

@@ -5,6 +5,18 @@
  * Hour angles in hours (positive West), wavelengths Angstrom (air), seeing FWHM arcsec, times seconds.
  */
 import { z } from 'zod';
+import { isoInstantUnixMs, parseDateText } from '../sky/calendarText';
+
+/** A night (YYYY-MM-DD, the local evening's date) or an instant (YYYY-MM-DDTHH:MM[:SS]Z, UTC). */
+const dateOrInstant = z.string().superRefine((t, ctx) => {
+  if (isoInstantUnixMs(t) !== null) return;
+  const d = parseDateText(t);
+  if (!d.ok) ctx.addIssue({ code: 'custom', message: `${d.error}; give the night as YYYY-MM-DD (local evening date) or an instant as YYYY-MM-DDTHH:MMZ (UTC)` });
+});
+const night = z.string().superRefine((t, ctx) => {
+  const d = parseDateText(t);
+  if (!d.ok) ctx.addIssue({ code: 'custom', message: `${d.error}; give nights as YYYY-MM-DD (local evening date)` });
+});
 
 const range = (lo: number, hi: number, what: string) =>
   z
@@ -34,6 +46,10 @@ export const observingSchema = z.looseObject({
     /** V-band extinction, mag per airmass (default 0.15). */
     extinctionV: z.number().min(0).max(1).optional(),
   }).optional(),
+  /** Night of the observation (local evening date) or its UTC instant: the Moon is computed for it (observe/moonAtDate.ts). */
+  date: dateOrInstant.optional(),
+  /** First and last night the plan may be observed on (e.g. a semester): the Moon of the middle night is used. */
+  dateRange: z.tuple([night, night]).refine(([a, b]) => a <= b, 'must be [first night, last night] with first <= last').optional(),
   /** Science wavelength range [blue, red], Angstrom. */
   scienceRangeA: range(3000, 25000, 'Angstrom').optional(),
   /** Planned exposure time per mask, seconds. */

@@ -31,11 +31,23 @@ import { PMath } from '../numeric/portableMath';
 import { resolvePhotometry } from '../plan/photometry';
 import { sectorOf } from './objective';
 import { skySlitMuThreshold } from './skySlitRule';
+import { parseDecDeg, parseRaDeg } from '../sky/sexagesimal';
+import { planSkyMagPerArcsec2 } from '../observe/planSky';
+import type { ObservingSection } from '../plan/observingSection';
 
 /** Settings after defaults. */
 export interface StarlightSettings {
   exposureS: number;
+  /** Sky the S/N is computed against (AB mag/arcsec^2): the dark sky brightened by the plan's Moon (observe/planSky.ts). */
   skyMagPerArcsec2: number;
+  /** The dark sky as given (starlight.skyMagPerArcsec2 or its default), AB mag/arcsec^2. */
+  darkSkyMagPerArcsec2: number;
+  /**
+   * Length of sky slit (arcsec) a starlight slit's sky is estimated from while slits are placed: the planned sky slits,
+   * skyPerMask x slitLengthArcsec (Howell's 1 + n_pix/n_B term; the co-added bins then use the sky slits really placed).
+   * Null when skyPerMask is 0: no sky slit, no estimate, no starlight S/N.
+   */
+  skyEstimateArcsec: number | null;
   targetSnPerA: number;
   slitLengthArcsec: number;
   /** Longest starlight slit: free slots next to each other are joined up to this length where a longer slit reaches farther. */
@@ -54,20 +66,40 @@ export interface StarlightSettings {
 /** Defaults: 2 h, sky 19.6 AB mag/arcsec^2 (dark sky near 8500 A, common practice order of magnitude), S/N 5 per A. */
 export const STARLIGHT_DEFAULTS = { exposureS: 7200, skyMagPerArcsec2: 19.6, targetSnPerA: 5, throughput: 0.15, maxPerMask: 8, skyPerMask: 2, skyContrastMag: 3 } as const;
 
-/** Resolve the plan's starlight settings against the profile (throughput, detector scales, noise) and goals. */
-export function starlightSettings(rules: StarlightRules | undefined, profile: InstrumentProfile, plan: Pick<PlanFile, 'goals' | 'galaxy'> & { photometry?: PlanFile['photometry'] }): StarlightSettings {
+/** The plan's sky with its Moon, cached per observing section (the Moon from a date costs a lunar theory evaluation). */
+const skyCache = new WeakMap<object, Map<string, number>>();
+function planSky(darkSkyMagPerArcsec2: number, profile: InstrumentProfile, plan: Pick<PlanFile, 'galaxy'> & { photometry?: PlanFile['photometry']; observing?: PlanFile['observing'] }): number {
+  const obs = plan.observing as ObservingSection | undefined;
+  if (!obs || (!obs.moon && obs.date === undefined && !obs.dateRange)) return darkSkyMagPerArcsec2;
+  const ra = parseRaDeg(plan.galaxy.ra), dec = parseDecDeg(plan.galaxy.dec);
+  if (!ra.ok || !dec.ok) return darkSkyMagPerArcsec2;
+  const site = profile.site;
+  const key = `${darkSkyMagPerArcsec2}|${ra.value}|${dec.value}|${site.latDeg}|${site.lonDeg}|${site.elevationM}|${JSON.stringify(plan.photometry ?? null)}`;
+  let byKey = skyCache.get(obs);
+  if (!byKey) skyCache.set(obs, (byKey = new Map()));
+  let sky = byKey.get(key);
+  if (sky === undefined) byKey.set(key, (sky = planSkyMagPerArcsec2(darkSkyMagPerArcsec2, obs, plan.photometry, site, { raDeg: ra.value, decDeg: dec.value })));
+  return sky;
+}
+
+/** Resolve the plan's starlight settings against the profile (throughput, detector scales, noise), goals and Moon. */
+export function starlightSettings(rules: StarlightRules | undefined, profile: InstrumentProfile, plan: Pick<PlanFile, 'goals' | 'galaxy'> & { photometry?: PlanFile['photometry']; observing?: PlanFile['observing'] }): StarlightSettings {
   const r = rules ?? {};
+  const darkSky = r.skyMagPerArcsec2 ?? STARLIGHT_DEFAULTS.skyMagPerArcsec2;
+  const skyPerMask = r.skyPerMask ?? STARLIGHT_DEFAULTS.skyPerMask;
   const lines = plan.goals.linesA.map((l) => observedWavelengthA(l, plan.galaxy.vsysKms));
   const det = profile.detector;
   const slitLengthArcsec = Math.max(profile.slits.minLengthArcsec, r.slitLengthArcsec ?? Math.max(3 * profile.slits.minLengthArcsec, 12));
   return {
     exposureS: r.exposureS ?? STARLIGHT_DEFAULTS.exposureS,
-    skyMagPerArcsec2: r.skyMagPerArcsec2 ?? STARLIGHT_DEFAULTS.skyMagPerArcsec2,
+    skyMagPerArcsec2: planSky(darkSky, profile, plan),
+    darkSkyMagPerArcsec2: darkSky,
+    skyEstimateArcsec: skyPerMask > 0 ? skyPerMask * slitLengthArcsec : null,
     targetSnPerA: r.targetSnPerA ?? STARLIGHT_DEFAULTS.targetSnPerA,
     slitLengthArcsec,
     maxSlitLengthArcsec: Math.max(slitLengthArcsec, r.maxSlitLengthArcsec ?? 4 * slitLengthArcsec),
     maxPerMask: r.maxPerMask ?? STARLIGHT_DEFAULTS.maxPerMask,
-    skyPerMask: r.skyPerMask ?? STARLIGHT_DEFAULTS.skyPerMask,
+    skyPerMask,
     skyContrastMag: r.skyContrastMag ?? STARLIGHT_DEFAULTS.skyContrastMag,
     catalogToAbMag: resolvePhotometry(plan.photometry).catalogToAbMag,
     reachRe: plan.goals.starlightReachRe,
@@ -143,13 +175,19 @@ export function slitMeanMu(g: GalaxyOnMask, xArcsec: number, y0Arcsec: number, y
   return -2.5 * PMath.log10(f / samples);
 }
 
-/** S/N per A of the galaxy light through a slit of length `lengthArcsec` with mean surface brightness mu. */
-export function starlightSignalToNoise(muMagPerArcsec2: number, lengthArcsec: number, widthArcsec: number, s: StarlightSettings): number {
+/**
+ * S/N per A of the galaxy light through a slit of length `lengthArcsec` with mean surface brightness mu (catalog band),
+ * its sky estimated from `skyEstimateArcsec` of sky slit (default the planned sky slits, s.skyEstimateArcsec; null: no
+ * estimate, S/N 0) against the plan's sky with its Moon.
+ */
+export function starlightSignalToNoise(muMagPerArcsec2: number, lengthArcsec: number, widthArcsec: number, s: StarlightSettings, skyEstimateArcsec: number | null = s.skyEstimateArcsec): number {
+  if (skyEstimateArcsec === null) return 0;
   const perS = electronsPerAFromSurfaceBrightness(muMagPerArcsec2 + s.catalogToAbMag, lengthArcsec * widthArcsec, s.setup, 1);
-  return signalToNoisePerA({ sourceEPerAPerS: perS, extractionArcsec: lengthArcsec, slitWidthArcsec: widthArcsec, skyMagPerArcsec2: s.skyMagPerArcsec2 }, s.setup, s.exposureS);
+  return signalToNoisePerA({ sourceEPerAPerS: perS, extractionArcsec: lengthArcsec, slitWidthArcsec: widthArcsec, skyMagPerArcsec2: s.skyMagPerArcsec2, skyLengthArcsec: skyEstimateArcsec }, s.setup, s.exposureS);
 }
 
-interface Span { lo: number; hi: number }
+/** A stretch of y along the slits, arcsec (mask frame). */
+export interface Span { lo: number; hi: number }
 
 /** The fields of a row that fix the y-space it occupies. */
 export type RowSpan = Pick<Slit, 'role' | 'yArcsec' | 'lenBelowArcsec' | 'lenAboveArcsec' | 'widthArcsec' | 'tiltDeg'>;
@@ -208,7 +246,7 @@ export function freeSlots(slits: readonly RowSpan[], rules: EligibilityRules, ga
 
 /** Candidate x positions (arcsec) for a slot: a grid over the footprint bounds that obey the wavelength rule (fit is checked later). */
 const positionCache = new WeakMap<EligibilityRules, Map<number, number[]>>();
-function slotPositions(rules: EligibilityRules, stepArcsec: number): number[] {
+export function slotPositions(rules: EligibilityRules, stepArcsec: number): number[] {
   let byStep = positionCache.get(rules);
   if (!byStep) positionCache.set(rules, (byStep = new Map()));
   const cached = byStep.get(stepArcsec);
@@ -226,14 +264,14 @@ function slotPositions(rules: EligibilityRules, stepArcsec: number): number[] {
  * beyond it is fainter than a slit that just fails. Found by bisection on the upper side, cached per spectrograph
  * setup, galaxy, goal and slit size (none of which depends on where the mask points); Infinity when no radius fails.
  */
-interface LimitEntry { galaxy: GalaxyModel; bn: number; widthArcsec: number; targetSnPerA: number; exposureS: number; skyMagPerArcsec2: number; limitArcsec: number }
+interface LimitEntry { galaxy: GalaxyModel; bn: number; widthArcsec: number; targetSnPerA: number; exposureS: number; skyMagPerArcsec2: number; skyEstimateArcsec: number | null; limitArcsec: number }
 const limitCache = new WeakMap<SpectroSetup, Map<number, LimitEntry>>();
 function snLimitRadiusArcsec(g: GalaxyOnMask, lengthArcsec: number, widthArcsec: number, s: StarlightSettings): number {
   const gal = g.galaxy;
   let byLength = limitCache.get(s.setup);
   if (!byLength) limitCache.set(s.setup, (byLength = new Map()));
   const e = byLength.get(lengthArcsec);
-  if (e && e.galaxy === gal && e.bn === g.bn && e.widthArcsec === widthArcsec && e.targetSnPerA === s.targetSnPerA && e.exposureS === s.exposureS && e.skyMagPerArcsec2 === s.skyMagPerArcsec2) return e.limitArcsec;
+  if (e && e.galaxy === gal && e.bn === g.bn && e.widthArcsec === widthArcsec && e.targetSnPerA === s.targetSnPerA && e.exposureS === s.exposureS && e.skyMagPerArcsec2 === s.skyMagPerArcsec2 && e.skyEstimateArcsec === s.skyEstimateArcsec) return e.limitArcsec;
   const ok = (rArcsec: number) => starlightSignalToNoise(sersicMuMagPerArcsec2(rArcsec, gal.reArcsec, gal.sersicN, gal.muE, g.bn), lengthArcsec, widthArcsec, s) >= s.targetSnPerA;
   let lo = 0, hi = 1e3 * gal.reArcsec;
   let limit: number;
@@ -244,7 +282,7 @@ function snLimitRadiusArcsec(g: GalaxyOnMask, lengthArcsec: number, widthArcsec:
     limit = hi;
   }
   if (byLength.size > 64) byLength.clear();
-  byLength.set(lengthArcsec, { galaxy: gal, bn: g.bn, widthArcsec, targetSnPerA: s.targetSnPerA, exposureS: s.exposureS, skyMagPerArcsec2: s.skyMagPerArcsec2, limitArcsec: limit });
+  byLength.set(lengthArcsec, { galaxy: gal, bn: g.bn, widthArcsec, targetSnPerA: s.targetSnPerA, exposureS: s.exposureS, skyMagPerArcsec2: s.skyMagPerArcsec2, skyEstimateArcsec: s.skyEstimateArcsec, limitArcsec: limit });
   return limit;
 }
 
@@ -306,7 +344,7 @@ export const starlightCell = (rRe: number, azimuthDeg: number) => `${Math.floor(
  * longer slit up to maxSlitLengthArcsec (a longer slit reaches the S/N target farther out). `slots` are the base
  * slot indices a window uses.
  */
-function starlightWindows(slots: readonly Span[], gapArcsec: number, maxLengthArcsec: number): { span: Span; slots: number[] }[] {
+export function starlightWindows(slots: readonly Span[], gapArcsec: number, maxLengthArcsec: number): { span: Span; slots: number[] }[] {
   const out: { span: Span; slots: number[] }[] = slots.map((sp, i) => ({ span: sp, slots: [i] }));
   for (let i = 0; i < slots.length; i++) {
     for (let j = i + 1; j < slots.length; j++) {
@@ -351,7 +389,7 @@ export function chooseSlots(g: GalaxyOnMask, rules: EligibilityRules, slots: rea
 }
 
 /** Trim rows lengthened into the new slits' space (never below minLength/2 per side), keeping the gap rule. */
-function trimAround(slits: Slit[], added: readonly SlotChoice[], gapArcsec: number, minHalf: number): Slit[] {
+export function trimAround(slits: Slit[], added: readonly SlotChoice[], gapArcsec: number, minHalf: number): Slit[] {
   return slits.map((sl) => {
     if (sl.role === 'alignment') return sl;
     let below = sl.lenBelowArcsec, above = sl.lenAboveArcsec;
@@ -368,10 +406,10 @@ export interface StarlightResult {
   warnings: string[];
 }
 
-/** Rows for chosen slots on one mask, ids `sl-<mask>-NNN` / `sky-<mask>-NNN`; y is the slot centre, symmetric halves. */
-function slotRows(mask: MaskSolution['mask'], choices: readonly SlotChoice[], role: 'starlight' | 'sky', widthArcsec: number): Slit[] {
+/** Rows for chosen slots on one mask, ids `sl-<mask>-NNN` / `sky-<mask>-NNN` numbered from firstNumber; y is the slot centre, symmetric halves. */
+export function slotRows(mask: MaskSolution['mask'], choices: readonly SlotChoice[], role: 'starlight' | 'sky', widthArcsec: number, firstNumber = 1): Slit[] {
   return choices.map((c, i) => {
-    const id = `${role === 'starlight' ? 'sl' : 'sky'}-${mask.id}-${String(i + 1).padStart(3, '0')}`;
+    const id = `${role === 'starlight' ? 'sl' : 'sky'}-${mask.id}-${String(i + firstNumber).padStart(3, '0')}`;
     const y = 0.5 * (c.y0 + c.y1), half = 0.5 * (c.y1 - c.y0);
     const sky = maskPointToSkyDeg(mask, c.xArcsec, y);
     return {

@@ -3,7 +3,8 @@
  * allocation of the last solve kept, so moving one mask re-prepares and re-allocates only that mask
  * (solver/allocateMasks.ts `reallocateOneMask`: the other masks keep their tracers), then redoes starlight and
  * sky slits (solver/starlight.ts `placeStarlightOnMask`, with the cells, bins and reach of the other masks counted
- * as taken, and one prepared starlight stage for the whole drag) and lengthening on that mask only, and coverage over all. The result is a live preview; when the
+ * as taken, and one prepared starlight stage for the whole drag) and lengthening on that mask only (starlight co-added
+ * per bin only when every mask is redone), and coverage with the co-added starlight bins over all. The result is a live preview; when the
  * drag ends, the editor solves the committed plan with the full `solvePlan`, so the numbers it keeps
  * are exactly the pipeline's.
  *
@@ -16,7 +17,7 @@ import type { PlanFile } from '../../core/plan/schema';
 import type { InstrumentProfile } from '../../core/profile/schema';
 import { galaxyModel } from '../../core/plan/validate';
 import { wrap360Deg } from '../../core/sky/angles';
-import { addStarlightAndSky, lengthenMasks, placeMasks, planFullyPlaced, solvedPlanFile, targetWeights } from '../../core/pipeline/pipeline';
+import { addStarlightAndSky, coaddStarlight, lengthenMasks, measureStarlightBins, placeMasks, planFullyPlaced, solvedPlanFile, targetWeights } from '../../core/pipeline/pipeline';
 import { allocateForPointings, allocationContext, reallocateOneMask, type AllocationContext, type PointingsAllocation } from '../../core/solver/allocateMasks';
 import { lineWindowSettings } from '../../core/profile/wavelength';
 import { coverageReport } from '../../core/coverage/coverage';
@@ -138,13 +139,14 @@ export function liveSolve(planIn: PlanFile, profile: InstrumentProfile, catalog:
     masks = cache.finished;
   } else {
     cache.taken = null;
-    masks = addStarlightAndSky(plan, cache.ctx, cache.alloc.masks, warnings);
+    masks = coaddStarlight(plan, cache.ctx, addStarlightAndSky(plan, cache.ctx, cache.alloc.masks, warnings));
     t2 = performance.now();
     masks = lengthenMasks(plan, profile, masks, cache.ctx);
   }
   cache.finished = masks;
   const t3 = performance.now();
   const coverage = coverageReport(cache.galaxy, plan.goals, masks.flatMap((m) => m.slits));
+  measureStarlightBins(plan, cache.ctx, cache.galaxy, masks, coverage);
   const stageMs = { allocation: t1 - t0, starlightAndSky: t2 - t1, lengthening: t3 - t2, coverage: performance.now() - t3 };
   return {
     plan: solvedPlanFile(plan, cache.pointings), galaxy: cache.galaxy, masks, coverage, warnings,
