@@ -83,6 +83,26 @@ describe('forecast of a mixed plan', () => {
     else expect(mixed.hours.nights!.nightsNeeded).toBeNull();
   });
 
+  it('uses each spectrograph\'s own observing keys (instruments[].observing): a longer exposure on one telescope only', () => {
+    // CCD equation (Howell 2006, section 4.4): S/N = N*t / sqrt(t (N* + n_pix (sky + dark)) + n_pix R^2), so doubling
+    // t multiplies S/N by sqrt(2) when read noise is negligible and by up to 2 when it dominates.
+    const instruments = input.plan.instruments!.map((e) => (e.profile === 'broad65-wide' ? { ...e, observing: { exposureTimeS: 21600 } } : e));
+    const longer = forecastPlan({ ...input, plan: { ...input.plan, instruments }, trials: 20, seed: 3 });
+    let compared = 0;
+    for (const [maskId, profile] of input.maskProfiles!) {
+      const before = new Map(mixed.tracers.filter((t) => t.maskId === maskId).map((t) => [t.slitId, t.snPerA]));
+      for (const t of longer.tracers.filter((x) => x.maskId === maskId)) {
+        const ratio = t.snPerA / before.get(t.slitId)!;
+        if (profile.id === 'broad65-wide') {
+          expect(ratio).toBeGreaterThan(Math.SQRT2 - 1e-9);
+          expect(ratio).toBeLessThan(2 + 1e-9);
+          compared++;
+        } else expect(ratio).toBeCloseTo(1, 12);
+      }
+    }
+    expect(compared).toBeGreaterThan(0);
+  });
+
   it('the CLI prints the per-site nights', async () => {
     const out: string[] = [];
     expect(await main(['forecast', dir, '--trials', '10', '--from', '2027-03-01', '--to', '2027-03-20'], { out: (t) => out.push(t), err: () => {} })).toBe(0);

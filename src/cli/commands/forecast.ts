@@ -121,7 +121,8 @@ export function loadForecastInput(shown: string, semester: { from: string | null
     }
     nights = nightsOfProfile.get(profile.id)!;
   }
-  return { plan, profile, maskProfiles, nightsOfProfile: profiles.length > 1 && nights ? nightsOfProfile : undefined, galaxy, masks: solutions, colours, nights };
+  const profilesByRef = Object.fromEntries(planInstrumentRefs(plan).map((ref, k) => [ref, profiles[k]]));
+  return { plan, profile, maskProfiles, profilesByRef, nightsOfProfile: profiles.length > 1 && nights ? nightsOfProfile : undefined, galaxy, masks: solutions, colours, nights };
 }
 
 /** A forecast with numbers rounded for the file (6 significant digits). */

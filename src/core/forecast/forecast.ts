@@ -139,6 +139,8 @@ export interface ForecastInput {
   nightsOfProfile?: ReadonlyMap<string, { rows: readonly { date: string; darkHours: number }[]; from: string; to: string }>;
   /** The profile of each mask of a plan with several spectrographs (mask id to profile); masks absent use `profile`. */
   maskProfiles?: ReadonlyMap<string, InstrumentProfile>;
+  /** The plan's profile references (ids or file paths, plan key `instruments`) to their profiles, to find each one's own `observing` keys. */
+  profilesByRef?: Readonly<Record<string, InstrumentProfile>>;
   trials?: number;
   seed?: number | string;
 }
@@ -162,7 +164,7 @@ export function forecastPlan(input: ForecastInput): Forecast {
   const trials = input.trials ?? DEFAULT_TRIALS, seed = input.seed ?? 1;
   const s = resolveForecastSettings(plan.forecast, galaxy, plan.goals.linesA);
   const profileOf = (maskId: string): InstrumentProfile => input.maskProfiles?.get(maskId) ?? profile;
-  const known = mixedPlanExposures(plan, galaxy, input.masks, profileOf);
+  const known = mixedPlanExposures(plan, galaxy, input.masks, profileOf, input.profilesByRef);
   const { exposures } = known;
   const { tracers, starlight } = slitSamples(galaxy, input.masks, exposures);
   const kpcPerRe = kpcPerArcsec(s.distanceMpc) * galaxy.reArcsec;

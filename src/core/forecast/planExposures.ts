@@ -12,6 +12,7 @@ import { OBSERVING_DEFAULTS, resolveObservingSettings } from '../observe/observi
 import type { ObservingSection } from '../plan/observingSection';
 import { starlightSettings } from '../solver/starlight';
 import type { StarlightRules } from '../plan/starlightSection';
+import { instrumentSections } from '../plan/instruments';
 import { resolveForecastSettings } from './settings';
 import { instrumentalSigmaA, lineSigmaA, type LineSampling } from './velocityError';
 import { maskHours, type MaskHours, type SiteNights } from './hours';
@@ -30,9 +31,12 @@ export function tracerTargetSn(plan: PlanFile): { snPerA: number; source: Target
 
 /**
  * Exposure estimates (S/N per Angstrom of every tracer and starlight slit in the planned exposure, and times to the
- * tracers' target S/N) with the plan's settings and one profile, as the observing report computes them.
+ * tracers' target S/N) with the plan's settings and one profile, as the observing report computes them. In a plan of
+ * several spectrographs the profile's own `instruments[].observing` keys apply over the plan's (plan/instruments.ts);
+ * `profilesByRef` maps the plan's profile references to profiles when they are file paths rather than ids.
  */
-export function planExposures(plan: PlanFile, profile: InstrumentProfile, galaxy: GalaxyModel, masks: readonly MaskSolution[]): { exposures: MaskExposureReport[]; exposureTimeS: number; targetSnPerA: number } {
+export function planExposures(planIn: PlanFile, profile: InstrumentProfile, galaxy: GalaxyModel, masks: readonly MaskSolution[], profilesByRef: Readonly<Record<string, InstrumentProfile>> = {}): { exposures: MaskExposureReport[]; exposureTimeS: number; targetSnPerA: number } {
+  const plan: PlanFile = { ...planIn, ...instrumentSections(planIn, profile.id, profilesByRef) };
   const starlight = starlightSettings(plan.starlight as StarlightRules | undefined, profile, plan);
   const settings = resolveObservingSettings(plan.observing as ObservingSection | undefined, profile, { exposureTimeS: starlight.exposureS });
   const model = exposureModelOf(starlight, { ...settings, targetSnPerA: tracerTargetSn(plan).snPerA });
@@ -52,8 +56,8 @@ export function masksByProfile(masks: readonly MaskSolution[], profileOf: (maskI
 }
 
 /** planExposures of a plan whose masks may use several spectrographs: each mask with its own profile's exposure model. */
-export function mixedPlanExposures(plan: PlanFile, galaxy: GalaxyModel, masks: readonly MaskSolution[], profileOf: (maskId: string) => InstrumentProfile): { exposures: MaskExposureReport[]; exposureTimeS: number; targetSnPerA: number } {
-  const parts = masksByProfile(masks, profileOf).map((g) => planExposures(plan, g.profile, galaxy, g.masks));
+export function mixedPlanExposures(plan: PlanFile, galaxy: GalaxyModel, masks: readonly MaskSolution[], profileOf: (maskId: string) => InstrumentProfile, profilesByRef: Readonly<Record<string, InstrumentProfile>> = {}): { exposures: MaskExposureReport[]; exposureTimeS: number; targetSnPerA: number } {
+  const parts = masksByProfile(masks, profileOf).map((g) => planExposures(plan, g.profile, galaxy, g.masks, profilesByRef));
   const byId = new Map(parts.flatMap((p) => p.exposures).map((e) => [e.maskId, e]));
   return {
     exposures: masks.map((m) => byId.get(m.mask.id)!),
