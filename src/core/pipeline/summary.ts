@@ -47,6 +47,13 @@ export function maskSummaryLines(s: PlanSummaryInput): string[] {
   return lines;
 }
 
+/** ", met" or ", not met" for the starlight goal: a sector of the outermost 1-Re bin inside the goal reaches the co-added target (coverage/goals.ts). */
+function starlightGoalWord(bins: CoverageReport['starlightBins']): string {
+  if (!bins) return '';
+  const outer = Math.ceil(bins.goalRe - 1e-12) - 1;
+  return bins.bins.some((b) => b.fromRe === outer && b.met) ? ', met' : ', not met';
+}
+
 /** Coverage per role (every line names its role), then the weighting rules and the pointing search; one line per fact. */
 export function coverageSummaryLines(s: SummaryInput): string[] {
   const lines: string[] = [];
@@ -59,8 +66,8 @@ export function coverageSummaryLines(s: SummaryInput): string[] {
       if (c.radialBins.length) lines.push(`  ${role} per 1-Re bin (0..${c.goalRe} Re): ${c.radialBins.map((b) => b.count).join(' ')}${c.beyondGoal ? `; beyond the goal: ${c.beyondGoal}` : ''}`);
       lines.push(`  ${role} per 45-deg sector from the major axis: ${c.sectors.map((b) => b.count).join(' ')}`);
     }
-    // The starlight goal is met by co-added S/N per bin (the "Integrated starlight" lines and goals), not by slit positions.
-    const goal = role === 'sky' ? '' : role === 'starlight' ? ` (goal ${c.goalRe} Re, met by co-added S/N per bin: see "Integrated starlight")`
+    // The starlight goal is judged by co-added S/N per bin (the "Integrated starlight" lines and goals), not by slit positions.
+    const goal = role === 'sky' ? '' : role === 'starlight' ? ` (goal ${c.goalRe} Re${starlightGoalWord(s.coverage.starlightBins)} by co-added S/N per bin: see "Integrated starlight")`
       : ` (goal ${c.goalRe} Re${c.maxReachRe >= c.goalRe ? ', met' : c.maxReachRe >= 0.9 * c.goalRe ? ', 90 % met' : ', not met'})`;
     lines.push(`  ${role}: ${c.count} slits, reach ${f2(c.maxReachRe)} Re${goal}`);
     if (role === 'sky') continue;
