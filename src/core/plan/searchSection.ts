@@ -21,7 +21,7 @@ export const objectiveWeightsSchema = z.looseObject({
 export const searchSchema = z.looseObject({
   /** Seed of the search's random trial moves (same seed, same result). */
   seed: z.union([z.number(), z.string()]).optional(),
-  /** Number of step-size levels (each halves the step; default 3) and passes over the masks per level (default 2; a pass that improves nothing ends the level). */
+  /** Number of step-size levels (each halves the step; default 4) and passes over the masks per level (default 2; a pass that improves nothing ends the level). */
   levels: z.number().int().min(0).max(12).optional(),
   passes: z.number().int().min(1).max(10).optional(),
   /** Random trial moves per mask and pass, besides the 6 axis moves (default 1). */

@@ -416,7 +416,7 @@ export function searchBudget(rules: SearchRules, freeMasks: number): SearchBudge
   const effort = rules.effort ?? 1;
   const log2 = effort > 1 ? Math.round(PMath.log(effort) / PMath.log(2)) : 0;
   return {
-    levels: rules.levels ?? 3 + log2,
+    levels: rules.levels ?? 4 + log2,
     passes: rules.passes ?? (effort > 1 ? 3 : 2),
     randomTrials: rules.randomTrials ?? Math.max(1, Math.round(effort)),
     kicks: rules.kicks ?? Math.round(effort * freeMasks),
