@@ -16,7 +16,7 @@ import type Konva from 'konva';
 import type { GalaxyModel } from '../../core/plan/schema';
 import { maskFootprint } from './maskFootprints';
 import type { InstrumentProfile } from '../../core/profile/schema';
-import type { Slit } from '../../core/geometry/maskSolution';
+import type { MaskPointing, Slit } from '../../core/geometry/maskSolution';
 import { skyToTangentArcsec, tangentCentre, tangentToSkyDeg } from '../../core/sky/tangentPlane';
 import { DEG_PER_RAD, wrap360Deg } from '../../core/sky/angles';
 import { circularisedRadiusArcsec, skyToGalaxyArcsec } from '../../core/sky/frames';
@@ -29,15 +29,8 @@ import { CatalogLayer, cssPlacement } from './catalogBitmap';
 import { INK, ROLE_STYLE } from './palette';
 import type { Backdrop } from './backdrop';
 
-export interface MaskPose {
-  id: string;
-  raDeg: number;
-  decDeg: number;
-  paDeg: number;
-  locked: boolean;
-  /** Profile id of the mask's own spectrograph in a plan with several (its footprint is drawn). */
-  instrument?: string;
-}
+/** A mask as the view draws it: the core's pointing (its `instrument`, in a plan with several, picks the footprint drawn). */
+export type MaskPose = MaskPointing;
 
 export interface SkyViewProps {
   galaxy: GalaxyModel;
