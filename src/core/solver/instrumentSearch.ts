@@ -25,12 +25,12 @@ export function envFor(env: SearchEnv, mask: Pick<MaskPointing, 'instrument'>): 
   let sub = byId.get(mask.instrument);
   if (!sub) {
     const ctx = contextFor(env.ctx, mask);
-    // The plan's first profile shares the plan's environment unless its own settings change the starlight exposure.
-    const sections = withContextSections(ctx, env.plan);
-    const starlight = sections.starlight;
-    sub = ctx === env.ctx && starlight === env.plan.starlight ? env : {
-      ...env, ctx, starlight: starlightSettings(starlight as StarlightRules | undefined, ctx.profile, env.plan),
-      refractionLoss: refractionLossModel(sections, ctx.profile, env.objective.weights.aRefraction),
+    // The plan's first profile shares the plan's environment unless it has observing keys of its own
+    // (instruments[].observing): those change its starlight exposure and sky, and its refraction over the exposure.
+    const plan = withContextSections(ctx, env.plan);
+    sub = ctx === env.ctx && plan === env.plan ? env : {
+      ...env, ctx, starlight: starlightSettings(plan.starlight as StarlightRules | undefined, ctx.profile, plan),
+      refractionLoss: refractionLossModel(plan, ctx.profile, env.objective.weights.aRefraction),
     };
     byId.set(mask.instrument, sub);
   }
