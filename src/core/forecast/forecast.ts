@@ -235,7 +235,7 @@ export function forecastPlan(input: ForecastInput): Forecast {
 
   const masksH = planMaskHours(plan, profile, galaxy, input.masks, known);
   const target = tracerTargetSn(plan);
-  if (target.source === 'default') notes.push(`no tracer S/N target in the plan (goals.tracerSnPerA): hours are for S/N ${target.snPerA} per A, the default`);
+  if (target.source === 'default') notes.push(`no tracer S/N target in the plan: the hours assume the default S/N ${target.snPerA} per A (set goals.tracerSnPerA to choose one)`);
   const total = masksH.reduce((a, m) => a + m.hours, 0);
   const sites = siteHours(input.masks, masksH, profileOf);
   let nights = input.nights ? nightsNeeded(total, input.nights.rows, input.nights.from, input.nights.to) : null;
