@@ -39,9 +39,10 @@ import type { SearchRules } from '../plan/searchSection';
 import { makeRng } from '../numeric/random';
 import type { MaskPointing, MaskSolution } from '../geometry/maskSolution';
 import { PMath } from '../numeric/portableMath';
-import { contextFor, tracerRowValue } from './maskContext';
+import { candidateValues, contextFor, tracerRowValue } from './maskContext';
 import { envFor, footprintScaleArcsec, instrumentsProxyModel, placeStarlightForMasks } from './instrumentSearch';
 import { refractionLossModel, type RefractionLoss } from './refractionTerm';
+import { PROXY_CELL_ARCSEC, proxyCells, type ProxyCells } from './proxyCells';
 
 /** Where a start layout puts its k-th free mask (of nFree): offset (u major, v minor, arcsec) and the long side's direction (degrees from the major axis). */
 type FreePlacement = (k: number, nFree: number, halfLongArcsec: number) => { uArcsec: number; vArcsec: number; longDirDeg: number };
@@ -257,99 +258,93 @@ export interface ProxyMask {
  * conservative column raster; no alignment boxes) and how many alignment boxes it can hold (the allocation's rule). With `liberal`
  * the footprint test is only the bounds box: every truly eligible tracer is then in the set (for upper bounds).
  */
-export function proxyModel(env: SearchEnv): (p: MaskPointing, liberal?: boolean) => ProxyMask {
+export function proxyModel(env: SearchEnv, options: { thinning?: boolean } = {}): (p: MaskPointing, liberal?: boolean) => ProxyMask {
   const { ctx } = env;
   const profile = ctx.profile;
   const b = polygonBounds(profile.footprint);
   const L = profile.slits.minLengthArcsec, gap = profile.slits.gapArcsec;
   const slitRaster = footprintRaster(profile.footprint, profile.slits.widthArcsec / 2, L / 2);
-  const { x: ux, y: uy, z: uz } = ctx.unit;
   const nT = ctx.tracerIndices.length;
-  const bufObj = new Int32Array(nT), bufY = new Float64Array(nT), keys = new Float64Array(nT);
-  const sortWork: SortWork = { out: new Int32Array(nT), start: new Int32Array(nT + 1), fill: new Int32Array(nT) };
   const identity = Int32Array.from({ length: nT }, (_, k) => k);
-  // Tracers binned in square cells of the galaxy's tangent plane, so a trial only visits cells near the mask. The cells
-  // are flat typed arrays (cell c holds positions cellStart[c] .. cellStart[c + 1] - 1, in first-seen cell order and
-  // catalog order inside a cell), with each tracer's unit vector and tangent-plane offset copied alongside.
-  const cell = 60, gc = tangentCentre(ctx.galaxy.raDeg, ctx.galaxy.decDeg);
-  const cells = new Map<number, number[]>();
-  const key = (cx: number, cy: number) => (cx + 32768) * 65536 + (cy + 32768);
-  for (const i of ctx.tracerIndices) {
-    const xi = env.xi[i], eta = env.eta[i];
-    const k = Number.isFinite(xi) && Number.isFinite(eta) && Math.abs(xi) < 1e6 && Math.abs(eta) < 1e6 ? key(Math.floor(xi / cell), Math.floor(eta / cell)) : -1;
-    let list = cells.get(k);
-    if (!list) cells.set(k, (list = []));
-    list.push(i);
-  }
-  const nCells = cells.size;
-  const cellKeyOf = new Float64Array(nCells), cellXi = new Float64Array(nCells), cellEta = new Float64Array(nCells), cellStart = new Int32Array(nCells + 1);
-  const pObj = new Int32Array(nT), pX = new Float64Array(nT), pY = new Float64Array(nT), pZ = new Float64Array(nT);
-  const pXi = new Float64Array(nT), pEta = new Float64Array(nT);
-  {
-    let c = 0, at = 0;
-    for (const [k, list] of cells) {
-      cellKeyOf[c] = k; cellXi[c] = (Math.floor(k / 65536) - 32768 + 0.5) * cell; cellEta[c] = ((k % 65536) - 32768 + 0.5) * cell;
-      cellStart[c] = at;
-      for (const i of list) { pObj[at] = i; pX[at] = ux[i]; pY[at] = uy[i]; pZ[at] = uz[i]; pXi[at] = env.xi[i]; pEta[at] = env.eta[i]; at++; }
-      c++;
-    }
-    cellStart[nCells] = at;
-  }
-  cells.clear();
+  const gc = tangentCentre(ctx.galaxy.raDeg, ctx.galaxy.decDeg);
   // The galaxy's and a mask's tangent planes differ by far less than this margin near the galaxy: the scales differ by
   // a fraction of order d^2 (d: distance between the two tangent points, radians), about 0.2" at 600" from a mask
   // centre 1 degree away, so 30" holds for masks up to about 10 degrees from the galaxy; a cell is visited when its centre,
   // in the mask frame, lies within the footprint bounds grown by the cell's half-diagonal and this margin, and a
   // tracer is projected exactly only when its own offset passes the same bounds grown by the margin alone.
-  const margin = 30, grow = cell * Math.SQRT1_2 + margin;
+  const cell = PROXY_CELL_ARCSEC, margin = 30, grow = cell * Math.SQRT1_2 + margin;
   const loX = b.minX - margin, hiX = b.maxX + margin, loY = b.minY - margin, hiY = b.maxY + margin;
+  // Cells whose centre can fall inside the grown bounds of one mask (the per-trial visit, any orientation).
+  const span = Math.max(b.maxX - b.minX, b.maxY - b.minY) + 2 * grow;
+  const shape = { slitPitchArcsec: L + gap, cellsPerTrial: Math.ceil((span / cell + 1) * (span / cell + 1)) };
+  const input = {
+    tracers: ctx.tracerIndices, xiArcsec: env.xi, etaArcsec: env.eta, unit: ctx.unit,
+    value: candidateValues(ctx, ctx.tracerIndices) ?? Float64Array.from(ctx.tracerIndices, (i) => ctx.weights[i]),
+  };
+  // The search's cells (thinned at high density) and, for the liberal superset of the proven bounds, every tracer.
+  const searchCells = proxyCells(input, shape, options.thinning ?? true);
+  let allGather: ReturnType<typeof gatherer> | null = null;
+  const searchGather = gatherer(searchCells);
+
+  /** Candidates of one index on a mask: object indices and mask y, in y order, no allocation per target. */
+  function gatherer(cells: ProxyCells) {
+    const size = cells.objects.length;
+    const bufObj = new Int32Array(size), bufY = new Float64Array(size), keys = new Float64Array(size);
+    const sortWork: SortWork = { out: new Int32Array(size), start: new Int32Array(size + 1), fill: new Int32Array(size) };
+    const { nCells, cellOnPlane, cellXiArcsec, cellEtaArcsec, cellStart, objects: pObj, ux: pX, uy: pY, uz: pZ, xiArcsec: pXi, etaArcsec: pEta } = cells;
+    return (p: MaskPointing, liberal: boolean): { objects: Int32Array; y: Float64Array; starts: Float64Array; ends: Float64Array } => {
+      const basis = maskBasis(p);
+      const at = { xArcsec: 0, yArcsec: 0 };
+      const pc = skyToTangentArcsec(gc, p.raDeg, p.decDeg);
+      // The mask's +y direction as seen in the galaxy's tangent plane (North turns between the two tangent points).
+      const up = maskPointToSkyDeg(p, 0, 60), pu = skyToTangentArcsec(gc, up.raDeg, up.decDeg);
+      const upA = pc && pu ? PMath.atan2(pu.xiArcsec - pc.xiArcsec, pu.etaArcsec - pc.etaArcsec) : p.paDeg * RAD_PER_DEG;
+      const gsp = PMath.sin(upA), gcp = PMath.cos(upA);
+      const pcXi = pc ? pc.xiArcsec : 0, pcEta = pc ? pc.etaArcsec : 0;
+      let n = 0;
+      for (let c = 0; c < nCells; c++) {
+        const culled = pc !== null && cellOnPlane[c] === 1;
+        if (culled) {
+          const dxi = cellXiArcsec[c] - pcXi, deta = cellEtaArcsec[c] - pcEta;
+          const mx = dxi * gcp - deta * gsp, my = dxi * gsp + deta * gcp;
+          if (mx < b.minX - grow || mx > b.maxX + grow || my < b.minY - grow || my > b.maxY + grow) continue;
+        }
+        for (let q = cellStart[c], qEnd = cellStart[c + 1]; q < qEnd; q++) {
+          if (culled) {
+            const dxi = pXi[q] - pcXi, deta = pEta[q] - pcEta;
+            const mx = dxi * gcp - deta * gsp, my = dxi * gsp + deta * gcp;
+            if (mx < loX || mx > hiX || my < loY || my > hiY) continue;
+          }
+          const px = pX[q], py = pY[q], pz = pZ[q];
+          const cosC = maskCosC(basis, px, py, pz);
+          if (cosC < 0.9) continue; // farther than ~25 degrees: never on a mask
+          unitToMaskArcsec(basis, px, py, pz, cosC, at);
+          const x = at.xArcsec, y = at.yArcsec;
+          if (x < b.minX || x > b.maxX || y < b.minY || y > b.maxY) continue;
+          if (!wavelengthOk(ctx.rules, x) || (!liberal && !rasterFits(slitRaster, x, y))) continue;
+          bufObj[n] = pObj[q]; bufY[n] = y; n++;
+        }
+      }
+      // Order by y quantised to 1e-4 arcsec (ordering only), ties by position: a bucket sort, O(n) for spread-out y.
+      for (let k = 0; k < n; k++) keys[k] = Math.floor((bufY[k] + 1e4) * 1e4);
+      const byY = orderByKeyInto(keys, n, sortWork);
+      const objects = new Int32Array(n), y = new Float64Array(n), starts = new Float64Array(n), ends = new Float64Array(n);
+      for (let k = 0; k < n; k++) {
+        const j = byY[k];
+        objects[k] = bufObj[j]; y[k] = bufY[j];
+        starts[k] = y[k] - L / 2; ends[k] = y[k] + L / 2 + gap;
+      }
+      return { objects, y, starts, ends };
+    };
+  }
 
   return (p: MaskPointing, liberal = false): ProxyMask => {
-    const basis = maskBasis(p);
-    const at = { xArcsec: 0, yArcsec: 0 };
-    const pc = skyToTangentArcsec(gc, p.raDeg, p.decDeg);
-    // The mask's +y direction as seen in the galaxy's tangent plane (North turns between the two tangent points).
-    const up = maskPointToSkyDeg(p, 0, 60), pu = skyToTangentArcsec(gc, up.raDeg, up.decDeg);
-    const upA = pc && pu ? PMath.atan2(pu.xiArcsec - pc.xiArcsec, pu.etaArcsec - pc.etaArcsec) : p.paDeg * RAD_PER_DEG;
-    const gsp = PMath.sin(upA), gcp = PMath.cos(upA);
-    const pcXi = pc ? pc.xiArcsec : 0, pcEta = pc ? pc.etaArcsec : 0;
-    // Candidates in y order (so that the interval index's sort by end is a single pass), no allocation per target.
-    let n = 0;
-    for (let c = 0; c < nCells; c++) {
-      const culled = pc !== null && cellKeyOf[c] >= 0;
-      if (culled) {
-        const dxi = cellXi[c] - pcXi, deta = cellEta[c] - pcEta;
-        const mx = dxi * gcp - deta * gsp, my = dxi * gsp + deta * gcp;
-        if (mx < b.minX - grow || mx > b.maxX + grow || my < b.minY - grow || my > b.maxY + grow) continue;
-      }
-      for (let q = cellStart[c], qEnd = cellStart[c + 1]; q < qEnd; q++) {
-        if (culled) {
-          const dxi = pXi[q] - pcXi, deta = pEta[q] - pcEta;
-          const mx = dxi * gcp - deta * gsp, my = dxi * gsp + deta * gcp;
-          if (mx < loX || mx > hiX || my < loY || my > hiY) continue;
-        }
-        const px = pX[q], py = pY[q], pz = pZ[q];
-        const cosC = maskCosC(basis, px, py, pz);
-        if (cosC < 0.9) continue; // farther than ~25 degrees: never on a mask
-        unitToMaskArcsec(basis, px, py, pz, cosC, at);
-        const x = at.xArcsec, y = at.yArcsec;
-        if (x < b.minX || x > b.maxX || y < b.minY || y > b.maxY) continue;
-        if (!wavelengthOk(ctx.rules, x) || (!liberal && !rasterFits(slitRaster, x, y))) continue;
-        bufObj[n] = pObj[q]; bufY[n] = y; n++;
-      }
-    }
-    // Order by y quantised to 1e-4 arcsec (ordering only), ties by position: a bucket sort, O(n) for spread-out y.
-    for (let k = 0; k < n; k++) keys[k] = Math.floor((bufY[k] + 1e4) * 1e4);
-    const byY = orderByKeyInto(keys, n, sortWork);
-    const objects = new Int32Array(n), y = new Float64Array(n), starts = new Float64Array(n), ends = new Float64Array(n);
-    for (let k = 0; k < n; k++) {
-      const j = byY[k];
-      objects[k] = bufObj[j]; y[k] = bufY[j];
-      starts[k] = y[k] - L / 2; ends[k] = y[k] + L / 2 + gap;
-    }
+    // The liberal superset feeds a proven bound: every tracer, never the thinned cells.
+    const gather = !liberal || searchCells.perCellCap === null ? searchGather : (allGather ??= gatherer(proxyCells(input, shape, false)));
+    const { objects, y, starts, ends } = gather(p, liberal);
     // The allocation's own alignment rule (shared stars allowed; boxes clear of each other along y).
     const alignmentMax = liberal ? 0 : alignmentCapacity(ctx, p).compatibleMax;
-    // The liberal set feeds a proven bound: its interval index is built exactly (sorted by end), not from the packed keys.
+    // The liberal set's interval index is built exactly (sorted by end), not from the packed keys.
     return { set: liberal ? maskCandidateSet(objects, starts, ends) : equalLengthCandidateSet(objects, starts, ends, identity), y, alignmentMax };
   };
 }
