@@ -12,8 +12,12 @@ export interface GalaxyPlacement { raDeg: number; decDeg: number; paDeg: number;
 /** Circularised R/Re and azimuth (degrees from the major axis, [0, 360)) of a sky position (degrees) about the galaxy. */
 export function galaxyRadiusAndAzimuth(galaxy: GalaxyPlacement, raDeg: number, decDeg: number): { rRe: number; phiDeg: number } {
   const t = skyToTangentArcsec(tangentCentre(galaxy.raDeg, galaxy.decDeg), raDeg, decDeg);
-  if (!t) return { rRe: Infinity, phiDeg: 0 };
-  const g = skyToGalaxyArcsec(t.xiArcsec, t.etaArcsec, galaxy.paDeg);
+  return t ? tangentRadiusAndAzimuth(galaxy, t.xiArcsec, t.etaArcsec) : { rRe: Infinity, phiDeg: 0 };
+}
+
+/** galaxyRadiusAndAzimuth of a point given by its offset (xi East, eta North, arcsec) on the galaxy's tangent plane. */
+export function tangentRadiusAndAzimuth(galaxy: GalaxyPlacement, xiArcsec: number, etaArcsec: number): { rRe: number; phiDeg: number } {
+  const g = skyToGalaxyArcsec(xiArcsec, etaArcsec, galaxy.paDeg);
   return {
     rRe: circularisedRadiusArcsec(g.uArcsec, g.vArcsec, galaxy.axisRatio) / galaxy.reArcsec,
     phiDeg: wrap360Deg(galaxyAzimuthDeg(g.uArcsec, g.vArcsec)),

@@ -15,8 +15,16 @@
  * re-allocated jointly; unless that full evaluation has fewer alignment problems than the naive cross, or as few and
  * at least the cross's objective, tracer weight and capped tracer reach (one of them higher), the cross is returned:
  * the search never ends worse than it on any of the three.
- * Speed: target positions are cached in the galaxy's tangent plane (xi East, eta North, arcsec), and each trial
- * projects exactly only the targets inside the mask's rotated bounding box (plus a margin).
+ * Speed: target positions are cached in the galaxy's tangent plane (xi East, eta North, arcsec), binned in 60" cells
+ * (solver/proxyCells.ts, built in O(n)), and each trial projects exactly only the targets of the cells inside the mask's
+ * rotated bounding box (plus a margin). Cost of one trial move: O(cells of the field) for the cell test, plus
+ * O(k) for the k tracers of the visited cells (projection, bucket sort by y, the interval index, the moved mask's exact
+ * re-solve; resolveOneMask adds the slits chosen on the other masks), plus the starlight estimate on the mask's free
+ * space (independent of n). k is bounded: when the cells a trial can visit would hold more than PROXY_TRIAL_BUDGET
+ * (40 000) tracers, every cell keeps only twice the slits a mask can take from it (most valuable first), so
+ * k <= max(40 000, cells per trial x 2 x slots per cell), about 15 000 for a 300" x 1000" footprint with 4.5" slit
+ * pitch, whatever the catalog's size. Only the proxy is thinned: the final full evaluation, the proven bounds and the
+ * comparison with the naive cross see every tracer, and a catalog of at most 40 000 tracers is never thinned.
  */
 import type { GalaxyModel, PlanFile } from '../plan/schema';
 import type { InstrumentProfile } from '../profile/schema';
@@ -25,7 +33,7 @@ import { RAD_PER_DEG, wrap360Deg } from '../sky/angles';
 import { galaxyToSkyArcsec } from '../sky/frames';
 import { skyToTangentArcsec, tangentCentre, tangentToSkyDeg } from '../sky/tangentPlane';
 import { sersicBn } from '../sky/sersic';
-import { galaxyRadiusAndAzimuth } from '../sky/galaxyRadius';
+import { galaxyRadiusAndAzimuth, tangentRadiusAndAzimuth } from '../sky/galaxyRadius';
 import { alignmentCapacity, allocateForPointings, type AllocationContext, type PointingsAllocation } from './allocateMasks';
 import { solveIntervalIndex } from './intervalScheduling';
 import { allocateGreedyMaskByMask, improveByBestResponse, maskCandidateSet, resolveOneMask, type JointProblem, type MaskCandidateSet } from './jointAllocation';
@@ -42,7 +50,7 @@ import { PMath } from '../numeric/portableMath';
 import { candidateValues, contextFor, tracerRowValue } from './maskContext';
 import { envFor, footprintScaleArcsec, instrumentsProxyModel, placeStarlightForMasks } from './instrumentSearch';
 import { refractionLossModel, type RefractionLoss } from './refractionTerm';
-import { PROXY_CELL_ARCSEC, proxyCells, type ProxyCells } from './proxyCells';
+import { PROXY_CELL_ARCSEC, PROXY_TRIAL_BUDGET, proxyCells, type ProxyCells } from './proxyCells';
 
 /** Where a start layout puts its k-th free mask (of nFree): offset (u major, v minor, arcsec) and the long side's direction (degrees from the major axis). */
 type FreePlacement = (k: number, nFree: number, halfLongArcsec: number) => { uArcsec: number; vArcsec: number; longDirDeg: number };
@@ -152,11 +160,12 @@ export function searchEnv(plan: PlanFile, ctx: AllocationContext): SearchEnv {
     const t = skyToTangentArcsec(c, ctx.raDeg[i], ctx.decDeg[i]);
     xi[i] = t ? t.xiArcsec : NaN;
     eta[i] = t ? t.etaArcsec : NaN;
-    const r = galaxyRadiusAndAzimuth(g, ctx.raDeg[i], ctx.decDeg[i]);
+    // galaxyRadiusAndAzimuth from the projection just made (the same bits, one projection instead of two).
+    const r = t ? tangentRadiusAndAzimuth(g, t.xiArcsec, t.etaArcsec) : { rRe: Infinity, phiDeg: 0 };
     radiusRe[i] = r.rRe;
     azimuthDeg[i] = r.phiDeg;
   }
-  const tracerWeights = Array.from(ctx.tracerIndices, (i) => ctx.weights[i]);
+  const tracerWeights = tracerWeightsOf(ctx);
   const objective = objectiveContext(plan.goals, plan.search as SearchRules | undefined, tracerWeights);
   return {
     ctx, plan, radiusRe, azimuthDeg, xi, eta, bn: sersicBn(g.sersicN), objective,
@@ -257,6 +266,8 @@ export interface ProxyMask {
  * gnomonic projection by dot products of cached unit vectors, the wavelength rule exactly, the footprint by a
  * conservative column raster; no alignment boxes) and how many alignment boxes it can hold (the allocation's rule). With `liberal`
  * the footprint test is only the bounds box: every truly eligible tracer is then in the set (for upper bounds).
+ * At high density the tracers of the search's cells are thinned (solver/proxyCells.ts), never those of a liberal set;
+ * `thinning: false` keeps every tracer (for comparisons).
  */
 export function proxyModel(env: SearchEnv, options: { thinning?: boolean } = {}): (p: MaskPointing, liberal?: boolean) => ProxyMask {
   const { ctx } = env;
@@ -265,7 +276,8 @@ export function proxyModel(env: SearchEnv, options: { thinning?: boolean } = {})
   const L = profile.slits.minLengthArcsec, gap = profile.slits.gapArcsec;
   const slitRaster = footprintRaster(profile.footprint, profile.slits.widthArcsec / 2, L / 2);
   const nT = ctx.tracerIndices.length;
-  const identity = Int32Array.from({ length: nT }, (_, k) => k);
+  const identity = new Int32Array(nT);
+  for (let k = 0; k < nT; k++) identity[k] = k;
   const gc = tangentCentre(ctx.galaxy.raDeg, ctx.galaxy.decDeg);
   // The galaxy's and a mask's tangent planes differ by far less than this margin near the galaxy: the scales differ by
   // a fraction of order d^2 (d: distance between the two tangent points, radians), about 0.2" at 600" from a mask
@@ -279,10 +291,10 @@ export function proxyModel(env: SearchEnv, options: { thinning?: boolean } = {})
   const shape = { slitPitchArcsec: L + gap, cellsPerTrial: Math.ceil((span / cell + 1) * (span / cell + 1)) };
   const input = {
     tracers: ctx.tracerIndices, xiArcsec: env.xi, etaArcsec: env.eta, unit: ctx.unit,
-    value: candidateValues(ctx, ctx.tracerIndices) ?? Float64Array.from(ctx.tracerIndices, (i) => ctx.weights[i]),
+    value: candidateValues(ctx, ctx.tracerIndices) ?? tracerWeightsOf(ctx),
   };
   // The search's cells (thinned at high density) and, for the liberal superset of the proven bounds, every tracer.
-  const searchCells = proxyCells(input, shape, options.thinning ?? true);
+  const searchCells = proxyCells(input, shape, options.thinning === false ? null : PROXY_TRIAL_BUDGET);
   let allGather: ReturnType<typeof gatherer> | null = null;
   const searchGather = gatherer(searchCells);
 
@@ -340,13 +352,20 @@ export function proxyModel(env: SearchEnv, options: { thinning?: boolean } = {})
 
   return (p: MaskPointing, liberal = false): ProxyMask => {
     // The liberal superset feeds a proven bound: every tracer, never the thinned cells.
-    const gather = !liberal || searchCells.perCellCap === null ? searchGather : (allGather ??= gatherer(proxyCells(input, shape, false)));
+    const gather = !liberal || searchCells.perCellCap === null ? searchGather : (allGather ??= gatherer(proxyCells(input, shape, null)));
     const { objects, y, starts, ends } = gather(p, liberal);
     // The allocation's own alignment rule (shared stars allowed; boxes clear of each other along y).
     const alignmentMax = liberal ? 0 : alignmentCapacity(ctx, p).compatibleMax;
     // The liberal set's interval index is built exactly (sorted by end), not from the packed keys.
     return { set: liberal ? maskCandidateSet(objects, starts, ends) : equalLengthCandidateSet(objects, starts, ends, identity), y, alignmentMax };
   };
+}
+
+/** The weight of every tracer, in the order of ctx.tracerIndices. */
+function tracerWeightsOf(ctx: AllocationContext): Float64Array {
+  const out = new Float64Array(ctx.tracerIndices.length);
+  for (let k = 0; k < out.length; k++) out[k] = ctx.weights[ctx.tracerIndices[k]];
+  return out;
 }
 
 /** Reusable buffers of orderByKeyInto for up to out.length keys (start: length + 1). */

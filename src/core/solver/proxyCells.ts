@@ -70,26 +70,39 @@ export function proxyCellCap(cellCounts: Int32Array, shape: ProxyTrialShape, cel
   return PROXY_SLOT_MARGIN * slotsPerCell(cellArcsec, shape.slitPitchArcsec);
 }
 
-/** The cell index of the tracers (thinned when `thinning` and the density call for it; proxyCellCap). */
-export function proxyCells(input: ProxyCellInput, shape: ProxyTrialShape, thinning = true, cellArcsec = PROXY_CELL_ARCSEC): ProxyCells {
+/** The cell index of the tracers, thinned when the density calls for it (proxyCellCap with `budget`; null: never thinned). */
+export function proxyCells(input: ProxyCellInput, shape: ProxyTrialShape, budget: number | null = PROXY_TRIAL_BUDGET, cellArcsec = PROXY_CELL_ARCSEC): ProxyCells {
   const { tracers, xiArcsec, etaArcsec } = input;
   const n = tracers.length;
   // Cell ids in first-seen order (catalog order of the first tracer of each cell); off-plane tracers share one cell.
-  const ids = new Map<number, number>();
-  const cellOf = new Int32Array(n);
-  const keys: number[] = [];
+  const cx = new Int32Array(n), cy = new Int32Array(n), onPlane = new Uint8Array(n);
+  let minX = Infinity, maxX = -Infinity, minY = Infinity, maxY = -Infinity;
   for (let j = 0; j < n; j++) {
     const i = tracers[j], xi = xiArcsec[i], eta = etaArcsec[i];
-    const onPlane = Number.isFinite(xi) && Number.isFinite(eta) && Math.abs(xi) < 1e6 && Math.abs(eta) < 1e6;
-    const key = onPlane ? (Math.floor(xi / cellArcsec) + 32768) * 65536 + (Math.floor(eta / cellArcsec) + 32768) : -1;
-    let c = ids.get(key);
-    if (c === undefined) { c = keys.length; ids.set(key, c); keys.push(key); }
+    if (!(Number.isFinite(xi) && Number.isFinite(eta) && Math.abs(xi) < 1e6 && Math.abs(eta) < 1e6)) continue;
+    onPlane[j] = 1; cx[j] = Math.floor(xi / cellArcsec); cy[j] = Math.floor(eta / cellArcsec);
+    if (cx[j] < minX) minX = cx[j]; if (cx[j] > maxX) maxX = cx[j]; if (cy[j] < minY) minY = cy[j]; if (cy[j] > maxY) maxY = cy[j];
+  }
+  const cellOf = new Int32Array(n);
+  const keys: number[] = [];
+  // A dense grid of cell ids when the occupied span is small against n (the usual case), else a map.
+  const w = maxX - minX + 1, h = maxY - minY + 1;
+  const grid = w > 0 && w * h <= 4 * n + 65536 ? new Int32Array(w * h).fill(-1) : null;
+  const ids = new Map<number, number>();
+  for (let j = 0; j < n; j++) {
+    const key = onPlane[j] ? (cx[j] + 32768) * 65536 + (cy[j] + 32768) : -1;
+    const slot = grid && onPlane[j] ? (cx[j] - minX) * h + (cy[j] - minY) : -1;
+    let c = slot >= 0 ? grid![slot] : ids.get(key) ?? -1;
+    if (c < 0) {
+      c = keys.length; keys.push(key);
+      if (slot >= 0) grid![slot] = c; else ids.set(key, c);
+    }
     cellOf[j] = c;
   }
   const nCells = keys.length;
   const counts = new Int32Array(nCells);
   for (let j = 0; j < n; j++) counts[cellOf[j]]++;
-  const cap = thinning ? proxyCellCap(counts, shape, cellArcsec) : null;
+  const cap = budget === null ? null : proxyCellCap(counts, shape, cellArcsec, budget);
   // Stable counting sort of tracer positions by cell.
   const allStart = new Int32Array(nCells + 1);
   for (let c = 0; c < nCells; c++) allStart[c + 1] = allStart[c] + counts[c];
