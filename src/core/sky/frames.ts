@@ -31,7 +31,20 @@ export function maskToSkyArcsec(xArcsec: number, yArcsec: number, paDeg: number)
 
 /** Sky (xi East, eta North) to galaxy frame at major-axis PA thetaDeg: u = xi sin + eta cos, v = xi cos - eta sin (arcsec). */
 export function skyToGalaxyArcsec(xiArcsec: number, etaArcsec: number, thetaDeg: number): GalaxyPointArcsec {
-  const s = PMath.sin(thetaDeg * RAD_PER_DEG), c = PMath.cos(thetaDeg * RAD_PER_DEG);
+  return skyToGalaxyTurned(xiArcsec, etaArcsec, galaxyTurn(thetaDeg));
+}
+
+/** Sine and cosine of a galaxy's major-axis PA (degrees East of North), made once for many skyToGalaxyTurned calls. */
+export interface GalaxyTurn { sinTheta: number; cosTheta: number }
+
+/** The turn of skyToGalaxyArcsec for major-axis PA thetaDeg. */
+export function galaxyTurn(thetaDeg: number): GalaxyTurn {
+  return { sinTheta: PMath.sin(thetaDeg * RAD_PER_DEG), cosTheta: PMath.cos(thetaDeg * RAD_PER_DEG) };
+}
+
+/** skyToGalaxyArcsec with the PA's sine and cosine made once (the same bits). */
+export function skyToGalaxyTurned(xiArcsec: number, etaArcsec: number, turn: GalaxyTurn): GalaxyPointArcsec {
+  const s = turn.sinTheta, c = turn.cosTheta;
   return { uArcsec: xiArcsec * s + etaArcsec * c, vArcsec: xiArcsec * c - etaArcsec * s };
 }
 

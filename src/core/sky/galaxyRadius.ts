@@ -2,7 +2,7 @@
  * Where a sky position lies about a galaxy: circularised elliptical radius R = sqrt(q u^2 + v^2/q) in units of Re
  * (galaxy frame, u along the major axis) and azimuth phi = atan2(v, u) from the major axis, degrees in [0, 360).
  */
-import { circularisedRadiusArcsec, galaxyAzimuthDeg, skyToGalaxyArcsec } from './frames';
+import { circularisedRadiusArcsec, galaxyAzimuthDeg, galaxyTurn, skyToGalaxyTurned, type GalaxyTurn } from './frames';
 import { skyToTangentArcsec, tangentCentre } from './tangentPlane';
 import { wrap360Deg } from './angles';
 
@@ -16,10 +16,18 @@ export function galaxyRadiusAndAzimuth(galaxy: GalaxyPlacement, raDeg: number, d
 }
 
 /** galaxyRadiusAndAzimuth of a point given by its offset (xi East, eta North, arcsec) on the galaxy's tangent plane. */
-export function tangentRadiusAndAzimuth(galaxy: GalaxyPlacement, xiArcsec: number, etaArcsec: number): { rRe: number; phiDeg: number } {
-  const g = skyToGalaxyArcsec(xiArcsec, etaArcsec, galaxy.paDeg);
-  return {
-    rRe: circularisedRadiusArcsec(g.uArcsec, g.vArcsec, galaxy.axisRatio) / galaxy.reArcsec,
-    phiDeg: wrap360Deg(galaxyAzimuthDeg(g.uArcsec, g.vArcsec)),
-  };
+export function tangentRadiusAndAzimuth(galaxy: GalaxyPlacement, xiArcsec: number, etaArcsec: number, turn: GalaxyTurn = galaxyTurn(galaxy.paDeg)): { rRe: number; phiDeg: number } {
+  return { rRe: tangentRadiusRe(galaxy, xiArcsec, etaArcsec, turn), phiDeg: tangentAzimuthDeg(xiArcsec, etaArcsec, turn) };
+}
+
+/** The R/Re of tangentRadiusAndAzimuth alone, with the galaxy's turn made once. */
+export function tangentRadiusRe(galaxy: GalaxyPlacement, xiArcsec: number, etaArcsec: number, turn: GalaxyTurn): number {
+  const g = skyToGalaxyTurned(xiArcsec, etaArcsec, turn);
+  return circularisedRadiusArcsec(g.uArcsec, g.vArcsec, galaxy.axisRatio) / galaxy.reArcsec;
+}
+
+/** The azimuth of tangentRadiusAndAzimuth alone (degrees from the major axis towards +v, [0, 360)). */
+export function tangentAzimuthDeg(xiArcsec: number, etaArcsec: number, turn: GalaxyTurn): number {
+  const g = skyToGalaxyTurned(xiArcsec, etaArcsec, turn);
+  return wrap360Deg(galaxyAzimuthDeg(g.uArcsec, g.vArcsec));
 }

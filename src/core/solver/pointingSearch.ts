@@ -30,10 +30,10 @@ import type { GalaxyModel, PlanFile } from '../plan/schema';
 import type { InstrumentProfile } from '../profile/schema';
 import { polygonBounds } from '../geometry/polygon';
 import { RAD_PER_DEG, wrap360Deg } from '../sky/angles';
-import { galaxyToSkyArcsec } from '../sky/frames';
+import { galaxyToSkyArcsec, galaxyTurn } from '../sky/frames';
 import { skyToTangentArcsec, tangentCentre, tangentToSkyDeg } from '../sky/tangentPlane';
 import { sersicBn } from '../sky/sersic';
-import { galaxyRadiusAndAzimuth, tangentRadiusAndAzimuth } from '../sky/galaxyRadius';
+import { galaxyRadiusAndAzimuth, tangentAzimuthDeg, tangentRadiusRe } from '../sky/galaxyRadius';
 import { alignmentCapacity, allocateForPointings, type AllocationContext, type PointingsAllocation } from './allocateMasks';
 import { solveIntervalIndex } from './intervalScheduling';
 import { allocateGreedyMaskByMask, improveByBestResponse, maskCandidateSet, resolveOneMask, type JointProblem, type MaskCandidateSet } from './jointAllocation';
@@ -50,7 +50,7 @@ import { PMath } from '../numeric/portableMath';
 import { candidateValues, contextFor, tracerRowValue } from './maskContext';
 import { envFor, footprintScaleArcsec, instrumentsProxyModel, placeStarlightForMasks } from './instrumentSearch';
 import { refractionLossModel, type RefractionLoss } from './refractionTerm';
-import { PROXY_CELL_ARCSEC, PROXY_TRIAL_BUDGET, proxyCells, type ProxyCells } from './proxyCells';
+import { PROXY_CELL_ARCSEC, PROXY_TRIAL_BUDGET, proxyCellPair, type ProxyCells } from './proxyCells';
 
 /** Where a start layout puts its k-th free mask (of nFree): offset (u major, v minor, arcsec) and the long side's direction (degrees from the major axis). */
 type FreePlacement = (k: number, nFree: number, halfLongArcsec: number) => { uArcsec: number; vArcsec: number; longDirDeg: number };
@@ -140,8 +140,9 @@ export interface SearchEnv {
   objective: ObjectiveContext;
   starlight: StarlightSettings;
   plan: PlanFile;
-  /** R/Re and azimuth (degrees) of every target (index as ctx.targets). */
+  /** R/Re of every target (index as ctx.targets). */
   radiusRe: Float64Array;
+  /** Azimuth (degrees) of every target, NaN until first needed: read it through targetAzimuthDeg. */
   azimuthDeg: Float64Array;
   /** Galaxy tangent-plane position of every target (arcsec). */
   xi: Float64Array;
@@ -154,16 +155,14 @@ export interface SearchEnv {
 /** Build the evaluation environment (cached target positions) for a plan and an allocation context. */
 export function searchEnv(plan: PlanFile, ctx: AllocationContext): SearchEnv {
   const g = ctx.galaxy, n = ctx.targets.length;
-  const radiusRe = new Float64Array(n), azimuthDeg = new Float64Array(n), xi = new Float64Array(n), eta = new Float64Array(n);
-  const c = tangentCentre(g.raDeg, g.decDeg);
+  const radiusRe = new Float64Array(n), azimuthDeg = new Float64Array(n).fill(NaN), xi = new Float64Array(n), eta = new Float64Array(n);
+  const c = tangentCentre(g.raDeg, g.decDeg), turn = galaxyTurn(g.paDeg);
   for (let i = 0; i < n; i++) {
     const t = skyToTangentArcsec(c, ctx.raDeg[i], ctx.decDeg[i]);
     xi[i] = t ? t.xiArcsec : NaN;
     eta[i] = t ? t.etaArcsec : NaN;
-    // galaxyRadiusAndAzimuth from the projection just made (the same bits, one projection instead of two).
-    const r = t ? tangentRadiusAndAzimuth(g, t.xiArcsec, t.etaArcsec) : { rRe: Infinity, phiDeg: 0 };
-    radiusRe[i] = r.rRe;
-    azimuthDeg[i] = r.phiDeg;
+    // galaxyRadiusAndAzimuth's R/Re from the projection just made (the same bits, one projection instead of two).
+    radiusRe[i] = t ? tangentRadiusRe(g, t.xiArcsec, t.etaArcsec, turn) : Infinity;
   }
   const tracerWeights = tracerWeightsOf(ctx);
   const objective = objectiveContext(plan.goals, plan.search as SearchRules | undefined, tracerWeights);
@@ -172,6 +171,13 @@ export function searchEnv(plan: PlanFile, ctx: AllocationContext): SearchEnv {
     refractionLoss: refractionLossModel(plan, ctx.profile, objective.weights.aRefraction),
     starlight: starlightSettings(plan.starlight as StarlightRules | undefined, ctx.profile, plan),
   };
+}
+
+/** Azimuth of target i about the galaxy (degrees from the major axis, as galaxyRadiusAndAzimuth), computed once when first asked. */
+export function targetAzimuthDeg(env: SearchEnv, i: number): number {
+  const a = env.azimuthDeg[i];
+  if (a === a) return a;
+  return (env.azimuthDeg[i] = Number.isNaN(env.xi[i]) ? 0 : tangentAzimuthDeg(env.xi[i], env.eta[i], galaxyTurn(env.ctx.galaxy.paDeg)));
 }
 
 /** Objective of finished masks (tracer rows weighted by their allocation weight; starlight rows by their radius). */
@@ -294,7 +300,7 @@ export function proxyModel(env: SearchEnv, options: { thinning?: boolean } = {})
     value: candidateValues(ctx, ctx.tracerIndices) ?? tracerWeightsOf(ctx),
   };
   // The search's cells (thinned at high density) and, for the liberal superset of the proven bounds, every tracer.
-  const searchCells = proxyCells(input, shape, options.thinning === false ? null : PROXY_TRIAL_BUDGET);
+  const cellPair = proxyCellPair(input, shape, options.thinning === false ? null : PROXY_TRIAL_BUDGET), searchCells = cellPair.search;
   let allGather: ReturnType<typeof gatherer> | null = null;
   const searchGather = gatherer(searchCells);
 
@@ -352,7 +358,7 @@ export function proxyModel(env: SearchEnv, options: { thinning?: boolean } = {})
 
   return (p: MaskPointing, liberal = false): ProxyMask => {
     // The liberal superset feeds a proven bound: every tracer, never the thinned cells.
-    const gather = !liberal || searchCells.perCellCap === null ? searchGather : (allGather ??= gatherer(proxyCells(input, shape, null)));
+    const gather = !liberal || searchCells.perCellCap === null ? searchGather : (allGather ??= gatherer(cellPair.all()));
     const { objects, y, starts, ends } = gather(p, liberal);
     // The allocation's own alignment rule (shared stars allowed; boxes clear of each other along y).
     const alignmentMax = liberal ? 0 : alignmentCapacity(ctx, p).compatibleMax;
@@ -719,7 +725,7 @@ function proxyTally(planEnv: SearchEnv, pointing: MaskPointing, p: ProxyMask, ch
   const { ctx } = env;
   for (const k of chosenK) {
     const o = p.set.objects[k];
-    addTracer(t, p.set.values ? p.set.values[k] : ctx.weights[o], env.radiusRe[o], env.azimuthDeg[o]);
+    addTracer(t, p.set.values ? p.set.values[k] : ctx.weights[o], env.radiusRe[o], targetAzimuthDeg(env, o));
   }
   if (env.refractionLoss) t.refractionLossWeight = t.yieldWeight * env.refractionLoss(pointing);
   if (env.starlight.reachRe <= 0) return t;

@@ -72,6 +72,14 @@ export function proxyCellCap(cellCounts: Int32Array, shape: ProxyTrialShape, cel
 
 /** The cell index of the tracers, thinned when the density calls for it (proxyCellCap with `budget`; null: never thinned). */
 export function proxyCells(input: ProxyCellInput, shape: ProxyTrialShape, budget: number | null = PROXY_TRIAL_BUDGET, cellArcsec = PROXY_CELL_ARCSEC): ProxyCells {
+  return proxyCellPair(input, shape, budget, cellArcsec).search;
+}
+
+/**
+ * proxyCells (`search`) and, from the same binning, the index of every tracer (`all()`, made when first asked; the
+ * search's own index when nothing is thinned).
+ */
+export function proxyCellPair(input: ProxyCellInput, shape: ProxyTrialShape, budget: number | null = PROXY_TRIAL_BUDGET, cellArcsec = PROXY_CELL_ARCSEC): { search: ProxyCells; all: () => ProxyCells } {
   const { tracers, xiArcsec, etaArcsec } = input;
   const n = tracers.length;
   // Cell ids in first-seen order (catalog order of the first tracer of each cell); off-plane tracers share one cell.
@@ -108,7 +116,19 @@ export function proxyCells(input: ProxyCellInput, shape: ProxyTrialShape, budget
   for (let c = 0; c < nCells; c++) allStart[c + 1] = allStart[c] + counts[c];
   const fill = allStart.slice(0, nCells), byCell = new Int32Array(n);
   for (let j = 0; j < n; j++) byCell[fill[cellOf[j]]++] = j;
-  const { positions, cellStart } = cap === null ? { positions: byCell, cellStart: allStart } : keepMostValuable(byCell, allStart, cap, input.value);
+  const cells = { nCells, keys, cellArcsec };
+  if (cap === null) {
+    const search = cellArrays(input, cells, byCell, allStart, null);
+    return { search, all: () => search };
+  }
+  const kept = keepMostValuable(byCell, allStart, cap, input.value);
+  let all: ProxyCells | null = null;
+  return { search: cellArrays(input, cells, kept.positions, kept.cellStart, cap), all: () => (all ??= cellArrays(input, cells, byCell, allStart, null)) };
+}
+
+/** The flat arrays of a cell index: the tracers at `positions` (cell c: cellStart[c] .. cellStart[c + 1] - 1). */
+function cellArrays(input: ProxyCellInput, cells: { nCells: number; keys: readonly number[]; cellArcsec: number }, positions: Int32Array, cellStart: Int32Array, cap: number | null): ProxyCells {
+  const { nCells, keys, cellArcsec } = cells;
   const m = positions.length;
   const out: ProxyCells = {
     cellArcsec, nCells, cellOnPlane: new Uint8Array(nCells), cellXiArcsec: new Float64Array(nCells), cellEtaArcsec: new Float64Array(nCells), cellStart,
@@ -121,6 +141,7 @@ export function proxyCells(input: ProxyCellInput, shape: ProxyTrialShape, budget
     out.cellXiArcsec[c] = (Math.floor(k / 65536) - 32768 + 0.5) * cellArcsec;
     out.cellEtaArcsec[c] = ((k % 65536) - 32768 + 0.5) * cellArcsec;
   }
+  const { tracers, xiArcsec, etaArcsec } = input;
   const { x, y, z } = input.unit;
   for (let q = 0; q < m; q++) {
     const i = tracers[positions[q]];
