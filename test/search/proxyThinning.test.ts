@@ -9,7 +9,7 @@ import { galaxyModel } from '../../src/core/plan/validate';
 import { targetWeights } from '../../src/core/pipeline/pipeline';
 import { allocationContext } from '../../src/core/solver/allocateMasks';
 import { proxyModel, searchEnv, type ProxyMask } from '../../src/core/solver/pointingSearch';
-import { proxyCellCap, proxyCells, PROXY_SLOT_MARGIN, PROXY_TRIAL_BUDGET, slotsPerCell } from '../../src/core/solver/proxyCells';
+import { cellsInRectangle, proxyCellCap, proxyCells, PROXY_SLOT_MARGIN, PROXY_TRIAL_BUDGET, slotsPerCell } from '../../src/core/solver/proxyCells';
 import { solveIntervalIndex } from '../../src/core/solver/intervalScheduling';
 import { galaxyToSkyArcsec } from '../../src/core/sky/frames';
 import { tangentCentre, tangentToSkyDeg } from '../../src/core/sky/tangentPlane';
@@ -106,5 +106,36 @@ describe('the thinned proxy of the pointing search', () => {
     const dense = Int32Array.from([10, PROXY_TRIAL_BUDGET / 2, PROXY_TRIAL_BUDGET / 2 + 1, 3]);
     expect(proxyCellCap(dense, shape, 60)).toBe(PROXY_SLOT_MARGIN * slotsPerCell(60, 4.5));
     expect(slotsPerCell(60, 4.5)).toBe(19); // floor(84.85 / 4.5) + 1
+  });
+
+  it('counts at most cellsInRectangle cell centres inside a rectangle in any position and orientation', () => {
+    // Lattice points in a convex region <= area + perimeter / 2 + 1 (Nosarzewska 1948, from memory): confirmed here by
+    // counting the 60" lattice inside random rectangles, and tight for an aligned rectangle on lattice points.
+    const rng = makeRng(29);
+    const cell = 60;
+    const count = (w: number, h: number, angleRad: number, cx: number, cy: number) => {
+      const s = Math.sin(angleRad), c = Math.cos(angleRad), r = Math.hypot(w, h) / 2;
+      let n = 0;
+      for (let i = Math.floor((cx - r) / cell); i <= Math.ceil((cx + r) / cell); i++) {
+        for (let j = Math.floor((cy - r) / cell); j <= Math.ceil((cy + r) / cell); j++) {
+          const dx = i * cell - cx, dy = j * cell - cy;
+          if (Math.abs(dx * c + dy * s) <= w / 2 && Math.abs(-dx * s + dy * c) <= h / 2) n++;
+        }
+      }
+      return n;
+    };
+    let tightest = 0;
+    for (let k = 0; k < 3000; k++) {
+      const w = rng.uniform(10, 700), h = rng.uniform(10, 1500);
+      const n = count(w, h, rng.uniform(0, Math.PI), rng.uniform(0, cell), rng.uniform(0, cell));
+      const bound = cellsInRectangle(w, h, cell);
+      expect(n).toBeLessThanOrEqual(bound);
+      tightest = Math.max(tightest, n / bound);
+    }
+    expect(tightest).toBeGreaterThan(0.8);
+    expect(count(240, 600, 0, 0, 0)).toBe(cellsInRectangle(240, 600, cell)); // 5 x 11 = 4 x 10 + 14 + 1
+    // The search's visit for ridge10-narrow (300" x 1000", grown by a cell's half-diagonal and 30" on each side).
+    const grow = cell * Math.SQRT1_2 + 30;
+    expect(cellsInRectangle(300 + 2 * grow, 1000 + 2 * grow, cell)).toBe(168);
   });
 });

@@ -22,7 +22,7 @@
  * re-solve; resolveOneMask adds the slits chosen on the other masks), plus the starlight estimate on the mask's free
  * space (independent of n). k is bounded: when the cells a trial can visit would hold more than PROXY_TRIAL_BUDGET
  * (40 000) tracers, every cell keeps only twice the slits a mask can take from it (most valuable first), so
- * k <= max(40 000, cells per trial x 2 x slots per cell), about 15 000 for a 300" x 1000" footprint with 4.5" slit
+ * k <= max(40 000, cells per trial x 2 x slots per cell), 6 384 (168 cells x 38) for a 300" x 1000" footprint with 4.5" slit
  * pitch, whatever the catalog's size. Only the proxy is thinned: the final full evaluation, the proven bounds and the
  * comparison with the naive cross see every tracer, and a catalog of at most 40 000 tracers is never thinned.
  */
@@ -50,7 +50,7 @@ import { PMath } from '../numeric/portableMath';
 import { candidateValues, contextFor, tracerRowValue } from './maskContext';
 import { envFor, footprintScaleArcsec, instrumentsProxyModel, placeStarlightForMasks } from './instrumentSearch';
 import { refractionLossModel, type RefractionLoss } from './refractionTerm';
-import { PROXY_CELL_ARCSEC, PROXY_TRIAL_BUDGET, proxyCellPair, type ProxyCells } from './proxyCells';
+import { cellsInRectangle, PROXY_CELL_ARCSEC, PROXY_TRIAL_BUDGET, proxyCellPair, type ProxyCells } from './proxyCells';
 
 /** Where a start layout puts its k-th free mask (of nFree): offset (u major, v minor, arcsec) and the long side's direction (degrees from the major axis). */
 type FreePlacement = (k: number, nFree: number, halfLongArcsec: number) => { uArcsec: number; vArcsec: number; longDirDeg: number };
@@ -293,8 +293,7 @@ export function proxyModel(env: SearchEnv, options: { thinning?: boolean } = {})
   const cell = PROXY_CELL_ARCSEC, margin = 30, grow = cell * Math.SQRT1_2 + margin;
   const loX = b.minX - margin, hiX = b.maxX + margin, loY = b.minY - margin, hiY = b.maxY + margin;
   // Cells whose centre can fall inside the grown bounds of one mask (the per-trial visit, any orientation).
-  const span = Math.max(b.maxX - b.minX, b.maxY - b.minY) + 2 * grow;
-  const shape = { slitPitchArcsec: L + gap, cellsPerTrial: Math.ceil((span / cell + 1) * (span / cell + 1)) };
+  const shape = { slitPitchArcsec: L + gap, cellsPerTrial: cellsInRectangle(b.maxX - b.minX + 2 * grow, b.maxY - b.minY + 2 * grow, cell) };
   const input = {
     tracers: ctx.tracerIndices, xiArcsec: env.xi, etaArcsec: env.eta, unit: ctx.unit,
     value: candidateValues(ctx, ctx.tracerIndices) ?? tracerWeightsOf(ctx),

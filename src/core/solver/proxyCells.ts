@@ -50,6 +50,16 @@ export interface ProxyCellInput {
 /** Geometry of the masks a trial moves: slit pitch along y (minLength + gap) and cells a trial can visit. */
 export interface ProxyTrialShape { slitPitchArcsec: number; cellsPerTrial: number }
 
+/**
+ * Most cell centres (a square lattice of step cellArcsec) inside a rectangle of widthArcsec x heightArcsec in any
+ * position and orientation: a convex region of area A and perimeter P (lattice units) holds at most A + P/2 + 1
+ * lattice points (Nosarzewska 1948, from memory; test/search/proxyThinning.test.ts confirms it by counting).
+ */
+export function cellsInRectangle(widthArcsec: number, heightArcsec: number, cellArcsec: number): number {
+  const a = widthArcsec / cellArcsec, b = heightArcsec / cellArcsec;
+  return Math.floor(a * b + (a + b) + 1);
+}
+
 /** The most slits one cell of side cellArcsec can give a mask of slit pitch pitchArcsec (any orientation). */
 export function slotsPerCell(cellArcsec: number, pitchArcsec: number): number {
   return Math.floor((cellArcsec * Math.SQRT2) / pitchArcsec) + 1;
