@@ -281,9 +281,6 @@ export function proxyModel(env: SearchEnv, options: { thinning?: boolean } = {})
   const b = polygonBounds(profile.footprint);
   const L = profile.slits.minLengthArcsec, gap = profile.slits.gapArcsec;
   const slitRaster = footprintRaster(profile.footprint, profile.slits.widthArcsec / 2, L / 2);
-  const nT = ctx.tracerIndices.length;
-  const identity = new Int32Array(nT);
-  for (let k = 0; k < nT; k++) identity[k] = k;
   const gc = tangentCentre(ctx.galaxy.raDeg, ctx.galaxy.decDeg);
   // The galaxy's and a mask's tangent planes differ by far less than this margin near the galaxy: the scales differ by
   // a fraction of order d^2 (d: distance between the two tangent points, radians), about 0.2" at 600" from a mask
@@ -302,6 +299,9 @@ export function proxyModel(env: SearchEnv, options: { thinning?: boolean } = {})
   const cellPair = proxyCellPair(input, shape, options.thinning === false ? null : PROXY_TRIAL_BUDGET), searchCells = cellPair.search;
   let allGather: ReturnType<typeof gatherer> | null = null;
   const searchGather = gatherer(searchCells);
+  // The order of a search set's interval index: a view of 0, 1, 2, ... as long as the largest search set.
+  const identity = new Int32Array(searchCells.objects.length);
+  for (let k = 0; k < identity.length; k++) identity[k] = k;
 
   /** Candidates of one index on a mask: object indices and mask y, in y order, no allocation per target. */
   function gatherer(cells: ProxyCells) {
