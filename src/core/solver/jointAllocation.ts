@@ -8,7 +8,7 @@
  * the total) and, for the first plan within 0.2 % of the best and for the final plan, by steal moves (improveBySteals).
  * The best feasible plan is returned with the Lagrangian upper bound as an optimality certificate.
  */
-import { buildIntervalIndex, optimumWithoutEach, solveIntervalIndex, type IntervalIndex } from './intervalScheduling';
+import { buildIntervalIndex, optimumWithoutEach, solveIntervalIndex, solveSortedWeights, type IntervalIndex } from './intervalScheduling';
 
 /** The candidates of one mask: object index (into the joint weight list) and the half-open y interval of each. */
 export interface MaskCandidateSet {
@@ -94,31 +94,30 @@ function ownerOf(problem: JointProblem, chosen: readonly (readonly number[])[]):
  * another mask, so each buffer keeps the plain weights and a re-solve rewrites only the shared positions.
  */
 export interface ResponseWork {
+  /** Per mask, its candidates' weights in the order of its interval index (buffers[m][k] for candidate index.order[k]). */
   buffers: Float64Array[];
+  /** Per mask, the sorted positions k whose candidate's object is shared, and that object and the candidate's value. */
   sharedPositions: Int32Array[];
+  sharedObjects: Int32Array[];
+  sharedValues: Float64Array[];
 }
 
 /** Build the re-solve buffers of a problem (O(total candidates)); worth it when a problem is re-solved many times. */
 export function responseWork(problem: JointProblem, shared: Uint8Array = sharedObjects(problem)): ResponseWork {
+  const sharedPositions = problem.masks.map((set) => Int32Array.from(set.index.order.keys()).filter((k) => shared[set.objects[set.index.order[k]]] === 1));
   return {
-    buffers: problem.masks.map((set, m) => Float64Array.from(set.objects, (_o, k) => candidateValue(problem, m, k))),
-    sharedPositions: problem.masks.map((set) => Int32Array.from(set.objects.keys()).filter((k) => shared[set.objects[k]] === 1)),
+    buffers: problem.masks.map((set, m) => Float64Array.from(set.index.order, (i) => candidateValue(problem, m, i))),
+    sharedPositions,
+    sharedObjects: sharedPositions.map((pos, m) => Int32Array.from(pos, (k) => problem.masks[m].objects[problem.masks[m].index.order[k]])),
+    sharedValues: sharedPositions.map((pos, m) => Float64Array.from(pos, (k) => candidateValue(problem, m, problem.masks[m].index.order[k]))),
   };
 }
 
 let brBuf = new Float64Array(0);
 
 /** Weights of mask m's candidates with objects owned by another mask set to 0 (in `work`'s buffer when given). */
-function availableWeights(problem: JointProblem, owner: Int32Array, m: number, work?: ResponseWork): Float64Array {
+function availableWeights(problem: JointProblem, owner: Int32Array, m: number): Float64Array {
   const set = problem.masks[m];
-  if (work) {
-    const w = work.buffers[m], positions = work.sharedPositions[m];
-    for (let q = 0; q < positions.length; q++) {
-      const o = set.objects[positions[q]];
-      w[positions[q]] = owner[o] === -1 || owner[o] === m ? candidateValue(problem, m, positions[q]) : 0;
-    }
-    return w;
-  }
   const n = set.objects.length;
   if (brBuf.length < n) brBuf = new Float64Array(Math.max(n, brBuf.length * 2));
   for (let k = 0; k < n; k++) {
@@ -131,9 +130,18 @@ function availableWeights(problem: JointProblem, owner: Int32Array, m: number, w
 /** Exact re-solve of mask m with every other mask fixed (objects owned by another mask are unavailable); updates owner. */
 function bestResponse(problem: JointProblem, owner: Int32Array, chosen: number[][], m: number, work?: ResponseWork): void {
   const set = problem.masks[m];
-  const w = availableWeights(problem, owner, m, work);
+  let pick: number[];
+  if (work) {
+    // availableWeights' rule, written in the index's order at the shared positions only.
+    const w = work.buffers[m], positions = work.sharedPositions[m], objects = work.sharedObjects[m], values = work.sharedValues[m];
+    for (let q = 0; q < positions.length; q++) {
+      const o = objects[q];
+      w[positions[q]] = owner[o] === -1 || owner[o] === m ? values[q] : 0;
+    }
+    pick = solveSortedWeights(set.index, w).chosen;
+  } else pick = solveIntervalIndex(set.index, availableWeights(problem, owner, m)).chosen;
   for (const k of chosen[m]) owner[set.objects[k]] = -1;
-  chosen[m] = solveIntervalIndex(set.index, w).chosen;
+  chosen[m] = pick;
   for (const k of chosen[m]) owner[set.objects[k]] = m;
 }
 
@@ -306,7 +314,7 @@ export function allocateJoint(problem: JointProblem, opts: JointOptions = {}): J
   const owner = new Int32Array(nObj);
   // Relaxed weights per mask (only shared objects carry a multiplier, so each round rewrites only their positions),
   // and separate buffers for the sweeps and steals of the repaired plans.
-  const { buffers, sharedPositions } = responseWork(problem, isShared);
+  const { buffers, sharedPositions, sharedObjects: relaxedObjects, sharedValues: relaxedValues } = responseWork(problem, isShared);
   const work = responseWork(problem, isShared);
   // With whole-number weights the optimum is a whole number, so floor(upper bound) is a bound too.
   const integral = problem.weights.every((w) => Number.isInteger(w)) && problem.masks.every((set) => !set.values || set.values.every((v) => Number.isInteger(v)));
@@ -322,9 +330,9 @@ export function allocateJoint(problem: JointProblem, opts: JointOptions = {}): J
     let L = 0;
     const picks: number[][] = [];
     for (let m = 0; m < M; m++) {
-      const set = problem.masks[m], w = buffers[m], positions = sharedPositions[m];
-      for (let q = 0; q < positions.length; q++) { const o = set.objects[positions[q]]; w[positions[q]] = candidateValue(problem, m, positions[q]) - lambda[o]; }
-      const r = solveIntervalIndex(set.index, w);
+      const w = buffers[m], positions = sharedPositions[m], objects = relaxedObjects[m], values = relaxedValues[m];
+      for (let q = 0; q < positions.length; q++) w[positions[q]] = values[q] - lambda[objects[q]];
+      const r = solveSortedWeights(problem.masks[m].index, w);
       picks.push(r.chosen);
       L += r.total;
     }

@@ -198,9 +198,12 @@ function coreSpan(slit: RowSpan, minHalf: number): Span {
   const below = slit.role === 'tracer' ? Math.min(slit.lenBelowArcsec, minHalf) : slit.lenBelowArcsec;
   const above = slit.role === 'tracer' ? Math.min(slit.lenAboveArcsec, minHalf) : slit.lenAboveArcsec;
   const t = Math.abs(slit.tiltDeg) * Math.PI / 180;
-  const halfW = (slit.widthArcsec / 2) * PMath.sin(t);
-  return { lo: slit.yArcsec - below * PMath.cos(t) - halfW, hi: slit.yArcsec + above * PMath.cos(t) + halfW };
+  // An untilted slit (nearly every one) takes the sine and cosine of 0 computed once.
+  const sinT = t === 0 ? SIN0 : PMath.sin(t), cosT = t === 0 ? COS0 : PMath.cos(t);
+  const halfW = (slit.widthArcsec / 2) * sinT;
+  return { lo: slit.yArcsec - below * cosT - halfW, hi: slit.yArcsec + above * cosT + halfW };
 }
+const SIN0 = PMath.sin(0), COS0 = PMath.cos(0);
 
 /** One possible new slit: a y slot and the chosen x, with its radius, azimuth and S/N. */
 export interface SlotChoice {
@@ -286,6 +289,9 @@ function snLimitRadiusArcsec(g: GalaxyOnMask, lengthArcsec: number, widthArcsec:
   return limit;
 }
 
+/** A position on a slot's line: mask x, circularised radius (Re and arcsec) and galaxy-frame offset (u, v) arcsec. */
+interface Spot { x: number; rRe: number; rArcsec: number; u: number; v: number }
+
 /**
  * Evaluate one slot: the outermost position that still reaches the S/N goal within starlightReachRe (starlight),
  * and the outermost position where the galaxy is skyContrastMag fainter than the sky (sky). Positions lie on an
@@ -303,44 +309,40 @@ export function evaluateSlot(g: GalaxyOnMask, rules: EligibilityRules, slot: Spa
   const muAt = (rArcsec: number) => sersicMuMagPerArcsec2(rArcsec, re, n, g.galaxy.muE, g.bn);
   const skyMuMin = wantSky ? skySlitMuThreshold(g.galaxy, g.bn, s) : Infinity;
   const skyAt = wantSky ? skyRadiusTest(g, skyMuMin, muAt) : null;
-  const reachable: SlotChoice[] = [], skyOk: SlotChoice[] = [];
-  const skyRadiusArcsec = new Map<SlotChoice, number>();
+  // Positions with their galaxy-frame offset: the azimuth (an arctangent) is computed only for a position chosen.
+  const reachable: Spot[] = [], skyOk: Spot[] = [];
   for (const x of xs) {
     const { u, v } = maskOffsetToGalaxy(g, x, yc);
-    const rArcsec = circularisedRadiusArcsec(u, v, g.galaxy.axisRatio), azimuthDeg = galaxyAzimuthDeg(u, v);
+    const rArcsec = circularisedRadiusArcsec(u, v, g.galaxy.axisRatio);
     const rRe = rArcsec / re;
-    if (lineCanReach && rRe <= s.maxRe) reachable.push({ y0: slot.lo, y1: slot.hi, xArcsec: x, rRe, azimuthDeg, snPerA: NaN, muMagPerArcsec2: samples === 1 ? muAt(rArcsec) : NaN });
-    if (skyAt && skyAt(rArcsec)) {
-      const c: SlotChoice = { y0: slot.lo, y1: slot.hi, xArcsec: x, rRe, azimuthDeg, snPerA: 0, muMagPerArcsec2: NaN };
-      skyOk.push(c);
-      skyRadiusArcsec.set(c, rArcsec);
-    }
+    if (lineCanReach && rRe <= s.maxRe) reachable.push({ x, rRe, rArcsec, u, v });
+    if (skyAt && skyAt(rArcsec)) skyOk.push({ x, rRe, rArcsec, u, v });
   }
   // Outermost first; per radial bin the first position that reaches the S/N goal and fits the footprint. The mean
   // surface brightness, the S/N and the footprint test (the costly parts) are computed only until a bin is settled,
   // which gives the same choices as testing every position first.
-  const fits = (c: SlotChoice) => centredRectFits(rules, c.xArcsec, yc, hw, half);
-  const byR = (a: SlotChoice, b: SlotChoice) => b.rRe - a.rRe || a.xArcsec - b.xArcsec;
+  const fits = (p: Spot) => centredRectFits(rules, p.x, yc, hw, half);
+  const byR = (a: Spot, b: Spot) => b.rRe - a.rRe || a.x - b.x;
+  const choice = (p: Spot, snPerA: number, muMagPerArcsec2: number): SlotChoice => ({ y0: slot.lo, y1: slot.hi, xArcsec: p.x, rRe: p.rRe, azimuthDeg: galaxyAzimuthDeg(p.u, p.v), snPerA, muMagPerArcsec2 });
   const options: SlotChoice[] = [];
   const binsDone = new Set<number>();
   // No point of the slit lies closer to the centre than R - half x (largest gradient of R in the mask frame, 1/sqrt(q)
   // for q <= 1): beyond the S/N limit radius (with a 0.1 % margin against rounding) the slot cannot reach the goal.
   const q = g.galaxy.axisRatio, slope = Math.max(Math.sqrt(q), 1 / Math.sqrt(q));
   const limitArcsec = reachable.length ? snLimitRadiusArcsec(g, len, rules.widthArcsec, s) * 1.001 + 1e-6 : Infinity;
-  for (const c of reachable.sort(byR)) {
-    const bin = Math.floor(c.rRe);
+  for (const p of reachable.sort(byR)) {
+    const bin = Math.floor(p.rRe);
     if (binsDone.has(bin)) continue;
-    if (c.rRe * re - half * slope > limitArcsec) continue;
-    const mu = samples === 1 ? c.muMagPerArcsec2 : slitMeanMu(g, c.xArcsec, slot.lo, slot.hi, samples);
+    if (p.rRe * re - half * slope > limitArcsec) continue;
+    const mu = samples === 1 ? muAt(p.rArcsec) : slitMeanMu(g, p.x, slot.lo, slot.hi, samples);
     const sn = starlightSignalToNoise(mu, len, rules.widthArcsec, s);
     if (!(sn >= s.targetSnPerA)) continue;
-    const choice: SlotChoice = { ...c, snPerA: sn, muMagPerArcsec2: mu };
-    if (!fits(choice)) continue;
+    if (!fits(p)) continue;
     binsDone.add(bin);
-    options.push(choice);
+    options.push(choice(p, sn, mu));
   }
-  const sky = skyOk.sort(byR).find(fits);
-  if (sky) sky.muMagPerArcsec2 = muAt(skyRadiusArcsec.get(sky)!);
+  const skySpot = skyOk.sort(byR).find(fits);
+  const sky = skySpot ? choice(skySpot, 0, muAt(skySpot.rArcsec)) : undefined;
   return { starlight: options[0] ?? null, options, sky: sky ?? null };
 }
 
