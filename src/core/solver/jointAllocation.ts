@@ -289,6 +289,60 @@ export interface JointOptions {
   relativeGap?: number;
 }
 
+// The rounds of allocateJoint, each a small function of its own: the engine optimises a short hot loop as soon as it
+// runs hot, where one long function would wait for (and be re-optimised at) every branch it has not run yet.
+
+/**
+ * One relaxed round: every mask solved exactly with its shared objects' weights reduced by their multipliers (in
+ * `relaxed`'s buffers), each mask's pick pushed to `picks`; returns the Lagrangian value (the masks' optima, then
+ * each shared object's multiplier, summed in that order).
+ */
+function relaxedRound(problem: JointProblem, relaxed: ResponseWork, lambda: Float64Array, shared: Int32Array, picks: number[][]): number {
+  let L = 0;
+  for (let m = 0; m < problem.masks.length; m++) {
+    const w = relaxed.buffers[m], positions = relaxed.sharedPositions[m], objects = relaxed.sharedObjects[m], values = relaxed.sharedValues[m];
+    for (let q = 0; q < positions.length; q++) w[positions[q]] = values[q] - lambda[objects[q]];
+    const r = solveSortedWeights(problem.masks[m].index, w);
+    picks.push(r.chosen);
+    L += r.total;
+  }
+  for (let q = 0; q < shared.length; q++) L += lambda[shared[q]];
+  return L;
+}
+
+/** Round `it`'s repair of relaxed picks: a duplicated object stays on the first mask (from mask it mod M on) that took it; counts uses per object. */
+function repairPicks(problem: JointProblem, picks: readonly (readonly number[])[], it: number, use: Int32Array, owner: Int32Array): number[][] {
+  const M = problem.masks.length;
+  use.fill(0);
+  owner.fill(-1);
+  const repaired: number[][] = picks.map(() => []);
+  for (let j = 0; j < M; j++) {
+    const m = (j + it) % M;
+    const objects = problem.masks[m].objects, pick = picks[m];
+    for (let q = 0; q < pick.length; q++) {
+      const o = objects[pick[q]];
+      use[o]++;
+      if (owner[o] === -1) { owner[o] = m; repaired[m].push(pick[q]); }
+    }
+  }
+  return repaired;
+}
+
+/** Squared norm of the subgradient 1 - use over the coupling rows that can move (violated, or with a positive multiplier). */
+function subgradientNorm2(shared: Int32Array, use: Int32Array, lambda: Float64Array): number {
+  let norm2 = 0;
+  for (let q = 0; q < shared.length; q++) { const o = shared[q], g = 1 - use[o]; if (g < 0 || lambda[o] > 0) norm2 += g * g; }
+  return norm2;
+}
+
+/** Subgradient step on the coupling rows sum_m z_om <= 1: lambda = max(0, lambda - step (1 - use)). */
+function subgradientStep(shared: Int32Array, use: Int32Array, lambda: Float64Array, step: number): void {
+  for (let q = 0; q < shared.length; q++) {
+    const o = shared[q], g = 1 - use[o];
+    lambda[o] = Math.max(0, lambda[o] - step * g);
+  }
+}
+
 /** Joint allocation by Lagrangian relaxation with repair and best-response sweeps (the fast path). */
 export function allocateJoint(problem: JointProblem, opts: JointOptions = {}): JointSolution {
   problem = overMaskObjects(problem);
@@ -303,8 +357,9 @@ export function allocateJoint(problem: JointProblem, opts: JointOptions = {}): J
   let bestValue = jointObjective(problem, best);
 
   const isShared = sharedObjects(problem);
-  const shared: number[] = [];
-  for (let o = 0; o < nObj; o++) if (isShared[o]) shared.push(o);
+  const sharedList: number[] = [];
+  for (let o = 0; o < nObj; o++) if (isShared[o]) sharedList.push(o);
+  const shared = Int32Array.from(sharedList);
   if (shared.length === 0) {
     // No object falls on two masks: per-mask optima are jointly optimal.
     return { chosen: best, objective: bestValue, upperBound: bestValue, iterations: 0 };
@@ -314,7 +369,7 @@ export function allocateJoint(problem: JointProblem, opts: JointOptions = {}): J
   const owner = new Int32Array(nObj);
   // Relaxed weights per mask (only shared objects carry a multiplier, so each round rewrites only their positions),
   // and separate buffers for the sweeps and steals of the repaired plans.
-  const { buffers, sharedPositions, sharedObjects: relaxedObjects, sharedValues: relaxedValues } = responseWork(problem, isShared);
+  const relaxed = responseWork(problem, isShared);
   const work = responseWork(problem, isShared);
   // With whole-number weights the optimum is a whole number, so floor(upper bound) is a bound too.
   const integral = problem.weights.every((w) => Number.isInteger(w)) && problem.masks.every((set) => !set.values || set.values.every((v) => Number.isInteger(v)));
@@ -327,31 +382,13 @@ export function allocateJoint(problem: JointProblem, opts: JointOptions = {}): J
   let it = 0;
   for (; it < maxIt; it++) {
     // Relaxed problem: each mask exactly, weights reduced by the multipliers.
-    let L = 0;
     const picks: number[][] = [];
-    for (let m = 0; m < M; m++) {
-      const w = buffers[m], positions = sharedPositions[m], objects = relaxedObjects[m], values = relaxedValues[m];
-      for (let q = 0; q < positions.length; q++) w[positions[q]] = values[q] - lambda[objects[q]];
-      const r = solveSortedWeights(problem.masks[m].index, w);
-      picks.push(r.chosen);
-      L += r.total;
-    }
-    for (const o of shared) L += lambda[o];
+    const L = relaxedRound(problem, relaxed, lambda, shared, picks);
     let improvedUpper = false;
     if (L < upper - 1e-12 * Math.abs(L)) { upper = L; sinceImproved = 0; improvedUpper = true; } else if (++sinceImproved >= 5) { theta /= 2; sinceImproved = 0; }
 
     // Repair: a duplicated object stays on the first mask (rotating the order) that took it; then sweeps.
-    use.fill(0);
-    owner.fill(-1);
-    const repaired: number[][] = picks.map(() => []);
-    for (let j = 0; j < M; j++) {
-      const m = (j + it) % M;
-      for (const k of picks[m]) {
-        const o = problem.masks[m].objects[k];
-        use[o]++;
-        if (owner[o] === -1) { owner[o] = m; repaired[m].push(k); }
-      }
-    }
+    const repaired = repairPicks(problem, picks, it, use, owner);
     // The repair and sweeps cost more than the relaxed solve: run them when the bound improved, and every 8th round.
     if (improvedUpper || it % 8 === 0) {
       let candidate = improveByBestResponse(problem, repaired, 2, work);
@@ -366,8 +403,7 @@ export function allocateJoint(problem: JointProblem, opts: JointOptions = {}): J
     if (++stall >= 30 && bound(upper) - bestValue <= 1e-3 * Math.abs(upper)) break;
 
     // Subgradient step on the coupling rows sum_m z_om <= 1.
-    let norm2 = 0;
-    for (const o of shared) { const g = 1 - use[o]; if (g < 0 || lambda[o] > 0) norm2 += g * g; }
+    const norm2 = subgradientNorm2(shared, use, lambda);
     if (norm2 === 0) {
       // The relaxed picks are feasible and complementary, hence optimal: keep them (after sweeps, which cannot lose).
       const candidate = improveByBestResponse(problem, repaired, 1, work);
@@ -375,11 +411,7 @@ export function allocateJoint(problem: JointProblem, opts: JointOptions = {}): J
       if (v > bestValue) { bestValue = v; best = candidate; }
       break;
     }
-    const step = (theta * (L - bestValue)) / norm2;
-    for (const o of shared) {
-      const g = 1 - use[o];
-      lambda[o] = Math.max(0, lambda[o] - step * g);
-    }
+    subgradientStep(shared, use, lambda, (theta * (L - bestValue)) / norm2);
     if (theta < 1e-4) break;
   }
   // Final polish of the best plan with steal moves, unless the bound already proves it within relGap.
