@@ -83,8 +83,8 @@ export function jointObjective(problem: JointProblem, chosen: readonly (readonly
   return t;
 }
 
-function ownerOf(problem: JointProblem, chosen: readonly (readonly number[])[]): Int32Array {
-  const owner = new Int32Array(problem.weights.length).fill(-1);
+function ownerOf(problem: JointProblem, chosen: readonly (readonly number[])[], into?: Int32Array): Int32Array {
+  const owner = into ? into.fill(-1) : new Int32Array(problem.weights.length).fill(-1);
   chosen.forEach((sel, m) => { for (const k of sel) owner[problem.masks[m].objects[k]] = m; });
   return owner;
 }
@@ -104,13 +104,25 @@ export interface ResponseWork {
 
 /** Build the re-solve buffers of a problem (O(total candidates)); worth it when a problem is re-solved many times. */
 export function responseWork(problem: JointProblem, shared: Uint8Array = sharedObjects(problem)): ResponseWork {
-  const sharedPositions = problem.masks.map((set) => Int32Array.from(set.index.order.keys()).filter((k) => shared[set.objects[set.index.order[k]]] === 1));
-  return {
-    buffers: problem.masks.map((set, m) => Float64Array.from(set.index.order, (i) => candidateValue(problem, m, i))),
-    sharedPositions,
-    sharedObjects: sharedPositions.map((pos, m) => Int32Array.from(pos, (k) => problem.masks[m].objects[problem.masks[m].index.order[k]])),
-    sharedValues: sharedPositions.map((pos, m) => Float64Array.from(pos, (k) => candidateValue(problem, m, problem.masks[m].index.order[k]))),
-  };
+  const work: ResponseWork = { buffers: [], sharedPositions: [], sharedObjects: [], sharedValues: [] };
+  for (const set of problem.masks) {
+    const { order } = set.index, n = order.length;
+    const w = new Float64Array(n);
+    let nShared = 0;
+    for (let k = 0; k < n; k++) {
+      const i = order[k];
+      w[k] = set.values ? set.values[i] : problem.weights[set.objects[i]];
+      if (shared[set.objects[i]] === 1) nShared++;
+    }
+    const positions = new Int32Array(nShared), objects = new Int32Array(nShared), values = new Float64Array(nShared);
+    for (let k = 0, q = 0; k < n; k++) {
+      const o = set.objects[order[k]];
+      if (shared[o] !== 1) continue;
+      positions[q] = k; objects[q] = o; values[q] = w[k]; q++;
+    }
+    work.buffers.push(w); work.sharedPositions.push(positions); work.sharedObjects.push(objects); work.sharedValues.push(values);
+  }
+  return work;
 }
 
 let brBuf = new Float64Array(0);
@@ -205,15 +217,29 @@ function holderLosses(problem: JointProblem, chosen: readonly (readonly number[]
     const set = problem.masks[b];
     const held = chosen[b].filter((k) => shared[set.objects[k]] === 1);
     if (!held.length) continue;
-    const w = new Float64Array(set.objects.length);
-    for (let k = 0; k < w.length; k++) {
-      const o = set.objects[k];
-      w[k] = owner[o] === -1 || owner[o] === b ? candidateValue(problem, b, k) : 0;
-    }
+    // A view of the scratch buffer: nothing else writes it before optimumWithoutEach returns.
+    const w = availableWeights(problem, owner, b).subarray(0, set.objects.length);
     const without = optimumWithoutEach(set.index, set.starts, set.ends, w, held);
     const v = maskValue(problem, chosen, b);
     for (const k of held) loss[set.objects[k]] = Math.max(0, v - without[k]);
   }
+}
+
+/**
+ * Mask a's weights for a steal (into w): its own value for a free or own object, less the holder's loss for an object
+ * another mask holds. True when some held object is worth taking at that price.
+ */
+function stealWeights(problem: JointProblem, a: number, owner: Int32Array, loss: Float64Array, w: Float64Array): boolean {
+  const setA = problem.masks[a];
+  let anyPriced = false;
+  for (let k = 0; k < w.length; k++) {
+    const o = setA.objects[k];
+    const b = owner[o];
+    if (b === -1 || b === a) { w[k] = candidateValue(problem, a, k); continue; }
+    w[k] = candidateValue(problem, a, k) - loss[o];
+    if (w[k] > 1e-12) anyPriced = true;
+  }
+  return anyPriced;
 }
 
 /**
@@ -228,24 +254,17 @@ export function improveBySteals(problem: JointProblem, chosen: number[][], maxRo
   const shared = sharedObjects(problem);
   work ??= responseWork(problem, shared);
   const loss = new Float64Array(problem.weights.length);
+  const ownerBuf = new Int32Array(problem.weights.length), trialOwnerBuf = new Int32Array(problem.weights.length);
   for (let round = 0; round < maxRounds; round++) {
     let accepted = false;
     // Holder's loss per held shared object (exact, one pass per mask), priced once per round: prices are a guide,
     // and every move is verified on the true total, so a price made stale by an earlier move of the round costs nothing.
     holderLosses(problem, chosen, shared, loss);
     for (let a = 0; a < M; a++) {
-      const owner = ownerOf(problem, chosen);
+      const owner = ownerOf(problem, chosen, ownerBuf);
       const setA = problem.masks[a];
       const w = new Float64Array(setA.objects.length);
-      let anyPriced = false;
-      for (let k = 0; k < w.length; k++) {
-        const o = setA.objects[k];
-        const b = owner[o];
-        if (b === -1 || b === a) { w[k] = candidateValue(problem, a, k); continue; }
-        w[k] = candidateValue(problem, a, k) - loss[o];
-        if (w[k] > 1e-12) anyPriced = true;
-      }
-      if (!anyPriced) continue;
+      if (!stealWeights(problem, a, owner, loss, w)) continue;
       const pick = solveIntervalIndex(setA.index, w).chosen;
       const stolenFrom = new Set<number>();
       for (const k of pick) { const b = owner[setA.objects[k]]; if (b !== -1 && b !== a) stolenFrom.add(b); }
@@ -254,7 +273,7 @@ export function improveBySteals(problem: JointProblem, chosen: number[][], maxRo
       const taken = new Set(pick.map((k) => setA.objects[k]));
       for (const b of stolenFrom) trial[b] = trial[b].filter((j) => !taken.has(problem.masks[b].objects[j]));
       trial[a] = pick;
-      const trialOwner = ownerOf(problem, trial);
+      const trialOwner = ownerOf(problem, trial, trialOwnerBuf);
       for (const b of stolenFrom) bestResponse(problem, trialOwner, trial, b, work);
       bestResponse(problem, trialOwner, trial, a, work);
       const v = jointObjective(problem, trial);
