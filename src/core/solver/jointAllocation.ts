@@ -127,7 +127,7 @@ export function responseWork(problem: JointProblem, shared: Uint8Array = sharedO
 
 let brBuf = new Float64Array(0);
 
-/** Weights of mask m's candidates with objects owned by another mask set to 0 (in `work`'s buffer when given). */
+/** Weights of mask m's candidates (original order) with objects owned by another mask set to 0, in a scratch buffer reused by the next call. */
 function availableWeights(problem: JointProblem, owner: Int32Array, m: number): Float64Array {
   const set = problem.masks[m];
   const n = set.objects.length;
@@ -365,7 +365,6 @@ function subgradientStep(shared: Int32Array, use: Int32Array, lambda: Float64Arr
 /** Joint allocation by Lagrangian relaxation with repair and best-response sweeps (the fast path). */
 export function allocateJoint(problem: JointProblem, opts: JointOptions = {}): JointSolution {
   problem = overMaskObjects(problem);
-  const M = problem.masks.length;
   const nObj = problem.weights.length;
   const maxIt = opts.maxIterations ?? 150;
   const relGap = opts.relativeGap ?? 1e-4;
