@@ -98,3 +98,40 @@ describe('fast choice of the design hour angle against the exhaustive fine grid'
     expect(diffs.length).toBe(CASES.length * 41);
   });
 });
+
+/** chooseDesignHourAngle's ranking with every candidate scored (no candidate skipped once the best cannot be beaten). */
+function everyCandidate(input: Omit<MaskRefractionInput, 'designHourAngleH'>, candidatesH: readonly number[], exposureS: number): number {
+  const score = designWindowScorer(input);
+  let best: { h: number; s: number } | null = null;
+  const consider = (h: number) => {
+    const s = score(h);
+    if (!best) { best = { h, s }; return; }
+    const fits = s * 3600 >= exposureS, bestFits = best.s * 3600 >= exposureS;
+    if ((fits && !bestFits) || (fits === bestFits && (s > best.s + 1e-6 || (Math.abs(s - best.s) <= 1e-6 && Math.abs(h) < Math.abs(best.h))))) best = { h, s };
+  };
+  for (const h of candidatesH) consider(h);
+  const lo = candidatesH[0], hi = candidatesH[candidatesH.length - 1];
+  for (let step = (candidatesH[1] - candidatesH[0]) / 2, k = 0; k < 3; k++, step /= 2) {
+    const b = (best as unknown as { h: number }).h;
+    for (const h of [b - step, b + step]) if (h >= lo && h <= hi) consider(h);
+  }
+  return (best as unknown as { h: number }).h;
+}
+
+describe('candidates that cannot beat a window as long as the searched range are not scored', () => {
+  // A narrow science range and a loose loss limit: every hour angle of the range passes, the case the skip is for;
+  // the CASES above cover windows shorter than the range. An exposure longer than the range covers "nothing fits".
+  const open: Case[] = [
+    ...CASES,
+    { name: 'north site, Dec +60, narrow range, loose limit', latDeg: 28.7, decDeg: 60, scienceRangeA: [8600, 8650], maxLossFraction: 0.5, exposureS: 3600 },
+    { name: 'same, exposure longer than the range', latDeg: 28.7, decDeg: 60, scienceRangeA: [8600, 8650], maxLossFraction: 0.5, exposureS: 40000 },
+  ];
+  it.each(open.map((c, i) => [c.name, i] as const))('%s: the same design hour angle as scoring every candidate', (_name, i) => {
+    const c = open[i];
+    const input = maskCase(c, 300 + i);
+    const candidates = designHourAngleCandidatesH([-5, 5], 0.25);
+    const fast = chooseDesignHourAngle(input, candidates, c.exposureS);
+    expect(fast.designHourAngleH).toBe(everyCandidate(input, candidates, c.exposureS));
+    if (i >= CASES.length) expect(fast.hourAngleWindowH).toEqual([-5, 5]);
+  });
+});

@@ -2,6 +2,9 @@
 import { describe, expect, it } from 'vitest';
 import { paRefractionCostArcsec } from '../../src/core/observe/paRefractionCost';
 import { differentialRefractionArcsec } from '../../src/core/observe/refraction';
+import { altitudeDeg } from '../../src/core/observe/horizon';
+import { parallacticAngleDeg } from '../../src/core/observe/parallactic';
+import { PMath } from '../../src/core/numeric/portableMath';
 
 const air = { pressureHPa: 765, temperatureC: 10, relativeHumidity: 0.3 };
 const base = { decDeg: 0, latDeg: 20, air, scienceRangeA: [4000, 9000] as [number, number] };
@@ -24,5 +27,35 @@ describe('PA refraction cost (Filippenko 1982, PASP 94, 715: no loss with the sl
   });
   it('a window in which the mask centre sets costs Infinity', () => {
     expect(paRefractionCostArcsec(0, { ...base, windowH: [5, 7] })).toBe(Infinity);
+  });
+});
+
+describe('PA refraction cost: the window samples kept between calls', () => {
+  /** The cost summed sample by sample, as the module comment states it (nothing kept between calls). */
+  function direct(paDeg: number, decDeg: number, windowH: [number, number], a: typeof air): number {
+    let sum = 0;
+    for (let i = 0; i < 9; i++) {
+      const haDeg = (windowH[0] + ((windowH[1] - windowH[0]) * i) / 8) * 15;
+      const alt = altitudeDeg(haDeg, decDeg, base.latDeg);
+      if (!(alt > 0)) return Infinity;
+      const spread = Math.abs(differentialRefractionArcsec(90 - alt, 4000, 9000, a));
+      sum += spread * Math.abs(PMath.sin(((parallacticAngleDeg(haDeg, decDeg, base.latDeg) - paDeg) * Math.PI) / 180));
+    }
+    return sum / 9;
+  }
+  it('gives the same bits as the direct sum whether the window was seen before or not (turns of one mask, other Decs, other air)', () => {
+    const wetter = { ...air, relativeHumidity: 0.9 };
+    let compared = 0;
+    for (const decDeg of [-30, -0, 0, 12.5, 40])
+      for (const a of [air, wetter])
+        for (let pa = 0; pa < 360; pa += 37) {
+          const input = { ...base, decDeg, air: a, windowH: [-1.5, 0.5] as [number, number] };
+          // Every PA after the first of a (Dec, air) pair reuses that window's samples.
+          expect(paRefractionCostArcsec(pa, input)).toBe(direct(pa, decDeg, input.windowH, a));
+          compared++;
+        }
+    expect(compared).toBe(5 * 2 * 10);
+    // The humidity changes the refraction: a cache that ignored the air would give the drier value.
+    expect(paRefractionCostArcsec(90, { ...base, air: wetter, windowH: [-1.5, 0.5] })).not.toBe(paRefractionCostArcsec(90, { ...base, windowH: [-1.5, 0.5] }));
   });
 });

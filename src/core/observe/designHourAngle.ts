@@ -21,8 +21,14 @@ export function windowLengthH(window: [number, number] | null): number {
  */
 export function chooseDesignHourAngle(input: Omit<MaskRefractionInput, 'designHourAngleH'>, candidatesH: readonly number[], exposureS: number): MaskRefractionReport {
   const score = designWindowScorer(input);
+  // No window is longer than the searched range (scores are rounded window ends, and rounding keeps order): once
+  // the best holds that (and fits the exposure when the range does), a candidate no nearer transit cannot replace it.
+  const grid = hourAngleGridH(input.settings.hourAngleRangeH, input.settings.hourAngleStepH);
+  const maxScore = Math.round(grid[grid.length - 1] * 1e4) / 1e4 - Math.round(grid[0] * 1e4) / 1e4;
+  const maxFits = maxScore * 3600 >= exposureS;
   let best: { h: number; s: number } | null = null;
   const consider = (h: number) => {
+    if (best && best.s >= maxScore - 1e-6 && (best.s * 3600 >= exposureS || !maxFits) && Math.abs(h) >= Math.abs(best.h)) return;
     const s = score(h);
     if (!best) { best = { h, s }; return; }
     const fits = s * 3600 >= exposureS, bestFits = best.s * 3600 >= exposureS;

@@ -51,6 +51,31 @@ export function solveIntervalIndex(index: IntervalIndex, weights: ArrayLike<numb
     const take = w > 0 ? w + best[pred[k]] : -Infinity;
     best[k + 1] = take > best[k] ? take : best[k];
   }
+  return chosenFromBest(index, best);
+}
+
+/**
+ * solveIntervalIndex with the weights given in the index's sorted order (sortedWeights[k] is the weight of interval
+ * order[k]): the same sums in the same order, so the same choice, without the indirection in the loop.
+ */
+export function solveSortedWeights(index: IntervalIndex, sortedWeights: Float64Array): { chosen: number[]; total: number } {
+  const { pred } = index;
+  const n = index.order.length;
+  if (bestBuf.length < n + 1) bestBuf = new Float64Array(Math.max(n + 1, bestBuf.length * 2));
+  const best = bestBuf;
+  best[0] = 0;
+  for (let k = 0; k < n; k++) {
+    const w = sortedWeights[k];
+    const take = w > 0 ? w + best[pred[k]] : -Infinity;
+    best[k + 1] = take > best[k] ? take : best[k];
+  }
+  return chosenFromBest(index, best);
+}
+
+/** The chosen original indices (ascending end order) and total from the filled optimum table best[0..n]. */
+function chosenFromBest(index: IntervalIndex, best: Float64Array): { chosen: number[]; total: number } {
+  const { order, pred } = index;
+  const n = order.length;
   const total = best[n];
   const chosen: number[] = [];
   let k = n;

@@ -8,7 +8,7 @@
  * the total) and, for the first plan within 0.2 % of the best and for the final plan, by steal moves (improveBySteals).
  * The best feasible plan is returned with the Lagrangian upper bound as an optimality certificate.
  */
-import { buildIntervalIndex, optimumWithoutEach, solveIntervalIndex, type IntervalIndex } from './intervalScheduling';
+import { buildIntervalIndex, optimumWithoutEach, solveIntervalIndex, solveSortedWeights, type IntervalIndex } from './intervalScheduling';
 
 /** The candidates of one mask: object index (into the joint weight list) and the half-open y interval of each. */
 export interface MaskCandidateSet {
@@ -83,8 +83,8 @@ export function jointObjective(problem: JointProblem, chosen: readonly (readonly
   return t;
 }
 
-function ownerOf(problem: JointProblem, chosen: readonly (readonly number[])[]): Int32Array {
-  const owner = new Int32Array(problem.weights.length).fill(-1);
+function ownerOf(problem: JointProblem, chosen: readonly (readonly number[])[], into?: Int32Array): Int32Array {
+  const owner = into ? into.fill(-1) : new Int32Array(problem.weights.length).fill(-1);
   chosen.forEach((sel, m) => { for (const k of sel) owner[problem.masks[m].objects[k]] = m; });
   return owner;
 }
@@ -94,31 +94,42 @@ function ownerOf(problem: JointProblem, chosen: readonly (readonly number[])[]):
  * another mask, so each buffer keeps the plain weights and a re-solve rewrites only the shared positions.
  */
 export interface ResponseWork {
+  /** Per mask, its candidates' weights in the order of its interval index (buffers[m][k] for candidate index.order[k]). */
   buffers: Float64Array[];
+  /** Per mask, the sorted positions k whose candidate's object is shared, and that object and the candidate's value. */
   sharedPositions: Int32Array[];
+  sharedObjects: Int32Array[];
+  sharedValues: Float64Array[];
 }
 
 /** Build the re-solve buffers of a problem (O(total candidates)); worth it when a problem is re-solved many times. */
 export function responseWork(problem: JointProblem, shared: Uint8Array = sharedObjects(problem)): ResponseWork {
-  return {
-    buffers: problem.masks.map((set, m) => Float64Array.from(set.objects, (_o, k) => candidateValue(problem, m, k))),
-    sharedPositions: problem.masks.map((set) => Int32Array.from(set.objects.keys()).filter((k) => shared[set.objects[k]] === 1)),
-  };
+  const work: ResponseWork = { buffers: [], sharedPositions: [], sharedObjects: [], sharedValues: [] };
+  for (const set of problem.masks) {
+    const { order } = set.index, n = order.length;
+    const w = new Float64Array(n);
+    let nShared = 0;
+    for (let k = 0; k < n; k++) {
+      const i = order[k];
+      w[k] = set.values ? set.values[i] : problem.weights[set.objects[i]];
+      if (shared[set.objects[i]] === 1) nShared++;
+    }
+    const positions = new Int32Array(nShared), objects = new Int32Array(nShared), values = new Float64Array(nShared);
+    for (let k = 0, q = 0; k < n; k++) {
+      const o = set.objects[order[k]];
+      if (shared[o] !== 1) continue;
+      positions[q] = k; objects[q] = o; values[q] = w[k]; q++;
+    }
+    work.buffers.push(w); work.sharedPositions.push(positions); work.sharedObjects.push(objects); work.sharedValues.push(values);
+  }
+  return work;
 }
 
 let brBuf = new Float64Array(0);
 
-/** Weights of mask m's candidates with objects owned by another mask set to 0 (in `work`'s buffer when given). */
-function availableWeights(problem: JointProblem, owner: Int32Array, m: number, work?: ResponseWork): Float64Array {
+/** Weights of mask m's candidates (original order) with objects owned by another mask set to 0, in a scratch buffer reused by the next call. */
+function availableWeights(problem: JointProblem, owner: Int32Array, m: number): Float64Array {
   const set = problem.masks[m];
-  if (work) {
-    const w = work.buffers[m], positions = work.sharedPositions[m];
-    for (let q = 0; q < positions.length; q++) {
-      const o = set.objects[positions[q]];
-      w[positions[q]] = owner[o] === -1 || owner[o] === m ? candidateValue(problem, m, positions[q]) : 0;
-    }
-    return w;
-  }
   const n = set.objects.length;
   if (brBuf.length < n) brBuf = new Float64Array(Math.max(n, brBuf.length * 2));
   for (let k = 0; k < n; k++) {
@@ -131,9 +142,18 @@ function availableWeights(problem: JointProblem, owner: Int32Array, m: number, w
 /** Exact re-solve of mask m with every other mask fixed (objects owned by another mask are unavailable); updates owner. */
 function bestResponse(problem: JointProblem, owner: Int32Array, chosen: number[][], m: number, work?: ResponseWork): void {
   const set = problem.masks[m];
-  const w = availableWeights(problem, owner, m, work);
+  let pick: number[];
+  if (work) {
+    // availableWeights' rule, written in the index's order at the shared positions only.
+    const w = work.buffers[m], positions = work.sharedPositions[m], objects = work.sharedObjects[m], values = work.sharedValues[m];
+    for (let q = 0; q < positions.length; q++) {
+      const o = objects[q];
+      w[positions[q]] = owner[o] === -1 || owner[o] === m ? values[q] : 0;
+    }
+    pick = solveSortedWeights(set.index, w).chosen;
+  } else pick = solveIntervalIndex(set.index, availableWeights(problem, owner, m)).chosen;
   for (const k of chosen[m]) owner[set.objects[k]] = -1;
-  chosen[m] = solveIntervalIndex(set.index, w).chosen;
+  chosen[m] = pick;
   for (const k of chosen[m]) owner[set.objects[k]] = m;
 }
 
@@ -197,15 +217,29 @@ function holderLosses(problem: JointProblem, chosen: readonly (readonly number[]
     const set = problem.masks[b];
     const held = chosen[b].filter((k) => shared[set.objects[k]] === 1);
     if (!held.length) continue;
-    const w = new Float64Array(set.objects.length);
-    for (let k = 0; k < w.length; k++) {
-      const o = set.objects[k];
-      w[k] = owner[o] === -1 || owner[o] === b ? candidateValue(problem, b, k) : 0;
-    }
+    // A view of the scratch buffer: nothing else writes it before optimumWithoutEach returns.
+    const w = availableWeights(problem, owner, b).subarray(0, set.objects.length);
     const without = optimumWithoutEach(set.index, set.starts, set.ends, w, held);
     const v = maskValue(problem, chosen, b);
     for (const k of held) loss[set.objects[k]] = Math.max(0, v - without[k]);
   }
+}
+
+/**
+ * Mask a's weights for a steal (into w): its own value for a free or own object, less the holder's loss for an object
+ * another mask holds. True when some held object is worth taking at that price.
+ */
+function stealWeights(problem: JointProblem, a: number, owner: Int32Array, loss: Float64Array, w: Float64Array): boolean {
+  const setA = problem.masks[a];
+  let anyPriced = false;
+  for (let k = 0; k < w.length; k++) {
+    const o = setA.objects[k];
+    const b = owner[o];
+    if (b === -1 || b === a) { w[k] = candidateValue(problem, a, k); continue; }
+    w[k] = candidateValue(problem, a, k) - loss[o];
+    if (w[k] > 1e-12) anyPriced = true;
+  }
+  return anyPriced;
 }
 
 /**
@@ -220,24 +254,17 @@ export function improveBySteals(problem: JointProblem, chosen: number[][], maxRo
   const shared = sharedObjects(problem);
   work ??= responseWork(problem, shared);
   const loss = new Float64Array(problem.weights.length);
+  const ownerBuf = new Int32Array(problem.weights.length), trialOwnerBuf = new Int32Array(problem.weights.length);
   for (let round = 0; round < maxRounds; round++) {
     let accepted = false;
     // Holder's loss per held shared object (exact, one pass per mask), priced once per round: prices are a guide,
     // and every move is verified on the true total, so a price made stale by an earlier move of the round costs nothing.
     holderLosses(problem, chosen, shared, loss);
     for (let a = 0; a < M; a++) {
-      const owner = ownerOf(problem, chosen);
+      const owner = ownerOf(problem, chosen, ownerBuf);
       const setA = problem.masks[a];
       const w = new Float64Array(setA.objects.length);
-      let anyPriced = false;
-      for (let k = 0; k < w.length; k++) {
-        const o = setA.objects[k];
-        const b = owner[o];
-        if (b === -1 || b === a) { w[k] = candidateValue(problem, a, k); continue; }
-        w[k] = candidateValue(problem, a, k) - loss[o];
-        if (w[k] > 1e-12) anyPriced = true;
-      }
-      if (!anyPriced) continue;
+      if (!stealWeights(problem, a, owner, loss, w)) continue;
       const pick = solveIntervalIndex(setA.index, w).chosen;
       const stolenFrom = new Set<number>();
       for (const k of pick) { const b = owner[setA.objects[k]]; if (b !== -1 && b !== a) stolenFrom.add(b); }
@@ -246,7 +273,7 @@ export function improveBySteals(problem: JointProblem, chosen: number[][], maxRo
       const taken = new Set(pick.map((k) => setA.objects[k]));
       for (const b of stolenFrom) trial[b] = trial[b].filter((j) => !taken.has(problem.masks[b].objects[j]));
       trial[a] = pick;
-      const trialOwner = ownerOf(problem, trial);
+      const trialOwner = ownerOf(problem, trial, trialOwnerBuf);
       for (const b of stolenFrom) bestResponse(problem, trialOwner, trial, b, work);
       bestResponse(problem, trialOwner, trial, a, work);
       const v = jointObjective(problem, trial);
@@ -281,10 +308,63 @@ export interface JointOptions {
   relativeGap?: number;
 }
 
+// The rounds of allocateJoint, each a small function of its own: the engine optimises a short hot loop as soon as it
+// runs hot, where one long function would wait for (and be re-optimised at) every branch it has not run yet.
+
+/**
+ * One relaxed round: every mask solved exactly with its shared objects' weights reduced by their multipliers (in
+ * `relaxed`'s buffers), each mask's pick pushed to `picks`; returns the Lagrangian value (the masks' optima, then
+ * each shared object's multiplier, summed in that order).
+ */
+function relaxedRound(problem: JointProblem, relaxed: ResponseWork, lambda: Float64Array, shared: Int32Array, picks: number[][]): number {
+  let L = 0;
+  for (let m = 0; m < problem.masks.length; m++) {
+    const w = relaxed.buffers[m], positions = relaxed.sharedPositions[m], objects = relaxed.sharedObjects[m], values = relaxed.sharedValues[m];
+    for (let q = 0; q < positions.length; q++) w[positions[q]] = values[q] - lambda[objects[q]];
+    const r = solveSortedWeights(problem.masks[m].index, w);
+    picks.push(r.chosen);
+    L += r.total;
+  }
+  for (let q = 0; q < shared.length; q++) L += lambda[shared[q]];
+  return L;
+}
+
+/** Round `it`'s repair of relaxed picks: a duplicated object stays on the first mask (from mask it mod M on) that took it; counts uses per object. */
+function repairPicks(problem: JointProblem, picks: readonly (readonly number[])[], it: number, use: Int32Array, owner: Int32Array): number[][] {
+  const M = problem.masks.length;
+  use.fill(0);
+  owner.fill(-1);
+  const repaired: number[][] = picks.map(() => []);
+  for (let j = 0; j < M; j++) {
+    const m = (j + it) % M;
+    const objects = problem.masks[m].objects, pick = picks[m];
+    for (let q = 0; q < pick.length; q++) {
+      const o = objects[pick[q]];
+      use[o]++;
+      if (owner[o] === -1) { owner[o] = m; repaired[m].push(pick[q]); }
+    }
+  }
+  return repaired;
+}
+
+/** Squared norm of the subgradient 1 - use over the coupling rows that can move (violated, or with a positive multiplier). */
+function subgradientNorm2(shared: Int32Array, use: Int32Array, lambda: Float64Array): number {
+  let norm2 = 0;
+  for (let q = 0; q < shared.length; q++) { const o = shared[q], g = 1 - use[o]; if (g < 0 || lambda[o] > 0) norm2 += g * g; }
+  return norm2;
+}
+
+/** Subgradient step on the coupling rows sum_m z_om <= 1: lambda = max(0, lambda - step (1 - use)). */
+function subgradientStep(shared: Int32Array, use: Int32Array, lambda: Float64Array, step: number): void {
+  for (let q = 0; q < shared.length; q++) {
+    const o = shared[q], g = 1 - use[o];
+    lambda[o] = Math.max(0, lambda[o] - step * g);
+  }
+}
+
 /** Joint allocation by Lagrangian relaxation with repair and best-response sweeps (the fast path). */
 export function allocateJoint(problem: JointProblem, opts: JointOptions = {}): JointSolution {
   problem = overMaskObjects(problem);
-  const M = problem.masks.length;
   const nObj = problem.weights.length;
   const maxIt = opts.maxIterations ?? 150;
   const relGap = opts.relativeGap ?? 1e-4;
@@ -295,8 +375,9 @@ export function allocateJoint(problem: JointProblem, opts: JointOptions = {}): J
   let bestValue = jointObjective(problem, best);
 
   const isShared = sharedObjects(problem);
-  const shared: number[] = [];
-  for (let o = 0; o < nObj; o++) if (isShared[o]) shared.push(o);
+  const sharedList: number[] = [];
+  for (let o = 0; o < nObj; o++) if (isShared[o]) sharedList.push(o);
+  const shared = Int32Array.from(sharedList);
   if (shared.length === 0) {
     // No object falls on two masks: per-mask optima are jointly optimal.
     return { chosen: best, objective: bestValue, upperBound: bestValue, iterations: 0 };
@@ -306,7 +387,7 @@ export function allocateJoint(problem: JointProblem, opts: JointOptions = {}): J
   const owner = new Int32Array(nObj);
   // Relaxed weights per mask (only shared objects carry a multiplier, so each round rewrites only their positions),
   // and separate buffers for the sweeps and steals of the repaired plans.
-  const { buffers, sharedPositions } = responseWork(problem, isShared);
+  const relaxed = responseWork(problem, isShared);
   const work = responseWork(problem, isShared);
   // With whole-number weights the optimum is a whole number, so floor(upper bound) is a bound too.
   const integral = problem.weights.every((w) => Number.isInteger(w)) && problem.masks.every((set) => !set.values || set.values.every((v) => Number.isInteger(v)));
@@ -319,31 +400,13 @@ export function allocateJoint(problem: JointProblem, opts: JointOptions = {}): J
   let it = 0;
   for (; it < maxIt; it++) {
     // Relaxed problem: each mask exactly, weights reduced by the multipliers.
-    let L = 0;
     const picks: number[][] = [];
-    for (let m = 0; m < M; m++) {
-      const set = problem.masks[m], w = buffers[m], positions = sharedPositions[m];
-      for (let q = 0; q < positions.length; q++) { const o = set.objects[positions[q]]; w[positions[q]] = candidateValue(problem, m, positions[q]) - lambda[o]; }
-      const r = solveIntervalIndex(set.index, w);
-      picks.push(r.chosen);
-      L += r.total;
-    }
-    for (const o of shared) L += lambda[o];
+    const L = relaxedRound(problem, relaxed, lambda, shared, picks);
     let improvedUpper = false;
     if (L < upper - 1e-12 * Math.abs(L)) { upper = L; sinceImproved = 0; improvedUpper = true; } else if (++sinceImproved >= 5) { theta /= 2; sinceImproved = 0; }
 
     // Repair: a duplicated object stays on the first mask (rotating the order) that took it; then sweeps.
-    use.fill(0);
-    owner.fill(-1);
-    const repaired: number[][] = picks.map(() => []);
-    for (let j = 0; j < M; j++) {
-      const m = (j + it) % M;
-      for (const k of picks[m]) {
-        const o = problem.masks[m].objects[k];
-        use[o]++;
-        if (owner[o] === -1) { owner[o] = m; repaired[m].push(k); }
-      }
-    }
+    const repaired = repairPicks(problem, picks, it, use, owner);
     // The repair and sweeps cost more than the relaxed solve: run them when the bound improved, and every 8th round.
     if (improvedUpper || it % 8 === 0) {
       let candidate = improveByBestResponse(problem, repaired, 2, work);
@@ -358,8 +421,7 @@ export function allocateJoint(problem: JointProblem, opts: JointOptions = {}): J
     if (++stall >= 30 && bound(upper) - bestValue <= 1e-3 * Math.abs(upper)) break;
 
     // Subgradient step on the coupling rows sum_m z_om <= 1.
-    let norm2 = 0;
-    for (const o of shared) { const g = 1 - use[o]; if (g < 0 || lambda[o] > 0) norm2 += g * g; }
+    const norm2 = subgradientNorm2(shared, use, lambda);
     if (norm2 === 0) {
       // The relaxed picks are feasible and complementary, hence optimal: keep them (after sweeps, which cannot lose).
       const candidate = improveByBestResponse(problem, repaired, 1, work);
@@ -367,11 +429,7 @@ export function allocateJoint(problem: JointProblem, opts: JointOptions = {}): J
       if (v > bestValue) { bestValue = v; best = candidate; }
       break;
     }
-    const step = (theta * (L - bestValue)) / norm2;
-    for (const o of shared) {
-      const g = 1 - use[o];
-      lambda[o] = Math.max(0, lambda[o] - step * g);
-    }
+    subgradientStep(shared, use, lambda, (theta * (L - bestValue)) / norm2);
     if (theta < 1e-4) break;
   }
   // Final polish of the best plan with steal moves, unless the bound already proves it within relGap.

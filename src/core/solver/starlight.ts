@@ -23,7 +23,7 @@ import type { MaskSolution, Slit } from '../geometry/maskSolution';
 import { centredRectFits, eligibilityRules, wavelengthOk, type EligibilityRules } from '../profile/eligibility';
 import { skyToMaskArcsec, circularisedRadiusArcsec, galaxyAzimuthDeg } from '../sky/frames';
 import { skyToTangentArcsec, tangentCentre } from '../sky/tangentPlane';
-import { sersicBn, sersicMuMagPerArcsec2 } from '../sky/sersic';
+import { sersicBn, sersicMuMagPerArcsec2, sersicRadiusAtMuArcsec } from '../sky/sersic';
 import { electronsPerAFromSurfaceBrightness, signalToNoisePerA, type SpectroSetup } from '../spectro/signalToNoise';
 import { maskPointToSkyDeg } from './maskTargets';
 import { lineWindowSettings, observedWavelengthA } from '../profile/wavelength';
@@ -198,9 +198,12 @@ function coreSpan(slit: RowSpan, minHalf: number): Span {
   const below = slit.role === 'tracer' ? Math.min(slit.lenBelowArcsec, minHalf) : slit.lenBelowArcsec;
   const above = slit.role === 'tracer' ? Math.min(slit.lenAboveArcsec, minHalf) : slit.lenAboveArcsec;
   const t = Math.abs(slit.tiltDeg) * Math.PI / 180;
-  const halfW = (slit.widthArcsec / 2) * PMath.sin(t);
-  return { lo: slit.yArcsec - below * PMath.cos(t) - halfW, hi: slit.yArcsec + above * PMath.cos(t) + halfW };
+  // An untilted slit (nearly every one) takes the sine and cosine of 0 computed once.
+  const sinT = t === 0 ? SIN0 : PMath.sin(t), cosT = t === 0 ? COS0 : PMath.cos(t);
+  const halfW = (slit.widthArcsec / 2) * sinT;
+  return { lo: slit.yArcsec - below * cosT - halfW, hi: slit.yArcsec + above * cosT + halfW };
 }
+const SIN0 = PMath.sin(0), COS0 = PMath.cos(0);
 
 /** One possible new slit: a y slot and the chosen x, with its radius, azimuth and S/N. */
 export interface SlotChoice {
@@ -286,6 +289,9 @@ function snLimitRadiusArcsec(g: GalaxyOnMask, lengthArcsec: number, widthArcsec:
   return limit;
 }
 
+/** A position on a slot's line: mask x, circularised radius (Re and arcsec) and galaxy-frame offset (u, v) arcsec. */
+interface Spot { x: number; rRe: number; rArcsec: number; u: number; v: number }
+
 /**
  * Evaluate one slot: the outermost position that still reaches the S/N goal within starlightReachRe (starlight),
  * and the outermost position where the galaxy is skyContrastMag fainter than the sky (sky). Positions lie on an
@@ -298,42 +304,60 @@ export function evaluateSlot(g: GalaxyOnMask, rules: EligibilityRules, slot: Spa
   // R >= sqrt(q) x (distance to the galaxy centre) >= sqrt(q) |yc - gy|: slots whose line stays beyond the reach hold no starlight.
   const lineCanReach = s.reachRe > 0 && Math.sqrt(g.galaxy.axisRatio) * Math.abs(yc - g.gyArcsec) <= s.maxRe * re;
   const wantSky = s.skyPerMask > 0;
-  // The centre surface brightness is needed for sky slots and for one-sample starlight only.
-  const needCentre = wantSky || samples === 1;
+  // The centre surface brightness is needed for one-sample starlight and for the sky slot chosen; sky positions
+  // are told by radius (skyRadiusTest), the surface brightness computed only where the radius cannot tell.
+  const muAt = (rArcsec: number) => sersicMuMagPerArcsec2(rArcsec, re, n, g.galaxy.muE, g.bn);
   const skyMuMin = wantSky ? skySlitMuThreshold(g.galaxy, g.bn, s) : Infinity;
-  const reachable: SlotChoice[] = [], skyOk: SlotChoice[] = [];
+  const skyAt = wantSky ? skyRadiusTest(g, skyMuMin, muAt) : null;
+  // Positions with their galaxy-frame offset: the azimuth (an arctangent) is computed only for a position chosen.
+  const reachable: Spot[] = [], skyOk: Spot[] = [];
   for (const x of xs) {
     const { u, v } = maskOffsetToGalaxy(g, x, yc);
-    const rArcsec = circularisedRadiusArcsec(u, v, g.galaxy.axisRatio), azimuthDeg = galaxyAzimuthDeg(u, v);
+    const rArcsec = circularisedRadiusArcsec(u, v, g.galaxy.axisRatio);
     const rRe = rArcsec / re;
-    const muCentre = needCentre ? sersicMuMagPerArcsec2(rArcsec, re, n, g.galaxy.muE, g.bn) : NaN;
-    if (lineCanReach && rRe <= s.maxRe) reachable.push({ y0: slot.lo, y1: slot.hi, xArcsec: x, rRe, azimuthDeg, snPerA: NaN, muMagPerArcsec2: muCentre });
-    if (wantSky && muCentre >= skyMuMin) skyOk.push({ y0: slot.lo, y1: slot.hi, xArcsec: x, rRe, azimuthDeg, snPerA: 0, muMagPerArcsec2: muCentre });
+    if (lineCanReach && rRe <= s.maxRe) reachable.push({ x, rRe, rArcsec, u, v });
+    if (skyAt && skyAt(rArcsec)) skyOk.push({ x, rRe, rArcsec, u, v });
   }
   // Outermost first; per radial bin the first position that reaches the S/N goal and fits the footprint. The mean
   // surface brightness, the S/N and the footprint test (the costly parts) are computed only until a bin is settled,
   // which gives the same choices as testing every position first.
-  const fits = (c: SlotChoice) => centredRectFits(rules, c.xArcsec, yc, hw, half);
-  const byR = (a: SlotChoice, b: SlotChoice) => b.rRe - a.rRe || a.xArcsec - b.xArcsec;
+  const fits = (p: Spot) => centredRectFits(rules, p.x, yc, hw, half);
+  const byR = (a: Spot, b: Spot) => b.rRe - a.rRe || a.x - b.x;
+  const choice = (p: Spot, snPerA: number, muMagPerArcsec2: number): SlotChoice => ({ y0: slot.lo, y1: slot.hi, xArcsec: p.x, rRe: p.rRe, azimuthDeg: galaxyAzimuthDeg(p.u, p.v), snPerA, muMagPerArcsec2 });
   const options: SlotChoice[] = [];
   const binsDone = new Set<number>();
   // No point of the slit lies closer to the centre than R - half x (largest gradient of R in the mask frame, 1/sqrt(q)
   // for q <= 1): beyond the S/N limit radius (with a 0.1 % margin against rounding) the slot cannot reach the goal.
   const q = g.galaxy.axisRatio, slope = Math.max(Math.sqrt(q), 1 / Math.sqrt(q));
   const limitArcsec = reachable.length ? snLimitRadiusArcsec(g, len, rules.widthArcsec, s) * 1.001 + 1e-6 : Infinity;
-  for (const c of reachable.sort(byR)) {
-    const bin = Math.floor(c.rRe);
+  for (const p of reachable.sort(byR)) {
+    const bin = Math.floor(p.rRe);
     if (binsDone.has(bin)) continue;
-    if (c.rRe * re - half * slope > limitArcsec) continue;
-    const mu = samples === 1 ? c.muMagPerArcsec2 : slitMeanMu(g, c.xArcsec, slot.lo, slot.hi, samples);
+    if (p.rRe * re - half * slope > limitArcsec) continue;
+    const mu = samples === 1 ? muAt(p.rArcsec) : slitMeanMu(g, p.x, slot.lo, slot.hi, samples);
     const sn = starlightSignalToNoise(mu, len, rules.widthArcsec, s);
     if (!(sn >= s.targetSnPerA)) continue;
-    const choice: SlotChoice = { ...c, snPerA: sn, muMagPerArcsec2: mu };
-    if (!fits(choice)) continue;
+    if (!fits(p)) continue;
     binsDone.add(bin);
-    options.push(choice);
+    options.push(choice(p, sn, mu));
   }
-  return { starlight: options[0] ?? null, options, sky: skyOk.sort(byR).find(fits) ?? null };
+  const skySpot = skyOk.sort(byR).find(fits);
+  const sky = skySpot ? choice(skySpot, 0, muAt(skySpot.rArcsec)) : undefined;
+  return { starlight: options[0] ?? null, options, sky: sky ?? null };
+}
+
+/**
+ * Whether a position at circularised radius r (arcsec) is faint enough for a sky slit (Sérsic mu(r) >= skyMuMin),
+ * the same answer as comparing mu(r) itself: mu grows with r, so a radius clearly (1e-7 relative, far beyond the
+ * last-bit differences of the power function) inside or outside the radius where mu reaches skyMuMin settles it
+ * without mu; only near that radius, or without one, is mu computed and compared.
+ */
+function skyRadiusTest(g: GalaxyOnMask, skyMuMin: number, muAt: (rArcsec: number) => number): (rArcsec: number) => boolean {
+  const gal = g.galaxy;
+  const rMu = sersicRadiusAtMuArcsec(skyMuMin, gal.reArcsec, gal.sersicN, gal.muE, g.bn);
+  if (!(rMu > 0 && Number.isFinite(rMu))) return (r) => muAt(r) >= skyMuMin;
+  const inner = rMu * (1 - 1e-7), outer = rMu * (1 + 1e-7);
+  return (r) => (r <= inner ? false : r >= outer ? true : muAt(r) >= skyMuMin);
 }
 
 /** Coverage cell of a starlight slit: radial bin of 1 Re and 45-degree sector from the major axis. */
@@ -551,6 +575,31 @@ export function starlightTaken(st: StarlightStage, masks: readonly MaskSolution[
   return { cells, bins, sectors, reachRe };
 }
 
+/**
+ * The spans (y, arcsec) that break the gap rule with a window [lo, hi]: near(lo, hi) lists, in the spans' own order,
+ * the indices i with neither span.hi + gap + MARGIN <= lo nor span.lo - gap - MARGIN >= hi (the direct test, the
+ * same sums). The spans are sorted by their lower edge with a running maximum of the upper edge, so a query looks only
+ * at the spans about the window, not at every row of the mask.
+ */
+export function spanOverlaps(spans: readonly Span[], gapArcsec: number): (lo: number, hi: number) => number[] {
+  const n = spans.length;
+  const order = Array.from({ length: n }, (_, i) => i).sort((a, b) => spans[a].lo - spans[b].lo || a - b);
+  const loR = new Float64Array(n), hiR = new Float64Array(n), maxHi = new Float64Array(n);
+  order.forEach((i, k) => {
+    loR[k] = spans[i].lo - gapArcsec - MARGIN;
+    hiR[k] = spans[i].hi + gapArcsec + MARGIN;
+    maxHi[k] = k ? Math.max(maxHi[k - 1], hiR[k]) : hiR[k];
+  });
+  return (lo, hi) => {
+    // a: the number of spans whose lower reach starts below hi (the lower reaches grow with k).
+    let a = 0, b = n;
+    while (a < b) { const m = (a + b) >> 1; if (loR[m] < hi) a = m + 1; else b = m; }
+    const out: number[] = [];
+    for (let k = a - 1; k >= 0 && maxHi[k] > lo; k--) if (hiR[k] > lo) out.push(order[k]);
+    return out.sort((x, y) => x - y);
+  };
+}
+
 /** Greedy trade of tracer slits for starlight slits on one mask (see placeStarlightAndSky). */
 function displaceForStarlight(w: MaskWork, rules: EligibilityRules, s: StarlightSettings, trade: StarlightTrade, gap: number, bins: Set<number>, sectors: Set<number>, reachNow: () => number, raiseReach: (r: number) => void): void {
   const minHalf = rules.minLengthArcsec / 2;
@@ -579,12 +628,13 @@ function displaceForStarlight(w: MaskWork, rules: EligibilityRules, s: Starlight
     for (const c of w.sky) occupied.push({ r: null, span: { lo: c.y0, hi: c.y1 } });
     let best: { net: number; c: SlotChoice; blockers: Slit[] } | null = null;
     const reach = reachNow();
+    const near = spanOverlaps(occupied.map((o) => o.span), gap);
     for (let k = 0; k < windows.length; k++) {
       const { lo, hi } = windows[k];
       const blockers: Slit[] = [];
       let blocked = false, cost = 0;
-      for (const o of occupied) {
-        if (o.span.hi + gap + MARGIN <= lo || o.span.lo - gap - MARGIN >= hi) continue;
+      for (const i of near(lo, hi)) {
+        const o = occupied[i];
         if (!o.r || o.r.role !== 'tracer') { blocked = true; break; }
         blockers.push(o.r);
         cost += o.r.priority;
