@@ -106,9 +106,15 @@ export function planSummaryLines(s: PlanSummaryInput): string[] {
 
 /** The excluded targets as CSV: id,line,role,rule,reason (line as in the catalog report). */
 export function excludedTargetsCsv(w: WeightingResult): string {
-  // Row by row from the weighting's columns: no object per excluded row (a large catalog excludes hundreds of thousands).
-  const lines: string[] = [];
+  // Row by row from the weighting's columns, joined a block of rows at a time: no object per excluded row and no
+  // string per row outliving its block (a large catalog excludes hundreds of thousands of rows).
   const opts = { neutraliseFormulas: true };
-  forEachExcluded(w, (e) => lines.push(`${csvCell(e.id, opts)},${csvCell(e.line, opts)},${csvCell(e.role, opts)},${csvCell(e.rule, opts)},${csvCell(e.reason, opts)}`));
-  return toCsv(['id', 'line', 'role', 'rule', 'reason'], [], opts) + (lines.length ? lines.join('\n') + '\n' : '');
+  const blocks: string[] = [toCsv(['id', 'line', 'role', 'rule', 'reason'], [], opts)];
+  let rows: string[] = [];
+  forEachExcluded(w, (e) => {
+    rows.push(`${csvCell(e.id, opts)},${csvCell(e.line, opts)},${csvCell(e.role, opts)},${csvCell(e.rule, opts)},${csvCell(e.reason, opts)}\n`);
+    if (rows.length === 4096) { blocks.push(rows.join('')); rows = []; }
+  });
+  blocks.push(rows.join(''));
+  return blocks.join('');
 }
