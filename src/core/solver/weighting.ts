@@ -290,19 +290,26 @@ export function forEachExcluded(w: WeightingResult, visit: (e: ExcludedTarget) =
   const from = cols && excludedFrom.get(cols);
   if (!cols || !from) { for (const e of w.excluded) visit(e); return; }
   const { table, rules } = from;
+  const windows = windowTexts(rules);
   const e: ExcludedTarget = { id: '', line: 0, role: 'tracer', rule: '', reason: '' };
   for (let j = 0; j < cols.index.length; j++) {
     const i = cols.index[j];
     e.id = table.ids[i];
     e.line = table.line[i];
     e.role = TARGET_ROLES[table.role[i]];
-    setExclusionRule(e, cols.code[j], cols.value[j], rules);
+    setExclusionRule(e, cols.code[j], cols.value[j], rules, windows);
     visit(e);
   }
 }
 
+/** The window texts that reasons quote (` outside 18.0..23.0`), made once per weighting rather than once per row. */
+function windowTexts(rules: WeightingRules): { mag: string; color: string; radius: string } {
+  const text = (w: readonly [number, number] | undefined) => (w ? ` outside ${fmt(w[0])}..${fmt(w[1])}` : '');
+  return { mag: text(rules.magRange), color: text(rules.colorRange), radius: text(rules.radiusRangeRe) };
+}
+
 /** Set `e.rule` and `e.reason` of an exclusion code and the value its reason quotes. */
-function setExclusionRule(e: ExcludedTarget, code: number, value: number, rules: WeightingRules): void {
+function setExclusionRule(e: ExcludedTarget, code: number, value: number, rules: WeightingRules, windows: ReturnType<typeof windowTexts>): void {
   switch (code) {
     case EXCLUSION.forcedOut: e.rule = 'override'; e.reason = 'forced out by targetOverrides'; return;
     case EXCLUSION.overrideZero: e.rule = 'override'; e.reason = 'weight 0 in targetOverrides'; return;
@@ -311,9 +318,9 @@ function setExclusionRule(e: ExcludedTarget, code: number, value: number, rules:
       const label = regionLabel(rules.exclusions![value], value);
       e.rule = `exclusion:${label}`; e.reason = `inside exclusion region "${label}"`; return;
     }
-    case EXCLUSION.magRange: e.rule = 'magRange'; e.reason = `mag ${value} outside ${fmt(rules.magRange![0])}..${fmt(rules.magRange![1])}`; return;
-    case EXCLUSION.colorRange: e.rule = 'colorRange'; e.reason = `colour ${value} outside ${fmt(rules.colorRange![0])}..${fmt(rules.colorRange![1])}`; return;
-    case EXCLUSION.radiusRange: e.rule = 'radiusRangeRe'; e.reason = `R/Re ${value.toFixed(2)} outside ${fmt(rules.radiusRangeRe![0])}..${fmt(rules.radiusRangeRe![1])}`; return;
+    case EXCLUSION.magRange: e.rule = 'magRange'; e.reason = `mag ${value}${windows.mag}`; return;
+    case EXCLUSION.colorRange: e.rule = 'colorRange'; e.reason = `colour ${value}${windows.color}`; return;
+    case EXCLUSION.radiusRange: e.rule = 'radiusRangeRe'; e.reason = `R/Re ${value.toFixed(2)}${windows.radius}`; return;
     default: e.rule = 'weight'; e.reason = `weight ${value} is not a positive number`;
   }
 }
