@@ -5,6 +5,7 @@ import { optionText, parseArgs, unknownOptions } from '../args';
 import { InputError, type Problem } from '../../core/result';
 import { scienceSlitProblems } from '../../core/plan/scienceFeasibility';
 import { solvePlan, type PlanSolution } from '../../core/pipeline/pipeline';
+import { usableRowCount } from '../../core/catalog/validate';
 import { loadPlanInputs, type LoadedPlan } from '../loadPlanInputs';
 import { OutputFolder, planOutputFiles, type OutputFolderOptions } from '../outputFolder';
 import { CONTRACT_OUTPUT_FILES } from '../../core/check/manifest';
@@ -65,7 +66,7 @@ export function solveAndWrite(loaded: LoadedPlan, out: string, io: CliIO, opts: 
 /** Solve loaded plan inputs and return the files of the output folder (outputs plus extra files); prints the summary. */
 function solveToFiles(loaded: LoadedPlan, out: string, io: CliIO, opts: SolveAndWriteOptions): { files: Record<string, string>; unmet: string[] } {
   const c = loaded.catalog;
-  io.err(`haloweave plan: catalog ${c.source} (${c.format}): ${c.rowsRead} rows read, ${c.targets.length} used, ${c.rowsRead - c.targets.length} rejected`);
+  io.err(`haloweave plan: catalog ${c.source} (${c.format}): ${c.rowsRead} rows read, ${usableRowCount(c)} used, ${c.rowsRead - usableRowCount(c)} rejected`);
   let lastShown = -1;
   const solution = solvePlan(loaded, {
     onProgress: (fraction, message) => {

@@ -9,7 +9,7 @@ import { readCsvTable } from './csvReader';
 import { readEcsvTable } from './ecsvReader';
 import { readVoTable } from './votable';
 import { readFitsTable } from './fitsTable';
-import { validateTable } from './validate';
+import { usableRowCount, validateTable } from './validate';
 
 /** The RawTable of a catalog's bytes or text, by the format its content shows. */
 export function readRawTable(input: Uint8Array | string, source: string): RawTable {
@@ -37,7 +37,7 @@ export function readCatalog(input: Uint8Array | string, source: string, mapping?
 
 /** Throws InputError when no row of the catalog is usable (the plan cannot run on it). */
 export function assertCatalogUsable(result: CatalogReadResult): void {
-  if (result.targets.length > 0) return;
+  if (usableRowCount(result) > 0) return;
   const first = result.rejects.slice(0, 3).map((r) => `line ${r.line} ${r.column}: ${r.reason}`).join('; ');
   throw new InputError([
     {

@@ -2,6 +2,7 @@
  * Catalog types shared by every reader (CSV/TSV, ECSV, VOTable, FITS) and by the solver.
  * Positions are ICRS degrees; magnitudes as given in the catalog's band.
  */
+import type { TargetTable } from './targetTable';
 
 export type CatalogFormat = 'csv' | 'tsv' | 'ecsv' | 'votable' | 'fits';
 export type TargetRole = 'tracer' | 'alignment';
@@ -69,7 +70,13 @@ export interface ColumnMapping {
 export interface CatalogReadResult {
   format: CatalogFormat;
   source: string;
+  /** The usable rows as objects (made from `table` on first read when a reader gives one). */
   targets: Target[];
+  /**
+   * The usable rows as columns, when a reader made them (not enumerable, so a structured clone leaves it out; read it
+   * through `catalogTable`, which also wraps `targets`).
+   */
+  readonly table?: TargetTable;
   rejects: RowReject[];
   rowsRead: number;
   /** The file's column names, and which one each contract name was taken from. */

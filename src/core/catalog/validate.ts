@@ -9,6 +9,7 @@ import { parseDecDeg, parseRaDeg } from '../sky/sexagesimal';
 import { resolveColumns, type AngleUnit, type ResolvedColumns } from './columns';
 import { IdIndex } from './idIndex';
 import type { CatalogReadResult, Cell, ColumnMapping, RawTable, RowReject, Target, TargetRole } from './types';
+import { ALIGNMENT_ROLE, TargetTable, targetTableOf } from './targetTable';
 
 const NUMBER_TEXT = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
 const MISSING_TEXT = /^(nan|null|none|n\/a|--)$/i;
@@ -239,12 +240,6 @@ function decDegOfText(cell: string, why: CellWhy): number {
   return NaN;
 }
 
-/**
- * The `extra` of every target when the catalog has no other columns: one shared, frozen empty object
- * (a million catalog rows need not make a million empty objects). Treat `Target.extra` as read-only.
- */
-const NO_EXTRA: Record<string, string> = Object.freeze({}) as Record<string, string>;
-
 const ROLES = new Map<string, TargetRole>([
   ['tracer', 'tracer'],
   ['alignment', 'alignment'],
@@ -252,7 +247,8 @@ const ROLES = new Map<string, TargetRole>([
 
 /** Validates rows one at a time against resolved columns; keeps the duplicate-id index. */
 export class RowValidator {
-  readonly targets: Target[] = [];
+  /** The usable rows, as columns. */
+  readonly table: TargetTable;
   readonly rejects: RowReject[] = [];
   rowsVisited = 0;
   /** First file line of each id used so far (only rows that became targets claim their id). */
@@ -266,6 +262,7 @@ export class RowValidator {
     columnNames: readonly string[],
   ) {
     this.names = [...columnNames];
+    this.table = new TargetTable(cols.extra.map((k) => this.names[k]));
   }
 
   private readonly why: CellWhy = { reason: null };
@@ -341,13 +338,10 @@ export class RowValidator {
       else if (this.rejects.length === before) this.firstLineOfId.set(id, line);
     }
     if (this.rejects.length !== before) return;
+    const t = this.table;
+    t.push(id, raDeg, decDeg, mag, color ?? NaN, priority ?? NaN, role === 'alignment' ? ALIGNMENT_ROLE : 0, line);
     const extraIdx = this.cols.extra;
-    let extra = NO_EXTRA;
-    if (extraIdx.length > 0) {
-      extra = {};
-      for (let k = 0; k < extraIdx.length; k++) extra[this.names[extraIdx[k]]] = this.interned(k, row.text(extraIdx[k]));
-    }
-    this.targets.push({ id, raDeg, decDeg, mag, color, priority, role, line, extra });
+    for (let k = 0; k < extraIdx.length; k++) t.extraValues[k].push(this.interned(k, row.text(extraIdx[k])));
   }
 }
 
@@ -385,18 +379,37 @@ export function finishValidation(table: RawTable, source: string, cols: Resolved
   const rejects = structural.length > 0 ? [...v.rejects, ...structural] : v.rejects;
   const structuralLines = new Set(structural.map((r) => r.line)).size;
   if (structural.length > 0) rejects.sort((a, b) => a.line - b.line);
-  return {
-    format: table.format,
-    source,
-    targets: v.targets,
-    rejects,
-    rowsRead: v.rowsVisited + structuralLines,
-    columns: table.columns,
-    mapping: cols.mapping,
-  };
+  return catalogResult({ format: table.format, source, rejects, rowsRead: v.rowsVisited + structuralLines, columns: table.columns, mapping: cols.mapping }, v.table.trim());
+}
+
+/**
+ * A CatalogReadResult over a table of rows: `table` (not enumerable, so a structured clone or a spread leaves it out) and
+ * `targets`, the rows as Target objects, made on first read and then kept (enumerable: a clone or a spread carries them).
+ */
+export function catalogResult(fields: Omit<CatalogReadResult, 'targets' | 'table'>, table: TargetTable): CatalogReadResult {
+  const result = { ...fields } as CatalogReadResult;
+  Object.defineProperty(result, 'table', { value: table, enumerable: false });
+  let objects: Target[] | null = null;
+  Object.defineProperty(result, 'targets', {
+    enumerable: true,
+    configurable: true,
+    get: () => (objects ??= table.toTargets()),
+    set: (v: Target[]) => { objects = v; },
+  });
+  return result;
+}
+
+/** The usable rows of a catalog as columns (the reader's table, or a table of its Target objects). */
+export function catalogTable(result: CatalogReadResult): TargetTable {
+  return result.table ?? targetTableOf(result.targets);
+}
+
+/** Number of usable rows of a catalog (without making its Target objects). */
+export function usableRowCount(result: CatalogReadResult): number {
+  return result.table ? result.table.length : result.targets.length;
 }
 
 /** Number of rows that were not used (distinct lines among the rejects). */
 export function rejectedRowCount(result: CatalogReadResult): number {
-  return result.rowsRead - result.targets.length;
+  return result.rowsRead - usableRowCount(result);
 }

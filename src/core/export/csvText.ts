@@ -24,10 +24,29 @@ export function csvCell(value: Cell | undefined, opts: CsvWriteOptions = {}): st
   if (value === null || value === undefined) return '';
   if (typeof value === 'number') return Number.isFinite(value) ? (Object.is(value, -0) ? '-0' : String(value)) : '';
   if (typeof value === 'boolean') return value ? 'true' : 'false';
+  if (isPlainCell(value)) return value;
   let s = value;
   if (opts.neutraliseFormulas && FORMULA_START.test(s)) s = `'${s}`;
   const quote = /[",\r\n]/.test(s) || /^\s|\s$/.test(s) || (opts.quoteCommentStart === true && s.startsWith('#'));
   return quote ? `"${s.replace(/"/g, '""')}"` : s;
+}
+
+/**
+ * True for text that every rule above leaves as it is: printable ASCII at both ends, not a formula start, an apostrophe
+ * or `#`, and no quote, comma or line end inside (one pass over the characters instead of three patterns).
+ */
+function isPlainCell(s: string): boolean {
+  const n = s.length;
+  if (n === 0) return true;
+  const first = s.charCodeAt(0), last = s.charCodeAt(n - 1);
+  // 33..126 without " # ' + , - = @ at the start; 33..126 at the end (no blank, no control, no non-ASCII space).
+  if (first < 33 || first > 126 || first === 34 || first === 35 || first === 44 || first === 39 || first === 43 || first === 45 || first === 61 || first === 64) return false;
+  if (last < 33 || last > 126) return false;
+  for (let i = 1; i < n - 1; i++) {
+    const c = s.charCodeAt(i);
+    if (c === 34 || c === 44 || c === 10 || c === 13) return false;
+  }
+  return last !== 34 && last !== 44;
 }
 
 /** A whole CSV document: header row then data rows. */

@@ -5,6 +5,8 @@
  * be replaced (e.g. the pointing search instead of the default layout) without touching the others.
  */
 import type { CatalogReadResult, Target } from '../catalog/types';
+import { targetTableOf, type TargetTable } from '../catalog/targetTable';
+import { catalogTable } from '../catalog/validate';
 import type { InstrumentProfile } from '../profile/schema';
 import type { Problem } from '../result';
 import type { GalaxyModel, PlanFile, PlanMask } from '../plan/schema';
@@ -95,46 +97,50 @@ export const DEFAULT_MAX_LENGTH_FACTOR = 3;
  * exclude get 0 (alignment stars too, e.g. inside an exclusion region); kept alignment stars get 1. `force: "in"`
  * adds the sum of all other weights so the target is taken wherever it fits.
  */
-export function targetWeights(plan: PlanFile, targets: readonly Target[], warnings: string[], weighting: WeightingResult = weighPlanTargets(plan, targets)): Float64Array {
-  const w = new Float64Array(targets.length);
+export function targetWeights(plan: PlanFile, targets: readonly Target[] | TargetTable, warnings: string[], weighting: WeightingResult = weighPlanTargets(plan, targets)): Float64Array {
+  const table = targetTableOf(targets);
+  const w = new Float64Array(table.length);
   const cols = keptColumnsOf(weighting, targets);
   if (cols) {
-    for (let j = 0; j < cols.index.length; j++) { const i = cols.index[j]; w[i] = targets[i].role === 'alignment' ? 1 : cols.weight[j]; }
-    return withOverrides(plan, targets, warnings, w);
+    for (let j = 0; j < cols.index.length; j++) { const i = cols.index[j]; w[i] = table.isAlignment(i) ? 1 : cols.weight[j]; }
+    return withOverrides(plan, table, warnings, w);
   }
   // The kept targets are a subsequence of the catalog in catalog order (weighTargets keeps the order), so one walk
   // pairs them without an index of every id; a list of another order falls back to the lookup by id.
   const kept = weighting.targets;
   let j = 0;
-  for (let i = 0; i < targets.length && j < kept.length; i++) {
-    if (kept[j].id !== targets[i].id) continue;
-    w[i] = targets[i].role === 'alignment' ? 1 : kept[j].weight;
+  for (let i = 0; i < table.length && j < kept.length; i++) {
+    if (kept[j].id !== table.ids[i]) continue;
+    w[i] = table.isAlignment(i) ? 1 : kept[j].weight;
     j++;
   }
   if (j < kept.length) {
     const byId = new Map(kept.map((t) => [t.id, t]));
-    targets.forEach((t, i) => { const k = byId.get(t.id); w[i] = k ? (t.role === 'alignment' ? 1 : k.weight) : 0; });
+    table.ids.forEach((id, i) => { const k = byId.get(id); w[i] = k ? (table.isAlignment(i) ? 1 : k.weight) : 0; });
   }
-  return withOverrides(plan, targets, warnings, w);
+  return withOverrides(plan, table, warnings, w);
 }
 
 /** Weights w with targetOverrides' `force: "in"` applied (an unknown id is a warning). */
-function withOverrides(plan: PlanFile, targets: readonly Target[], warnings: string[], w: Float64Array): Float64Array {
+function withOverrides(plan: PlanFile, table: TargetTable, warnings: string[], w: Float64Array): Float64Array {
   const overrides = Object.entries(plan.targetOverrides ?? {});
   if (overrides.length === 0) return w;
-  const index = new Map(targets.map((t, i) => [t.id, i]));
+  // Only the overridden ids are looked up (the last row of an id, as a map of every id would give).
+  const index = new Map<string, number>();
+  for (const [id] of overrides) index.set(id, -1);
+  table.ids.forEach((id, i) => { if (index.has(id)) index.set(id, i); });
   let total = 0;
   for (const v of w) total += v;
   for (const [id, o] of overrides) {
-    const i = index.get(id);
-    if (i === undefined) { warnings.push(`a weight or forcing is set for target "${id}" (targetOverrides in the plan file), but the catalog has no target with that id; it is ignored`); continue; }
+    const i = index.get(id)!;
+    if (i < 0) { warnings.push(`a weight or forcing is set for target "${id}" (targetOverrides in the plan file), but the catalog has no target with that id; it is ignored`); continue; }
     if (o.force === 'in' && w[i] > 0) w[i] += total;
   }
   return w;
 }
 
 /** Stage 1 proper: the weighting rules applied to the catalog (uniform weights when the plan has no `weighting` section). */
-export function weighPlanTargets(plan: PlanFile, targets: readonly Target[]): WeightingResult {
+export function weighPlanTargets(plan: PlanFile, targets: readonly Target[] | TargetTable): WeightingResult {
   const rules = plan.weighting as WeightingRules | undefined;
   const uniform = { formula: { magSlope: 0, radiusExponent: 0 } };
   const r = weighTargets(targets, galaxyModel(plan), rules ?? uniform, plan.targetOverrides);
@@ -246,11 +252,13 @@ export function solvePlan(inputs: PlanInputs, opts: SolveOptions = {}): PlanSolu
   const galaxy = galaxyModel(plan);
 
   progress(0, 'weighting targets');
-  const weighting = weighPlanTargets(plan, catalog.targets);
-  const weights = targetWeights(plan, catalog.targets, warnings, weighting);
+  // The catalog's rows as columns from here on: no object per row in the solver's path.
+  const table = catalogTable(catalog);
+  const weighting = weighPlanTargets(plan, table);
+  const weights = targetWeights(plan, table, warnings, weighting);
   const ctx = plan.instruments?.length
-    ? instrumentsAllocationContext(plan, planProfiles(plan, inputs.profiles ?? {}), galaxy, catalog.targets, weights, inputs.profiles)
-    : allocationContext(profile, galaxy, plan.goals.linesA, catalog.targets, weights, lineWindowSettings(plan.goals));
+    ? instrumentsAllocationContext(plan, planProfiles(plan, inputs.profiles ?? {}), galaxy, table, weights, inputs.profiles)
+    : allocationContext(profile, galaxy, plan.goals.linesA, table, weights, lineWindowSettings(plan.goals));
 
   progress(0.1, 'placing masks');
   const placed = placeMasks(plan, galaxy, profile, ctx, (f, message) => progress(0.1 + 0.6 * f, message));

@@ -9,12 +9,12 @@
  */
 import type { CoverageReport } from '../coverage/coverage';
 import type { WeightingResult } from '../solver/weighting';
-import { exclusionCounts } from '../solver/weighting';
+import { excludedCount, exclusionCounts, forEachExcluded } from '../solver/weighting';
 import type { SearchReport } from '../solver/pointingSearch';
 import type { MaskSolution } from '../geometry/maskSolution';
 import type { ObservingReport } from './refractionReport';
 import { formatRefractionSummary } from './refractionReport';
-import { toCsv } from '../export/csvText';
+import { csvCell, toCsv } from '../export/csvText';
 import { spectralSummaryLines, type SpectralReport } from '../spectro/spectralReport';
 
 /** What the coverage part of the summary needs from a plan solution (a subset of PlanSolution). */
@@ -80,8 +80,8 @@ export function coverageSummaryLines(s: SummaryInput): string[] {
   if (s.weighting) {
     lines.push('weighting rules:');
     for (const r of s.weighting.rulesText) lines.push(`  ${r}`);
-    const counts = exclusionCounts(s.weighting.excluded);
-    lines.push(`  ${s.weighting.kept?.index.length ?? s.weighting.targets.length} targets kept, ${s.weighting.excluded.length} excluded${counts.length ? ': ' + counts.map((c) => `${c.count} by ${c.rule}`).join(', ') : ''}`);
+    const counts = exclusionCounts(s.weighting);
+    lines.push(`  ${s.weighting.kept?.index.length ?? s.weighting.targets.length} targets kept, ${excludedCount(s.weighting)} excluded${counts.length ? ': ' + counts.map((c) => `${c.count} by ${c.rule}`).join(', ') : ''}`);
   }
   if (s.search) {
     const r = s.search;
@@ -106,5 +106,15 @@ export function planSummaryLines(s: PlanSummaryInput): string[] {
 
 /** The excluded targets as CSV: id,line,role,rule,reason (line as in the catalog report). */
 export function excludedTargetsCsv(w: WeightingResult): string {
-  return toCsv(['id', 'line', 'role', 'rule', 'reason'], w.excluded.map((e) => [e.id, e.line, e.role, e.rule, e.reason]), { neutraliseFormulas: true });
+  // Row by row from the weighting's columns, joined a block of rows at a time: no object per excluded row and no
+  // string per row outliving its block (a large catalog excludes hundreds of thousands of rows).
+  const opts = { neutraliseFormulas: true };
+  const blocks: string[] = [toCsv(['id', 'line', 'role', 'rule', 'reason'], [], opts)];
+  let rows: string[] = [];
+  forEachExcluded(w, (e) => {
+    rows.push(`${csvCell(e.id, opts)},${csvCell(e.line, opts)},${csvCell(e.role, opts)},${csvCell(e.rule, opts)},${csvCell(e.reason, opts)}\n`);
+    if (rows.length === 4096) { blocks.push(rows.join('')); rows = []; }
+  });
+  blocks.push(rows.join(''));
+  return blocks.join('');
 }

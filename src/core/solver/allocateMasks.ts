@@ -7,6 +7,7 @@
  * The pointing search calls `allocateForPointings` inside its loop.
  */
 import type { Target } from '../catalog/types';
+import { targetTableOf, type TargetTable } from '../catalog/targetTable';
 import type { GalaxyModel } from '../plan/schema';
 import type { InstrumentProfile } from '../profile/schema';
 import type { Problem } from '../result';
@@ -26,7 +27,10 @@ import { candidateValues, contextFor } from './maskContext';
 export interface AllocationContext {
   profile: InstrumentProfile;
   galaxy: GalaxyModel;
+  /** The targets as objects (made from `table` on first read; not enumerable, so a spread of the context leaves it out). */
   targets: readonly Target[];
+  /** The targets as columns: what the allocation reads (no object per target). */
+  table: TargetTable;
   /** Weight of every target (index as in targets); weight 0 means never allocated. */
   weights: Float64Array;
   rules: EligibilityRules;
@@ -44,25 +48,32 @@ export interface AllocationContext {
 }
 
 /** Build the allocation context; linesA are rest wavelengths (Angstrom), redshifted by galaxy.vsysKms. */
-export function allocationContext(profile: InstrumentProfile, galaxy: GalaxyModel, linesA: readonly number[], targets: readonly Target[], weights: Float64Array, lineWindow?: LineWindowSettings): AllocationContext {
+export function allocationContext(profile: InstrumentProfile, galaxy: GalaxyModel, linesA: readonly number[], targets: readonly Target[] | TargetTable, weights: Float64Array, lineWindow?: LineWindowSettings): AllocationContext {
+  const table = targetTableOf(targets);
   const [bright, faint] = profile.alignment.magRange;
   const tracers: number[] = [], aligns: number[] = [];
-  targets.forEach((t, i) => {
+  for (let i = 0; i < table.length; i++) {
     // An alignment star with weight 0 was excluded by the weighting rules (exclusion region, force out).
-    if (t.role === 'alignment') { if (weights[i] > 0 && t.mag >= bright && t.mag <= faint) aligns.push(i); }
+    if (table.isAlignment(i)) { if (weights[i] > 0 && table.mag[i] >= bright && table.mag[i] <= faint) aligns.push(i); }
     else if (weights[i] > 0) tracers.push(i);
-  });
-  const raDeg = Float64Array.from(targets, (t) => t.raDeg), decDeg = Float64Array.from(targets, (t) => t.decDeg);
+  }
+  const { raDeg, decDeg } = table;
   const b = polygonBounds(profile.footprint);
-  return {
-    profile, galaxy, targets, weights,
+  return withTargetObjects({
+    profile, galaxy, table, weights,
     rules: eligibilityRules(profile, linesA, galaxy.vsysKms, lineWindow),
     raDeg, decDeg,
     unit: unitVectors(raDeg, decDeg),
     footprintRadiusArcsec: PMath.hypot(Math.max(-b.minX, b.maxX), Math.max(-b.minY, b.maxY)) + 1,
     tracerIndices: Int32Array.from(tracers),
     alignmentIndices: Int32Array.from(aligns),
-  };
+  });
+}
+
+/** The context with `targets` defined: its table's rows as objects, made on first read (not enumerable). */
+export function withTargetObjects<C extends Omit<AllocationContext, 'targets'>>(ctx: C): C & AllocationContext {
+  let objects: Target[] | null = null;
+  return Object.defineProperty(ctx, 'targets', { enumerable: false, configurable: true, get: () => (objects ??= ctx.table.toTargets()) }) as C & AllocationContext;
 }
 
 /** Alignment stars whose box fits on the mask (mask frame, arcsec): every star in the context, shared ones included. */
@@ -171,12 +182,11 @@ export function buildMaskSolutions(ctx: AllocationContext, prepared: readonly Pr
     const { profile } = contextFor(ctx, p.mask);
     const L = profile.slits.minLengthArcsec, w = profile.slits.widthArcsec, box = profile.alignment.boxSizeArcsec;
     const row = (objectIndex: number, role: Slit['role'], x: number, y: number, half: number, width: number, slitId: string): Slit => {
-      const t = ctx.targets[objectIndex];
       const sky = maskPointToSkyDeg(p.mask, x, y);
       return {
-        maskId: p.mask.id, slitId, objectId: t.id, role, raDeg: sky.raDeg, decDeg: sky.decDeg, xArcsec: x, yArcsec: y,
+        maskId: p.mask.id, slitId, objectId: ctx.table.ids[objectIndex], role, raDeg: sky.raDeg, decDeg: sky.decDeg, xArcsec: x, yArcsec: y,
         lenBelowArcsec: half, lenAboveArcsec: half, widthArcsec: width, tiltDeg: 0,
-        priority: role === 'alignment' ? 0 : ctx.weights[objectIndex], mag: t.mag,
+        priority: role === 'alignment' ? 0 : ctx.weights[objectIndex], mag: ctx.table.mag[objectIndex],
       };
     };
     const boxes = [...p.boxes].sort((a, b) => a.yArcsec - b.yArcsec).map((b, i) => row(b.object, 'alignment', b.xArcsec, b.yArcsec, box / 2, box, `A${String(i + 1).padStart(2, '0')}`));

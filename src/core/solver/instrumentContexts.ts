@@ -12,7 +12,8 @@
 import type { Target } from '../catalog/types';
 import type { GalaxyModel, PlanFile } from '../plan/schema';
 import type { InstrumentProfile } from '../profile/schema';
-import { allocationContext, type AllocationContext } from './allocateMasks';
+import { allocationContext, withTargetObjects, type AllocationContext } from './allocateMasks';
+import { targetTableOf, type TargetTable } from '../catalog/targetTable';
 import { lineWindowSettings } from '../profile/wavelength';
 import { starlightSettings } from './starlight';
 import { type StarlightRules } from '../plan/starlightSection';
@@ -66,19 +67,21 @@ export interface InstrumentContext extends AllocationContext {
  * settings (`instruments[].observing` over the plan's; `profilesByRef` maps the plan's references to their profiles).
  * One profile: the plain context.
  */
-export function instrumentsAllocationContext(plan: PlanFile, profiles: readonly InstrumentProfile[], galaxy: GalaxyModel, targets: readonly Target[], weights: Float64Array, profilesByRef: Readonly<Record<string, InstrumentProfile>> = {}): AllocationContext {
-  if (profiles.length <= 1) return allocationContext(profiles[0], galaxy, plan.goals.linesA, targets, weights, lineWindowSettings(plan.goals));
+export function instrumentsAllocationContext(plan: PlanFile, profiles: readonly InstrumentProfile[], galaxy: GalaxyModel, targets: readonly Target[] | TargetTable, weights: Float64Array, profilesByRef: Readonly<Record<string, InstrumentProfile>> = {}): AllocationContext {
+  const table = targetTableOf(targets);
+  if (profiles.length <= 1) return allocationContext(profiles[0], galaxy, plan.goals.linesA, table, weights, lineWindowSettings(plan.goals));
   const byInstrument = new Map<string, AllocationContext>();
   let shared: Pick<AllocationContext, 'raDeg' | 'decDeg' | 'unit'> | null = null;
   for (const profile of profiles) {
-    const base = allocationContext(profile, galaxy, plan.goals.linesA, targets, weights, lineWindowSettings(plan.goals));
+    const base = allocationContext(profile, galaxy, plan.goals.linesA, table, weights, lineWindowSettings(plan.goals));
     shared ??= base;
     const sections = instrumentSections(plan, profile.id, profilesByRef);
     const valueFactorOfMag = velocityChanceOfMag(profile, tracerExposureModel({ ...plan, ...sections }, profile));
-    const ctx: InstrumentContext = {
-      ...base, raDeg: shared.raDeg, decDeg: shared.decDeg, unit: shared.unit, byInstrument, valueFactorOfMag, sections,
-      valueFactor: Float64Array.from(targets, (t) => (t.role === 'alignment' ? 0 : valueFactorOfMag(t.mag))),
-    };
+    const valueFactor = new Float64Array(table.length);
+    for (let i = 0; i < table.length; i++) valueFactor[i] = table.isAlignment(i) ? 0 : valueFactorOfMag(table.mag[i]);
+    const ctx: InstrumentContext = withTargetObjects({
+      ...base, raDeg: shared.raDeg, decDeg: shared.decDeg, unit: shared.unit, byInstrument, valueFactorOfMag, sections, valueFactor,
+    });
     byInstrument.set(profile.id, ctx);
   }
   return byInstrument.get(profiles[0].id)!;

@@ -154,7 +154,7 @@ export interface SearchEnv {
 
 /** Build the evaluation environment (cached target positions) for a plan and an allocation context. */
 export function searchEnv(plan: PlanFile, ctx: AllocationContext): SearchEnv {
-  const g = ctx.galaxy, n = ctx.targets.length;
+  const g = ctx.galaxy, n = ctx.table.length;
   const radiusRe = new Float64Array(n), azimuthDeg = new Float64Array(n).fill(NaN), xi = new Float64Array(n), eta = new Float64Array(n);
   const c = tangentCentre(g.raDeg, g.decDeg), turn = galaxyTurn(g.paDeg);
   for (let i = 0; i < n; i++) {

@@ -15,6 +15,7 @@
  */
 import type { ExclusionRegion, WeightingRules } from '../plan/weightingSection';
 import type { Target } from '../catalog/types';
+import { targetTableOf, TARGET_ROLES, type TargetTable } from '../catalog/targetTable';
 import type { GalaxyModel, PlanFile } from '../plan/schema';
 import { parseDecDeg, parseRaDeg } from '../sky/sexagesimal';
 import { tangentCentre, skyToTangentArcsec } from '../sky/tangentPlane';
@@ -67,12 +68,25 @@ export interface KeptColumns {
 /** The weight sources in the order of KeptColumns.source's codes. */
 export const WEIGHT_SOURCES: readonly WeightSource[] = ['formula', 'priority', 'override', 'alignment'];
 
+/**
+ * The excluded rows as columns, one entry per excluded row in catalog order: its position in the target list given to
+ * weighTargets, why (an EXCLUSION code) and the value the reason quotes (mag, colour, R/Re, weight, or the region's number).
+ */
+export interface ExcludedColumns {
+  index: Int32Array;
+  code: Uint8Array;
+  value: Float64Array;
+}
+
 export interface WeightingResult {
   /** The kept targets as objects (built from `kept` and the catalog rows on first read, then kept). */
   targets: WeightedTarget[];
   /** The kept targets as columns (the solver's path; no per-row objects). */
   kept?: KeptColumns;
+  /** The excluded rows as objects (built from `excludedColumns` on first read, then kept). */
   excluded: ExcludedTarget[];
+  /** The excluded rows as columns (written to excluded-targets.csv without per-row objects). */
+  excludedColumns?: ExcludedColumns;
   /** A text line per rule in effect, e.g. "magnitude window 18.0 <= mag <= 23.0". */
   rulesText: string[];
   /** The formula parameters actually used (magPivot resolved). */
@@ -135,13 +149,19 @@ export function formulaWeight(mag: number, color: number | null, radiusRe: numbe
 
 const fmt = (v: number) => (Number.isInteger(v) ? v.toFixed(1) : String(v));
 
+/** Why a row was excluded: the codes of ExcludedColumns.code. */
+const EXCLUSION = { forcedOut: 0, overrideZero: 1, projection: 2, region: 3, magRange: 4, colorRange: 5, radiusRange: 6, weight: 7 } as const;
+
 /**
  * Apply the plan's weighting rules and target overrides to the catalog targets (galaxy frame from `galaxy`).
  * Returns the usable candidates (tracers with weight > 0 and alignment stars) and every excluded row with its rule.
  */
-export function weighTargets(targets: readonly Target[], galaxy: GalaxyModel, rules: WeightingRules = {}, overrides: PlanFile['targetOverrides'] = {}): WeightingResult {
+export function weighTargets(targets: readonly Target[] | TargetTable, galaxy: GalaxyModel, rules: WeightingRules = {}, overrides: PlanFile['targetOverrides'] = {}): WeightingResult {
+  const table = targetTableOf(targets);
   const centre = tangentCentre(galaxy.raDeg, galaxy.decDeg);
-  const tracerMags = targets.filter((t) => t.role === 'tracer').map((t) => t.mag);
+  const n = table.length;
+  const tracerMags: number[] = [];
+  for (let i = 0; i < n; i++) if (!table.isAlignment(i)) tracerMags.push(table.mag[i]);
   const fr = rules.formula ?? {};
   const formula = {
     magPivot: fr.magPivot ?? rules.magRange?.[1] ?? median(tracerMags),
@@ -151,8 +171,7 @@ export function weighTargets(targets: readonly Target[], galaxy: GalaxyModel, ru
     colorFloor: fr.colorFloor ?? WEIGHT_DEFAULTS.colorFloor,
     radiusExponent: fr.radiusExponent ?? WEIGHT_DEFAULTS.radiusExponent,
   };
-  const regions = (rules.exclusions ?? []).map((r, i) => ({ r, i, c: regionCentreSkyArcsec(r, galaxy) }));
-  const n = targets.length;
+  const regions = (rules.exclusions ?? []).map((r) => ({ r, c: regionCentreSkyArcsec(r, galaxy) }));
   const keptIndex = new Int32Array(n), keptWeight = new Float64Array(n), keptSource = new Uint8Array(n), keptForced = new Uint8Array(n);
   const keptRadius = new Float64Array(n), keptAzimuth = new Float64Array(n);
   let nKept = 0;
@@ -160,84 +179,156 @@ export function weighTargets(targets: readonly Target[], galaxy: GalaxyModel, ru
     keptIndex[nKept] = i; keptWeight[nKept] = weight; keptSource[nKept] = WEIGHT_SOURCES.indexOf(source); keptForced[nKept] = forced ? 1 : 0;
     keptRadius[nKept] = radiusRe; keptAzimuth[nKept] = azimuthDeg; nKept++;
   };
-  const excluded: ExcludedTarget[] = [];
+  const exIndex: number[] = [], exCode: number[] = [], exValue: number[] = [];
   const ov = overrides ?? {};
   const hasOverrides = Object.keys(ov).length > 0;
   const s0 = PMath.sin(galaxy.paDeg * RAD_PER_DEG), c0 = PMath.cos(galaxy.paDeg * RAD_PER_DEG);
+  const { raDeg, decDeg, mag: magCol, color: colorCol, priority: priorityCol, ids } = table;
   // Plain loops without closures: this runs once per catalog row.
   for (let ti = 0; ti < n; ti++) {
-    const t = targets[ti];
-    const p = skyToTangentArcsec(centre, t.raDeg, t.decDeg);
+    const p = skyToTangentArcsec(centre, raDeg[ti], decDeg[ti]);
     const xi = p ? p.xiArcsec : Infinity, eta = p ? p.etaArcsec : Infinity;
     // Galaxy frame (interface contract): u = xi sin(theta) + eta cos(theta), v = xi cos(theta) - eta sin(theta).
     const u = xi * s0 + eta * c0, v = xi * c0 - eta * s0;
     const radiusRe = p ? circularisedRadiusArcsec(u, v, galaxy.axisRatio) / galaxy.reArcsec : Infinity;
     const azimuthDeg = p ? galaxyAzimuthDeg(u, v) : 0;
-    const o = hasOverrides ? ov[t.id] : undefined;
-    let rule = '', reason = '';
-    if (o?.force === 'out') { rule = 'override'; reason = 'forced out by targetOverrides'; }
-    else if (o?.weight === 0) { rule = 'override'; reason = 'weight 0 in targetOverrides'; }
-    else if (!p) { rule = 'projection'; reason = 'more than 90 degrees from the galaxy centre'; }
+    const o = hasOverrides ? ov[ids[ti]] : undefined;
+    const mag = magCol[ti], c = colorCol[ti], color = c === c ? c : null;
+    let code = -1, value = 0;
+    if (o?.force === 'out') code = EXCLUSION.forcedOut;
+    else if (o?.weight === 0) code = EXCLUSION.overrideZero;
+    else if (!p) code = EXCLUSION.projection;
     const lifted = o?.force === 'in' || o?.weight !== undefined;
-    if (!rule && !lifted) {
-      for (const { r, i, c } of regions) {
-        if (insideRegion(xi, eta, c, r)) { rule = `exclusion:${regionLabel(r, i)}`; reason = `inside exclusion region "${regionLabel(r, i)}"`; break; }
+    if (code < 0 && !lifted) {
+      for (let k = 0; k < regions.length; k++) {
+        if (insideRegion(xi, eta, regions[k].c, regions[k].r)) { code = EXCLUSION.region; value = k; break; }
       }
     }
-    if (!rule && t.role === 'alignment') {
+    if (code < 0 && table.isAlignment(ti)) {
       keep(ti, 0, 'alignment', o?.force === 'in', radiusRe, azimuthDeg);
       continue;
     }
-    if (!rule && !lifted) {
-      if (rules.magRange && (t.mag < rules.magRange[0] || t.mag > rules.magRange[1])) { rule = 'magRange'; reason = `mag ${t.mag} outside ${fmt(rules.magRange[0])}..${fmt(rules.magRange[1])}`; }
-      else if (rules.colorRange && t.color !== null && (t.color < rules.colorRange[0] || t.color > rules.colorRange[1])) { rule = 'colorRange'; reason = `colour ${t.color} outside ${fmt(rules.colorRange[0])}..${fmt(rules.colorRange[1])}`; }
-      else if (rules.radiusRangeRe && (radiusRe < rules.radiusRangeRe[0] || radiusRe > rules.radiusRangeRe[1])) { rule = 'radiusRangeRe'; reason = `R/Re ${radiusRe.toFixed(2)} outside ${fmt(rules.radiusRangeRe[0])}..${fmt(rules.radiusRangeRe[1])}`; }
+    if (code < 0 && !lifted) {
+      if (rules.magRange && (mag < rules.magRange[0] || mag > rules.magRange[1])) { code = EXCLUSION.magRange; value = mag; }
+      else if (rules.colorRange && color !== null && (color < rules.colorRange[0] || color > rules.colorRange[1])) { code = EXCLUSION.colorRange; value = color; }
+      else if (rules.radiusRangeRe && (radiusRe < rules.radiusRangeRe[0] || radiusRe > rules.radiusRangeRe[1])) { code = EXCLUSION.radiusRange; value = radiusRe; }
     }
     let weight = 0, weightSource: WeightSource = 'formula';
-    if (!rule) {
+    if (code < 0) {
+      const priority = priorityCol[ti];
       if (o?.weight !== undefined) { weight = o.weight; weightSource = 'override'; }
-      else if (t.priority !== null && t.priority > 0) { weight = t.priority; weightSource = 'priority'; }
-      else weight = formulaWeight(t.mag, t.color, radiusRe, formula);
-      if (!(weight > 0) || !Number.isFinite(weight)) { rule = 'weight'; reason = `weight ${weight} is not a positive number`; }
+      else if (priority > 0) { weight = priority; weightSource = 'priority'; }
+      else weight = formulaWeight(mag, color, radiusRe, formula);
+      if (!(weight > 0) || !Number.isFinite(weight)) { code = EXCLUSION.weight; value = weight; }
     }
-    if (rule) { excluded.push({ id: t.id, line: t.line, role: t.role, rule, reason }); continue; }
+    if (code >= 0) { exIndex.push(ti); exCode.push(code); exValue.push(value); continue; }
     keep(ti, weight, weightSource, o?.force === 'in', radiusRe, azimuthDeg);
   }
   const kept: KeptColumns = {
     index: keptIndex.slice(0, nKept), weight: keptWeight.slice(0, nKept), source: keptSource.slice(0, nKept), forced: keptForced.slice(0, nKept),
     radiusRe: keptRadius.slice(0, nKept), azimuthDeg: keptAzimuth.slice(0, nKept),
   };
-  const result = { kept, excluded, rulesText: describeRules(rules, formula, ov), formula } as WeightingResult;
+  const excludedColumns: ExcludedColumns = { index: Int32Array.from(exIndex), code: Uint8Array.from(exCode), value: Float64Array.from(exValue) };
+  const result = { kept, excludedColumns, rulesText: describeRules(rules, formula, ov), formula } as WeightingResult;
   weighedFrom.set(kept, targets);
-  // The objects only when someone reads them (the editor's panels, exports): an own enumerable property, so a
+  excludedFrom.set(excludedColumns, { table, rules });
+  // The objects only when someone reads them (the editor's panels, exports): own enumerable properties, so a
   // structured clone or a spread of the result still carries them.
-  let objects: WeightedTarget[] | null = null;
-  Object.defineProperty(result, 'targets', {
-    enumerable: true,
-    configurable: true,
-    get: () => (objects ??= keptTargetObjects(targets, kept)),
-    set: (v: WeightedTarget[]) => { objects = v; },
-  });
+  lazyProperty(result, 'targets', () => keptTargetObjects(targets, kept));
+  lazyProperty(result, 'excluded', () => excludedTargetObjects(result));
   return result;
 }
 
+/** Define `obj[key]` as an enumerable property computed by `make` on first read (and settable). */
+function lazyProperty<T extends object, K extends keyof T>(obj: T, key: K, make: () => T[K]): void {
+  let value: T[K] | undefined;
+  let made = false;
+  Object.defineProperty(obj, key, {
+    enumerable: true,
+    configurable: true,
+    get: () => {
+      if (!made) { value = make(); made = true; }
+      return value;
+    },
+    set: (v: T[K]) => { value = v; made = true; },
+  });
+}
+
 /** The target list each KeptColumns was computed from (positions in `index` refer to it). */
-const weighedFrom = new WeakMap<KeptColumns, readonly Target[]>();
+const weighedFrom = new WeakMap<KeptColumns, readonly Target[] | TargetTable>();
+/** The rows and rules each ExcludedColumns was computed with (for the rule names and reasons). */
+const excludedFrom = new WeakMap<ExcludedColumns, { table: TargetTable; rules: WeightingRules }>();
 
 /** The kept columns of a weighting when it was computed from exactly this target list, else null. */
-export function keptColumnsOf(weighting: WeightingResult, targets: readonly Target[]): KeptColumns | null {
+export function keptColumnsOf(weighting: WeightingResult, targets: readonly Target[] | TargetTable): KeptColumns | null {
   return weighting.kept && weighedFrom.get(weighting.kept) === targets ? weighting.kept : null;
 }
 
 /** The kept targets as WeightedTarget objects (catalog row plus weight, source, forcing, R/Re and azimuth). */
-export function keptTargetObjects(targets: readonly Target[], kept: KeptColumns): WeightedTarget[] {
+export function keptTargetObjects(targets: readonly Target[] | TargetTable, kept: KeptColumns): WeightedTarget[] {
+  const list = Array.isArray(targets) ? (targets as readonly Target[]) : null;
+  const table = list ? null : (targets as TargetTable);
   const out: WeightedTarget[] = new Array(kept.index.length);
   for (let j = 0; j < out.length; j++) {
+    const i = kept.index[j];
     // Object.assign rather than object spread: several times faster here once transpiled.
-    out[j] = Object.assign({}, targets[kept.index[j]], {
+    out[j] = Object.assign({}, list ? list[i] : table!.target(i), {
       weight: kept.weight[j], weightSource: WEIGHT_SOURCES[kept.source[j]], forced: kept.forced[j] === 1, radiusRe: kept.radiusRe[j], azimuthDeg: kept.azimuthDeg[j],
     });
   }
+  return out;
+}
+
+/** Number of excluded rows of a weighting (without making their objects). */
+export function excludedCount(w: WeightingResult): number {
+  return w.excludedColumns && excludedFrom.has(w.excludedColumns) ? w.excludedColumns.index.length : w.excluded.length;
+}
+
+/** Visit the excluded rows in catalog order (id, line, role, rule, reason), from the columns when the weighting has them. */
+export function forEachExcluded(w: WeightingResult, visit: (e: ExcludedTarget) => void): void {
+  const cols = w.excludedColumns;
+  const from = cols && excludedFrom.get(cols);
+  if (!cols || !from) { for (const e of w.excluded) visit(e); return; }
+  const { table, rules } = from;
+  const windows = windowTexts(rules);
+  const e: ExcludedTarget = { id: '', line: 0, role: 'tracer', rule: '', reason: '' };
+  for (let j = 0; j < cols.index.length; j++) {
+    const i = cols.index[j];
+    e.id = table.ids[i];
+    e.line = table.line[i];
+    e.role = TARGET_ROLES[table.role[i]];
+    setExclusionRule(e, cols.code[j], cols.value[j], rules, windows);
+    visit(e);
+  }
+}
+
+/** The window texts that reasons quote (` outside 18.0..23.0`), made once per weighting rather than once per row. */
+function windowTexts(rules: WeightingRules): { mag: string; color: string; radius: string } {
+  const text = (w: readonly [number, number] | undefined) => (w ? ` outside ${fmt(w[0])}..${fmt(w[1])}` : '');
+  return { mag: text(rules.magRange), color: text(rules.colorRange), radius: text(rules.radiusRangeRe) };
+}
+
+/** Set `e.rule` and `e.reason` of an exclusion code and the value its reason quotes. */
+function setExclusionRule(e: ExcludedTarget, code: number, value: number, rules: WeightingRules, windows: ReturnType<typeof windowTexts>): void {
+  switch (code) {
+    case EXCLUSION.forcedOut: e.rule = 'override'; e.reason = 'forced out by targetOverrides'; return;
+    case EXCLUSION.overrideZero: e.rule = 'override'; e.reason = 'weight 0 in targetOverrides'; return;
+    case EXCLUSION.projection: e.rule = 'projection'; e.reason = 'more than 90 degrees from the galaxy centre'; return;
+    case EXCLUSION.region: {
+      const label = regionLabel(rules.exclusions![value], value);
+      e.rule = `exclusion:${label}`; e.reason = `inside exclusion region "${label}"`; return;
+    }
+    case EXCLUSION.magRange: e.rule = 'magRange'; e.reason = `mag ${value}${windows.mag}`; return;
+    case EXCLUSION.colorRange: e.rule = 'colorRange'; e.reason = `colour ${value}${windows.color}`; return;
+    case EXCLUSION.radiusRange: e.rule = 'radiusRangeRe'; e.reason = `R/Re ${value.toFixed(2)}${windows.radius}`; return;
+    default: e.rule = 'weight'; e.reason = `weight ${value} is not a positive number`;
+  }
+}
+
+/** The excluded rows of a weighting as objects (from its columns). */
+function excludedTargetObjects(w: WeightingResult): ExcludedTarget[] {
+  const out: ExcludedTarget[] = [];
+  forEachExcluded(w, (e) => out.push({ ...e }));
   return out;
 }
 
@@ -255,9 +346,11 @@ export function describeRules(rules: WeightingRules, formula: WeightingResult['f
   return lines;
 }
 
-/** Counts of excluded rows per rule, in first-seen order (for the summary). */
-export function exclusionCounts(excluded: readonly ExcludedTarget[]): { rule: string; count: number }[] {
+/** Counts of excluded rows per rule, in first-seen order (for the summary); a weighting's rows are read from its columns. */
+export function exclusionCounts(excluded: readonly ExcludedTarget[] | WeightingResult): { rule: string; count: number }[] {
   const m = new Map<string, number>();
-  for (const e of excluded) m.set(e.rule, (m.get(e.rule) ?? 0) + 1);
+  const count = (e: ExcludedTarget) => m.set(e.rule, (m.get(e.rule) ?? 0) + 1);
+  if (Array.isArray(excluded)) excluded.forEach(count);
+  else forEachExcluded(excluded as WeightingResult, count);
   return [...m].map(([rule, count]) => ({ rule, count }));
 }
