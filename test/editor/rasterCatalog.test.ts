@@ -5,6 +5,7 @@ import { rasterCatalog, rgbaWord } from '../../src/editor/view/rasterCatalog';
 import { KIND_ALIGNMENT, KIND_TRACER, type CatalogGeometry } from '../../src/editor/view/catalogGeometry';
 import { ROLE_STYLE } from '../../src/editor/view/palette';
 import type { Camera } from '../../src/editor/view/camera';
+import { rowsNear } from '../../src/editor/view/catalogIndex';
 
 const W = 80, H = 40;
 const cam = { widthPx: W, heightPx: H, pxPerArcsec: 0.6, centreXiArcsec: 0, centreEtaArcsec: 0 } as Camera;
@@ -74,6 +75,31 @@ describe('catalog raster over a large catalog (grid index)', () => {
         if (x > -12 && y > -12 && x < w + 12 && y < h + 12) expected++;
       }
       expect(drawn, JSON.stringify(view)).toBe(expected);
+    }
+  });
+});
+
+describe('grid index of the catalog (rowsNear)', () => {
+  it('gives every row inside a rectangle, in catalog order, the same on repeated calls', () => {
+    let seed = 777;
+    const rnd = () => ((seed = (seed * 1103515245 + 12345) % 2147483648) / 2147483648);
+    const n = 30000;
+    const g: CatalogGeometry = {
+      count: n, xiArcsec: new Float64Array(n), etaArcsec: new Float64Array(n), radiusPx: new Float32Array(n).fill(1.5),
+      kind: new Uint8Array(n), shade: new Uint8Array(n), ids: Array.from({ length: n }, (_, i) => `r${i}`),
+    };
+    for (let i = 0; i < n; i++) { g.xiArcsec[i] = (rnd() - 0.5) * 5000; g.etaArcsec[i] = (rnd() - 0.5) * 5000 * rnd(); }
+    for (const [xiLo, xiHi, etaLo, etaHi] of [[-300, 400, -100, 900], [-2600, 2600, -2600, 2600], [1000, 1200, -2000, -1500], [-100, -100, 0, 0], [9000, 9500, 0, 10]]) {
+      for (let rep = 0; rep < 2; rep++) {
+        const near = rowsNear(g, xiLo, xiHi, etaLo, etaHi);
+        for (let k = 1; k < near.length; k++) expect(near[k]).toBeGreaterThan(near[k - 1]);
+        const got = new Set(near);
+        let inside = 0;
+        for (let i = 0; i < n; i++) {
+          if (g.xiArcsec[i] >= xiLo && g.xiArcsec[i] <= xiHi && g.etaArcsec[i] >= etaLo && g.etaArcsec[i] <= etaHi) { inside++; expect(got.has(i)).toBe(true); }
+        }
+        expect(near.length).toBeGreaterThanOrEqual(inside);
+      }
     }
   });
 });

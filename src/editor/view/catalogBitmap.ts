@@ -1,9 +1,10 @@
 /**
- * The catalog layer of the sky view: an off-screen bitmap of the catalog for an area twice the view's
- * size (half a view of margin on each side), rastered by rasterCatalog, and copied (scaled while zooming)
- * onto the visible canvas on every view change. A copy costs a few ms even for 20 000 targets; the bitmap
- * is rastered again only when a pan leaves the margin, shortly after a zoom settles, or when what it shows
- * changes (catalog, selection, slits).
+ * The catalog layer of the sky view: the page's catalog canvas holds a raster of the catalog for an area twice the
+ * view's size (half a view of margin on each side), made by rasterCatalog, and a CSS transform places it under the view
+ * camera. A pan or zoom only changes that transform (the compositor moves and scales the bitmap; no pixel is drawn on
+ * the main thread). The raster is made again when a pan leaves the margin or a zoom goes beyond 0.45-2.5 times the
+ * rastered scale (the area check first), shortly after the motion stops (so the picture at rest is exactly a raster for the view), or when what
+ * it shows changes (catalog, selection, slits). The pixel buffer is kept between rasters.
  */
 import type { Camera } from './camera';
 import type { CatalogGeometry } from './catalogGeometry';
@@ -16,20 +17,34 @@ export function cssPlacement(rendered: Camera, view: Camera): { dx: number; dy: 
   const k = view.pxPerArcsec / rendered.pxPerArcsec;
   const dx = view.widthPx / 2 - (rendered.centreXiArcsec - view.centreXiArcsec) * view.pxPerArcsec - (rendered.widthPx / 2) * k;
   const dy = view.heightPx / 2 - (rendered.centreEtaArcsec - view.centreEtaArcsec) * view.pxPerArcsec - (rendered.heightPx / 2) * k;
-  const covers = dx <= 0.5 && dy <= 0.5 && dx + rendered.widthPx * k >= view.widthPx - 0.5 && dy + rendered.heightPx * k >= view.heightPx - 0.5 && k > 0.6 && k < 1.8;
+  const covers = dx <= 0.5 && dy <= 0.5 && dx + rendered.widthPx * k >= view.widthPx - 0.5 && dy + rendered.heightPx * k >= view.heightPx - 0.5 && k > 0.45 && k < 2.5;
   return { dx, dy, k, covers };
 }
 
+/** The raster's camera for view camera `view`: the same centre and scale, twice the width and height. */
+export function rasterCamera(view: Camera): Camera {
+  return { ...view, widthPx: view.widthPx * 2, heightPx: view.heightPx * 2 };
+}
+
+/** True when a raster made for `rendered` shows `view` pixel for pixel (same scale, and the same camera as a fresh raster). */
+function atRest(rendered: Camera, view: Camera): boolean {
+  const fresh = rasterCamera(view);
+  return rendered.pxPerArcsec === fresh.pxPerArcsec && rendered.centreXiArcsec === fresh.centreXiArcsec
+    && rendered.centreEtaArcsec === fresh.centreEtaArcsec && rendered.widthPx === fresh.widthPx && rendered.heightPx === fresh.heightPx;
+}
+
 export class CatalogLayer {
-  private off = document.createElement('canvas');
   private rendered: Rendered | null = null;
   private timer: ReturnType<typeof setTimeout> | null = null;
   private data: { g: CatalogGeometry | null; selected: ReadonlySet<number>; onSlit: Uint8Array | null } = { g: null, selected: new Set(), onSlit: null };
   private view: Camera | null = null;
+  private image: ImageData | null = null;
   /** Full rasters made (for the benchmark). */
   renders = 0;
 
-  constructor(private readonly canvas: HTMLCanvasElement, private readonly settleMs = 140) {}
+  constructor(private readonly canvas: HTMLCanvasElement, private readonly settleMs = 140) {
+    canvas.style.transformOrigin = '0 0';
+  }
 
   setData(g: CatalogGeometry | null, selected: ReadonlySet<number>, onSlit: Uint8Array | null): void {
     this.data = { g, selected, onSlit };
@@ -39,38 +54,40 @@ export class CatalogLayer {
   /** Show the catalog for view camera `view`. */
   show(view: Camera): void {
     this.view = view;
-    const pr = Math.min(2, window.devicePixelRatio || 1);
-    const w = Math.ceil(view.widthPx * pr), h = Math.ceil(view.heightPx * pr);
-    if (this.canvas.width !== w || this.canvas.height !== h) {
-      this.canvas.width = w; this.canvas.height = h;
-      this.canvas.style.width = `${view.widthPx}px`; this.canvas.style.height = `${view.heightPx}px`;
-    }
-    const ctx = this.canvas.getContext('2d')!;
-    ctx.setTransform(1, 0, 0, 1, 0, 0);
-    ctx.clearRect(0, 0, w, h);
     const { g, selected, onSlit } = this.data;
-    if (!g) return;
+    if (!g) {
+      this.rendered = null;
+      this.canvas.style.visibility = 'hidden';
+      return;
+    }
     const inputs = [g, selected, onSlit, view.widthPx, view.heightPx];
     let r = this.rendered;
     let place = r && r.inputs.every((v, i) => v === inputs[i]) ? cssPlacement(r.cam, view) : null;
     if (!place || !place.covers) {
-      r = this.raster(view, inputs, pr);
+      r = this.raster(view, inputs);
       place = cssPlacement(r.cam, view);
     }
-    if (place.k !== 1) this.scheduleSettle();
-    ctx.imageSmoothingEnabled = place.k !== 1;
-    ctx.drawImage(this.off, Math.round(place.dx * pr), Math.round(place.dy * pr), this.off.width * place.k, this.off.height * place.k);
+    if (!atRest(r!.cam, view)) this.scheduleSettle();
+    this.canvas.style.visibility = '';
+    this.canvas.style.transform = `translate(${place.dx}px, ${place.dy}px) scale(${place.k})`;
+    // For tests: where the raster's pixel (0, 0) is on the view (CSS px) and its scale there.
+    this.canvas.dataset.placement = `${place.dx},${place.dy},${place.k}`;
   }
 
-  private raster(view: Camera, inputs: readonly unknown[], pr: number): Rendered {
-    const big: Camera = { ...view, widthPx: view.widthPx * 2, heightPx: view.heightPx * 2 };
+  private raster(view: Camera, inputs: readonly unknown[]): Rendered {
+    const pr = Math.min(2, window.devicePixelRatio || 1);
+    const big = rasterCamera(view);
     const w = Math.ceil(big.widthPx * pr), h = Math.ceil(big.heightPx * pr);
-    if (this.off.width !== w) this.off.width = w;
-    if (this.off.height !== h) this.off.height = h;
-    const c = this.off.getContext('2d')!;
-    const img = c.createImageData(w, h);
-    const drawn = rasterCatalog(new Uint32Array(img.data.buffer), w, h, pr, this.data.g!, big, this.data.selected, this.data.onSlit);
-    c.putImageData(img, 0, 0);
+    if (this.canvas.width !== w || this.canvas.height !== h) {
+      this.canvas.width = w; this.canvas.height = h;
+      this.canvas.style.width = `${big.widthPx}px`; this.canvas.style.height = `${big.heightPx}px`;
+    }
+    const c = this.canvas.getContext('2d')!;
+    if (!this.image || this.image.width !== w || this.image.height !== h) this.image = c.createImageData(w, h);
+    const px = new Uint32Array(this.image.data.buffer);
+    px.fill(0);
+    const drawn = rasterCatalog(px, w, h, pr, this.data.g!, big, this.data.selected, this.data.onSlit);
+    c.putImageData(this.image, 0, 0);
     this.renders++;
     // For tests and benchmarks: markers in the last raster (the view and half a view around it), and the raster's area.
     this.canvas.dataset.rasterDots = String(drawn);
