@@ -103,3 +103,24 @@ describe('grid index of the catalog (rowsNear)', () => {
     }
   });
 });
+
+describe('a catalog raster depends on the view alone', () => {
+  it('draws a tracer as the disc of its radius rounded to 1/4 px, whatever size was drawn before', () => {
+    // Radii 2.17 and 2.2 px round to the same 2.25 px; a disc is the pixels with x^2 + y^2 <= r^2 + 1/4, so at 2.17 the
+    // pixel (1, 2) (x^2 + y^2 = 5) would be out and at 2.2 in. Both must draw the 2.25 px disc, in either order.
+    const w = 20, h = 20; // the row at the view's middle: pixel (10, 10)
+    const cam = { widthPx: w, heightPx: h, pxPerArcsec: 0.6, centreXiArcsec: 0, centreEtaArcsec: 0 } as Camera; // marker scale 1 at 0.6 px/arcsec
+    const expected = new Set<string>();
+    for (let y = -3; y <= 3; y++) for (let x = -3; x <= 3; x++) if (x * x + y * y <= 2.25 * 2.25 + 0.25) expected.add(`${x},${y}`);
+    for (const rPx of [2.17, 2.2, 2.17]) {
+      const g: CatalogGeometry = {
+        count: 1, xiArcsec: Float64Array.from([0]), etaArcsec: Float64Array.from([0]), radiusPx: Float32Array.from([rPx]),
+        kind: Uint8Array.from([KIND_TRACER]), shade: Uint8Array.from([2]), ids: ['t'],
+      };
+      const px = new Uint32Array(w * h);
+      rasterCatalog(px, w, h, 1, g, cam, new Set(), null);
+      const drawn = new Set([...px.keys()].filter((k) => px[k] !== 0).map((k) => `${(k % w) - 10},${Math.floor(k / w) - 10}`));
+      expect(drawn, `radius ${rPx} px`).toStrictEqual(expected);
+    }
+  });
+});
