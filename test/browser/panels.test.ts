@@ -95,7 +95,9 @@ async function screenTargets(page: Page): Promise<ScreenTarget[]> {
 async function whitePixelsNear(page: Page, p: Pt, r = 12): Promise<number> {
   return page.evaluate(({ x, y, r }) => {
     const c = document.querySelector('[data-testid="catalog-canvas"]') as HTMLCanvasElement;
-    const d = c.getContext('2d')!.getImageData(Math.round(x) - r, Math.round(y) - r, 2 * r + 1, 2 * r + 1).data;
+    // The canvas holds a raster larger than the view, placed at (dx, dy) on it (data-placement; scale 1 at rest).
+    const [dx, dy] = c.dataset.placement!.split(',').map(Number);
+    const d = c.getContext('2d')!.getImageData(Math.round(x - dx) - r, Math.round(y - dy) - r, 2 * r + 1, 2 * r + 1).data;
     let n = 0;
     for (let i = 0; i < d.length; i += 4) if (d[i] === 255 && d[i + 1] === 255 && d[i + 2] === 255 && d[i + 3] === 255) n++;
     return n;

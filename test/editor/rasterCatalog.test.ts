@@ -5,6 +5,7 @@ import { rasterCatalog, rgbaWord } from '../../src/editor/view/rasterCatalog';
 import { KIND_ALIGNMENT, KIND_TRACER, type CatalogGeometry } from '../../src/editor/view/catalogGeometry';
 import { ROLE_STYLE } from '../../src/editor/view/palette';
 import type { Camera } from '../../src/editor/view/camera';
+import { rowsNear } from '../../src/editor/view/catalogIndex';
 
 const W = 80, H = 40;
 const cam = { widthPx: W, heightPx: H, pxPerArcsec: 0.6, centreXiArcsec: 0, centreEtaArcsec: 0 } as Camera;
@@ -74,6 +75,52 @@ describe('catalog raster over a large catalog (grid index)', () => {
         if (x > -12 && y > -12 && x < w + 12 && y < h + 12) expected++;
       }
       expect(drawn, JSON.stringify(view)).toBe(expected);
+    }
+  });
+});
+
+describe('grid index of the catalog (rowsNear)', () => {
+  it('gives every row inside a rectangle, in catalog order, the same on repeated calls', () => {
+    let seed = 777;
+    const rnd = () => ((seed = (seed * 1103515245 + 12345) % 2147483648) / 2147483648);
+    const n = 30000;
+    const g: CatalogGeometry = {
+      count: n, xiArcsec: new Float64Array(n), etaArcsec: new Float64Array(n), radiusPx: new Float32Array(n).fill(1.5),
+      kind: new Uint8Array(n), shade: new Uint8Array(n), ids: Array.from({ length: n }, (_, i) => `r${i}`),
+    };
+    for (let i = 0; i < n; i++) { g.xiArcsec[i] = (rnd() - 0.5) * 5000; g.etaArcsec[i] = (rnd() - 0.5) * 5000 * rnd(); }
+    for (const [xiLo, xiHi, etaLo, etaHi] of [[-300, 400, -100, 900], [-2600, 2600, -2600, 2600], [1000, 1200, -2000, -1500], [-100, -100, 0, 0], [9000, 9500, 0, 10]]) {
+      for (let rep = 0; rep < 2; rep++) {
+        const near = rowsNear(g, xiLo, xiHi, etaLo, etaHi);
+        for (let k = 1; k < near.length; k++) expect(near[k]).toBeGreaterThan(near[k - 1]);
+        const got = new Set(near);
+        let inside = 0;
+        for (let i = 0; i < n; i++) {
+          if (g.xiArcsec[i] >= xiLo && g.xiArcsec[i] <= xiHi && g.etaArcsec[i] >= etaLo && g.etaArcsec[i] <= etaHi) { inside++; expect(got.has(i)).toBe(true); }
+        }
+        expect(near.length).toBeGreaterThanOrEqual(inside);
+      }
+    }
+  });
+});
+
+describe('a catalog raster depends on the view alone', () => {
+  it('draws a tracer as the disc of its radius rounded to 1/4 px, whatever size was drawn before', () => {
+    // Radii 2.17 and 2.2 px round to the same 2.25 px; a disc is the pixels with x^2 + y^2 <= r^2 + 1/4, so at 2.17 the
+    // pixel (1, 2) (x^2 + y^2 = 5) would be out and at 2.2 in. Both must draw the 2.25 px disc, in either order.
+    const w = 20, h = 20; // the row at the view's middle: pixel (10, 10)
+    const cam = { widthPx: w, heightPx: h, pxPerArcsec: 0.6, centreXiArcsec: 0, centreEtaArcsec: 0 } as Camera; // marker scale 1 at 0.6 px/arcsec
+    const expected = new Set<string>();
+    for (let y = -3; y <= 3; y++) for (let x = -3; x <= 3; x++) if (x * x + y * y <= 2.25 * 2.25 + 0.25) expected.add(`${x},${y}`);
+    for (const rPx of [2.17, 2.2, 2.17]) {
+      const g: CatalogGeometry = {
+        count: 1, xiArcsec: Float64Array.from([0]), etaArcsec: Float64Array.from([0]), radiusPx: Float32Array.from([rPx]),
+        kind: Uint8Array.from([KIND_TRACER]), shade: Uint8Array.from([2]), ids: ['t'],
+      };
+      const px = new Uint32Array(w * h);
+      rasterCatalog(px, w, h, 1, g, cam, new Set(), null);
+      const drawn = new Set([...px.keys()].filter((k) => px[k] !== 0).map((k) => `${(k % w) - 10},${Math.floor(k / w) - 10}`));
+      expect(drawn, `radius ${rPx} px`).toStrictEqual(expected);
     }
   });
 });

@@ -10,7 +10,7 @@
  * Alt 0.1°), N steps through the masks (Shift+N back).
  * At high zoom, slits are drawn at their true width, length and tilt.
  */
-import { memo, useCallback, useEffect, useMemo, useRef, useState, type KeyboardEvent as ReactKeyboardEvent } from 'react';
+import { memo, useCallback, useEffect, useLayoutEffect, useMemo, useRef, useState, type KeyboardEvent as ReactKeyboardEvent } from 'react';
 import { Stage, Layer, Shape, Group, Line, Ellipse, Text, Circle, Rect } from 'react-konva';
 import type Konva from 'konva';
 import type { GalaxyModel } from '../../core/plan/schema';
@@ -66,7 +66,7 @@ export interface SkyViewProps {
 type Gesture =
   | { kind: 'pan'; lastX: number; lastY: number; moved: number; startX: number; startY: number; additive: boolean }
   | { kind: 'box'; startX: number; startY: number; x: number; y: number }
-  | { kind: 'move'; maskId: string; startXi: number; startEta: number; maskXi: number; maskEta: number; pose: MaskPose; moved: boolean; under: string[]; wasActive: boolean }
+  | { kind: 'move'; maskId: string; startXi: number; startEta: number; maskXi: number; maskEta: number; startPose: MaskPose; pose: MaskPose; moved: boolean; under: string[]; wasActive: boolean }
   | { kind: 'rotate'; maskId: string; pose: MaskPose };
 
 const HANDLE_PX = 7;
@@ -109,7 +109,13 @@ export function SkyView(props: SkyViewProps) {
     const pose = framePose.current;
     framePose.current = null;
     if (!pose) return;
-    setPreview(pose);
+    const g = gesture.current;
+    if (g?.kind === 'move') {
+      // A move: the mask's own layer is split off once (one render), then only translated (placeMoving).
+      movedPose.current = pose;
+      if (movingRef.current?.id === pose.id) placeMovingRef.current();
+      else setMoving(g.startPose);
+    } else setPreview(pose);
     previewRef.current(pose);
   }, []);
   const previewRef = useRef(props.onPreviewMask);
@@ -120,6 +126,14 @@ export function SkyView(props: SkyViewProps) {
   };
   useEffect(() => () => { if (frameReq.current) cancelAnimationFrame(frameReq.current); }, []);
   const [preview, setPreview] = useState<MaskPose | null>(null);
+  // A mask being moved is drawn once, at its pose when the move began (`moving`), on a layer of its own whose canvas a CSS
+  // translation carries to the newest pose (`movedPose`): a move never turns a mask (North up, PA about its own centre),
+  // so no frame of the move redraws a mask; the slits of each live re-solve redraw that layer only. A turn redraws.
+  const [moving, setMoving] = useState<MaskPose | null>(null);
+  const movingRef = useRef<MaskPose | null>(null);
+  movingRef.current = moving;
+  const movedPose = useRef<MaskPose | null>(null);
+  const movingLayer = useRef<Konva.Layer>(null);
   const [boxSel, setBoxSel] = useState<{ x0: number; y0: number; x1: number; y1: number } | null>(null);
   const centre = useMemo(() => tangentCentre(galaxy.raDeg, galaxy.decDeg), [galaxy.raDeg, galaxy.decDeg]);
   const fitted = useRef(false);
@@ -149,11 +163,11 @@ export function SkyView(props: SkyViewProps) {
     if (backdropWorldRef.current) backdropWorldRef.current.style.transform = tf;
     catalogLayer.current?.show(v);
     const bar = scaleBarArcmin(v.pxPerArcsec);
-    if (scaleBarRef.current) {
-      scaleBarRef.current.style.width = `${bar * 60 * v.pxPerArcsec}px`;
-      scaleBarRef.current.dataset.label = formatArcmin(bar);
-      scaleBarRef.current.firstElementChild!.textContent = formatArcmin(bar);
-    }
+    const el = scaleBarRef.current;
+    // Written only when they change: a write of the same text still makes the page lay out and paint again.
+    const width = `${bar * 60 * v.pxPerArcsec}px`, label = formatArcmin(bar);
+    if (el && el.style.width !== width) el.style.width = width;
+    if (el && el.dataset.label !== label) { el.dataset.label = label; el.firstElementChild!.textContent = label; }
     const t = cameraTestRef.current;
     if (t) { t.dataset.pxPerArcsec = String(v.pxPerArcsec); t.dataset.xi = String(v.centreXiArcsec); t.dataset.eta = String(v.centreEtaArcsec); }
     return p;
@@ -214,6 +228,18 @@ export function SkyView(props: SkyViewProps) {
     const p = skyToTangentArcsec(centre, m.raDeg, m.decDeg);
     return p ?? { xiArcsec: 0, etaArcsec: 0 };
   }, [centre]);
+  /** Translate the moving mask's layer from the pose it was drawn at to the newest pose (screen px at the drawn camera). */
+  const placeMoving = useCallback(() => {
+    const from = movingRef.current, el = movingLayer.current?.getNativeCanvasElement();
+    if (!from || !el) return;
+    const to = movedPose.current ?? from, s = camRef.current.pxPerArcsec;
+    const a = maskXiEta(from), b = maskXiEta(to);
+    el.style.willChange = 'transform';
+    el.style.transform = `translate(${-(b.xiArcsec - a.xiArcsec) * s}px, ${-(b.etaArcsec - a.etaArcsec) * s}px)`;
+  }, [maskXiEta]);
+  const placeMovingRef = useRef(placeMoving);
+  placeMovingRef.current = placeMoving;
+  useLayoutEffect(() => { placeMoving(); });
 
   const shownMasks = props.masks.map((m) => (preview && preview.id === m.id ? preview : m));
   /** Ids of the masks whose footprint holds sky point (xi, eta), topmost (drawn last) first. */
@@ -267,7 +293,7 @@ export function SkyView(props: SkyViewProps) {
         gesture.current = { kind: 'rotate', maskId: id, pose };
       } else {
         const c = maskXiEta(pose);
-        gesture.current = { kind: 'move', maskId: id, startXi: s.xiArcsec, startEta: s.etaArcsec, maskXi: c.xiArcsec, maskEta: c.etaArcsec, pose, moved: false, under, wasActive: id === active };
+        gesture.current = { kind: 'move', maskId: id, startXi: s.xiArcsec, startEta: s.etaArcsec, maskXi: c.xiArcsec, maskEta: c.etaArcsec, startPose: pose, pose, moved: false, under, wasActive: id === active };
       }
       return;
     }
@@ -328,6 +354,8 @@ export function SkyView(props: SkyViewProps) {
         // A click (no move) on the active mask where masks overlap: the next mask under the pointer becomes active.
         props.onSelectMask(g.under[(g.under.indexOf(g.maskId) + 1) % g.under.length]);
       }
+      setMoving(null);
+      movedPose.current = null;
       setPreview(null);
       props.onPreviewEnd?.();
     } else if (g.kind === 'rotate') {
@@ -386,6 +414,18 @@ export function SkyView(props: SkyViewProps) {
     return { m, sp, handlePx: handleDistancePx(sp, m.paDeg, ownFootprint(m.id).footprintYMax * cam.pxPerArcsec + HANDLE_GAP_PX + HANDLE_PX, size.w, size.h) };
   });
   const labels = placeLabels(onScreen.map(({ m, sp }) => ({ id: m.id, text: `${m.id}${m.locked ? ' (locked)' : ''}`, x: sp.x + 6, y: sp.y + 4 })));
+  // The masks and labels of the masks' layer, and of the moving mask's own layer (empty unless a mask is moved).
+  const movingId = moving?.id;
+  const maskNodes = (which: (id: string) => boolean) => [
+    ...onScreen.filter(({ m }) => which(m.id)).map(({ m, sp, handlePx }) => (
+      <MaskShape key={m.id} id={m.id} xPx={sp.x} yPx={sp.y} paDeg={m.paDeg} locked={m.locked} pxPerArcsec={cam.pxPerArcsec}
+        active={m.id === props.activeMaskId} slits={props.slitsByMask.get(m.id) ?? NO_SLITS} {...ownFootprint(m.id)}
+        handlePx={handlePx} />
+    )),
+    ...labels.filter((l) => which(l.id)).map((l) => (
+      <Text key={`t${l.id}`} listening={false} x={l.x} y={l.y} text={l.text} fontSize={12} fill={INK.text} />
+    )),
+  ];
 
   // A position asked for from elsewhere (a row of the target table): pan it to the middle when it is not well inside the view.
   const focusN = useRef(0);
@@ -432,20 +472,14 @@ export function SkyView(props: SkyViewProps) {
         </Layer>
         {/* While a mask is dragged or turned (a preview is shown) nothing on this layer needs the mouse: the gesture
             follows the stage's pointer, so Konva skips redrawing the hit canvas on every frame. */}
-        <Layer listening={!preview}>
-          {onScreen.map(({ m, sp, handlePx }) => (
-            <MaskShape key={m.id} id={m.id} xPx={sp.x} yPx={sp.y} paDeg={m.paDeg} locked={m.locked} pxPerArcsec={cam.pxPerArcsec}
-              active={m.id === props.activeMaskId} slits={props.slitsByMask.get(m.id) ?? NO_SLITS} {...ownFootprint(m.id)}
-              handlePx={handlePx} />
-          ))}
-          {labels.map((l) => (
-            <Text key={`t${l.id}`} listening={false} x={l.x} y={l.y} text={l.text} fontSize={12} fill={INK.text} />
-          ))}
+        <Layer listening={!preview && !moving}>
+          {maskNodes((id) => id !== movingId)}
           {boxSel && (
             <Rect x={Math.min(boxSel.x0, boxSel.x1)} y={Math.min(boxSel.y0, boxSel.y1)} width={Math.abs(boxSel.x1 - boxSel.x0)}
               height={Math.abs(boxSel.y1 - boxSel.y0)} stroke={INK.selection} dash={[4, 3]} strokeWidth={1} />
           )}
         </Layer>
+        {moving && <Layer listening={false} ref={movingLayer}>{maskNodes((id) => id === movingId)}</Layer>}
       </Stage>
       </div>
       <Compass />

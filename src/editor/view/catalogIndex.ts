@@ -5,7 +5,11 @@
  */
 import type { CatalogGeometry } from './catalogGeometry';
 
-interface GridIndex { x0: number; y0: number; cellArcsec: number; n: number; start: Int32Array; rows: Int32Array; all: Int32Array }
+interface GridIndex {
+  x0: number; y0: number; cellArcsec: number; n: number; start: Int32Array; rows: Int32Array; all: Int32Array;
+  /** One flag per catalog row, all zero between calls (rowsNear's scratch). */
+  mark: Uint8Array;
+}
 
 const CELLS = 64;
 const built = new WeakMap<CatalogGeometry, GridIndex>();
@@ -31,7 +35,7 @@ function buildIndex(g: CatalogGeometry): GridIndex {
   const all = new Int32Array(rows.length);
   let k = 0;
   for (let i = 0; i < g.count; i++) if (cellOf(i) >= 0) all[k++] = i;
-  return { x0: Number.isFinite(x0) ? x0 : 0, y0: Number.isFinite(y0) ? y0 : 0, cellArcsec, n: CELLS, start, rows, all };
+  return { x0: Number.isFinite(x0) ? x0 : 0, y0: Number.isFinite(y0) ? y0 : 0, cellArcsec, n: CELLS, start, rows, all, mark: new Uint8Array(g.count) };
 }
 
 /**
@@ -49,8 +53,20 @@ export function rowsNear(g: CatalogGeometry, xiLo: number, xiHi: number, etaLo: 
   for (let cy = cy0; cy <= cy1; cy++) total += start[cy * n + cx1 + 1] - start[cy * n + cx0];
   // The whole catalog in the area (a view zoomed out): every row with a position, in order (shared; read only).
   if (total === rows.length) return all;
+  // Catalog order without a sort: mark the rows of the cells, then read the marks in order (a pass over the catalog
+  // costs less than sorting a large share of it).
+  const mark = ix.mark;
+  let lo = Infinity, hi = -1;
+  for (let cy = cy0; cy <= cy1; cy++) {
+    for (let k = start[cy * n + cx0], end = start[cy * n + cx1 + 1]; k < end; k++) {
+      const i = rows[k];
+      mark[i] = 1;
+      if (i < lo) lo = i;
+      if (i > hi) hi = i;
+    }
+  }
   const out = new Int32Array(total);
   let at = 0;
-  for (let cy = cy0; cy <= cy1; cy++) { out.set(rows.subarray(start[cy * n + cx0], start[cy * n + cx1 + 1]), at); at += start[cy * n + cx1 + 1] - start[cy * n + cx0]; }
-  return out.sort();
+  for (let i = lo; i <= hi; i++) if (mark[i]) { out[at++] = i; mark[i] = 0; }
+  return out;
 }

@@ -19,11 +19,14 @@ export function rgbaWord(css: string, alpha = 255): number {
   return ((alpha << 24) | (b << 16) | (g << 8) | r) >>> 0;
 }
 
-/** Pixel offsets of a filled disc and of a one-pixel ring of radius r (px), cached by rounded radius. */
+/**
+ * Pixel offsets of a filled disc and of a ring of radius r (px), for r rounded to 1/4 px (and a ring's width to 1/2 px)
+ * and cached by that rounded size: a marker's pixels depend on its size alone, never on which size was drawn first.
+ */
 const discCache = new Map<number, Int16Array>();
 const ringCache = new Map<number, Int16Array>();
-function disc(r: number): Int16Array {
-  const key = Math.round(r * 4);
+function disc(rPx: number): Int16Array {
+  const key = Math.round(rPx * 4), r = key / 4;
   let d = discCache.get(key);
   if (!d) {
     const pts: number[] = [];
@@ -35,8 +38,8 @@ function disc(r: number): Int16Array {
   }
   return d;
 }
-function ring(r: number, width: number): Int16Array {
-  const key = Math.round(r * 4) * 16 + Math.round(width * 2);
+function ring(rPx: number, widthPx: number): Int16Array {
+  const key = Math.round(rPx * 4) * 16 + Math.round(widthPx * 2), r = Math.round(rPx * 4) / 4, width = Math.round(widthPx * 2) / 2;
   let d = ringCache.get(key);
   if (!d) {
     const pts: number[] = [];
@@ -51,10 +54,10 @@ function ring(r: number, width: number): Int16Array {
   return d;
 }
 
-/** Pixel offsets of a square outline of half side `half` (px) and line width `width`, cached. */
+/** Pixel offsets of a square outline of half side `half` (px, rounded to 1/4) and line width `width` (rounded to 1/2), cached. */
 const squareCache = new Map<number, Int16Array>();
-function squareRing(half: number, width: number): Int16Array {
-  const key = Math.round(half * 4) * 16 + Math.round(width * 2);
+function squareRing(halfPx: number, widthPx: number): Int16Array {
+  const key = Math.round(halfPx * 4) * 16 + Math.round(widthPx * 2), half = Math.round(halfPx * 4) / 4, width = Math.round(widthPx * 2) / 2;
   let d = squareCache.get(key);
   if (!d) {
     const pts: number[] = [];
