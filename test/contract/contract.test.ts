@@ -244,9 +244,26 @@ interface Corruption {
   profileRule?: boolean;
   apply(dir: string): { rule: string; mustName: string[]; only?: boolean; alsoAllowed?: string[] };
 }
-const MOVED = ['[coverage]', '[catalog]']; // a moved target also leaves its catalog position
+// A moved target also leaves its catalog position, and moves the galaxy light its slit's sky parts co-add.
+const MOVED = ['[coverage]', '[catalog]', '[starlight-bins]'];
 
 const ridge = profile('ridge10-narrow'); // the demo's profile
+
+/** The demo's coverage.json with one starlight bin changed by `edit`: the bin met with the most S/N to spare. */
+function tamperStarlightBin(dir: string, edit: (bin: Record<string, unknown>) => string): { rule: string; mustName: string[]; only: boolean } {
+  const cov = JSON.parse(readFileSync(join(dir, 'coverage.json'), 'utf8'));
+  const bins = cov.starlightBins.bins as { fromRe: number; sectorDeg: number; snPerA: number; met: boolean }[];
+  const i = bins.reduce((best, b, k) => (b.met && b.snPerA > bins[best].snPerA ? k : best), 0);
+  const b = bins[i];
+  const field = edit(b as unknown as Record<string, unknown>);
+  writeFileSync(join(dir, 'coverage.json'), JSON.stringify(cov));
+  return { rule: '[starlight-bins]', mustName: [`starlightBins.bins[${i}] (${b.fromRe}-${b.fromRe + 1} Re, ${b.sectorDeg}-${b.sectorDeg + 45} deg)`, field], only: true };
+}
+const STARLIGHT_TAMPERING: Corruption[] = [
+  { name: 'a starlight bin\'s co-added S/N raised', apply: (dir) => tamperStarlightBin(dir, (b) => { b.snPerA = Math.round((b.snPerA as number) * 115) / 100; return 'snPerA'; }) },
+  { name: 'a starlight bin counting one tracer sky part more', apply: (dir) => tamperStarlightBin(dir, (b) => { b.tracerSkyParts = (b.tracerSkyParts as number) + 1; return 'tracerSkyParts'; }) },
+  { name: 'a starlight bin well above its target marked not met', apply: (dir) => tamperStarlightBin(dir, (b) => { b.met = false; return 'met false'; }) },
+];
 const CORRUPTIONS: Corruption[] = [
   { name: 'a slit moved into its neighbour', apply(dir) {
     const masks = readTable(join(dir, 'masks.csv')), t = readTable(join(dir, 'slits.csv'));
@@ -327,7 +344,8 @@ const CORRUPTIONS: Corruption[] = [
     const r = t.rows.find((row) => row.role === 'tracer')!;
     r.len_below_arcsec = String(ridge.slits.minLengthArcsec / 2 - 0.1);
     writeTable(join(dir, 'slits.csv'), t);
-    return { rule: '[min-length]', mustName: [`slit ${r.slit_id}`], only: true };
+    // a shorter slit also has less sky beside its tracer, co-added into a starlight bin
+    return { rule: '[min-length]', mustName: [`slit ${r.slit_id}`], only: true, alsoAllowed: ['[starlight-bins]'] };
   } },
   { name: 'too few alignment boxes', apply(dir) {
     const t = readTable(join(dir, 'slits.csv'));
@@ -355,6 +373,7 @@ const CORRUPTIONS: Corruption[] = [
     writeFileSync(join(dir, 'coverage.json'), JSON.stringify(cov));
     return { rule: '[coverage]', mustName: ['roles.tracer', 'bin [2, 3)'], only: true };
   } },
+  ...STARLIGHT_TAMPERING,
   { name: 'a used object on a catalog line that catalog-report.csv lists as not used', profileRule: false, apply(dir) {
     const t = readTable(join(dir, 'slits.csv'));
     const r = t.rows.find((row) => row.mask_id === 'm2' && row.role === 'tracer')!;
@@ -407,8 +426,14 @@ describe('contract_check.py reports each corruption of a good folder, naming the
 
   // Agreement with the TypeScript checker on the rules it owns: it must reject each of these folders too.
   it.each(CORRUPTIONS.filter((c) => c.profileRule !== false).map((c) => [c.name]))('`haloweave check` rejects it too: %s', (name) => {
-    const r = spawnSync(process.execPath, [BIN, 'check', results.get(name)!.dir], { cwd: ROOT, encoding: 'utf8' });
+    const { dir, expected } = results.get(name)!;
+    const r = spawnSync(process.execPath, [BIN, 'check', dir], { cwd: ROOT, encoding: 'utf8' });
     expect(r.status, r.stdout + r.stderr).not.toBe(0);
+    // A changed coverage.json also fails the folder's manifest: the starlight bin itself must be named.
+    if (expected.rule === '[starlight-bins]') {
+      const named = r.stderr.split('\n').filter((l) => l.includes('[starlight bins]') && l.includes(expected.mustName[0]));
+      expect(named, r.stderr).not.toHaveLength(0);
+    }
   });
 });
 
