@@ -48,7 +48,8 @@ function plan(planPath: string, outDir: string): void {
 
 
 /** `customProfile`: write a modified copy of the profile with a new id beside the plan and name it by path. */
-interface Scenario { name: string; profileId: string; customProfile?: { id: string; gapArcsec: number; minLengthArcsec: number }; raDeg: number; decDeg: number; reArcsec: number; galaxyPaDeg: number; maskPaDeg: number; seed: number }
+/** `extra`: plan sections added (observing, photometry...), e.g. a Moon that brightens the sky of the starlight bins. */
+interface Scenario { name: string; profileId: string; customProfile?: { id: string; gapArcsec: number; minLengthArcsec: number }; raDeg: number; decDeg: number; reArcsec: number; galaxyPaDeg: number; maskPaDeg: number; seed: number; extra?: Record<string, unknown> }
 
 /** An invented scenario: plan JSON + CSV catalog (tracers around the galaxy, alignment stars in the profile's magRange). */
 function writeScenario(dir: string, s: Scenario): string {
@@ -88,6 +89,7 @@ function writeScenario(dir: string, s: Scenario): string {
     goals: { masks: 2, tracerReachRe: 10, starlightReachRe: 3, linesA: [8498.0, 8542.1, 8662.1] },
     // one mask locked on the galaxy centre, one left to the solver
     masks: [{ id: 'c', raDeg: s.raDeg, decDeg: s.decDeg, paDeg: s.maskPaDeg, locked: true }, { id: 'free' }],
+    ...s.extra,
   };
   const path = join(dir, `${s.name}.plan.json`);
   writeFileSync(path, JSON.stringify(planJson, null, 2));
@@ -104,6 +106,10 @@ const SCENARIOS: Scenario[] = [
   // a profile named by path (not in instrument-profiles/): the checker must follow solved.plan.json's instrument path
   { name: 'path-profile', profileId: 'ridge10-narrow', customProfile: { id: 'test-ridge-wide-gap', gapArcsec: 2.0, minLengthArcsec: 6.0 },
     raDeg: 0.02, decDeg: 12, reArcsec: 30, galaxyPaDeg: 60, maskPaDeg: 150, seed: 66 },
+  // Starlight bins under a given Moon (Krisciunas & Schaefer sky), Vega I magnitudes and a sky floor of 2 % that caps
+  // the outer bins below the target: the checker re-derives the moonlit S/N and names the floor as the cause.
+  { name: 'moonlit-ridge', profileId: 'ridge10-narrow', raDeg: 150.3, decDeg: -20, reArcsec: 38, galaxyPaDeg: 35, maskPaDeg: 35, seed: 77,
+    extra: { observing: { moon: { phaseAngleDeg: 70, separationDeg: 50, altitudeDeg: 35 }, skySystematicFraction: 0.02 }, photometry: { band: 'I', system: 'Vega' } } },
 ];
 
 let work: string;
@@ -165,6 +171,8 @@ describe('haloweave plan outputs obey the contract (checked with astropy)', () =
     expect(lines.filter((l) => !l.startsWith('contract_check: ok:')), `violations in ${dir}`).toEqual([]);
     expect(lines).toHaveLength(1);
     expect(lines[0]).toMatch(new RegExp(`^contract_check: ok: ${masks} masks, \\d+ rows checked, worst position residual`));
+    // coverage.json's starlight bins were re-derived, S/N included
+    expect(lines[0]).toMatch(/; [1-9]\d* starlight bins re-derived; astropy/);
   };
 
   it('the hand-written plan test/cli/fixtures/small.plan.json (with catalog-report.csv rows)', () => {
@@ -180,6 +188,13 @@ describe('haloweave plan outputs obey the contract (checked with astropy)', () =
     expectOk(scenarioDirs.get(name)!, 2);
     const masks = readFileSync(join(scenarioDirs.get(name)!, 'masks.csv'), 'utf8');
     expect(masks).toContain(`,${s.customProfile?.id ?? s.profileId},`);
+  });
+
+  it('the moonlit scenario has bins capped by the sky floor, named with that cause (so the cause rule was exercised)', () => {
+    const cov = JSON.parse(readFileSync(join(scenarioDirs.get('moonlit-ridge')!, 'coverage.json'), 'utf8'));
+    const capped = cov.starlightBins.bins.filter((b: { floorCapSnPerA: number | null; targetSnPerA: number; met: boolean }) => b.floorCapSnPerA !== null && b.floorCapSnPerA < b.targetSnPerA && !b.met);
+    expect(capped.length).toBeGreaterThan(0);
+    expect(cov.goals.find((g: { name: string }) => g.name === 'starlightBins').reason).toMatch(/floor/);
   });
 
   it('exit status 0 when every folder passes', () => expect(good.code).toBe(0));
@@ -438,7 +453,7 @@ describe('contract_check.py reports each corruption of a good folder, naming the
 });
 
 describe('`haloweave check` agrees on good folders', () => {
-  it.each([['demo'], ['south80-quad'], ['path-profile']])('%s passes `haloweave check` as it passes contract_check.py', (name) => {
+  it.each([['demo'], ['south80-quad'], ['path-profile'], ['moonlit-ridge']])('%s passes `haloweave check` as it passes contract_check.py', (name) => {
     const dir = name === 'demo' ? demoDir : scenarioDirs.get(name)!;
     const r = spawnSync(process.execPath, [BIN, 'check', dir], { cwd: ROOT, encoding: 'utf8' });
     expect(r.status, r.stdout + r.stderr).toBe(0);
