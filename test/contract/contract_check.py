@@ -514,8 +514,8 @@ def check_coverage(cov, galaxy, goals, slit_rows, report):
 # - Spectra: each starlight slit whole; each tracer slit's two parts beside its extraction of 2 seeing FWHM centred on
 #   the tracer, inside the starlight goal radius (R/Re of the part's midpoint); none from a mask without sky slits.
 #   A spectrum's bin: floor(R/Re) and 45-degree sector of the azimuth from the major axis towards +v (not folded), at
-#   its midpoint. Positions are exact: mask (x, y) -> sky by the inverse TAN projection about the mask centre
-#   (astropy.wcs) -> galaxy frame by the TAN projection about the galaxy centre.
+#   its midpoint. A mask point is placed as the model defines it: the galaxy centre projected (TAN, astropy.wcs) into
+#   the mask frame, the point's offset from it turned to the sky by the mask PA and to the galaxy frame by its PA.
 STARLIGHT_DEFAULTS = {"exposureS": 7200.0, "skyMagPerArcsec2": 19.6, "targetSnPerA": 5.0, "throughput": 0.15}
 OBSERVING_DEFAULT_SEEING_ARCSEC = 0.8
 DEFAULT_SKY_FLOOR = 0.01
@@ -524,10 +524,10 @@ AB_MINUS_VEGA = {"I": 0.45, "i": 0.37, "z": 0.54, "R": 0.21, "V": 0.02}  # Blant
 PLANCK_ERG_S = 6.62607015e-27                    # SI 2019 exact
 AB_ZERO_CGS = 3631e-23                           # 3631 Jy in erg s^-1 cm^-2 Hz^-1
 SN_ABS_TOL = 0.011     # S/N per A: written to 0.01
-SN_REL_TOL = 3e-3      # the solver's planar mask-to-galaxy rotation (measured: under 0.07 arcsec on the demo)
-REACH_ABS_TOL_RE = 1e-3   # reachRe: written to 1e-4 Re, plus the same rotation
-POS_TOL_ARCSEC = 0.15  # a spectrum this close to a bin edge (radial, or along the azimuth) may be in either bin
-MAX_EDGE_CASES = 10    # edge cases whose bins are chosen jointly (2^10 layouts at most); more stay in their own bin
+SN_REL_TOL = 1e-3      # ... from slit ends written to 1e-4 arcsec
+REACH_ABS_TOL_RE = 3e-4   # reachRe: written to 1e-4 Re
+POS_TOL_ARCSEC = 0.01  # a spectrum this close to a bin edge (radial, or along the azimuth) may be in either bin
+MAX_EDGE_LAYOUTS = 1024   # most layouts (a bin for each edge case) tried; further edge cases stay in their own bin
 
 
 def lower_gamma_p(a, x):
@@ -645,17 +645,21 @@ def spectrum_electrons(mu_ab, length, width, sky_length, m):
     return signal, var, n_pix * sky_e
 
 
-def mask_points_to_galaxy(mask, gal_wcs, gal, xs, ys):
-    """(R/Re, azimuth deg in [0, 360)) of mask-frame points: inverse TAN about the mask centre, TAN about the galaxy."""
+def mask_points_to_galaxy(mask, gal, xs, ys):
+    """(R/Re, azimuth deg in [0, 360)) of mask-frame points as the model places them (docs/signal-to-noise.md): the
+    galaxy centre projected (TAN about the mask centre, astropy.wcs) into the mask frame, each point's offset from it
+    turned to the sky by the mask PA (xi = dx cos PA + dy sin PA, eta = -dx sin PA + dy cos PA, the inverse of the
+    contract's mask frame) and to the galaxy frame by the contract's u, v."""
     pa = math.radians(mask["pa"])
-    xs, ys = np.asarray(xs, float), np.asarray(ys, float)
-    xi = xs * math.cos(pa) + ys * math.sin(pa)
-    eta = -xs * math.sin(pa) + ys * math.cos(pa)
-    world = mask["wcs"].wcs_pix2world(np.column_stack([xi, eta]), 1)
-    gx, gy = sky_to_tangent_arcsec(gal_wcs, world[:, 0], world[:, 1])
+    gxi, geta = sky_to_tangent_arcsec(mask["wcs"], [gal["raDeg"]], [gal["decDeg"]])
+    gx = gxi[0] * math.cos(pa) - geta[0] * math.sin(pa)
+    gy = gxi[0] * math.sin(pa) + geta[0] * math.cos(pa)
+    dx, dy = np.asarray(xs, float) - gx, np.asarray(ys, float) - gy
+    xi = dx * math.cos(pa) + dy * math.sin(pa)
+    eta = -dx * math.sin(pa) + dy * math.cos(pa)
     th = math.radians(gal["paDeg"])
-    uu = gx * math.sin(th) + gy * math.cos(th)
-    vv = gx * math.cos(th) - gy * math.sin(th)
+    uu = xi * math.sin(th) + eta * math.cos(th)
+    vv = xi * math.cos(th) - eta * math.sin(th)
     q = gal["axisRatio"]
     r_re = np.sqrt(q * uu * uu + vv * vv / q) / gal["reArcsec"]
     phi = np.degrees(np.arctan2(vv, uu)) % 360.0
@@ -682,7 +686,6 @@ def binned_spectra(plan, gal, masks, per_mask):
     n = float(gal["sersicN"])
     bn = sersic_bn(n)
     goal = float(plan["goals"]["starlightReachRe"])
-    gal_wcs = tan_wcs(gal["raDeg"], gal["decDeg"])
     out, models = [], {}
     for mid, rows in per_mask.items():
         mask = masks[mid]
@@ -703,7 +706,7 @@ def binned_spectra(plan, gal, masks, per_mask):
             if not y1 - y0 > 0:
                 continue
             ys = [0.5 * (y0 + y1)] + [y0 + (i + 0.5) / 5 * (y1 - y0) for i in range(5)]
-            rr, phi = mask_points_to_galaxy(mask, gal_wcs, gal, [r["x"]] * 6, ys)
+            rr, phi = mask_points_to_galaxy(mask, gal, [r["x"]] * 6, ys)
             r_mid, phi_mid = float(rr[0]), float(phi[0])
             if kind == "tracer" and (r_mid - goal) * gal["reArcsec"] > POS_TOL_ARCSEC:
                 continue
@@ -803,7 +806,11 @@ def check_starlight_bins(cov, plan, masks, per_mask, report):
         return found
 
     # Every spectrum in its own bin, except the few near an edge: the choice of their bins that explains the file best.
-    edge = [sp for sp in spectra if len(sp["cands"]) > 1][:MAX_EDGE_CASES]
+    edge, layouts = [], 1
+    for sp in spectra:
+        if len(sp["cands"]) > 1 and layouts * len(sp["cands"]) <= MAX_EDGE_LAYOUTS:
+            edge.append(sp)
+            layouts *= len(sp["cands"])
     fixed = [(sp, sp["cands"][0]) for sp in spectra if not any(sp is e for e in edge)]
     best = None
     for choice in itertools.product(*[sp["cands"] for sp in edge]):

@@ -1,36 +1,35 @@
 /**
- * The checker's re-derivation of coverage.json `starlightBins` (docs/contract-check.md, "Starlight bins"): every
- * spectrum holding galaxy light — each starlight slit whole and, inside the starlight goal, the two parts of each
- * tracer slit beside its extraction (2 seeing FWHM) — from the rows of slits.csv; its bin (1 Re of circularised radius
- * x 45 deg of azimuth from the major axis towards +v) at its midpoint by the exact projections (mask frame -> sky about
- * the mask centre, sky -> galaxy frame about the galaxy centre); its electrons per A from the Sérsic profile (flux mean
- * over 5 points) and the CCD equation with the sky-estimate term of the mask's sky slits; co-added per bin with the
- * systematic sky floor. It shares the physical formulas (spectro/, sky/sersic) and the plan's settings
- * (starlightBinModel) with the solver, not its binning, geometry or sums; the solver's planar mask-to-galaxy rotation
- * differs from the exact projection by under 0.1 arcsec, so a spectrum within EDGE_TOL of a bin edge may be in either.
+ * The checker's re-derivation of coverage.json `starlightBins` (docs/faults.md, "Starlight bins"): every spectrum
+ * holding galaxy light — each starlight slit whole and, inside the starlight goal, the two parts of each tracer slit
+ * beside its extraction (2 seeing FWHM) — from the rows of slits.csv; its bin (1 Re of circularised radius x 45 deg of
+ * azimuth from the major axis towards +v) at its midpoint; its electrons per A from the Sérsic profile (flux mean over
+ * 5 points) and the CCD equation with the sky-estimate term of the mask's sky slits; co-added per bin with the
+ * systematic sky floor. A mask point is placed in the galaxy frame as the model defines it (docs/signal-to-noise.md):
+ * the galaxy centre projected (TAN) into the mask frame, the offset from it turned to the sky by the mask PA and to
+ * the galaxy frame by the galaxy PA. It shares the physical formulas (spectro/, sky/sersic) and the plan's settings
+ * (starlightBinModel) with the solver, not its binning, geometry or sums.
  */
 import type { GalaxyModel, PlanFile } from '../plan/schema';
 import type { InstrumentProfile } from '../profile/schema';
 import type { Slit } from '../geometry/maskSolution';
-import { maskToSkyArcsec } from '../sky/frames';
-import { tangentCentre, tangentToSkyDeg } from '../sky/tangentPlane';
+import { maskToSkyArcsec, skyToMaskArcsec } from '../sky/frames';
+import { skyToTangentArcsec, tangentCentre } from '../sky/tangentPlane';
 import { sersicBn, sersicMuMagPerArcsec2 } from '../sky/sersic';
 import { PMath } from '../numeric/portableMath';
 import { ccdTermsPerA, electronsPerAFromSurfaceBrightness, skyEstimateFactor } from '../spectro/signalToNoise';
 import { starlightBinModel } from '../solver/starlightBins';
 import { pointExtractionArcsec, type ExposureModel } from '../solver/exposure';
-import { radiusReAndAzimuthDeg } from './coverageRecount';
 import type { CheckedMask, Violation } from './checkOutput';
 
-/** A spectrum this close (arcsec, radially or along the azimuth) to a bin edge may be in either bin. */
-export const EDGE_TOL_ARCSEC = 0.15;
-/** S/N per A: written to 0.01; relative tolerance for the solver's planar rotation (under 0.07 arcsec on the demo). */
+/** A spectrum this close (arcsec, radially or along the azimuth) to a bin edge may be in either bin (slits.csv to 1e-4). */
+export const EDGE_TOL_ARCSEC = 0.01;
+/** S/N per A: written to 0.01, from slit ends written to 1e-4 arcsec. */
 export const SN_ABS_TOL = 0.011;
-export const SN_REL_TOL = 3e-3;
-/** reachRe: written to 1e-4 Re, plus the planar rotation. */
-export const REACH_TOL_RE = 1e-3;
-/** Edge cases whose bins are chosen jointly (2^10 layouts at most); more stay in their own bin. */
-const MAX_EDGE_CASES = 10;
+export const SN_REL_TOL = 1e-3;
+/** reachRe: written to 1e-4 Re. */
+export const REACH_TOL_RE = 3e-4;
+/** Most layouts of the edge cases tried (each a choice of bin per edge case); further edge cases stay in their own bin. */
+const MAX_EDGE_LAYOUTS = 1024;
 
 interface Part { signalE: number; varianceE2: number; skyE: number }
 /** A spectrum and the bins it may be in, its own first (null: outside the goal radius, not counted). */
@@ -49,6 +48,7 @@ export interface StarlightCheckInput {
 }
 
 const isObj = (x: unknown): x is Record<string, unknown> => !!x && typeof x === 'object' && !Array.isArray(x);
+const DEG = Math.PI / 180;
 const keyOf = (fromRe: number, sectorDeg: number) => `${fromRe}:${sectorDeg}`;
 /** A bin in the user's words: "2-3 Re, 90-135 deg". */
 export const starlightBinName = (fromRe: number, sectorDeg: number) => `${fromRe}-${fromRe + 1} Re, ${sectorDeg}-${sectorDeg + 45} deg`;
@@ -87,7 +87,10 @@ function spectraOf(input: StarlightCheckInput, goalRe: number): { spectra: Spect
   let firstModel: ExposureModel | null = null;
   const spectra: Spectrum[] = [];
   const rowsByMask = new Map<string, number[]>();
-  input.slits.forEach((s, i) => rowsByMask.set(s.maskId, [...(rowsByMask.get(s.maskId) ?? []), i]));
+  input.slits.forEach((s, i) => {
+    const list = rowsByMask.get(s.maskId);
+    if (list) list.push(i); else rowsByMask.set(s.maskId, [i]);
+  });
   for (const mask of input.masks) {
     const profile = input.profileFor(mask.instrument);
     if (!profile) continue; // reported by the mask rules
@@ -97,11 +100,16 @@ function spectraOf(input: StarlightCheckInput, goalRe: number): { spectra: Spect
     const rows = (rowsByMask.get(mask.maskId) ?? []).map((i) => ({ s: input.slits[i], i }));
     const skyLength = rows.filter((r) => r.s.role === 'sky').reduce((a, r) => a + r.s.lenBelowArcsec + r.s.lenAboveArcsec, 0);
     if (!(skyLength > 0)) continue;
-    const centre = tangentCentre(mask.raDeg, mask.decDeg);
+    // The galaxy centre in the mask frame, then each point's offset from it turned to the sky and the galaxy frame.
+    const t = skyToTangentArcsec(tangentCentre(mask.raDeg, mask.decDeg), g.raDeg, g.decDeg);
+    if (!t) continue;
+    const gc = skyToMaskArcsec(t.xiArcsec, t.etaArcsec, mask.paDeg);
+    const sinGal = PMath.sin(g.paDeg * DEG), cosGal = PMath.cos(g.paDeg * DEG), q = g.axisRatio;
     const at = (x: number, y: number) => {
-      const t = maskToSkyArcsec(x, y, mask.paDeg);
-      const p = tangentToSkyDeg(centre, t.xiArcsec, t.etaArcsec);
-      return radiusReAndAzimuthDeg(g, p.raDeg, p.decDeg);
+      const o = maskToSkyArcsec(x - gc.xArcsec, y - gc.yArcsec, mask.paDeg);
+      const u = o.xiArcsec * sinGal + o.etaArcsec * cosGal, v = o.xiArcsec * cosGal - o.etaArcsec * sinGal;
+      const phiDeg = PMath.atan2(v, u) / DEG;
+      return { rRe: Math.sqrt(q * u * u + (v * v) / q) / g.reArcsec, phiDeg: phiDeg < 0 ? phiDeg + 360 : phiDeg };
     };
     const extraction = pointExtractionArcsec(m.seeingFwhmArcsec);
     for (const { s, i } of rows) {
@@ -166,7 +174,9 @@ export function checkStarlightBins(input: StarlightCheckInput): Violation[] {
     const derived = new Map<string, Spectrum[]>();
     for (const sp of spectra) {
       const k = binOf(sp);
-      if (k !== null) derived.set(k, [...(derived.get(k) ?? []), sp]);
+      if (k === null) continue;
+      const list = derived.get(k);
+      if (list) list.push(sp); else derived.set(k, [sp]);
     }
     for (const [k, sps] of derived) {
       if (fileBins.has(k)) continue;
@@ -191,7 +201,13 @@ export function checkStarlightBins(input: StarlightCheckInput): Violation[] {
     return found;
   };
   // Every spectrum in its own bin, except the few near an edge: the choice of their bins that explains the file best.
-  const edge = spectra.filter((s) => s.cands.length > 1).slice(0, MAX_EDGE_CASES);
+  const edge: Spectrum[] = [];
+  let layouts = 1;
+  for (const sp of spectra) {
+    if (sp.cands.length < 2 || layouts * sp.cands.length > MAX_EDGE_LAYOUTS) continue;
+    edge.push(sp);
+    layouts *= sp.cands.length;
+  }
   const choice = new Map<Spectrum, number>(edge.map((s) => [s, 0]));
   let best: Violation[] | null = null;
   for (;;) {
