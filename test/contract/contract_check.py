@@ -715,7 +715,7 @@ def binned_spectra(plan, gal, masks, per_mask):
             s, v, sky = spectrum_electrons(mean_mu + m["toAb"], y1 - y0, r["width"], sky_length, m)
             cands = edge_candidates(r_mid, phi_mid, gal["reArcsec"])
             if kind == "tracer" and abs(r_mid - goal) * gal["reArcsec"] < POS_TOL_ARCSEC:
-                cands = (cands if r_mid <= goal else []) + [None]   # at the goal radius: counted or not
+                cands = cands + [None] if r_mid <= goal else [None] + cands   # at the goal radius: counted or not
             out.append({"cands": cands, "kind": kind, "r": r_mid, "part": (s, v, sky), "where": r["where"]})
     return out, bn, models
 
@@ -760,7 +760,7 @@ def check_starlight_bins(cov, plan, masks, per_mask, report):
         if not isinstance(sb.get(key), (int, float)) or abs(sb[key] - want) > 1e-9:
             report.add(f"{where0}.{key}", "starlight-bins", f"{json.dumps(sb.get(key))}, but solved.plan.json gives {want}")
     spectra, bn, models = binned_spectra(plan, gal, masks, per_mask)
-    moonlit = any(m["skyUnknown"] for m in models.values())
+    sky_unknown = any(m["skyUnknown"] for m in models.values())
     first_model = next(iter(models.values()), None)
     file_bins = {}
     for i, b in enumerate(sb["bins"]):
@@ -796,7 +796,7 @@ def check_starlight_bins(cov, plan, masks, per_mask, report):
                 if b.get(field) != n:
                     found.append((bwhere, f"{field} {json.dumps(b.get(field))}, but slits.csv gives {n} {words} there"))
             sn = coadd([x["part"] for x in sps], f)
-            if not moonlit:
+            if not sky_unknown:
                 for field, j in (("snPerA", 0), ("snPerAWithoutFloor", 1)):
                     if not within(b.get(field), sn[j], sn[j]):
                         found.append((bwhere, f"{field} {json.dumps(b.get(field))}, but the spectra of slits.csv in this bin co-add to {sn[j]:.2f}"))
@@ -825,7 +825,7 @@ def check_starlight_bins(cov, plan, masks, per_mask, report):
     achieved_met, inside, short = 0, 0, []
     for key, (i, b, name) in sorted(file_bins.items()):
         bwhere = f"{where0}.bins[{i}] ({name})"
-        if first_model is not None and not moonlit:
+        if first_model is not None and not sky_unknown:
             if key[0] <= 0 or f <= 0:
                 cap = None
             else:
@@ -867,7 +867,7 @@ def check_starlight_bins(cov, plan, masks, per_mask, report):
             if label not in reason or cause not in reason:
                 report.add(gwhere, "starlight-bins", f"the short bin {name} is not named with its cause ({cause}) in the reason")
     note = f"{len(file_bins)} starlight bins re-derived"
-    if moonlit:
+    if sky_unknown:
         note += " (S/N not re-derived: the plan's Moon is computed for a date)"
     return note
 

@@ -125,7 +125,7 @@ function spectraOf(input: StarlightCheckInput, goalRe: number): { spectra: Spect
         const muAb = -2.5 * PMath.log10(flux / 5) + (m.catalogToAbMag ?? 0);
         let cands: (string | null)[] = candidateBins(mid.rRe, mid.phiDeg, g.reArcsec);
         // At the goal radius a tracer sky part is counted or not.
-        if (kind === 'tracer' && Math.abs(mid.rRe - goalRe) * g.reArcsec < EDGE_TOL_ARCSEC) cands = [...(mid.rRe <= goalRe ? cands : []), null];
+        if (kind === 'tracer' && Math.abs(mid.rRe - goalRe) * g.reArcsec < EDGE_TOL_ARCSEC) cands = mid.rRe <= goalRe ? [...cands, null] : [null, ...cands];
         spectra.push({ cands, kind, rRe: mid.rRe, part: electrons(muAb, y1 - y0, s.widthArcsec, skyLength, m), where: input.rowWhere?.(i) ?? `slit ${s.slitId} of mask ${s.maskId}` });
       }
     }
