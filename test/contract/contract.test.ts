@@ -110,6 +110,10 @@ const SCENARIOS: Scenario[] = [
   // the outer bins below the target: the checker re-derives the moonlit S/N and names the floor as the cause.
   { name: 'moonlit-ridge', profileId: 'ridge10-narrow', raDeg: 150.3, decDeg: -20, reArcsec: 38, galaxyPaDeg: 35, maskPaDeg: 35, seed: 77,
     extra: { observing: { moon: { phaseAngleDeg: 70, separationDeg: 50, altitudeDeg: 35 }, skySystematicFraction: 0.02 }, photometry: { band: 'I', system: 'Vega' } } },
+  // A Moon computed for the middle night of a range (near full, about 25 deg from the galaxy): the checker computes it
+  // with astropy's own ephemeris.
+  { name: 'dated-quad', profileId: 'quad8-square', raDeg: 161.8, decDeg: -21.4, reArcsec: 22, galaxyPaDeg: 120, maskPaDeg: 120, seed: 88,
+    extra: { observing: { dateRange: ['2027-03-18', '2027-03-23'], designHourAngleH: 0.5 } } },
 ];
 
 let work: string;

@@ -511,6 +511,8 @@ def check_coverage(cov, galaxy, goals, slit_rows, report):
 #   dispersionAPerPixel, n_B the same for the mask's sky slits (their total length).
 # - Co-adding (docs/signal-to-noise.md, sky floor): S/N = sum N* / sqrt(sum variance + (f sum n_pix N_S)^2), f the
 #   systematic sky-subtraction fraction (observing.skySystematicFraction, default 0.01).
+# - The sky: starlight.skyMagPerArcsec2 (AB) plus the Moon (Krisciunas & Schaefer 1991, PASP 103, 1033), given in
+#   observing.moon or computed for observing.date / dateRange with astropy's ephemerides (dated_moon).
 # - Spectra: each starlight slit whole; each tracer slit's two parts beside its extraction of 2 seeing FWHM centred on
 #   the tracer, inside the starlight goal radius (R/Re of the part's midpoint); none from a mask without sky slits.
 #   A spectrum's bin: floor(R/Re) and 45-degree sector of the azimuth from the major axis towards +v (not folded), at
@@ -570,19 +572,73 @@ def moon_sky_nanolambert(phase_deg, sep_deg, moon_zenith_deg, target_zenith_deg,
     return f_rho * i_star * 10 ** (-0.4 * k_v * airmass(moon_zenith_deg)) * (1 - 10 ** (-0.4 * k_v * airmass(target_zenith_deg)))
 
 
+def dated_moon(obs, galaxy, site):
+    """The Moon of observing.date / dateRange by astropy (get_body: its built-in lunar and solar ephemerides; no
+    download, UT1 taken as UTC beyond the bundled IERS table): the design moment is the given UTC instant, or on the
+    night (local evening date; the middle night of a range, the earlier of two) the moment nearest local mean midnight
+    (date + 1 day - longitude/360) when the galaxy's hour angle (mean place of date, FK5) is observing.designHourAngleH
+    (default 0). Returns the phase angle (geocentric Sun and Moon), the topocentric Moon-galaxy separation, the Moon's
+    and the galaxy's geometric altitudes (degrees); None when the date cannot be read."""
+    from astropy.utils import iers
+    from astropy.time import Time
+    from astropy.coordinates import AltAz, EarthLocation, FK5, get_body
+    import datetime
+    import warnings
+    iers.conf.auto_download = False
+    iers.conf.iers_degraded_accuracy = "ignore"
+    try:
+        ra, dec = ra_deg_of(galaxy["ra"]), dec_deg_of(galaxy["dec"])
+        loc = EarthLocation.from_geodetic(site["lonDeg"] * u.deg, site["latDeg"] * u.deg, site.get("elevationM", 0) * u.m)
+        gal = SkyCoord(ra * u.deg, dec * u.deg)
+        text = obs.get("date")
+        with warnings.catch_warnings():
+            warnings.simplefilter("ignore")
+            if isinstance(text, str) and "T" in text:
+                t = Time(text.strip().rstrip("Zz").replace(" ", ""), scale="utc")
+            else:
+                if text is None:
+                    a, z = (datetime.date.fromisoformat(d) for d in obs["dateRange"])
+                    text = (a + datetime.timedelta(days=((z - a).days) // 2)).isoformat()
+                mid = Time(text.strip() + "T00:00:00", scale="utc") + (1 - site["lonDeg"] / 360.0) * u.day
+                lst = mid.sidereal_time("apparent", longitude=site["lonDeg"] * u.deg).deg
+                ra_date = gal.transform_to(FK5(equinox=mid)).ra.deg
+                ha_deg = obs.get("designHourAngleH", 0) * 15.0 - (lst - ra_date)
+                t = mid + (((ha_deg + 180.0) % 360.0 - 180.0) / 360.98564736629) * u.day
+            moon_topo = get_body("moon", t, loc)
+            frame = AltAz(obstime=t, location=loc)
+            moon_geo, sun_geo = get_body("moon", t), get_body("sun", t)
+            elong = sun_geo.separation(moon_geo).rad
+            r_sun, r_moon = sun_geo.distance.to(u.km).value, moon_geo.distance.to(u.km).value
+            return {"phaseAngleDeg": math.degrees(math.atan2(r_sun * math.sin(elong), r_moon - r_sun * math.cos(elong))),
+                    "separationDeg": moon_topo.separation(gal).deg,
+                    "altitudeDeg": moon_topo.transform_to(frame).alt.deg,
+                    "galaxyAltitudeDeg": gal.transform_to(frame).alt.deg}
+    except (KeyError, TypeError, ValueError) as e:
+        print(f"contract_check: the Moon of observing.date could not be computed ({e}); starlight S/N not re-derived",
+              file=sys.stderr)
+        return None
+
+
 def plan_sky_ab(plan, prof, dark_ab):
     """The sky of the starlight measure (AB mag/arcsec^2): the dark sky plus a Moon given in observing.moon, summed in
     flux; the Moon's V light (K&S 1991; V = (20.7233 - ln(B / 34.08)) / 0.92104) moved to the catalog band with the
-    Sun's V - I = 0.70 and the band's AB - Vega (docs/signal-to-noise.md). The galaxy is taken at transit.
-    None when the Moon is computed for observing.date / dateRange (an ephemeris this checker does not carry)."""
+    Sun's V - I = 0.70 and the band's AB - Vega (docs/signal-to-noise.md); with a given Moon the galaxy is taken at
+    transit. A Moon of observing.date / dateRange comes from dated_moon (None when it cannot be computed)."""
     obs = plan.get("observing") if isinstance(plan.get("observing"), dict) else {}
     moon = obs.get("moon")
-    if not moon:
-        return None if (obs.get("date") is not None or obs.get("dateRange")) else dark_ab
-    dec = dec_deg_of(plan["galaxy"]["dec"])
-    target_zenith = min(89.0, abs(prof["site"]["latDeg"] - dec))
-    b = moon_sky_nanolambert(moon["phaseAngleDeg"], moon["separationDeg"], 90 - moon["altitudeDeg"], target_zenith,
-                             moon.get("extinctionV", 0.15))
+    if moon:
+        dec = dec_deg_of(plan["galaxy"]["dec"])
+        target_zenith = min(89.0, abs(prof["site"]["latDeg"] - dec))
+        b = moon_sky_nanolambert(moon["phaseAngleDeg"], moon["separationDeg"], 90 - moon["altitudeDeg"], target_zenith,
+                                 moon.get("extinctionV", 0.15))
+    elif obs.get("date") is not None or obs.get("dateRange"):
+        geo = dated_moon(obs, plan["galaxy"], prof["site"])
+        if geo is None:
+            return None
+        b = moon_sky_nanolambert(geo["phaseAngleDeg"], geo["separationDeg"], 90 - geo["altitudeDeg"],
+                                 min(89.0, 90 - geo["galaxyAltitudeDeg"]), 0.15)
+    else:
+        return dark_ab
     if not b > 0:
         return dark_ab
     ph = plan.get("photometry") if isinstance(plan.get("photometry"), dict) else None
@@ -868,7 +924,7 @@ def check_starlight_bins(cov, plan, masks, per_mask, report):
                 report.add(gwhere, "starlight-bins", f"the short bin {name} is not named with its cause ({cause}) in the reason")
     note = f"{len(file_bins)} starlight bins re-derived"
     if sky_unknown:
-        note += " (S/N not re-derived: the plan's Moon is computed for a date)"
+        note += " (S/N not re-derived: the Moon of observing.date could not be computed)"
     return note
 
 
