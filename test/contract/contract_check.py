@@ -32,6 +32,10 @@ their `id` key; then the *.json files of the profile directory (default: instrum
 With `instruments`, every masks.csv instrument must be the id of one of them, each used by exactly its `masks`
 count, and a solved.plan.json mask naming its `instrument` must name the one masks.csv gives.
 
+coverage.json `starlightBins` (co-added integrated starlight per 1 Re x 45 deg bin) is re-derived from the slits, the
+plan and the profiles with this checker's own Sersic, AB-flux, CCD-equation and Moon formulas (section
+"integrated-starlight bins" below, with their sources).
+
 Output: one line per violation ("WHERE: [rule] what"), exit status 1 if there is any; otherwise a summary (rows
 checked, worst position residual) and exit status 0. Exit status 3: astropy missing.
 """
@@ -496,13 +500,11 @@ def check_coverage(cov, galaxy, goals, slit_rows, report):
             report.add(rwhere, "coverage", f"maxReachRe {reach}, recomputed from slits.csv {expected}")
 
 
-# ---- the catalog (an extra cross-check: a target's slit is centred on it) ---------------------------------------
-
 # ---- integrated-starlight bins (coverage.json starlightBins) -----------------------------------------------------
 # Re-derived from slits.csv, masks.csv, solved.plan.json and each mask's instrument profile with this checker's own
 # formulas, from the definitions in Haloweave's docs/signal-to-noise.md and docs/contract-check.md:
 # - Sersic profile (Sersic 1968): mu(R) = muE + 2.5 b_n / ln 10 [(R/Re)^(1/n) - 1] in the catalog's band, R the
-#   circularised radius; b_n the root of Gamma(2n) = 2 gamma(2n, b_n) (Graham & Driver 2005, PASA 22, 118, eq. 1-4;
+#   circularised radius; b_n the root of Gamma(2n) = 2 gamma(2n, b_n) (Graham & Driver 2005, PASA 22, 118;
 #   they list b_1 = 1.678, b_4 = 7.669, checked in the self-test); a slit part's mean surface brightness is the flux
 #   mean over 5 points at the centres of 5 equal pieces along it.
 # - AB magnitudes (Oke & Gunn 1983): f_nu = 3631 Jy 10^(-0.4 m); photons s^-1 cm^-2 A^-1 = f_nu / (h lambda).
@@ -927,6 +929,8 @@ def check_starlight_bins(cov, plan, masks, per_mask, report):
         note += " (S/N not re-derived: the Moon of observing.date could not be computed)"
     return note
 
+
+# ---- the catalog (an extra cross-check: a target's slit is centred on it) ---------------------------------------
 
 def check_catalog(plan, out_dir, slit_rows, report_rows, report):
     """Tracer and alignment rows sit on their catalog object (the contract: "a target's minimal slit is centred on
