@@ -41,7 +41,7 @@ describe('haloweave check recounts coverage.json from slits.csv', () => {
     const r = cli(['check', 'good'], work);
     expect(r.err).toBe('');
     expect(r.code).toBe(0);
-    expect(r.out).toMatch(/coverage recount, solved\.plan\.json masks, objects, positions, mags and weights against .*small\.catalog\.csv and catalog-report\.csv/);
+    expect(r.out).toMatch(/coverage recount, co-added starlight bins, solved\.plan\.json masks, objects, positions, mags and weights against .*small\.catalog\.csv and catalog-report\.csv/);
   });
 
   it('a radial bin count one too high', () => {

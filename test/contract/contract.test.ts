@@ -48,7 +48,8 @@ function plan(planPath: string, outDir: string): void {
 
 
 /** `customProfile`: write a modified copy of the profile with a new id beside the plan and name it by path. */
-interface Scenario { name: string; profileId: string; customProfile?: { id: string; gapArcsec: number; minLengthArcsec: number }; raDeg: number; decDeg: number; reArcsec: number; galaxyPaDeg: number; maskPaDeg: number; seed: number }
+/** `extra`: plan sections added (observing, photometry...), e.g. a Moon that brightens the sky of the starlight bins. */
+interface Scenario { name: string; profileId: string; customProfile?: { id: string; gapArcsec: number; minLengthArcsec: number }; raDeg: number; decDeg: number; reArcsec: number; galaxyPaDeg: number; maskPaDeg: number; seed: number; extra?: Record<string, unknown> }
 
 /** An invented scenario: plan JSON + CSV catalog (tracers around the galaxy, alignment stars in the profile's magRange). */
 function writeScenario(dir: string, s: Scenario): string {
@@ -88,6 +89,7 @@ function writeScenario(dir: string, s: Scenario): string {
     goals: { masks: 2, tracerReachRe: 10, starlightReachRe: 3, linesA: [8498.0, 8542.1, 8662.1] },
     // one mask locked on the galaxy centre, one left to the solver
     masks: [{ id: 'c', raDeg: s.raDeg, decDeg: s.decDeg, paDeg: s.maskPaDeg, locked: true }, { id: 'free' }],
+    ...s.extra,
   };
   const path = join(dir, `${s.name}.plan.json`);
   writeFileSync(path, JSON.stringify(planJson, null, 2));
@@ -104,6 +106,14 @@ const SCENARIOS: Scenario[] = [
   // a profile named by path (not in instrument-profiles/): the checker must follow solved.plan.json's instrument path
   { name: 'path-profile', profileId: 'ridge10-narrow', customProfile: { id: 'test-ridge-wide-gap', gapArcsec: 2.0, minLengthArcsec: 6.0 },
     raDeg: 0.02, decDeg: 12, reArcsec: 30, galaxyPaDeg: 60, maskPaDeg: 150, seed: 66 },
+  // Starlight bins under a given Moon (Krisciunas & Schaefer sky), Vega I magnitudes and a sky floor of 2 % that caps
+  // the outer bins below the target: the checker re-derives the moonlit S/N and names the floor as the cause.
+  { name: 'moonlit-ridge', profileId: 'ridge10-narrow', raDeg: 150.3, decDeg: -20, reArcsec: 38, galaxyPaDeg: 35, maskPaDeg: 35, seed: 77,
+    extra: { observing: { moon: { phaseAngleDeg: 70, separationDeg: 50, altitudeDeg: 35 }, skySystematicFraction: 0.02 }, photometry: { band: 'I', system: 'Vega' } } },
+  // A Moon computed for the middle night of a range (near full, about 25 deg from the galaxy): the checker computes it
+  // with astropy's own ephemeris.
+  { name: 'dated-quad', profileId: 'quad8-square', raDeg: 161.8, decDeg: -21.4, reArcsec: 22, galaxyPaDeg: 120, maskPaDeg: 120, seed: 88,
+    extra: { observing: { dateRange: ['2027-03-18', '2027-03-23'], designHourAngleH: 0.5 } } },
 ];
 
 let work: string;
@@ -165,6 +175,8 @@ describe('haloweave plan outputs obey the contract (checked with astropy)', () =
     expect(lines.filter((l) => !l.startsWith('contract_check: ok:')), `violations in ${dir}`).toEqual([]);
     expect(lines).toHaveLength(1);
     expect(lines[0]).toMatch(new RegExp(`^contract_check: ok: ${masks} masks, \\d+ rows checked, worst position residual`));
+    // coverage.json's starlight bins were re-derived, S/N included
+    expect(lines[0]).toMatch(/; [1-9]\d* starlight bins re-derived; astropy/);
   };
 
   it('the hand-written plan test/cli/fixtures/small.plan.json (with catalog-report.csv rows)', () => {
@@ -180,6 +192,13 @@ describe('haloweave plan outputs obey the contract (checked with astropy)', () =
     expectOk(scenarioDirs.get(name)!, 2);
     const masks = readFileSync(join(scenarioDirs.get(name)!, 'masks.csv'), 'utf8');
     expect(masks).toContain(`,${s.customProfile?.id ?? s.profileId},`);
+  });
+
+  it('the moonlit scenario has bins capped by the sky floor, named with that cause (so the cause rule was exercised)', () => {
+    const cov = JSON.parse(readFileSync(join(scenarioDirs.get('moonlit-ridge')!, 'coverage.json'), 'utf8'));
+    const capped = cov.starlightBins.bins.filter((b: { floorCapSnPerA: number | null; targetSnPerA: number; met: boolean }) => b.floorCapSnPerA !== null && b.floorCapSnPerA < b.targetSnPerA && !b.met);
+    expect(capped.length).toBeGreaterThan(0);
+    expect(cov.goals.find((g: { name: string }) => g.name === 'starlightBins').reason).toMatch(/floor/);
   });
 
   it('exit status 0 when every folder passes', () => expect(good.code).toBe(0));
@@ -244,9 +263,26 @@ interface Corruption {
   profileRule?: boolean;
   apply(dir: string): { rule: string; mustName: string[]; only?: boolean; alsoAllowed?: string[] };
 }
-const MOVED = ['[coverage]', '[catalog]']; // a moved target also leaves its catalog position
+// A moved target also leaves its catalog position, and moves the galaxy light its slit's sky parts co-add.
+const MOVED = ['[coverage]', '[catalog]', '[starlight-bins]'];
 
 const ridge = profile('ridge10-narrow'); // the demo's profile
+
+/** The demo's coverage.json with one starlight bin changed by `edit`: the bin met with the most S/N to spare. */
+function tamperStarlightBin(dir: string, edit: (bin: Record<string, unknown>) => string): { rule: string; mustName: string[]; only: boolean } {
+  const cov = JSON.parse(readFileSync(join(dir, 'coverage.json'), 'utf8'));
+  const bins = cov.starlightBins.bins as { fromRe: number; sectorDeg: number; snPerA: number; met: boolean }[];
+  const i = bins.reduce((best, b, k) => (b.met && b.snPerA > bins[best].snPerA ? k : best), 0);
+  const b = bins[i];
+  const field = edit(b as unknown as Record<string, unknown>);
+  writeFileSync(join(dir, 'coverage.json'), JSON.stringify(cov));
+  return { rule: '[starlight-bins]', mustName: [`starlightBins.bins[${i}] (${b.fromRe}-${b.fromRe + 1} Re, ${b.sectorDeg}-${b.sectorDeg + 45} deg)`, field], only: true };
+}
+const STARLIGHT_TAMPERING: Corruption[] = [
+  { name: 'a starlight bin\'s co-added S/N raised', apply: (dir) => tamperStarlightBin(dir, (b) => { b.snPerA = Math.round((b.snPerA as number) * 115) / 100; return 'snPerA'; }) },
+  { name: 'a starlight bin counting one tracer sky part more', apply: (dir) => tamperStarlightBin(dir, (b) => { b.tracerSkyParts = (b.tracerSkyParts as number) + 1; return 'tracerSkyParts'; }) },
+  { name: 'a starlight bin well above its target marked not met', apply: (dir) => tamperStarlightBin(dir, (b) => { b.met = false; return 'met false'; }) },
+];
 const CORRUPTIONS: Corruption[] = [
   { name: 'a slit moved into its neighbour', apply(dir) {
     const masks = readTable(join(dir, 'masks.csv')), t = readTable(join(dir, 'slits.csv'));
@@ -327,7 +363,8 @@ const CORRUPTIONS: Corruption[] = [
     const r = t.rows.find((row) => row.role === 'tracer')!;
     r.len_below_arcsec = String(ridge.slits.minLengthArcsec / 2 - 0.1);
     writeTable(join(dir, 'slits.csv'), t);
-    return { rule: '[min-length]', mustName: [`slit ${r.slit_id}`], only: true };
+    // a shorter slit also has less sky beside its tracer, co-added into a starlight bin
+    return { rule: '[min-length]', mustName: [`slit ${r.slit_id}`], only: true, alsoAllowed: ['[starlight-bins]'] };
   } },
   { name: 'too few alignment boxes', apply(dir) {
     const t = readTable(join(dir, 'slits.csv'));
@@ -355,6 +392,7 @@ const CORRUPTIONS: Corruption[] = [
     writeFileSync(join(dir, 'coverage.json'), JSON.stringify(cov));
     return { rule: '[coverage]', mustName: ['roles.tracer', 'bin [2, 3)'], only: true };
   } },
+  ...STARLIGHT_TAMPERING,
   { name: 'a used object on a catalog line that catalog-report.csv lists as not used', profileRule: false, apply(dir) {
     const t = readTable(join(dir, 'slits.csv'));
     const r = t.rows.find((row) => row.mask_id === 'm2' && row.role === 'tracer')!;
@@ -407,13 +445,19 @@ describe('contract_check.py reports each corruption of a good folder, naming the
 
   // Agreement with the TypeScript checker on the rules it owns: it must reject each of these folders too.
   it.each(CORRUPTIONS.filter((c) => c.profileRule !== false).map((c) => [c.name]))('`haloweave check` rejects it too: %s', (name) => {
-    const r = spawnSync(process.execPath, [BIN, 'check', results.get(name)!.dir], { cwd: ROOT, encoding: 'utf8' });
+    const { dir, expected } = results.get(name)!;
+    const r = spawnSync(process.execPath, [BIN, 'check', dir], { cwd: ROOT, encoding: 'utf8' });
     expect(r.status, r.stdout + r.stderr).not.toBe(0);
+    // A changed coverage.json also fails the folder's manifest: the starlight bin itself must be named.
+    if (expected.rule === '[starlight-bins]') {
+      const named = r.stderr.split('\n').filter((l) => l.includes('[starlight bins]') && l.includes(expected.mustName[0]));
+      expect(named, r.stderr).not.toHaveLength(0);
+    }
   });
 });
 
 describe('`haloweave check` agrees on good folders', () => {
-  it.each([['demo'], ['south80-quad'], ['path-profile']])('%s passes `haloweave check` as it passes contract_check.py', (name) => {
+  it.each([['demo'], ['south80-quad'], ['path-profile'], ['moonlit-ridge']])('%s passes `haloweave check` as it passes contract_check.py', (name) => {
     const dir = name === 'demo' ? demoDir : scenarioDirs.get(name)!;
     const r = spawnSync(process.execPath, [BIN, 'check', dir], { cwd: ROOT, encoding: 'utf8' });
     expect(r.status, r.stdout + r.stderr).toBe(0);

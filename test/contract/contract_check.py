@@ -32,12 +32,17 @@ their `id` key; then the *.json files of the profile directory (default: instrum
 With `instruments`, every masks.csv instrument must be the id of one of them, each used by exactly its `masks`
 count, and a solved.plan.json mask naming its `instrument` must name the one masks.csv gives.
 
+coverage.json `starlightBins` (co-added integrated starlight per 1 Re x 45 deg bin) is re-derived from the slits, the
+plan and the profiles with this checker's own Sersic, AB-flux, CCD-equation and Moon formulas (section
+"integrated-starlight bins" below, with their sources).
+
 Output: one line per violation ("WHERE: [rule] what"), exit status 1 if there is any; otherwise a summary (rows
 checked, worst position residual) and exit status 0. Exit status 3: astropy missing.
 """
 import argparse
 import csv
 import glob
+import itertools
 import json
 import math
 import os
@@ -495,6 +500,436 @@ def check_coverage(cov, galaxy, goals, slit_rows, report):
             report.add(rwhere, "coverage", f"maxReachRe {reach}, recomputed from slits.csv {expected}")
 
 
+# ---- integrated-starlight bins (coverage.json starlightBins) -----------------------------------------------------
+# Re-derived from slits.csv, masks.csv, solved.plan.json and each mask's instrument profile with this checker's own
+# formulas, from the definitions in Haloweave's docs/signal-to-noise.md and docs/contract-check.md:
+# - Sersic profile (Sersic 1968): mu(R) = muE + 2.5 b_n / ln 10 [(R/Re)^(1/n) - 1] in the catalog's band, R the
+#   circularised radius; b_n the root of Gamma(2n) = 2 gamma(2n, b_n) (Graham & Driver 2005, PASA 22, 118;
+#   they list b_1 = 1.678, b_4 = 7.669, checked in the self-test); a slit part's mean surface brightness is the flux
+#   mean over 5 points at the centres of 5 equal pieces along it.
+# - AB magnitudes (Oke & Gunn 1983): f_nu = 3631 Jy 10^(-0.4 m); photons s^-1 cm^-2 A^-1 = f_nu / (h lambda).
+# - Howell's CCD equation (Handbook of CCD Astronomy, 2nd ed. 2006, sec. 4.4; Howell 1989, PASP 101, 616) per A of
+#   spectrum: variance = N* + n_pix (1 + n_pix/n_B)(N_S + N_D + N_R^2), n_pix = length / yArcsecPerPixel /
+#   dispersionAPerPixel, n_B the same for the mask's sky slits (their total length).
+# - Co-adding (docs/signal-to-noise.md, sky floor): S/N = sum N* / sqrt(sum variance + (f sum n_pix N_S)^2), f the
+#   systematic sky-subtraction fraction (observing.skySystematicFraction, default 0.01).
+# - The sky: starlight.skyMagPerArcsec2 (AB) plus the Moon (Krisciunas & Schaefer 1991, PASP 103, 1033), given in
+#   observing.moon or computed for observing.date / dateRange with astropy's ephemerides (dated_moon).
+# - Spectra: each starlight slit whole; each tracer slit's two parts beside its extraction of 2 seeing FWHM centred on
+#   the tracer, inside the starlight goal radius (R/Re of the part's midpoint); none from a mask without sky slits.
+#   A spectrum's bin: floor(R/Re) and 45-degree sector of the azimuth from the major axis towards +v (not folded), at
+#   its midpoint. A mask point is placed as the model defines it: the galaxy centre projected (TAN, astropy.wcs) into
+#   the mask frame, the point's offset from it turned to the sky by the mask PA and to the galaxy frame by its PA.
+STARLIGHT_DEFAULTS = {"exposureS": 7200.0, "skyMagPerArcsec2": 19.6, "targetSnPerA": 5.0, "throughput": 0.15}
+OBSERVING_DEFAULT_SEEING_ARCSEC = 0.8
+DEFAULT_SKY_FLOOR = 0.01
+POINT_EXTRACTION_FWHM = 2.0
+AB_MINUS_VEGA = {"I": 0.45, "i": 0.37, "z": 0.54, "R": 0.21, "V": 0.02}  # Blanton & Roweis 2007, AJ 133, 734, Table 1
+PLANCK_ERG_S = 6.62607015e-27                    # SI 2019 exact
+AB_ZERO_CGS = 3631e-23                           # 3631 Jy in erg s^-1 cm^-2 Hz^-1
+SN_ABS_TOL = 0.011     # S/N per A: written to 0.01
+SN_REL_TOL = 1e-3      # ... from slit ends written to 1e-4 arcsec
+REACH_ABS_TOL_RE = 3e-4   # reachRe: written to 1e-4 Re
+POS_TOL_ARCSEC = 0.01  # a spectrum this close to a bin edge (radial, or along the azimuth) may be in either bin
+MAX_EDGE_LAYOUTS = 1024   # most layouts (a bin for each edge case) tried; further edge cases stay in their own bin
+
+
+def lower_gamma_p(a, x):
+    """Regularised lower incomplete gamma P(a, x) by its power series (converges for every x >= 0)."""
+    if x <= 0:
+        return 0.0
+    term = 1.0 / a
+    total = term
+    k = 1
+    while k < 100000:
+        term *= x / (a + k)
+        total += term
+        if term < total * 1e-17:
+            break
+        k += 1
+    return math.exp(a * math.log(x) - x - math.lgamma(a)) * total
+
+
+def sersic_bn(n):
+    """b_n with P(2n, b_n) = 1/2 (Graham & Driver 2005), by bisection."""
+    lo, hi = 0.0, 4.0 * n + 10.0
+    for _ in range(200):
+        mid = 0.5 * (lo + hi)
+        if lower_gamma_p(2.0 * n, mid) < 0.5:
+            lo = mid
+        else:
+            hi = mid
+    return 0.5 * (lo + hi)
+
+
+def moon_sky_nanolambert(phase_deg, sep_deg, moon_zenith_deg, target_zenith_deg, k_v):
+    """Moonlight at the target, nanoLamberts (Krisciunas & Schaefer 1991, PASP 103, 1033, eqs. 3, 15, 20, 21)."""
+    if moon_zenith_deg >= 90:
+        return 0.0
+    airmass = lambda z: (1 - 0.96 * math.sin(math.radians(z)) ** 2) ** -0.5
+    a = abs(phase_deg)
+    i_star = 10 ** (-0.4 * (-12.73 + 0.026 * a + 4e-9 * a ** 4 + 16.57))
+    f_rho = 6.2e7 / sep_deg ** 2 if sep_deg < 10 else \
+        10 ** 5.36 * (1.06 + math.cos(math.radians(sep_deg)) ** 2) + 10 ** (6.15 - sep_deg / 40)
+    return f_rho * i_star * 10 ** (-0.4 * k_v * airmass(moon_zenith_deg)) * (1 - 10 ** (-0.4 * k_v * airmass(target_zenith_deg)))
+
+
+def dated_moon(obs, galaxy, site):
+    """The Moon of observing.date / dateRange by astropy (get_body: its built-in lunar and solar ephemerides; no
+    download, UT1 taken as UTC beyond the bundled IERS table): the design moment is the given UTC instant, or on the
+    night (local evening date; the middle night of a range, the earlier of two) the moment nearest local mean midnight
+    (date + 1 day - longitude/360) when the galaxy's hour angle (mean place of date, FK5) is observing.designHourAngleH
+    (default 0). Returns the phase angle (geocentric Sun and Moon), the topocentric Moon-galaxy separation, the Moon's
+    and the galaxy's geometric altitudes (degrees); None when the date cannot be read."""
+    from astropy.utils import iers
+    from astropy.time import Time
+    from astropy.coordinates import AltAz, EarthLocation, FK5, get_body
+    import datetime
+    import warnings
+    iers.conf.auto_download = False
+    iers.conf.iers_degraded_accuracy = "ignore"
+    try:
+        ra, dec = ra_deg_of(galaxy["ra"]), dec_deg_of(galaxy["dec"])
+        loc = EarthLocation.from_geodetic(site["lonDeg"] * u.deg, site["latDeg"] * u.deg, site.get("elevationM", 0) * u.m)
+        gal = SkyCoord(ra * u.deg, dec * u.deg)
+        text = obs.get("date")
+        with warnings.catch_warnings():
+            warnings.simplefilter("ignore")
+            if isinstance(text, str) and "T" in text:
+                t = Time(text.strip().rstrip("Zz").replace(" ", ""), scale="utc")
+            else:
+                if text is None:
+                    a, z = (datetime.date.fromisoformat(d) for d in obs["dateRange"])
+                    text = (a + datetime.timedelta(days=((z - a).days) // 2)).isoformat()
+                mid = Time(text.strip() + "T00:00:00", scale="utc") + (1 - site["lonDeg"] / 360.0) * u.day
+                lst = mid.sidereal_time("apparent", longitude=site["lonDeg"] * u.deg).deg
+                ra_date = gal.transform_to(FK5(equinox=mid)).ra.deg
+                ha_deg = obs.get("designHourAngleH", 0) * 15.0 - (lst - ra_date)
+                t = mid + (((ha_deg + 180.0) % 360.0 - 180.0) / 360.98564736629) * u.day
+            moon_topo = get_body("moon", t, loc)
+            frame = AltAz(obstime=t, location=loc)
+            moon_geo, sun_geo = get_body("moon", t), get_body("sun", t)
+            elong = sun_geo.separation(moon_geo).rad
+            r_sun, r_moon = sun_geo.distance.to(u.km).value, moon_geo.distance.to(u.km).value
+            return {"phaseAngleDeg": math.degrees(math.atan2(r_sun * math.sin(elong), r_moon - r_sun * math.cos(elong))),
+                    "separationDeg": moon_topo.separation(gal).deg,
+                    "altitudeDeg": moon_topo.transform_to(frame).alt.deg,
+                    "galaxyAltitudeDeg": gal.transform_to(frame).alt.deg}
+    except (KeyError, TypeError, ValueError) as e:
+        print(f"contract_check: the Moon of observing.date could not be computed ({e}); starlight S/N not re-derived",
+              file=sys.stderr)
+        return None
+
+
+def plan_sky_ab(plan, prof, dark_ab):
+    """The sky of the starlight measure (AB mag/arcsec^2): the dark sky plus a Moon given in observing.moon, summed in
+    flux; the Moon's V light (K&S 1991; V = (20.7233 - ln(B / 34.08)) / 0.92104) moved to the catalog band with the
+    Sun's V - I = 0.70 and the band's AB - Vega (docs/signal-to-noise.md); with a given Moon the galaxy is taken at
+    transit. A Moon of observing.date / dateRange comes from dated_moon (None when it cannot be computed)."""
+    obs = plan.get("observing") if isinstance(plan.get("observing"), dict) else {}
+    moon = obs.get("moon")
+    if moon:
+        dec = dec_deg_of(plan["galaxy"]["dec"])
+        target_zenith = min(89.0, abs(prof["site"]["latDeg"] - dec))
+        b = moon_sky_nanolambert(moon["phaseAngleDeg"], moon["separationDeg"], 90 - moon["altitudeDeg"], target_zenith,
+                                 moon.get("extinctionV", 0.15))
+    elif obs.get("date") is not None or obs.get("dateRange"):
+        geo = dated_moon(obs, plan["galaxy"], prof["site"])
+        if geo is None:
+            return None
+        b = moon_sky_nanolambert(geo["phaseAngleDeg"], geo["separationDeg"], 90 - geo["altitudeDeg"],
+                                 min(89.0, 90 - geo["galaxyAltitudeDeg"]), 0.15)
+    else:
+        return dark_ab
+    if not b > 0:
+        return dark_ab
+    ph = plan.get("photometry") if isinstance(plan.get("photometry"), dict) else None
+    if ph is not None and ph.get("system") == "Vega":
+        band_ab_vega = ph["abMinusVegaMag"] if "abMinusVegaMag" in ph else AB_MINUS_VEGA[ph["band"]]
+    else:
+        band_ab_vega = AB_MINUS_VEGA.get((ph or {}).get("band"), AB_MINUS_VEGA["I"])
+    moon_ab = (20.7233 - math.log(b / 34.08)) / 0.92104 - 0.70 + band_ab_vega
+    return -2.5 * math.log10(10 ** (-0.4 * dark_ab) + 10 ** (-0.4 * moon_ab))
+
+
+def photons_per_s_cm2_a(mag_ab, wavelength_a):
+    """Photon flux density of an AB magnitude: f_nu / (h lambda), per Angstrom."""
+    return AB_ZERO_CGS * 10 ** (-0.4 * mag_ab) / (PLANCK_ERG_S * wavelength_a * 1e-8) * 1e-8
+
+
+def howell_sn(n_star, n_pix, sky_e, dark_e, read_e, n_b=None):
+    """Howell's CCD equation with the sky-estimate term (n_b None: sky known exactly)."""
+    k = 1.0 if n_b is None else 1.0 + n_pix / n_b
+    return n_star / math.sqrt(n_star + n_pix * k * (sky_e + dark_e + read_e ** 2))
+
+
+def starlight_model(plan, prof):
+    """Exposure and detector numbers of the starlight measure for one profile (plan keys, profile, documented defaults)."""
+    sl = plan.get("starlight") if isinstance(plan.get("starlight"), dict) else {}
+    obs = plan.get("observing") if isinstance(plan.get("observing"), dict) else {}
+    det, tel = prof["detector"], prof["telescope"]
+    vsys = float(plan["galaxy"]["vsysKms"])
+    lines = [L * (1 + vsys / C_KMS) for L in plan["goals"]["linesA"]]
+    ph = plan.get("photometry") if isinstance(plan.get("photometry"), dict) else None
+    if ph is None or ph.get("system") == "AB":
+        to_ab = 0.0
+    else:
+        to_ab = ph["abMinusVegaMag"] if "abMinusVegaMag" in ph else AB_MINUS_VEGA[ph["band"]]
+    ext_s = obs.get("exposureTimeS", sl.get("exposureS", STARLIGHT_DEFAULTS["exposureS"]))
+    obstructed = sl.get("obstructedFraction", 0.0)
+    area_cm2 = math.pi * (tel["apertureM"] * 50.0) ** 2 * (1 - obstructed)
+    sky = plan_sky_ab(plan, prof, sl.get("skyMagPerArcsec2", STARLIGHT_DEFAULTS["skyMagPerArcsec2"]))
+    return {
+        "toAb": to_ab, "sky": sky if sky is not None else STARLIGHT_DEFAULTS["skyMagPerArcsec2"], "skyUnknown": sky is None,
+        "t": float(ext_s), "seeing": obs.get("seeingFwhmArcsec", OBSERVING_DEFAULT_SEEING_ARCSEC),
+        "eff": area_cm2 * sl.get("throughput", tel.get("throughput", STARLIGHT_DEFAULTS["throughput"])),
+        "disp": det["dispersionAPerPixel"],
+        "yScale": sl.get("yArcsecPerPixel", det.get("yArcsecPerPixel", det["xArcsecPerPixel"])),
+        "read": sl.get("readNoiseE", det.get("readNoiseE", 3.0)),
+        "dark": sl.get("darkEPerPixelPerS", det.get("darkEPerPixelPerS", 0.001)),
+        "wl": sl.get("wavelengthA", sum(lines) / len(lines)),
+    }
+
+
+def spectrum_electrons(mu_ab, length, width, sky_length, m):
+    """(signal, variance, sky) electrons per A of galaxy light of mean mu_ab over length x width arcsec."""
+    per_pix_scale = m["eff"] * m["t"]
+    signal = photons_per_s_cm2_a(mu_ab, m["wl"]) * length * width * per_pix_scale
+    n_pix = length / m["yScale"] / m["disp"]
+    n_b = sky_length / m["yScale"] / m["disp"]
+    sky_e = photons_per_s_cm2_a(m["sky"], m["wl"]) * width * m["yScale"] * m["disp"] * per_pix_scale
+    k = 1.0 + n_pix / n_b
+    var = signal + n_pix * k * (sky_e + m["dark"] * m["t"] + m["read"] ** 2)
+    return signal, var, n_pix * sky_e
+
+
+def mask_points_to_galaxy(mask, gal, xs, ys):
+    """(R/Re, azimuth deg in [0, 360)) of mask-frame points as the model places them (docs/signal-to-noise.md): the
+    galaxy centre projected (TAN about the mask centre, astropy.wcs) into the mask frame, each point's offset from it
+    turned to the sky by the mask PA (xi = dx cos PA + dy sin PA, eta = -dx sin PA + dy cos PA, the inverse of the
+    contract's mask frame) and to the galaxy frame by the contract's u, v."""
+    pa = math.radians(mask["pa"])
+    gxi, geta = sky_to_tangent_arcsec(mask["wcs"], [gal["raDeg"]], [gal["decDeg"]])
+    gx = gxi[0] * math.cos(pa) - geta[0] * math.sin(pa)
+    gy = gxi[0] * math.sin(pa) + geta[0] * math.cos(pa)
+    dx, dy = np.asarray(xs, float) - gx, np.asarray(ys, float) - gy
+    xi = dx * math.cos(pa) + dy * math.sin(pa)
+    eta = -dx * math.sin(pa) + dy * math.cos(pa)
+    th = math.radians(gal["paDeg"])
+    uu = xi * math.sin(th) + eta * math.cos(th)
+    vv = xi * math.cos(th) - eta * math.sin(th)
+    q = gal["axisRatio"]
+    r_re = np.sqrt(q * uu * uu + vv * vv / q) / gal["reArcsec"]
+    phi = np.degrees(np.arctan2(vv, uu)) % 360.0
+    return r_re, phi
+
+
+def edge_candidates(r_re, phi_deg, re_arcsec):
+    """Bins (fromRe, sectorDeg) a spectrum at (R/Re, azimuth) may be in, its own first: near an edge, the neighbour too."""
+    r0, s0 = math.floor(r_re), 45 * int(phi_deg // 45)
+    radial, sector = [r0], [s0 % 360]
+    for edge in (r0, r0 + 1):
+        if abs(r_re - edge) * re_arcsec < POS_TOL_ARCSEC:
+            radial.append(edge - 1 if edge == r0 else edge)
+    r_arcsec = max(r_re * re_arcsec, 1e-9)
+    for edge in (s0, s0 + 45):
+        gap = min(abs(phi_deg - edge), 360 - abs(phi_deg - edge))
+        if math.radians(gap) * r_arcsec < POS_TOL_ARCSEC:
+            sector.append((edge - 45) % 360 if edge == s0 else edge % 360)
+    return [(a, b) for a in radial if a >= 0 for b in sector]
+
+
+def binned_spectra(plan, gal, masks, per_mask):
+    """Every spectrum holding galaxy light: dicts of bin candidates, kind and electrons (see the section comment)."""
+    n = float(gal["sersicN"])
+    bn = sersic_bn(n)
+    goal = float(plan["goals"]["starlightReachRe"])
+    out, models = [], {}
+    for mid, rows in per_mask.items():
+        mask = masks[mid]
+        m = models.setdefault(id(mask["profile"]), starlight_model(plan, mask["profile"]))
+        sky_length = sum(r["below"] + r["above"] for r in rows if r["role"] == "sky")
+        if sky_length <= 0:
+            continue
+        ext = POINT_EXTRACTION_FWHM * m["seeing"]
+        parts = []
+        for r in rows:
+            lo, hi = r["y"] - r["below"], r["y"] + r["above"]
+            if r["role"] == "starlight":
+                parts.append((r, lo, hi, "starlight"))
+            elif r["role"] == "tracer":
+                parts.append((r, lo, max(lo, r["y"] - ext / 2), "tracer"))
+                parts.append((r, min(hi, r["y"] + ext / 2), hi, "tracer"))
+        for r, y0, y1, kind in parts:
+            if not y1 - y0 > 0:
+                continue
+            ys = [0.5 * (y0 + y1)] + [y0 + (i + 0.5) / 5 * (y1 - y0) for i in range(5)]
+            rr, phi = mask_points_to_galaxy(mask, gal, [r["x"]] * 6, ys)
+            r_mid, phi_mid = float(rr[0]), float(phi[0])
+            if kind == "tracer" and (r_mid - goal) * gal["reArcsec"] > POS_TOL_ARCSEC:
+                continue
+            mu = [gal["muE"] + 2.5 * bn / math.log(10) * (x ** (1.0 / n) - 1) for x in rr[1:]]
+            mean_mu = -2.5 * math.log10(sum(10 ** (-0.4 * v) for v in mu) / 5)
+            s, v, sky = spectrum_electrons(mean_mu + m["toAb"], y1 - y0, r["width"], sky_length, m)
+            cands = edge_candidates(r_mid, phi_mid, gal["reArcsec"])
+            if kind == "tracer" and abs(r_mid - goal) * gal["reArcsec"] < POS_TOL_ARCSEC:
+                cands = cands + [None] if r_mid <= goal else [None] + cands   # at the goal radius: counted or not
+            out.append({"cands": cands, "kind": kind, "r": r_mid, "part": (s, v, sky), "where": r["where"]})
+    return out, bn, models
+
+
+def coadd(parts, f):
+    s = sum(p[0] for p in parts)
+    v = sum(p[1] for p in parts)
+    sky = sum(p[2] for p in parts)
+    return (s / math.sqrt(v + (f * sky) ** 2), s / math.sqrt(v)) if v > 0 else (0.0, 0.0)
+
+
+def within(value, lo, hi, rel=SN_REL_TOL, abs_tol=SN_ABS_TOL):
+    return isinstance(value, (int, float)) and lo - abs_tol - rel * abs(lo) <= value <= hi + abs_tol + rel * abs(hi)
+
+
+def check_starlight_bins(cov, plan, masks, per_mask, report):
+    """coverage.json starlightBins against a re-derivation from the slits, the plan and the profiles."""
+    where0 = "coverage.json starlightBins"
+    goals = plan.get("goals", {})
+    goal = goals.get("starlightReachRe", 0)
+    sb = cov.get("starlightBins")
+    if not goal or goal <= 0:
+        if sb is not None and sb.get("bins"):
+            report.add(where0, "starlight-bins", f"{len(sb['bins'])} bins, but goals.starlightReachRe is {goal} (starlight off)")
+        return ""
+    if not isinstance(sb, dict) or not isinstance(sb.get("bins"), list):
+        report.add(where0, "starlight-bins", "missing (co-added starlight per bin of 1 Re x 45 deg)")
+        return ""
+    try:
+        g = plan["galaxy"]
+        gal = {"raDeg": ra_deg_of(g["ra"]), "decDeg": dec_deg_of(g["dec"]), "paDeg": float(g["paDeg"]),
+               "axisRatio": float(g["axisRatio"]), "reArcsec": float(g["reArcsec"]), "sersicN": float(g["sersicN"]),
+               "muE": float(g["muE"])}
+    except (KeyError, TypeError, ValueError) as e:
+        report.add("solved.plan.json galaxy", "starlight-bins", f"cannot read the galaxy's light profile: {e}")
+        return ""
+    sl = plan.get("starlight") if isinstance(plan.get("starlight"), dict) else {}
+    obs = plan.get("observing") if isinstance(plan.get("observing"), dict) else {}
+    target = float(sl.get("targetSnPerA", STARLIGHT_DEFAULTS["targetSnPerA"]))
+    f = float(obs.get("skySystematicFraction", DEFAULT_SKY_FLOOR))
+    for key, want in (("targetSnPerA", target), ("skySystematicFraction", f), ("goalRe", goal)):
+        if not isinstance(sb.get(key), (int, float)) or abs(sb[key] - want) > 1e-9:
+            report.add(f"{where0}.{key}", "starlight-bins", f"{json.dumps(sb.get(key))}, but solved.plan.json gives {want}")
+    spectra, bn, models = binned_spectra(plan, gal, masks, per_mask)
+    sky_unknown = any(m["skyUnknown"] for m in models.values())
+    first_model = next(iter(models.values()), None)
+    file_bins = {}
+    for i, b in enumerate(sb["bins"]):
+        bwhere = f"{where0}.bins[{i}]"
+        try:
+            key = (int(b["fromRe"]), int(b["sectorDeg"]))
+        except (KeyError, TypeError, ValueError):
+            report.add(bwhere, "starlight-bins", "no numeric fromRe/sectorDeg")
+            continue
+        name = f"{key[0]}-{key[0] + 1} Re, {key[1]}-{key[1] + 45} deg"
+        if key in file_bins:
+            report.add(f"{bwhere} ({name})", "starlight-bins", "the bin is listed twice")
+        file_bins[key] = (i, b, name)
+
+    def compare(assignment):
+        """Violations of the file's bins for one choice of bin per edge case."""
+        found, derived = [], {}
+        for sp, key in assignment:
+            if key is not None:
+                derived.setdefault(key, []).append(sp)
+        for key, sps in sorted(derived.items()):
+            if key not in file_bins:
+                found.append((f"{where0} ({key[0]}-{key[0] + 1} Re, {key[1]}-{key[1] + 45} deg)",
+                              f"missing: {len(sps)} spectra hold galaxy light there, e.g. {sps[0]['where']}"))
+        for key, (i, b, name) in sorted(file_bins.items()):
+            bwhere = f"{where0}.bins[{i}] ({name})"
+            sps = derived.get(key)
+            if not sps:
+                found.append((bwhere, "no starlight slit or tracer sky part of slits.csv lies in this bin"))
+                continue
+            for field, kind, words in (("starlightSlits", "starlight", "starlight slits"), ("tracerSkyParts", "tracer", "tracer sky parts")):
+                n = sum(1 for x in sps if x["kind"] == kind)
+                if b.get(field) != n:
+                    found.append((bwhere, f"{field} {json.dumps(b.get(field))}, but slits.csv gives {n} {words} there"))
+            sn = coadd([x["part"] for x in sps], f)
+            if not sky_unknown:
+                for field, j in (("snPerA", 0), ("snPerAWithoutFloor", 1)):
+                    if not within(b.get(field), sn[j], sn[j]):
+                        found.append((bwhere, f"{field} {json.dumps(b.get(field))}, but the spectra of slits.csv in this bin co-add to {sn[j]:.2f}"))
+            reach = max(x["r"] for x in sps)
+            if not within(b.get("reachRe"), reach, reach, rel=0, abs_tol=REACH_ABS_TOL_RE):
+                found.append((bwhere, f"reachRe {json.dumps(b.get('reachRe'))}, but its spectra reach {reach:.4f} Re"))
+        return found
+
+    # Every spectrum in its own bin, except the few near an edge: the choice of their bins that explains the file best.
+    edge, layouts = [], 1
+    for sp in spectra:
+        if len(sp["cands"]) > 1 and layouts * len(sp["cands"]) <= MAX_EDGE_LAYOUTS:
+            edge.append(sp)
+            layouts *= len(sp["cands"])
+    fixed = [(sp, sp["cands"][0]) for sp in spectra if not any(sp is e for e in edge)]
+    best = None
+    for choice in itertools.product(*[sp["cands"] for sp in edge]):
+        found = compare(fixed + list(zip(edge, choice)))
+        if best is None or len(found) < len(best):
+            best = found
+        if not best:
+            break
+    for where, what in best or []:
+        report.add(where, "starlight-bins", what)
+
+    achieved_met, inside, short = 0, 0, []
+    for key, (i, b, name) in sorted(file_bins.items()):
+        bwhere = f"{where0}.bins[{i}] ({name})"
+        if first_model is not None and not sky_unknown:
+            if key[0] <= 0 or f <= 0:
+                cap = None
+            else:
+                mu = gal["muE"] + 2.5 * bn / math.log(10) * (key[0] ** (1.0 / gal["sersicN"]) - 1) + first_model["toAb"]
+                cap = 10 ** (-0.4 * (mu - first_model["sky"])) / f
+            got = b.get("floorCapSnPerA")
+            if (cap is None) != (got is None) or (cap is not None and not within(got, cap, cap, rel=1e-6)):
+                report.add(bwhere, "starlight-bins", f"floorCapSnPerA {json.dumps(got)}, but the sky floor caps the bin at "
+                           + ("nothing (central bin or no floor)" if cap is None else f"{cap:.2f}"))
+        sn = b.get("snPerA")
+        met = b.get("met")
+        if not isinstance(met, bool) or not isinstance(sn, (int, float)) or met != (sn >= target) and abs(sn - target) > 0.005:
+            report.add(bwhere, "starlight-bins", f"met {json.dumps(met)}, but its S/N {json.dumps(sn)} is "
+                       f"{'at or above' if isinstance(sn, (int, float)) and sn >= target else 'below'} the target {target:g}")
+        if b.get("targetSnPerA") != target:
+            report.add(bwhere, "starlight-bins", f"targetSnPerA {json.dumps(b.get('targetSnPerA'))}, but solved.plan.json gives {target}")
+        if key[0] < goal:
+            inside += 1
+            if met is True:
+                achieved_met += 1
+            else:
+                short.append((name, b))
+    # The goal entry: bins inside the goal radius and those reaching the target, each short one named with its cause.
+    ge = next((x for x in cov.get("goals", []) if isinstance(x, dict) and x.get("name") == "starlightBins"), None)
+    gwhere = "coverage.json goals (starlightBins)"
+    if ge is None:
+        report.add(gwhere, "starlight-bins", "missing: the goal of co-added starlight per bin")
+    else:
+        if ge.get("target") != inside or ge.get("achieved") != achieved_met:
+            report.add(gwhere, "starlight-bins", f"target {json.dumps(ge.get('target'))} / achieved {json.dumps(ge.get('achieved'))}, but the bins inside "
+                       f"{goal} Re number {inside}, of which {achieved_met} reach the target")
+        if ge.get("met") != (inside > 0 and achieved_met >= inside):
+            report.add(gwhere, "starlight-bins", f"met {json.dumps(ge.get('met'))} with {achieved_met} of {inside} bins reaching the target")
+        reason = ge.get("reason") if isinstance(ge.get("reason"), str) else ""
+        for name, b in short:
+            cap = b.get("floorCapSnPerA")
+            cause = "floor" if isinstance(cap, (int, float)) and cap < target else "free slit space"
+            label = name.replace(",", "")
+            if label not in reason or cause not in reason:
+                report.add(gwhere, "starlight-bins", f"the short bin {name} is not named with its cause ({cause}) in the reason")
+    note = f"{len(file_bins)} starlight bins re-derived"
+    if sky_unknown:
+        note += " (S/N not re-derived: the Moon of observing.date could not be computed)"
+    return note
+
+
 # ---- the catalog (an extra cross-check: a target's slit is centred on it) ---------------------------------------
 
 def check_catalog(plan, out_dir, slit_rows, report_rows, report):
@@ -561,7 +996,7 @@ def check_catalog(plan, out_dir, slit_rows, report_rows, report):
 def check_folder(out_dir, profile_dir):
     """Every violation of the contract in an output folder, plus summary figures."""
     report = Report()
-    stats = {"rows": 0, "masks": 0, "worst": 0.0, "worst_where": "-", "catalog": "-"}
+    stats = {"rows": 0, "masks": 0, "worst": 0.0, "worst_where": "-", "catalog": "-", "starlight": ""}
 
     _, mask_rows = read_csv(os.path.join(out_dir, "masks.csv"), "masks.csv", MASKS_COLUMNS, report)
     _, slit_rows_raw = read_csv(os.path.join(out_dir, "slits.csv"), "slits.csv", SLITS_COLUMNS, report)
@@ -858,6 +1293,8 @@ def check_folder(out_dir, profile_dir):
     stats["catalog"] = check_catalog(plan, out_dir, slit_rows, report_rows, report)
     if galaxy is not None and cov is not None:
         check_coverage(cov, galaxy, goals, slit_rows, report)
+    if galaxy is not None and isinstance(cov, dict) and isinstance(plan, dict):
+        stats["starlight"] = check_starlight_bins(cov, plan, masks, per_mask, report)
     return report, stats
 
 
@@ -936,6 +1373,26 @@ def self_test():
     expect(abs(x + 5) < 1e-6, f"at PA 90 a point 5 arcsec North has x = -5 ({x})")
     expect(abs(ra_deg_of("12:30:00") - 187.5) < 1e-9 and ra_deg_of("187.5") == 187.5
            and abs(dec_deg_of("-05 30 00") + 5.5) < 1e-12 and abs(dec_deg_of("-00 30") + 0.5) < 1e-12, "sexagesimal RA/Dec")
+    # Sersic b_n: Graham & Driver (2005, PASA 22, 118) list b_1 = 1.678 and b_4 = 7.669; the Ciotti & Bertin (1999,
+    # A&A 352, 447) series 2n - 1/3 + 4/(405n) + 46/(25515n^2) agrees to ~1e-6 at n = 4 (a second route)
+    expect(abs(sersic_bn(1) - 1.678) < 5e-4 and abs(sersic_bn(4) - 7.669) < 5e-4, f"b_n ({sersic_bn(1)}, {sersic_bn(4)})")
+    expect(abs(sersic_bn(4) - (8 - 1 / 3 + 4 / 1620 + 46 / (25515 * 16))) < 1e-5, "b_4 against the Ciotti & Bertin series")
+    # Howell's CCD equation, worked numbers of the project's references (computed from the formula): 61.28 without a
+    # sky estimate, 56.69 with n_B = 1000
+    expect(abs(howell_sn(24000, 200, 620, 1.833, 5) - 61.28) < 0.005, "Howell S/N, n_B infinite")
+    expect(abs(howell_sn(24000, 200, 620, 1.833, 5, 1000) - 56.69) < 0.005, "Howell S/N, n_B = 1000")
+    # AB = 0 at 8500 A: 644.69 photons s^-1 cm^-2 A^-1 (derived from f_nu / (h lambda), 3631 Jy)
+    expect(abs(photons_per_s_cm2_a(0.0, 8500.0) - 644.69) < 0.01, f"AB photon flux ({photons_per_s_cm2_a(0.0, 8500.0)})")
+    # moonlit sky, the references' worked case (derived from K&S 1991): Z = 20, Z_moon = 70, rho = 50, alpha = 45,
+    # k = 0.15 -> B_moon = 389.5 nL, V = 19.855 mag/arcsec^2
+    b = moon_sky_nanolambert(45.0, 50.0, 70.0, 20.0, 0.15)
+    expect(abs(b - 389.5) < 0.1 and abs((20.7233 - math.log(b / 34.08)) / 0.92104 - 19.855) < 1e-3, f"moonlit sky ({b} nL)")
+    # co-adding: two equal spectra raise the S/N by sqrt(2) without a floor; a floor f caps it at N / (f N_sky)
+    one = (100.0, 400.0, 1000.0)
+    sn1, _ = coadd([one], 0.0)
+    sn2, _ = coadd([one, one], 0.0)
+    expect(abs(sn2 / sn1 - math.sqrt(2)) < 1e-12, "co-adding two equal spectra")
+    expect(abs(coadd([one] * 10 ** 6, 0.01)[0] - 100.0 / (0.01 * 1000.0)) < 1e-2, "the sky floor caps co-adding")
     return fails
 
 
@@ -968,7 +1425,8 @@ def main(argv):
             status = 1
         else:
             print(f"{prefix}contract_check: ok: {stats['masks']} masks, {stats['rows']} rows checked, worst position "
-                  f"residual {stats['worst']:.3g} arcsec ({stats['worst_where']}); {stats['catalog']}; astropy {astropy.__version__}")
+                  f"residual {stats['worst']:.3g} arcsec ({stats['worst_where']}); {stats['catalog']}; "
+                  f"{stats['starlight'] + '; ' if stats['starlight'] else ''}astropy {astropy.__version__}")
     return status
 
 if __name__ == "__main__":

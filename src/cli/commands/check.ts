@@ -17,6 +17,7 @@ import type { InstrumentProfile } from '../../core/profile/schema';
 import type { ColumnMapping } from '../../core/catalog/types';
 import { checkOutput, formatViolation, type Violation } from '../../core/check/checkOutput';
 import { checkCoverage } from '../../core/check/coverageRecount';
+import { checkStarlightBins } from '../../core/check/starlightRecount';
 import { checkCatalogUse, checkPlanMasks, type ReportRow } from '../../core/check/consistency';
 import { loadProfile } from '../loadPlanInputs';
 import { readCatalogFile } from '../readCatalogFile';
@@ -129,6 +130,8 @@ export async function run(argv: string[], io: CliIO): Promise<number> {
     }
     if (coverage !== null) violations.push(...checkSectorConvention(coverage, src('coverage.json')));
     if (coverage !== null) violations.push(...checkCoverage({ coverage, galaxy: galaxyModel(plan), goals: plan.goals, slits, coverageSource: src('coverage.json'), slitsSource: src('slits.csv') }));
+    // Co-added starlight per bin, re-derived from the slits, the plan and each mask's profile.
+    if (coverage !== null) violations.push(...checkStarlightBins({ coverage, plan, galaxy: galaxyModel(plan), masks, slits, profileFor, coverageSource: src('coverage.json'), rowWhere: (i) => rowWhere(i, slits[i]) }));
   }
 
   // Used objects against the catalog and catalog-report.csv.
@@ -162,6 +165,6 @@ export async function run(argv: string[], io: CliIO): Promise<number> {
     io.err(`haloweave check: ${violations.length} violation${violations.length > 1 ? 's' : ''} in ${shown}`);
     return 1;
   }
-  io.out(`haloweave check: ${shown} passes: ${slits.length} rows on ${masks.length} masks (manifest and file hashes, profile identity, footprint, gap, lengths, wavelength, objects once, sky positions, alignment boxes, coverage recount, solved.plan.json masks, ${catalogNote})`);
+  io.out(`haloweave check: ${shown} passes: ${slits.length} rows on ${masks.length} masks (manifest and file hashes, profile identity, footprint, gap, lengths, wavelength, objects once, sky positions, alignment boxes, coverage recount, co-added starlight bins, solved.plan.json masks, ${catalogNote})`);
   return 0;
 }
