@@ -1,8 +1,8 @@
 /**
  * The pointing search's thinned proxy at high density (solver/proxyCells.ts): each cell of the search's index keeps
  * only the tracers that could matter to a mask, so a trial's cost is bounded whatever the catalog's size. The
- * reference is the exact single-mask optimum (weighted interval scheduling, itself checked against the HiGHS integer
- * optimum in test/solver) of the unthinned candidates of the same pointing.
+ * reference is the exact single-mask optimum (weighted interval scheduling, itself checked against brute force in
+ * test/solver/intervalScheduling.test.ts) of the unthinned candidates of the same pointing.
  */
 import { describe, expect, it } from 'vitest';
 import { galaxyModel } from '../../src/core/plan/validate';
