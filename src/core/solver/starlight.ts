@@ -269,6 +269,8 @@ export function slotPositions(rules: EligibilityRules, stepArcsec: number): numb
  */
 interface LimitEntry { galaxy: GalaxyModel; bn: number; widthArcsec: number; targetSnPerA: number; exposureS: number; skyMagPerArcsec2: number; skyEstimateArcsec: number | null; limitArcsec: number }
 const limitCache = new WeakMap<SpectroSetup, Map<number, LimitEntry>>();
+/** Step (arcsec) to which a slot's length is rounded up for its S/N limit radius (evaluateSlot). */
+const LIMIT_LENGTH_STEP_ARCSEC = 0.25;
 function snLimitRadiusArcsec(g: GalaxyOnMask, lengthArcsec: number, widthArcsec: number, s: StarlightSettings): number {
   const gal = g.galaxy;
   let byLength = limitCache.get(s.setup);
@@ -284,7 +286,7 @@ function snLimitRadiusArcsec(g: GalaxyOnMask, lengthArcsec: number, widthArcsec:
     for (let i = 0; i < 80 && hi - lo > 1e-9 * hi; i++) { const mid = 0.5 * (lo + hi); if (ok(mid)) lo = mid; else hi = mid; }
     limit = hi;
   }
-  if (byLength.size > 64) byLength.clear();
+  if (byLength.size > 1024) byLength.clear();
   byLength.set(lengthArcsec, { galaxy: gal, bn: g.bn, widthArcsec, targetSnPerA: s.targetSnPerA, exposureS: s.exposureS, skyMagPerArcsec2: s.skyMagPerArcsec2, skyEstimateArcsec: s.skyEstimateArcsec, limitArcsec: limit });
   return limit;
 }
@@ -329,7 +331,11 @@ export function evaluateSlot(g: GalaxyOnMask, rules: EligibilityRules, slot: Spa
   // No point of the slit lies closer to the centre than R - half x (largest gradient of R in the mask frame, 1/sqrt(q)
   // for q <= 1): beyond the S/N limit radius (with a 0.1 % margin against rounding) the slot cannot reach the goal.
   const q = g.galaxy.axisRatio, slope = Math.max(Math.sqrt(q), 1 / Math.sqrt(q));
-  const limitArcsec = reachable.length ? snLimitRadiusArcsec(g, len, rules.widthArcsec, s) * 1.001 + 1e-6 : Infinity;
+  // The limit of the slot's length rounded up to a 0.25" step: the S/N at a given surface brightness never falls as
+  // the slit lengthens (signal and every noise term grow with it, the sky estimate's n_B fixed), so that limit lies at
+  // or beyond this slot's own and prunes only positions this slot's own limit prunes; one bisection serves all the
+  // slots of a step.
+  const limitArcsec = reachable.length ? snLimitRadiusArcsec(g, Math.ceil(len / LIMIT_LENGTH_STEP_ARCSEC) * LIMIT_LENGTH_STEP_ARCSEC, rules.widthArcsec, s) * 1.001 + 1e-6 : Infinity;
   for (const p of reachable.sort(byR)) {
     const bin = Math.floor(p.rRe);
     if (binsDone.has(bin)) continue;
