@@ -379,7 +379,8 @@ export function finishValidation(table: RawTable, source: string, cols: Resolved
   const rejects = structural.length > 0 ? [...v.rejects, ...structural] : v.rejects;
   const structuralLines = new Set(structural.map((r) => r.line)).size;
   if (structural.length > 0) rejects.sort((a, b) => a.line - b.line);
-  return catalogResult({ format: table.format, source, rejects, rowsRead: v.rowsVisited + structuralLines, columns: table.columns, mapping: cols.mapping }, v.table.trim());
+  const fields = { format: table.format, source, rejects, rowsRead: v.rowsVisited + structuralLines, columns: table.columns, mapping: cols.mapping };
+  return catalogResult(fields, v.table.trim());
 }
 
 /**

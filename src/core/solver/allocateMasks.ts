@@ -73,7 +73,8 @@ export function allocationContext(profile: InstrumentProfile, galaxy: GalaxyMode
 /** The context with `targets` defined: its table's rows as objects, made on first read (not enumerable). */
 export function withTargetObjects<C extends Omit<AllocationContext, 'targets'>>(ctx: C): C & AllocationContext {
   let objects: Target[] | null = null;
-  return Object.defineProperty(ctx, 'targets', { enumerable: false, configurable: true, get: () => (objects ??= ctx.table.toTargets()) }) as C & AllocationContext;
+  const targets = { enumerable: false, configurable: true, get: () => (objects ??= ctx.table.toTargets()) };
+  return Object.defineProperty(ctx, 'targets', targets) as C & AllocationContext;
 }
 
 /** Alignment stars whose box fits on the mask (mask frame, arcsec): every star in the context, shared ones included. */
