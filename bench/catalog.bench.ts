@@ -10,6 +10,8 @@ import { mkdtempSync, openSync, readFileSync, rmSync, writeSync, closeSync } fro
 import { cpus, loadavg, tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { performance } from 'node:perf_hooks';
+import { setFlagsFromString } from 'node:v8';
+import { runInNewContext } from 'node:vm';
 import { printTable, type BenchRow } from './harness';
 
 const CHILD_FLAG = '--catalog-bench-child';
@@ -56,10 +58,24 @@ async function child(mode: string, path: string): Promise<void> {
   const c = process.cpuUsage(c0);
   const cpuMs = (c.user + c.system) / 1000;
   const maxRssMB = process.resourceUsage().maxRSS / 1024;
-  console.log(JSON.stringify({ ms, cpuMs, maxRssMB, rowsRead: result.rowsRead, used: usableRowCount(result), rejected: result.rejects.length }));
+  // Memory the result holds once the reading's garbage is gone: the rows as columns, then as Target objects as well.
+  setFlagsFromString('--expose-gc');
+  const gc = runInNewContext('gc') as () => void;
+  const live = () => {
+    gc();
+    const m = process.memoryUsage();
+    return (m.heapUsed + m.arrayBuffers) / 2 ** 20;
+  };
+  const heldMB = live();
+  const objects = result.targets.length;
+  const heldWithObjectsMB = live();
+  const out = { ms, cpuMs, maxRssMB, heldMB, heldWithObjectsMB, rowsRead: result.rowsRead, used: usableRowCount(result), objects, rejected: result.rejects.length };
+  console.log(JSON.stringify(out));
 }
 
-function runChild(mode: string, path: string): { ms: number; cpuMs: number; maxRssMB: number; rowsRead: number; used: number; rejected: number } {
+interface ChildResult { ms: number; cpuMs: number; maxRssMB: number; heldMB: number; heldWithObjectsMB: number; rowsRead: number; used: number; rejected: number }
+
+function runChild(mode: string, path: string): ChildResult {
   const r = spawnSync(process.execPath, [resolve('bin/run-ts.js'), resolve('bench/catalog.bench.ts'), CHILD_FLAG, mode, path], {
     encoding: 'utf8',
     maxBuffer: 1 << 20,
@@ -90,6 +106,8 @@ export default async function bench(): Promise<void> {
       { name: 'stream read+validate 1e6 rows', value: stream.ms, unit: 'ms', goal: 5000, lowerIsBetter: true },
       { name: 'stream read+validate CPU time', value: stream.cpuMs, unit: 'ms', note: 'user+system, all threads; steadier than wall time on a shared machine' },
       { name: 'stream read peak RSS', value: stream.maxRssMB, unit: 'MB', goal: 1024, lowerIsBetter: true, note: 'whole child process' },
+      { name: 'heap and typed arrays held by the read catalog (after a full GC)', value: stream.heldMB, unit: 'MB', note: 'rows as typed columns' },
+      { name: 'held once the rows are also made into Target objects', value: stream.heldWithObjectsMB, unit: 'MB', note: 'what the editor holds' },
       { name: 'in-memory readCatalog 1e6 rows', value: memory.ms, unit: 'ms', note: 'file read whole' },
       { name: 'in-memory readCatalog CPU time', value: memory.cpuMs, unit: 'ms' },
       { name: 'in-memory readCatalog peak RSS', value: memory.maxRssMB, unit: 'MB' },

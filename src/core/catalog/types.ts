@@ -2,7 +2,7 @@
  * Catalog types shared by every reader (CSV/TSV, ECSV, VOTable, FITS) and by the solver.
  * Positions are ICRS degrees; magnitudes as given in the catalog's band.
  */
-import type { TargetTable } from './targetTable';
+import type { TargetColumns } from './targetColumns';
 
 export type CatalogFormat = 'csv' | 'tsv' | 'ecsv' | 'votable' | 'fits';
 export type TargetRole = 'tracer' | 'alignment';
@@ -74,9 +74,9 @@ export interface CatalogReadResult {
   targets: Target[];
   /**
    * The usable rows as columns, when a reader made them (not enumerable, so a structured clone leaves it out; read it
-   * through `catalogTable`, which also wraps `targets`).
+   * through `catalogTargetColumns`, which also wraps `targets`).
    */
-  readonly table?: TargetTable;
+  readonly table?: TargetColumns;
   rejects: RowReject[];
   rowsRead: number;
   /** The file's column names, and which one each contract name was taken from. */

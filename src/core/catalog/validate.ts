@@ -9,7 +9,7 @@ import { parseDecDeg, parseRaDeg } from '../sky/sexagesimal';
 import { resolveColumns, type AngleUnit, type ResolvedColumns } from './columns';
 import { IdIndex } from './idIndex';
 import type { CatalogReadResult, Cell, ColumnMapping, RawTable, RowReject, Target, TargetRole } from './types';
-import { ALIGNMENT_ROLE, TargetTable, targetTableOf } from './targetTable';
+import { ALIGNMENT_ROLE, TargetColumns, targetColumnsOf } from './targetColumns';
 
 const NUMBER_TEXT = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
 const MISSING_TEXT = /^(nan|null|none|n\/a|--)$/i;
@@ -248,7 +248,7 @@ const ROLES = new Map<string, TargetRole>([
 /** Validates rows one at a time against resolved columns; keeps the duplicate-id index. */
 export class RowValidator {
   /** The usable rows, as columns. */
-  readonly table: TargetTable;
+  readonly table: TargetColumns;
   readonly rejects: RowReject[] = [];
   rowsVisited = 0;
   /** First file line of each id used so far (only rows that became targets claim their id). */
@@ -262,7 +262,7 @@ export class RowValidator {
     columnNames: readonly string[],
   ) {
     this.names = [...columnNames];
-    this.table = new TargetTable(cols.extra.map((k) => this.names[k]));
+    this.table = new TargetColumns(cols.extra.map((k) => this.names[k]));
   }
 
   private readonly why: CellWhy = { reason: null };
@@ -379,14 +379,15 @@ export function finishValidation(table: RawTable, source: string, cols: Resolved
   const rejects = structural.length > 0 ? [...v.rejects, ...structural] : v.rejects;
   const structuralLines = new Set(structural.map((r) => r.line)).size;
   if (structural.length > 0) rejects.sort((a, b) => a.line - b.line);
-  return catalogResult({ format: table.format, source, rejects, rowsRead: v.rowsVisited + structuralLines, columns: table.columns, mapping: cols.mapping }, v.table.trim());
+  const fields = { format: table.format, source, rejects, rowsRead: v.rowsVisited + structuralLines, columns: table.columns, mapping: cols.mapping };
+  return catalogResult(fields, v.table.trim());
 }
 
 /**
  * A CatalogReadResult over a table of rows: `table` (not enumerable, so a structured clone or a spread leaves it out) and
  * `targets`, the rows as Target objects, made on first read and then kept (enumerable: a clone or a spread carries them).
  */
-export function catalogResult(fields: Omit<CatalogReadResult, 'targets' | 'table'>, table: TargetTable): CatalogReadResult {
+export function catalogResult(fields: Omit<CatalogReadResult, 'targets' | 'table'>, table: TargetColumns): CatalogReadResult {
   const result = { ...fields } as CatalogReadResult;
   Object.defineProperty(result, 'table', { value: table, enumerable: false });
   let objects: Target[] | null = null;
@@ -400,8 +401,8 @@ export function catalogResult(fields: Omit<CatalogReadResult, 'targets' | 'table
 }
 
 /** The usable rows of a catalog as columns (the reader's table, or a table of its Target objects). */
-export function catalogTable(result: CatalogReadResult): TargetTable {
-  return result.table ?? targetTableOf(result.targets);
+export function catalogTargetColumns(result: CatalogReadResult): TargetColumns {
+  return result.table ?? targetColumnsOf(result.targets);
 }
 
 /** Number of usable rows of a catalog (without making its Target objects). */

@@ -31,6 +31,9 @@ export function csvCell(value: Cell | undefined, opts: CsvWriteOptions = {}): st
   return quote ? `"${s.replace(/"/g, '""')}"` : s;
 }
 
+/** Character codes of " # ' + , - = @, which a plain cell may not start with. */
+const NOT_PLAIN_START = new Set([34, 35, 39, 43, 44, 45, 61, 64]);
+
 /**
  * True for text that every rule above leaves as it is: printable ASCII at both ends, not a formula start, an apostrophe
  * or `#`, and no quote, comma or line end inside (one pass over the characters instead of three patterns).
@@ -40,7 +43,7 @@ function isPlainCell(s: string): boolean {
   if (n === 0) return true;
   const first = s.charCodeAt(0), last = s.charCodeAt(n - 1);
   // 33..126 without " # ' + , - = @ at the start; 33..126 at the end (no blank, no control, no non-ASCII space).
-  if (first < 33 || first > 126 || first === 34 || first === 35 || first === 44 || first === 39 || first === 43 || first === 45 || first === 61 || first === 64) return false;
+  if (first < 33 || first > 126 || NOT_PLAIN_START.has(first)) return false;
   if (last < 33 || last > 126) return false;
   for (let i = 1; i < n - 1; i++) {
     const c = s.charCodeAt(i);

@@ -5,8 +5,8 @@
  * be replaced (e.g. the pointing search instead of the default layout) without touching the others.
  */
 import type { CatalogReadResult, Target } from '../catalog/types';
-import { targetTableOf, type TargetTable } from '../catalog/targetTable';
-import { catalogTable } from '../catalog/validate';
+import { targetColumnsOf, type TargetColumns } from '../catalog/targetColumns';
+import { catalogTargetColumns } from '../catalog/validate';
 import type { InstrumentProfile } from '../profile/schema';
 import type { Problem } from '../result';
 import type { GalaxyModel, PlanFile, PlanMask } from '../plan/schema';
@@ -97,8 +97,8 @@ export const DEFAULT_MAX_LENGTH_FACTOR = 3;
  * exclude get 0 (alignment stars too, e.g. inside an exclusion region); kept alignment stars get 1. `force: "in"`
  * adds the sum of all other weights so the target is taken wherever it fits.
  */
-export function targetWeights(plan: PlanFile, targets: readonly Target[] | TargetTable, warnings: string[], weighting: WeightingResult = weighPlanTargets(plan, targets)): Float64Array {
-  const table = targetTableOf(targets);
+export function targetWeights(plan: PlanFile, targets: readonly Target[] | TargetColumns, warnings: string[], weighting: WeightingResult = weighPlanTargets(plan, targets)): Float64Array {
+  const table = targetColumnsOf(targets);
   const w = new Float64Array(table.length);
   const cols = keptColumnsOf(weighting, targets);
   if (cols) {
@@ -122,7 +122,7 @@ export function targetWeights(plan: PlanFile, targets: readonly Target[] | Targe
 }
 
 /** Weights w with targetOverrides' `force: "in"` applied (an unknown id is a warning). */
-function withOverrides(plan: PlanFile, table: TargetTable, warnings: string[], w: Float64Array): Float64Array {
+function withOverrides(plan: PlanFile, table: TargetColumns, warnings: string[], w: Float64Array): Float64Array {
   const overrides = Object.entries(plan.targetOverrides ?? {});
   if (overrides.length === 0) return w;
   // Only the overridden ids are looked up (the last row of an id, as a map of every id would give).
@@ -140,7 +140,7 @@ function withOverrides(plan: PlanFile, table: TargetTable, warnings: string[], w
 }
 
 /** Stage 1 proper: the weighting rules applied to the catalog (uniform weights when the plan has no `weighting` section). */
-export function weighPlanTargets(plan: PlanFile, targets: readonly Target[] | TargetTable): WeightingResult {
+export function weighPlanTargets(plan: PlanFile, targets: readonly Target[] | TargetColumns): WeightingResult {
   const rules = plan.weighting as WeightingRules | undefined;
   const uniform = { formula: { magSlope: 0, radiusExponent: 0 } };
   const r = weighTargets(targets, galaxyModel(plan), rules ?? uniform, plan.targetOverrides);
@@ -253,7 +253,7 @@ export function solvePlan(inputs: PlanInputs, opts: SolveOptions = {}): PlanSolu
 
   progress(0, 'weighting targets');
   // The catalog's rows as columns from here on: no object per row in the solver's path.
-  const table = catalogTable(catalog);
+  const table = catalogTargetColumns(catalog);
   const weighting = weighPlanTargets(plan, table);
   const weights = targetWeights(plan, table, warnings, weighting);
   const ctx = plan.instruments?.length

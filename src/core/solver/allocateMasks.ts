@@ -7,7 +7,7 @@
  * The pointing search calls `allocateForPointings` inside its loop.
  */
 import type { Target } from '../catalog/types';
-import { targetTableOf, type TargetTable } from '../catalog/targetTable';
+import { targetColumnsOf, type TargetColumns } from '../catalog/targetColumns';
 import type { GalaxyModel } from '../plan/schema';
 import type { InstrumentProfile } from '../profile/schema';
 import type { Problem } from '../result';
@@ -30,7 +30,7 @@ export interface AllocationContext {
   /** The targets as objects (made from `table` on first read; not enumerable, so a spread of the context leaves it out). */
   targets: readonly Target[];
   /** The targets as columns: what the allocation reads (no object per target). */
-  table: TargetTable;
+  table: TargetColumns;
   /** Weight of every target (index as in targets); weight 0 means never allocated. */
   weights: Float64Array;
   rules: EligibilityRules;
@@ -48,8 +48,8 @@ export interface AllocationContext {
 }
 
 /** Build the allocation context; linesA are rest wavelengths (Angstrom), redshifted by galaxy.vsysKms. */
-export function allocationContext(profile: InstrumentProfile, galaxy: GalaxyModel, linesA: readonly number[], targets: readonly Target[] | TargetTable, weights: Float64Array, lineWindow?: LineWindowSettings): AllocationContext {
-  const table = targetTableOf(targets);
+export function allocationContext(profile: InstrumentProfile, galaxy: GalaxyModel, linesA: readonly number[], targets: readonly Target[] | TargetColumns, weights: Float64Array, lineWindow?: LineWindowSettings): AllocationContext {
+  const table = targetColumnsOf(targets);
   const [bright, faint] = profile.alignment.magRange;
   const tracers: number[] = [], aligns: number[] = [];
   for (let i = 0; i < table.length; i++) {
@@ -73,7 +73,8 @@ export function allocationContext(profile: InstrumentProfile, galaxy: GalaxyMode
 /** The context with `targets` defined: its table's rows as objects, made on first read (not enumerable). */
 export function withTargetObjects<C extends Omit<AllocationContext, 'targets'>>(ctx: C): C & AllocationContext {
   let objects: Target[] | null = null;
-  return Object.defineProperty(ctx, 'targets', { enumerable: false, configurable: true, get: () => (objects ??= ctx.table.toTargets()) }) as C & AllocationContext;
+  const targets = { enumerable: false, configurable: true, get: () => (objects ??= ctx.table.toTargets()) };
+  return Object.defineProperty(ctx, 'targets', targets) as C & AllocationContext;
 }
 
 /** Alignment stars whose box fits on the mask (mask frame, arcsec): every star in the context, shared ones included. */

@@ -13,7 +13,7 @@ import type { Target } from '../catalog/types';
 import type { GalaxyModel, PlanFile } from '../plan/schema';
 import type { InstrumentProfile } from '../profile/schema';
 import { allocationContext, withTargetObjects, type AllocationContext } from './allocateMasks';
-import { targetTableOf, type TargetTable } from '../catalog/targetTable';
+import { targetColumnsOf, type TargetColumns } from '../catalog/targetColumns';
 import { lineWindowSettings } from '../profile/wavelength';
 import { starlightSettings } from './starlight';
 import { type StarlightRules } from '../plan/starlightSection';
@@ -67,8 +67,8 @@ export interface InstrumentContext extends AllocationContext {
  * settings (`instruments[].observing` over the plan's; `profilesByRef` maps the plan's references to their profiles).
  * One profile: the plain context.
  */
-export function instrumentsAllocationContext(plan: PlanFile, profiles: readonly InstrumentProfile[], galaxy: GalaxyModel, targets: readonly Target[] | TargetTable, weights: Float64Array, profilesByRef: Readonly<Record<string, InstrumentProfile>> = {}): AllocationContext {
-  const table = targetTableOf(targets);
+export function instrumentsAllocationContext(plan: PlanFile, profiles: readonly InstrumentProfile[], galaxy: GalaxyModel, targets: readonly Target[] | TargetColumns, weights: Float64Array, profilesByRef: Readonly<Record<string, InstrumentProfile>> = {}): AllocationContext {
+  const table = targetColumnsOf(targets);
   if (profiles.length <= 1) return allocationContext(profiles[0], galaxy, plan.goals.linesA, table, weights, lineWindowSettings(plan.goals));
   const byInstrument = new Map<string, AllocationContext>();
   let shared: Pick<AllocationContext, 'raDeg' | 'decDeg' | 'unit'> | null = null;

@@ -15,7 +15,7 @@
  */
 import type { ExclusionRegion, WeightingRules } from '../plan/weightingSection';
 import type { Target } from '../catalog/types';
-import { targetTableOf, TARGET_ROLES, type TargetTable } from '../catalog/targetTable';
+import { targetColumnsOf, TARGET_ROLES, type TargetColumns } from '../catalog/targetColumns';
 import type { GalaxyModel, PlanFile } from '../plan/schema';
 import { parseDecDeg, parseRaDeg } from '../sky/sexagesimal';
 import { tangentCentre, skyToTangentArcsec } from '../sky/tangentPlane';
@@ -156,8 +156,8 @@ const EXCLUSION = { forcedOut: 0, overrideZero: 1, projection: 2, region: 3, mag
  * Apply the plan's weighting rules and target overrides to the catalog targets (galaxy frame from `galaxy`).
  * Returns the usable candidates (tracers with weight > 0 and alignment stars) and every excluded row with its rule.
  */
-export function weighTargets(targets: readonly Target[] | TargetTable, galaxy: GalaxyModel, rules: WeightingRules = {}, overrides: PlanFile['targetOverrides'] = {}): WeightingResult {
-  const table = targetTableOf(targets);
+export function weighTargets(targets: readonly Target[] | TargetColumns, galaxy: GalaxyModel, rules: WeightingRules = {}, overrides: PlanFile['targetOverrides'] = {}): WeightingResult {
+  const table = targetColumnsOf(targets);
   const centre = tangentCentre(galaxy.raDeg, galaxy.decDeg);
   const n = table.length;
   const tracerMags: number[] = [];
@@ -255,19 +255,19 @@ function lazyProperty<T extends object, K extends keyof T>(obj: T, key: K, make:
 }
 
 /** The target list each KeptColumns was computed from (positions in `index` refer to it). */
-const weighedFrom = new WeakMap<KeptColumns, readonly Target[] | TargetTable>();
+const weighedFrom = new WeakMap<KeptColumns, readonly Target[] | TargetColumns>();
 /** The rows and rules each ExcludedColumns was computed with (for the rule names and reasons). */
-const excludedFrom = new WeakMap<ExcludedColumns, { table: TargetTable; rules: WeightingRules }>();
+const excludedFrom = new WeakMap<ExcludedColumns, { table: TargetColumns; rules: WeightingRules }>();
 
 /** The kept columns of a weighting when it was computed from exactly this target list, else null. */
-export function keptColumnsOf(weighting: WeightingResult, targets: readonly Target[] | TargetTable): KeptColumns | null {
+export function keptColumnsOf(weighting: WeightingResult, targets: readonly Target[] | TargetColumns): KeptColumns | null {
   return weighting.kept && weighedFrom.get(weighting.kept) === targets ? weighting.kept : null;
 }
 
 /** The kept targets as WeightedTarget objects (catalog row plus weight, source, forcing, R/Re and azimuth). */
-export function keptTargetObjects(targets: readonly Target[] | TargetTable, kept: KeptColumns): WeightedTarget[] {
+export function keptTargetObjects(targets: readonly Target[] | TargetColumns, kept: KeptColumns): WeightedTarget[] {
   const list = Array.isArray(targets) ? (targets as readonly Target[]) : null;
-  const table = list ? null : (targets as TargetTable);
+  const table = list ? null : (targets as TargetColumns);
   const out: WeightedTarget[] = new Array(kept.index.length);
   for (let j = 0; j < out.length; j++) {
     const i = kept.index[j];

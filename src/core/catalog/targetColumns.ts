@@ -2,7 +2,7 @@
  * The usable catalog rows as columns (struct of arrays): what the readers fill and the solver reads, without one
  * object per row. Positions are ICRS degrees; magnitudes as given in the catalog's band; a missing colour or priority
  * is NaN in its column (null in a Target). `target(i)` and `toTargets()` give the rows as Target objects for code
- * that wants them (the editor's panels, exports of a few rows); `TargetTable.of` wraps such a list the other way.
+ * that wants them (the editor's panels, exports of a few rows); `TargetColumns.of` wraps such a list the other way.
  */
 import type { Target, TargetRole } from './types';
 
@@ -18,7 +18,7 @@ export const ALIGNMENT_ROLE = 1;
 const NO_EXTRA: Record<string, string> = Object.freeze({}) as Record<string, string>;
 
 /** Rows of a catalog as typed columns (index i is the i-th usable row, in catalog order). */
-export class TargetTable {
+export class TargetColumns {
   /** Number of rows. */
   length = 0;
   ids: string[] = [];
@@ -114,9 +114,9 @@ export class TargetTable {
   }
 
   /** A table of Target objects (each row's extra columns as the first row names them; a row lacking one gives ''). */
-  static of(targets: readonly Target[]): TargetTable {
+  static of(targets: readonly Target[]): TargetColumns {
     const names = targets.length > 0 ? Object.keys(targets[0].extra) : [];
-    const t = new TargetTable(names, targets.length);
+    const t = new TargetColumns(names, targets.length);
     for (const r of targets) {
       t.push(r.id, r.raDeg, r.decDeg, r.mag, r.color ?? NaN, r.priority ?? NaN, r.role === 'alignment' ? ALIGNMENT_ROLE : 0, r.line);
       for (let k = 0; k < names.length; k++) t.extraValues[k].push(r.extra[names[k]] ?? '');
@@ -125,13 +125,13 @@ export class TargetTable {
   }
 }
 
-/** Tables made by `targetTableOf` from Target lists, so a list is wrapped once however often it is asked for. */
-const tablesOfLists = new WeakMap<readonly Target[], TargetTable>();
+/** Tables made by `targetColumnsOf` from Target lists, so a list is wrapped once however often it is asked for. */
+const tablesOfLists = new WeakMap<readonly Target[], TargetColumns>();
 
-/** The rows as a TargetTable: the table itself, or (once per list) a table of a list of Target objects. */
-export function targetTableOf(targets: readonly Target[] | TargetTable): TargetTable {
-  if (targets instanceof TargetTable) return targets;
+/** The rows as a TargetColumns: the table itself, or (once per list) a table of a list of Target objects. */
+export function targetColumnsOf(targets: readonly Target[] | TargetColumns): TargetColumns {
+  if (targets instanceof TargetColumns) return targets;
   let t = tablesOfLists.get(targets);
-  if (!t) tablesOfLists.set(targets, (t = TargetTable.of(targets)));
+  if (!t) tablesOfLists.set(targets, (t = TargetColumns.of(targets)));
   return t;
 }

@@ -1,13 +1,13 @@
 /**
- * The catalog rows as columns (catalog/targetTable.ts) from the reader on: the same rows as the Target objects in every
+ * The catalog rows as columns (catalog/targetColumns.ts) from the reader on: the same rows as the Target objects in every
  * field (missing colour and priority, roles, lines, extra columns), objects made only when read, a structured clone
  * (the editor's worker message) carrying the objects, and the solver's path (weighting, excluded-targets.csv, the
  * allocation context) giving the same result from the table as from the objects.
  */
 import { describe, expect, it } from 'vitest';
 import { readCatalog } from '../../src/core/catalog/read';
-import { catalogTable, usableRowCount } from '../../src/core/catalog/validate';
-import { TargetTable, targetTableOf } from '../../src/core/catalog/targetTable';
+import { catalogTargetColumns, usableRowCount } from '../../src/core/catalog/validate';
+import { TargetColumns, targetColumnsOf } from '../../src/core/catalog/targetColumns';
 import { generateScenario } from '../../src/core/scenario/generator';
 import { weighTargets, exclusionCounts, excludedCount } from '../../src/core/solver/weighting';
 import { weightingSchema } from '../../src/core/plan/weightingSection';
@@ -33,8 +33,8 @@ describe('catalog rows as columns', () => {
   const r = readCatalog(CSV, 'cat.csv');
 
   it('hold every field of every usable row, as the Target objects give them', () => {
-    const t = catalogTable(r);
-    expect(t).toBeInstanceOf(TargetTable);
+    const t = catalogTargetColumns(r);
+    expect(t).toBeInstanceOf(TargetColumns);
     expect(usableRowCount(r)).toBe(3);
     expect(t.ids).toEqual(['a1', 'a2', 'a4']);
     expect(Array.from(t.line)).toEqual([2, 3, 5]);
@@ -53,31 +53,31 @@ describe('catalog rows as columns', () => {
 
   it('excluded rows are written with their catalog line, role, rule and reason', () => {
     const galaxy = { id: 'g', raDeg: 187.5, decDeg: -5.1, reArcsec: 30, axisRatio: 1, paDeg: 0, distanceMpc: 15, vsysKms: 1000, sersicN: 4, muE: 21 };
-    const w = weighTargets(catalogTable(r), galaxy, { magRange: [21, 22] }, { a1: { force: 'out' } });
+    const w = weighTargets(catalogTargetColumns(r), galaxy, { magRange: [21, 22] }, { a1: { force: 'out' } });
     expect(excludedTargetsCsv(w)).toBe('id,line,role,rule,reason\na1,2,tracer,override,forced out by targetOverrides\na4,5,tracer,magRange,mag 22.75 outside 21.0..22.0\n');
     expect(w.kept!.index.length).toBe(1); // the alignment star: the magnitude window applies to tracers only
   });
 
   it('a table of objects gives the same objects back, and a list is wrapped once', () => {
-    const again = TargetTable.of(r.targets);
+    const again = TargetColumns.of(r.targets);
     expect(again.toTargets()).toEqual(r.targets);
     const list = r.targets.slice();
-    expect(targetTableOf(list)).toBe(targetTableOf(list));
-    expect(TargetTable.of([]).length).toBe(0);
-    expect(TargetTable.of([]).raDeg.length).toBe(0);
+    expect(targetColumnsOf(list)).toBe(targetColumnsOf(list));
+    expect(TargetColumns.of([]).length).toBe(0);
+    expect(TargetColumns.of([]).raDeg.length).toBe(0);
   });
 
   it('a structured clone of a read result carries the objects (the table stays behind)', () => {
     const clone = structuredClone(r);
     expect(clone.targets).toEqual(r.targets);
     expect(clone.table).toBeUndefined();
-    expect(catalogTable(clone).ids).toEqual(['a1', 'a2', 'a4']);
+    expect(catalogTargetColumns(clone).ids).toEqual(['a1', 'a2', 'a4']);
   });
 });
 
 describe('the solver path from the table equals the path from the objects', () => {
   const s = generateScenario({ seed: 'target-table', candidates: 2500 });
-  const table = TargetTable.of(s.targets);
+  const table = TargetColumns.of(s.targets);
   const rules = weightingSchema.parse({
     magRange: [19, 23.5], colorRange: [0.8, 1.3], radiusRangeRe: [0, 12],
     exclusions: [{ label: 'companion', uArcsec: 60, vArcsec: 0, radiusArcsec: 40 }],
