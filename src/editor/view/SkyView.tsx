@@ -1,7 +1,8 @@
 /**
  * The sky view: tangent plane about the galaxy centre, North up and East left. Layers, bottom to top:
- * backdrop image, catalog (one Shape drawing every target in batches), galaxy isophotes, masks
- * (footprints, slits by role, rotate handles), and a fixed overlay with compass and scale bar.
+ * backdrop image, catalog (a raster canvas, view/catalogBitmap.ts), galaxy isophotes, masks
+ * (footprints, slits by role, rotate handles), the mask being moved (while one is), and a fixed overlay with compass
+ * and scale bar. While the view pans or zooms, CSS transforms carry what was drawn; it is drawn again once it settles.
  * Mouse: drag empty sky to pan, wheel to zoom (pinch or Ctrl+wheel on a trackpad; two-finger scroll pans),
  * drag a mask to move it (where masks overlap, the active one is taken first and is drawn on top, else the one whose
  * centre is nearest; a click without moving steps to the next mask under the pointer), drag its round handle to
