@@ -135,6 +135,9 @@ export function SkyView(props: SkyViewProps) {
   movingRef.current = moving;
   const movedPose = useRef<MaskPose | null>(null);
   const movingLayer = useRef<Konva.Layer>(null);
+  const anchorList = useRef<HTMLUListElement>(null);
+  /** The moving mask's test anchor as drawn at the start of the move (screen px: centre and handle). */
+  const movingAnchor = useRef<{ id: string; cam: Camera; x: number; y: number; hx: number; hy: number } | null>(null);
   const [boxSel, setBoxSel] = useState<{ x0: number; y0: number; x1: number; y1: number } | null>(null);
   const centre = useMemo(() => tangentCentre(galaxy.raDeg, galaxy.decDeg), [galaxy.raDeg, galaxy.decDeg]);
   const fitted = useRef(false);
@@ -235,8 +238,19 @@ export function SkyView(props: SkyViewProps) {
     if (!from || !el) return;
     const to = movedPose.current ?? from, s = camRef.current.pxPerArcsec;
     const a = maskXiEta(from), b = maskXiEta(to);
+    const dx = -(b.xiArcsec - a.xiArcsec) * s, dy = -(b.etaArcsec - a.etaArcsec) * s;
     el.style.willChange = 'transform';
-    el.style.transform = `translate(${-(b.xiArcsec - a.xiArcsec) * s}px, ${-(b.etaArcsec - a.etaArcsec) * s}px)`;
+    el.style.transform = `translate(${dx}px, ${dy}px)`;
+    // The hidden anchor list (tests, benchmark) follows the moving mask too: its entry as drawn, moved by the same offset.
+    const li = anchorList.current?.querySelector<HTMLElement>(`li[data-mask-id="${CSS.escape(from.id)}"]`);
+    if (!li) return;
+    // Taken again when the drawing was made afresh (another mask, or another camera: React then wrote the entry anew).
+    if (movingAnchor.current?.id !== from.id || movingAnchor.current.cam !== camRef.current) {
+      movingAnchor.current = { id: from.id, cam: camRef.current, x: Number(li.dataset.x), y: Number(li.dataset.y), hx: Number(li.dataset.handleX), hy: Number(li.dataset.handleY) };
+    }
+    const m = movingAnchor.current;
+    li.dataset.x = (m.x + dx).toFixed(1); li.dataset.y = (m.y + dy).toFixed(1);
+    li.dataset.handleX = (m.hx + dx).toFixed(1); li.dataset.handleY = (m.hy + dy).toFixed(1);
   }, [maskXiEta]);
   const placeMovingRef = useRef(placeMoving);
   placeMovingRef.current = placeMoving;
@@ -357,6 +371,7 @@ export function SkyView(props: SkyViewProps) {
       }
       setMoving(null);
       movedPose.current = null;
+      movingAnchor.current = null;
       setPreview(null);
       props.onPreviewEnd?.();
     } else if (g.kind === 'rotate') {
@@ -489,7 +504,7 @@ export function SkyView(props: SkyViewProps) {
         <div className="pa-readout" data-testid="pa-readout">{activePose.id} · PA {activePose.paDeg.toFixed(1)}° E of N</div>
       )}
       <div className="sky-readout" data-testid="sky-readout" ref={readoutRef}>{HINT}</div>
-      <ul className="test-anchors" data-testid="mask-anchors" hidden>
+      <ul className="test-anchors" data-testid="mask-anchors" hidden ref={anchorList}>
         {shownMasks.map((sm) => onScreen.find((o) => o.m.id === sm.id)!).map(({ m, sp, handlePx }) => {
           const pa = (m.paDeg * Math.PI) / 180;
           return (
