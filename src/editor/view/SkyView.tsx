@@ -1,7 +1,8 @@
 /**
  * The sky view: tangent plane about the galaxy centre, North up and East left. Layers, bottom to top:
- * backdrop image, catalog (one Shape drawing every target in batches), galaxy isophotes, masks
- * (footprints, slits by role, rotate handles), and a fixed overlay with compass and scale bar.
+ * backdrop image, catalog (a raster canvas, view/catalogBitmap.ts), galaxy isophotes, masks
+ * (footprints, slits by role, rotate handles), the mask being moved (while one is), and a fixed overlay with compass
+ * and scale bar. While the view pans or zooms, CSS transforms carry what was drawn; it is drawn again once it settles.
  * Mouse: drag empty sky to pan, wheel to zoom (pinch or Ctrl+wheel on a trackpad; two-finger scroll pans),
  * drag a mask to move it (where masks overlap, the active one is taken first and is drawn on top, else the one whose
  * centre is nearest; a click without moving steps to the next mask under the pointer), drag its round handle to
@@ -134,6 +135,9 @@ export function SkyView(props: SkyViewProps) {
   movingRef.current = moving;
   const movedPose = useRef<MaskPose | null>(null);
   const movingLayer = useRef<Konva.Layer>(null);
+  const anchorList = useRef<HTMLUListElement>(null);
+  /** The moving mask's test anchor as drawn at the start of the move (screen px: centre and handle). */
+  const movingAnchor = useRef<{ id: string; cam: Camera; x: number; y: number; hx: number; hy: number } | null>(null);
   const [boxSel, setBoxSel] = useState<{ x0: number; y0: number; x1: number; y1: number } | null>(null);
   const centre = useMemo(() => tangentCentre(galaxy.raDeg, galaxy.decDeg), [galaxy.raDeg, galaxy.decDeg]);
   const fitted = useRef(false);
@@ -234,8 +238,19 @@ export function SkyView(props: SkyViewProps) {
     if (!from || !el) return;
     const to = movedPose.current ?? from, s = camRef.current.pxPerArcsec;
     const a = maskXiEta(from), b = maskXiEta(to);
+    const dx = -(b.xiArcsec - a.xiArcsec) * s, dy = -(b.etaArcsec - a.etaArcsec) * s;
     el.style.willChange = 'transform';
-    el.style.transform = `translate(${-(b.xiArcsec - a.xiArcsec) * s}px, ${-(b.etaArcsec - a.etaArcsec) * s}px)`;
+    el.style.transform = `translate(${dx}px, ${dy}px)`;
+    // The hidden anchor list (tests, benchmark) follows the moving mask too: its entry as drawn, moved by the same offset.
+    const li = anchorList.current?.querySelector<HTMLElement>(`li[data-mask-id="${CSS.escape(from.id)}"]`);
+    if (!li) return;
+    // Taken again when the drawing was made afresh (another mask, or another camera: React then wrote the entry anew).
+    if (movingAnchor.current?.id !== from.id || movingAnchor.current.cam !== camRef.current) {
+      movingAnchor.current = { id: from.id, cam: camRef.current, x: Number(li.dataset.x), y: Number(li.dataset.y), hx: Number(li.dataset.handleX), hy: Number(li.dataset.handleY) };
+    }
+    const m = movingAnchor.current;
+    li.dataset.x = (m.x + dx).toFixed(1); li.dataset.y = (m.y + dy).toFixed(1);
+    li.dataset.handleX = (m.hx + dx).toFixed(1); li.dataset.handleY = (m.hy + dy).toFixed(1);
   }, [maskXiEta]);
   const placeMovingRef = useRef(placeMoving);
   placeMovingRef.current = placeMoving;
@@ -356,6 +371,7 @@ export function SkyView(props: SkyViewProps) {
       }
       setMoving(null);
       movedPose.current = null;
+      movingAnchor.current = null;
       setPreview(null);
       props.onPreviewEnd?.();
     } else if (g.kind === 'rotate') {
@@ -488,7 +504,7 @@ export function SkyView(props: SkyViewProps) {
         <div className="pa-readout" data-testid="pa-readout">{activePose.id} · PA {activePose.paDeg.toFixed(1)}° E of N</div>
       )}
       <div className="sky-readout" data-testid="sky-readout" ref={readoutRef}>{HINT}</div>
-      <ul className="test-anchors" data-testid="mask-anchors" hidden>
+      <ul className="test-anchors" data-testid="mask-anchors" hidden ref={anchorList}>
         {shownMasks.map((sm) => onScreen.find((o) => o.m.id === sm.id)!).map(({ m, sp, handlePx }) => {
           const pa = (m.paDeg * Math.PI) / 180;
           return (
