@@ -6,8 +6,9 @@
  * 5 points) and the CCD equation with the sky-estimate term of the mask's sky slits; co-added per bin with the
  * systematic sky floor. A mask point is placed in the galaxy frame as the model defines it (docs/signal-to-noise.md):
  * the galaxy centre projected (TAN) into the mask frame, the offset from it turned to the sky by the mask PA and to
- * the galaxy frame by the galaxy PA. It shares the physical formulas (spectro/, sky/sersic) and the plan's settings
- * (starlightBinModel) with the solver, not its binning, geometry or sums.
+ * the galaxy frame by the galaxy PA. It shares the physical formulas (spectro/, sky/sersic, one spectrum's electrons and
+ * the co-added S/N of solver/starlightBins) and the plan's settings (starlightBinModel) with the solver, not its
+ * binning, geometry or which spectra are summed; test/contract/contract_check.py re-derives the formulas too.
  */
 import type { GalaxyModel, PlanFile } from '../plan/schema';
 import type { InstrumentProfile } from '../profile/schema';
@@ -16,8 +17,8 @@ import { maskToSkyArcsec, skyToMaskArcsec } from '../sky/frames';
 import { skyToTangentArcsec, tangentCentre } from '../sky/tangentPlane';
 import { sersicBn, sersicMuMagPerArcsec2 } from '../sky/sersic';
 import { PMath } from '../numeric/portableMath';
-import { ccdTermsPerA, electronsPerAFromSurfaceBrightness, skyEstimateFactor } from '../spectro/signalToNoise';
-import { starlightBinModel } from '../solver/starlightBins';
+import { RAD_PER_DEG } from '../sky/angles';
+import { coaddedSignalToNoise, floorCapSnPerA, spectrumPart, starlightBinModel, type SpectrumPart } from '../solver/starlightBins';
 import { pointExtractionArcsec, type ExposureModel } from '../solver/exposure';
 import type { CheckedMask, Violation } from './checkOutput';
 
@@ -31,9 +32,8 @@ export const REACH_TOL_RE = 3e-4;
 /** Most layouts of the edge cases tried (each a choice of bin per edge case); further edge cases stay in their own bin. */
 const MAX_EDGE_LAYOUTS = 1024;
 
-interface Part { signalE: number; varianceE2: number; skyE: number }
 /** A spectrum and the bins it may be in, its own first (null: outside the goal radius, not counted). */
-interface Spectrum { cands: (string | null)[]; kind: 'starlight' | 'tracer'; rRe: number; part: Part; where: string }
+interface Spectrum { cands: (string | null)[]; kind: 'starlight' | 'tracer'; rRe: number; part: SpectrumPart; where: string }
 
 export interface StarlightCheckInput {
   coverage: unknown;
@@ -48,24 +48,9 @@ export interface StarlightCheckInput {
 }
 
 const isObj = (x: unknown): x is Record<string, unknown> => !!x && typeof x === 'object' && !Array.isArray(x);
-const DEG = Math.PI / 180;
 const keyOf = (fromRe: number, sectorDeg: number) => `${fromRe}:${sectorDeg}`;
 /** A bin in the user's words: "2-3 Re, 90-135 deg". */
 export const starlightBinName = (fromRe: number, sectorDeg: number) => `${fromRe}-${fromRe + 1} Re, ${sectorDeg}-${sectorDeg + 45} deg`;
-
-/** Electrons per A of galaxy light of mean AB surface brightness muAb over length x width arcsec, sky from skyLength arcsec. */
-function electrons(muAb: number, lengthArcsec: number, widthArcsec: number, skyLengthArcsec: number, m: ExposureModel): Part {
-  const t = ccdTermsPerA({ sourceEPerAPerS: electronsPerAFromSurfaceBrightness(muAb, lengthArcsec * widthArcsec, m.setup, 1), extractionArcsec: lengthArcsec, slitWidthArcsec: widthArcsec, skyMagPerArcsec2: m.skyMagPerArcsec2, skyLengthArcsec }, m.setup, m.exposureTimeS);
-  const k = skyEstimateFactor(t.nPix, t.skyPixels);
-  return { signalE: t.sourceE, varianceE2: t.sourceE + t.nPix * k * (t.skyEPerPixel + t.darkEPerPixel + t.readNoiseE * t.readNoiseE), skyE: t.nPix * t.skyEPerPixel };
-}
-
-/** Co-added S/N per A with the systematic floor f (fraction of the summed sky), and without it. */
-function coadd(parts: readonly Part[], f: number): [number, number] {
-  let s = 0, v = 0, sky = 0;
-  for (const p of parts) { s += p.signalE; v += p.varianceE2; sky += p.skyE; }
-  return v > 0 ? [s / Math.sqrt(v + f * sky * f * sky), s / Math.sqrt(v)] : [0, 0];
-}
 
 /** Bins (keys) a spectrum at (R/Re, azimuth) may be in, its own first: near an edge, the neighbour too. */
 function candidateBins(rRe: number, phiDeg: number, reArcsec: number): string[] {
@@ -75,7 +60,7 @@ function candidateBins(rRe: number, phiDeg: number, reArcsec: number): string[] 
   const rArcsec = Math.max(rRe * reArcsec, 1e-9);
   for (const e of [s0, s0 + 45]) {
     const gapDeg = Math.min(Math.abs(phiDeg - e), 360 - Math.abs(phiDeg - e));
-    if (gapDeg * (Math.PI / 180) * rArcsec < EDGE_TOL_ARCSEC) sector.push(e === s0 ? (e + 315) % 360 : e % 360);
+    if (gapDeg * RAD_PER_DEG * rArcsec < EDGE_TOL_ARCSEC) sector.push(e === s0 ? (e + 315) % 360 : e % 360);
   }
   return radial.filter((r) => r >= 0).flatMap((r) => sector.map((x) => keyOf(r, x)));
 }
@@ -104,11 +89,11 @@ function spectraOf(input: StarlightCheckInput, goalRe: number): { spectra: Spect
     const t = skyToTangentArcsec(tangentCentre(mask.raDeg, mask.decDeg), g.raDeg, g.decDeg);
     if (!t) continue;
     const gc = skyToMaskArcsec(t.xiArcsec, t.etaArcsec, mask.paDeg);
-    const sinGal = PMath.sin(g.paDeg * DEG), cosGal = PMath.cos(g.paDeg * DEG), q = g.axisRatio;
+    const sinGal = PMath.sin(g.paDeg * RAD_PER_DEG), cosGal = PMath.cos(g.paDeg * RAD_PER_DEG), q = g.axisRatio;
     const at = (x: number, y: number) => {
       const o = maskToSkyArcsec(x - gc.xArcsec, y - gc.yArcsec, mask.paDeg);
       const u = o.xiArcsec * sinGal + o.etaArcsec * cosGal, v = o.xiArcsec * cosGal - o.etaArcsec * sinGal;
-      const phiDeg = PMath.atan2(v, u) / DEG;
+      const phiDeg = PMath.atan2(v, u) / RAD_PER_DEG;
       return { rRe: Math.sqrt(q * u * u + (v * v) / q) / g.reArcsec, phiDeg: phiDeg < 0 ? phiDeg + 360 : phiDeg };
     };
     const extraction = pointExtractionArcsec(m.seeingFwhmArcsec);
@@ -126,7 +111,9 @@ function spectraOf(input: StarlightCheckInput, goalRe: number): { spectra: Spect
         let cands: (string | null)[] = candidateBins(mid.rRe, mid.phiDeg, g.reArcsec);
         // At the goal radius a tracer sky part is counted or not.
         if (kind === 'tracer' && Math.abs(mid.rRe - goalRe) * g.reArcsec < EDGE_TOL_ARCSEC) cands = mid.rRe <= goalRe ? [...cands, null] : [null, ...cands];
-        spectra.push({ cands, kind, rRe: mid.rRe, part: electrons(muAb, y1 - y0, s.widthArcsec, skyLength, m), where: input.rowWhere?.(i) ?? `slit ${s.slitId} of mask ${s.maskId}` });
+        const part = spectrumPart(muAb, y1 - y0, s.widthArcsec, skyLength, m);
+        if (!part) continue; // no sky estimate (skyLength > 0 above: never)
+        spectra.push({ cands, kind, rRe: mid.rRe, part, where: input.rowWhere?.(i) ?? `slit ${s.slitId} of mask ${s.maskId}` });
       }
     }
   }
@@ -191,9 +178,9 @@ export function checkStarlightBins(input: StarlightCheckInput): Violation[] {
         const n = sps.filter((s) => s.kind === kind).length;
         if (b[field] !== n) v(where, `${field} ${String(b[field])}, but slits.csv gives ${n} ${words} there`);
       }
-      const sn = coadd(sps.map((s) => s.part), f);
-      for (const [field, j] of [['snPerA', 0], ['snPerAWithoutFloor', 1]] as const) {
-        if (!within(b[field], sn[j], sn[j], SN_REL_TOL, SN_ABS_TOL)) v(where, `${field} ${String(b[field])}, but the spectra of slits.csv in this bin co-add to ${f2(sn[j])}`);
+      const co = coaddedSignalToNoise(sps.map((s) => s.part), f);
+      for (const [field, sn] of [['snPerA', co.sn], ['snPerAWithoutFloor', co.snWithoutFloor]] as const) {
+        if (!within(b[field], sn, sn, SN_REL_TOL, SN_ABS_TOL)) v(where, `${field} ${String(b[field])}, but the spectra of slits.csv in this bin co-add to ${f2(sn)}`);
       }
       const reach = Math.max(...sps.map((s) => s.rRe));
       if (!within(b.reachRe, reach, reach, 0, REACH_TOL_RE)) v(where, `reachRe ${String(b.reachRe)}, but its spectra reach ${reach.toFixed(4)} Re`);
@@ -231,8 +218,8 @@ export function checkStarlightBins(input: StarlightCheckInput): Violation[] {
     const name = starlightBinName(fromRe, sectorDeg);
     const where = `${where0}.bins[${i}] (${name})`;
     if (firstModel) {
-      const cap = fromRe <= 0 || f <= 0 ? null
-        : PMath.pow(10, -0.4 * (sersicMuMagPerArcsec2(fromRe * input.galaxy.reArcsec, input.galaxy.reArcsec, input.galaxy.sersicN, input.galaxy.muE) + (firstModel.catalogToAbMag ?? 0) - firstModel.skyMagPerArcsec2)) / f;
+      const capOrInfinity = floorCapSnPerA(fromRe, input.galaxy, firstModel, f);
+      const cap = Number.isFinite(capOrInfinity) ? capOrInfinity : null;
       const got = b.floorCapSnPerA;
       if ((cap === null) !== (got === null) || (cap !== null && !within(got, cap, cap, 1e-6, SN_ABS_TOL))) add(where, `floorCapSnPerA ${String(got)}, but the sky floor caps this bin at ${cap === null ? 'nothing (central bin or no floor)' : f2(cap)}`);
     }

@@ -11,7 +11,7 @@ import type { MaskSolution } from '../geometry/maskSolution';
 import type { GalaxyModel, PlanFile } from '../plan/schema';
 import { galaxyOnMask, galaxyRadiusAt, slitMeanMu, starlightSettings, type GalaxyOnMask } from '../solver/starlight';
 import { type StarlightRules } from '../plan/starlightSection';
-import { ccdTermsPerA, electronsPerAFromSurfaceBrightness, skyEstimateFactor } from '../spectro/signalToNoise';
+import { ccdTermsPerA, ccdVarianceE2, electronsPerAFromSurfaceBrightness } from '../spectro/signalToNoise';
 import { exposureModelOf, pointExtractionArcsec, type ExposureModel } from './exposure';
 import { resolveObservingSettings } from '../observe/observingSettings';
 import type { ObservingSection } from '../plan/observingSection';
@@ -75,9 +75,9 @@ export function binOf(rRe: number, azimuthDeg: number): { fromRe: number; sector
  */
 export function spectrumPart(muAbMagPerArcsec2: number, lengthArcsec: number, widthArcsec: number, skyLengthArcsec: number, m: ExposureModel): SpectrumPart | null {
   const terms = ccdTermsPerA({ sourceEPerAPerS: electronsPerAFromSurfaceBrightness(muAbMagPerArcsec2, lengthArcsec * widthArcsec, m.setup, 1), extractionArcsec: lengthArcsec, slitWidthArcsec: widthArcsec, skyMagPerArcsec2: m.skyMagPerArcsec2, skyLengthArcsec }, m.setup, m.exposureTimeS);
-  const k = skyEstimateFactor(terms.nPix, terms.skyPixels);
-  if (!Number.isFinite(k)) return null;
-  return { signalE: terms.sourceE, varianceE2: terms.sourceE + terms.nPix * k * (terms.skyEPerPixel + terms.darkEPerPixel + terms.readNoiseE * terms.readNoiseE), skyE: terms.nPix * terms.skyEPerPixel };
+  const varianceE2 = ccdVarianceE2(terms);
+  if (!Number.isFinite(varianceE2)) return null;
+  return { signalE: terms.sourceE, varianceE2, skyE: terms.nPix * terms.skyEPerPixel };
 }
 
 /** Total length (arcsec) of a mask's sky slits: where its starlight spectra's sky is estimated from. */

@@ -86,12 +86,17 @@ export function skyEstimateFactor(nPix: number, skyPixels: number | undefined): 
   return skyPixels > 0 ? 1 + nPix / skyPixels : Infinity;
 }
 
-/** Howell's CCD equation: S/N = N* / sqrt(N* + n_pix (1 + n_pix/n_B) (N_S + N_G + N_D + N_R^2)); 0 without a sky estimate. */
-export function ccdSignalToNoise(t: CcdTerms): number {
+/** Variance (electrons^2) of Howell's CCD equation: N* + n_pix (1 + n_pix/n_B) (N_S + N_G + N_D + N_R^2); Infinity without a sky estimate. */
+export function ccdVarianceE2(t: CcdTerms): number {
   const k = skyEstimateFactor(t.nPix, t.skyPixels);
-  if (!Number.isFinite(k)) return 0;
-  const variance = t.sourceE + t.nPix * k * (t.skyEPerPixel + (t.galaxyEPerPixel ?? 0) + t.darkEPerPixel + t.readNoiseE * t.readNoiseE);
-  return variance > 0 ? t.sourceE / Math.sqrt(variance) : 0;
+  if (!Number.isFinite(k)) return Infinity;
+  return t.sourceE + t.nPix * k * (t.skyEPerPixel + (t.galaxyEPerPixel ?? 0) + t.darkEPerPixel + t.readNoiseE * t.readNoiseE);
+}
+
+/** Howell's CCD equation: S/N = N* / sqrt(ccdVarianceE2); 0 without a sky estimate. */
+export function ccdSignalToNoise(t: CcdTerms): number {
+  const variance = ccdVarianceE2(t);
+  return Number.isFinite(variance) && variance > 0 ? t.sourceE / Math.sqrt(variance) : 0;
 }
 
 /** What is observed through one slit: the source per second and the sky, dark and read terms per second/pixel. */
