@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { orderByKey } from '../../src/core/solver/pointingSearch';
+import { orderByKey } from '../../src/core/solver/proxyModel';
 
 describe('orderByKey (the proxy masks\' y order)', () => {
   it('gives the order of a stable sort by key, ties by position (random keys, many ties, one bucket)', () => {

@@ -4,7 +4,8 @@ import { solvePlan } from '../../src/core/pipeline/pipeline';
 import { galaxyModel } from '../../src/core/plan/validate';
 import { allocationContext } from '../../src/core/solver/allocateMasks';
 import { targetWeights } from '../../src/core/pipeline/pipeline';
-import { evaluatePointings, naiveCrossLayout, planObjective, searchEnv } from '../../src/core/solver/pointingSearch';
+import { evaluatePointings, naiveCrossLayout, planObjective } from '../../src/core/solver/pointingSearch';
+import { searchEnv } from '../../src/core/solver/searchEnv';
 import { PROFILE_IDS, scenario, violations } from './helpers';
 
 /** The naive cross layout's objective for a scenario, evaluated independently of the search. */

@@ -11,7 +11,8 @@ import { candidateValues, contextFor, withContextSections } from './maskContext'
 import { placeStarlightAndSky, placeStarlightOnMask, starlightSettings, starlightStage, starlightTaken, type StarlightResult, type StarlightStage, type StarlightTrade } from './starlight';
 import { type StarlightRules } from '../plan/starlightSection';
 import type { AllocationContext } from './allocateMasks';
-import type { ProxyMask, SearchEnv } from './pointingSearch';
+import type { SearchEnv } from './searchEnv';
+import type { ProxyMask } from './proxyModel';
 import { refractionLossModel } from './refractionTerm';
 import type { MaskPointing, MaskSolution } from '../geometry/maskSolution';
 

@@ -30,27 +30,22 @@ import type { GalaxyModel, PlanFile } from '../plan/schema';
 import type { InstrumentProfile } from '../profile/schema';
 import { polygonBounds } from '../geometry/polygon';
 import { RAD_PER_DEG, wrap360Deg } from '../sky/angles';
-import { galaxyToSkyArcsec, galaxyTurn } from '../sky/frames';
+import { galaxyToSkyArcsec } from '../sky/frames';
 import { skyToTangentArcsec, tangentCentre, tangentToSkyDeg } from '../sky/tangentPlane';
-import { sersicBn } from '../sky/sersic';
-import { galaxyRadiusAndAzimuth, tangentAzimuthDeg, tangentRadiusRe } from '../sky/galaxyRadius';
-import { alignmentCapacity, allocateForPointings, type AllocationContext, type PointingsAllocation } from './allocateMasks';
+import { galaxyRadiusAndAzimuth } from '../sky/galaxyRadius';
+import { alignmentCapacity, allocateForPointings, type PointingsAllocation } from './allocateMasks';
 import { solveIntervalIndex } from './intervalScheduling';
-import { allocateGreedyMaskByMask, improveByBestResponse, maskCandidateSet, resolveOneMask, type JointProblem, type MaskCandidateSet } from './jointAllocation';
-import { wavelengthOk } from '../profile/eligibility';
-import { footprintRaster, rasterFits } from './footprintRaster';
-import { maskBasis, maskCosC, maskPointToSkyDeg, unitToMaskArcsec } from './maskTargets';
-import { chooseSlots, freeSlots, galaxyOnMask, starlightSettings, type RowSpan, type StarlightSettings, type StarlightTrade } from './starlight';
-import { addStarlight, addTracer, emptyTally, mergeTallies, objectiveContext, objectiveValue, type ObjectiveContext, type ObjectiveValue, type Tally } from './objective';
-import type { StarlightRules } from '../plan/starlightSection';
+import { allocateGreedyMaskByMask, improveByBestResponse, resolveOneMask, type JointProblem, type MaskCandidateSet } from './jointAllocation';
+import { chooseSlots, freeSlots, galaxyOnMask, type RowSpan } from './starlight';
+import { addStarlight, addTracer, emptyTally, mergeTallies, objectiveValue, type ObjectiveValue, type Tally } from './objective';
 import type { SearchRules } from '../plan/searchSection';
 import { makeRng } from '../numeric/random';
 import type { MaskPointing, MaskSolution } from '../geometry/maskSolution';
 import { PMath } from '../numeric/portableMath';
-import { candidateValues, contextFor, tracerRowValue } from './maskContext';
+import { contextFor, tracerRowValue } from './maskContext';
 import { envFor, footprintScaleArcsec, instrumentsProxyModel, placeStarlightForMasks } from './instrumentSearch';
-import { refractionLossModel, type RefractionLoss } from './refractionTerm';
-import { cellsInRectangle, PROXY_CELL_ARCSEC, PROXY_TRIAL_BUDGET, proxyCellPair, type ProxyCells } from './proxyCells';
+import { starlightTrade, targetAzimuthDeg, type SearchEnv } from './searchEnv';
+import { proxyModel, type ProxyMask } from './proxyModel';
 
 /** Where a start layout puts its k-th free mask (of nFree): offset (u major, v minor, arcsec) and the long side's direction (degrees from the major axis). */
 type FreePlacement = (k: number, nFree: number, halfLongArcsec: number) => { uArcsec: number; vArcsec: number; longDirDeg: number };
@@ -134,52 +129,6 @@ export function startLayouts(plan: PlanFile, galaxy: GalaxyModel, profile: Instr
   return layouts.map(([name, place]) => ({ name, pointings: layoutWith(plan, galaxy, profile, place) }));
 }
 
-/** Objective evaluation shared by the search, the pipeline report and the benchmark. */
-export interface SearchEnv {
-  ctx: AllocationContext;
-  objective: ObjectiveContext;
-  starlight: StarlightSettings;
-  plan: PlanFile;
-  /** R/Re of every target (index as ctx.targets). */
-  radiusRe: Float64Array;
-  /** Azimuth (degrees) of every target, NaN until first needed: read it through targetAzimuthDeg. */
-  azimuthDeg: Float64Array;
-  /** Galaxy tangent-plane position of every target (arcsec). */
-  xi: Float64Array;
-  eta: Float64Array;
-  bn: number;
-  /** Fraction of a mask's tracer light lost to refraction across its slits (solver/refractionTerm.ts); null when search.objective.aRefraction is 0. */
-  refractionLoss: RefractionLoss | null;
-}
-
-/** Build the evaluation environment (cached target positions) for a plan and an allocation context. */
-export function searchEnv(plan: PlanFile, ctx: AllocationContext): SearchEnv {
-  const g = ctx.galaxy, n = ctx.table.length;
-  const radiusRe = new Float64Array(n), azimuthDeg = new Float64Array(n).fill(NaN), xi = new Float64Array(n), eta = new Float64Array(n);
-  const c = tangentCentre(g.raDeg, g.decDeg), turn = galaxyTurn(g.paDeg);
-  for (let i = 0; i < n; i++) {
-    const t = skyToTangentArcsec(c, ctx.raDeg[i], ctx.decDeg[i]);
-    xi[i] = t ? t.xiArcsec : NaN;
-    eta[i] = t ? t.etaArcsec : NaN;
-    // galaxyRadiusAndAzimuth's R/Re from the projection just made (the same bits, one projection instead of two).
-    radiusRe[i] = t ? tangentRadiusRe(g, t.xiArcsec, t.etaArcsec, turn) : Infinity;
-  }
-  const tracerWeights = tracerWeightsOf(ctx);
-  const objective = objectiveContext(plan.goals, plan.search as SearchRules | undefined, tracerWeights);
-  return {
-    ctx, plan, radiusRe, azimuthDeg, xi, eta, bn: sersicBn(g.sersicN), objective,
-    refractionLoss: refractionLossModel(plan, ctx.profile, objective.weights.aRefraction),
-    starlight: starlightSettings(plan.starlight as StarlightRules | undefined, ctx.profile, plan),
-  };
-}
-
-/** Azimuth of target i about the galaxy (degrees from the major axis, as galaxyRadiusAndAzimuth), computed once when first asked. */
-export function targetAzimuthDeg(env: SearchEnv, i: number): number {
-  const a = env.azimuthDeg[i];
-  if (a === a) return a;
-  return (env.azimuthDeg[i] = Number.isNaN(env.xi[i]) ? 0 : tangentAzimuthDeg(env.xi[i], env.eta[i], galaxyTurn(env.ctx.galaxy.paDeg)));
-}
-
 /** Objective of finished masks (tracer rows weighted by their allocation weight; starlight rows by their radius). */
 export function planObjective(env: SearchEnv, masks: readonly MaskSolution[]): ObjectiveValue {
   const t = emptyTally(env.objective);
@@ -196,11 +145,6 @@ export function planObjective(env: SearchEnv, masks: readonly MaskSolution[]): O
     if (loss) t.refractionLossWeight += (t.yieldWeight - before) * loss(ms.mask);
   }
   return objectiveValue(env.objective, t);
-}
-
-/** The objective's price of a starlight slit in tracer weight (for the starlight stage's trades). */
-export function starlightTrade(o: ObjectiveContext): StarlightTrade {
-  return { unitWeight: o.unitWeight, aStarlightBin: o.weights.aStarlightBin, aStarlightReach: o.weights.aStarlightReach, aStarlightSector: o.weights.aStarlightSector };
 }
 
 /** Full evaluation of pointings: joint allocation then starlight and sky slits, and the objective of the result. */
@@ -239,175 +183,6 @@ export interface SearchResult {
   /** The returned pointings' masks with starlight and sky slits (before lengthening), and that stage's warnings. */
   masks: MaskSolution[];
   starlightWarnings: string[];
-}
-
-/**
- * The candidate set of intervals already sorted by end (equal lengths, sorted by start): the interval index of
- * solver/intervalScheduling (order by end, pred[k] = number of intervals ending at or before start k) in one pass.
- */
-function equalLengthCandidateSet(objects: Int32Array, starts: Float64Array, ends: Float64Array, identity: Int32Array): MaskCandidateSet {
-  const n = objects.length;
-  // The order is the identity: a read-only view of a shared 0, 1, 2, ... array (nothing allocated for it).
-  const order = identity.subarray(0, n), pred = new Int32Array(n);
-  let j = 0;
-  for (let k = 0; k < n; k++) {
-    while (j < k && ends[j] <= starts[k]) j++;
-    pred[k] = j;
-  }
-  return { objects, starts, ends, index: { order, pred } };
-}
-
-/** The search's fast model of one mask: its tracer candidates (exact projection, raster footprint test), no boxes. */
-export interface ProxyMask {
-  set: MaskCandidateSet;
-  y: Float64Array;
-  /** Largest number of alignment boxes the mask can hold (alignmentCapacity: the allocation's rule); 0 for a liberal set. */
-  alignmentMax: number;
-  /** Boxes the mask's profile needs (alignment.minCount), when it is not the plan's first profile's. */
-  alignmentNeeded?: number;
-}
-
-/**
- * The search's fast model of masks for an environment: `proxy(pointing)` gives a mask's tracer candidates (exact
- * gnomonic projection by dot products of cached unit vectors, the wavelength rule exactly, the footprint by a
- * conservative column raster; no alignment boxes) and how many alignment boxes it can hold (the allocation's rule). With `liberal`
- * the footprint test is only the bounds box: every truly eligible tracer is then in the set (for upper bounds).
- * At high density the tracers of the search's cells are thinned (solver/proxyCells.ts), never those of a liberal set;
- * `thinning: false` keeps every tracer (for comparisons).
- */
-export function proxyModel(env: SearchEnv, options: { thinning?: boolean } = {}): (p: MaskPointing, liberal?: boolean) => ProxyMask {
-  const { ctx } = env;
-  const profile = ctx.profile;
-  const b = polygonBounds(profile.footprint);
-  const L = profile.slits.minLengthArcsec, gap = profile.slits.gapArcsec;
-  const slitRaster = footprintRaster(profile.footprint, profile.slits.widthArcsec / 2, L / 2);
-  const gc = tangentCentre(ctx.galaxy.raDeg, ctx.galaxy.decDeg);
-  // The galaxy's and a mask's tangent planes differ by far less than this margin near the galaxy: the scales differ by
-  // a fraction of order d^2 (d: distance between the two tangent points, radians), about 0.2" at 600" from a mask
-  // centre 1 degree away, so 30" holds for masks up to about 10 degrees from the galaxy; a cell is visited when its centre,
-  // in the mask frame, lies within the footprint bounds grown by the cell's half-diagonal and this margin, and a
-  // tracer is projected exactly only when its own offset passes the same bounds grown by the margin alone.
-  const cell = PROXY_CELL_ARCSEC, margin = 30, grow = cell * Math.SQRT1_2 + margin;
-  const loX = b.minX - margin, hiX = b.maxX + margin, loY = b.minY - margin, hiY = b.maxY + margin;
-  // Cells whose centre can fall inside the grown bounds of one mask (the per-trial visit, any orientation).
-  const shape = { slitPitchArcsec: L + gap, cellsPerTrial: cellsInRectangle(b.maxX - b.minX + 2 * grow, b.maxY - b.minY + 2 * grow, cell) };
-  const input = {
-    tracers: ctx.tracerIndices, xiArcsec: env.xi, etaArcsec: env.eta, unit: ctx.unit,
-    value: candidateValues(ctx, ctx.tracerIndices) ?? tracerWeightsOf(ctx),
-  };
-  // The search's cells (thinned at high density) and, for the liberal superset of the proven bounds, every tracer.
-  const cellPair = proxyCellPair(input, shape, options.thinning === false ? null : PROXY_TRIAL_BUDGET), searchCells = cellPair.search;
-  let allGather: ReturnType<typeof gatherer> | null = null;
-  const searchGather = gatherer(searchCells);
-  // The order of a search set's interval index: a view of 0, 1, 2, ... as long as the largest search set.
-  const identity = new Int32Array(searchCells.objects.length);
-  for (let k = 0; k < identity.length; k++) identity[k] = k;
-
-  /** Candidates of one index on a mask: object indices and mask y, in y order, no allocation per target. */
-  function gatherer(cells: ProxyCells) {
-    const size = cells.objects.length;
-    const bufObj = new Int32Array(size), bufY = new Float64Array(size), keys = new Float64Array(size);
-    const sortWork: SortWork = { out: new Int32Array(size), start: new Int32Array(size + 1), fill: new Int32Array(size) };
-    const { nCells, cellOnPlane, cellXiArcsec, cellEtaArcsec, cellStart, objects: pObj, ux: pX, uy: pY, uz: pZ, xiArcsec: pXi, etaArcsec: pEta } = cells;
-    return (p: MaskPointing, liberal: boolean): { objects: Int32Array; y: Float64Array; starts: Float64Array; ends: Float64Array } => {
-      const basis = maskBasis(p);
-      const at = { xArcsec: 0, yArcsec: 0 };
-      const pc = skyToTangentArcsec(gc, p.raDeg, p.decDeg);
-      // The mask's +y direction as seen in the galaxy's tangent plane (North turns between the two tangent points).
-      const up = maskPointToSkyDeg(p, 0, 60), pu = skyToTangentArcsec(gc, up.raDeg, up.decDeg);
-      const upA = pc && pu ? PMath.atan2(pu.xiArcsec - pc.xiArcsec, pu.etaArcsec - pc.etaArcsec) : p.paDeg * RAD_PER_DEG;
-      const gsp = PMath.sin(upA), gcp = PMath.cos(upA);
-      const pcXi = pc ? pc.xiArcsec : 0, pcEta = pc ? pc.etaArcsec : 0;
-      let n = 0;
-      for (let c = 0; c < nCells; c++) {
-        const culled = pc !== null && cellOnPlane[c] === 1;
-        if (culled) {
-          const dxi = cellXiArcsec[c] - pcXi, deta = cellEtaArcsec[c] - pcEta;
-          const mx = dxi * gcp - deta * gsp, my = dxi * gsp + deta * gcp;
-          if (mx < b.minX - grow || mx > b.maxX + grow || my < b.minY - grow || my > b.maxY + grow) continue;
-        }
-        for (let q = cellStart[c], qEnd = cellStart[c + 1]; q < qEnd; q++) {
-          if (culled) {
-            const dxi = pXi[q] - pcXi, deta = pEta[q] - pcEta;
-            const mx = dxi * gcp - deta * gsp, my = dxi * gsp + deta * gcp;
-            if (mx < loX || mx > hiX || my < loY || my > hiY) continue;
-          }
-          const px = pX[q], py = pY[q], pz = pZ[q];
-          const cosC = maskCosC(basis, px, py, pz);
-          if (cosC < 0.9) continue; // farther than ~25 degrees: never on a mask
-          unitToMaskArcsec(basis, px, py, pz, cosC, at);
-          const x = at.xArcsec, y = at.yArcsec;
-          if (x < b.minX || x > b.maxX || y < b.minY || y > b.maxY) continue;
-          if (!wavelengthOk(ctx.rules, x) || (!liberal && !rasterFits(slitRaster, x, y))) continue;
-          bufObj[n] = pObj[q]; bufY[n] = y; n++;
-        }
-      }
-      // Order by y quantised to 1e-4 arcsec (ordering only), ties by position: a bucket sort, O(n) for spread-out y.
-      for (let k = 0; k < n; k++) keys[k] = Math.floor((bufY[k] + 1e4) * 1e4);
-      const byY = orderByKeyInto(keys, n, sortWork);
-      const objects = new Int32Array(n), y = new Float64Array(n), starts = new Float64Array(n), ends = new Float64Array(n);
-      for (let k = 0; k < n; k++) {
-        const j = byY[k];
-        objects[k] = bufObj[j]; y[k] = bufY[j];
-        starts[k] = y[k] - L / 2; ends[k] = y[k] + L / 2 + gap;
-      }
-      return { objects, y, starts, ends };
-    };
-  }
-
-  return (p: MaskPointing, liberal = false): ProxyMask => {
-    // The liberal superset feeds a proven bound: every tracer, never the thinned cells.
-    const gather = !liberal || searchCells.perCellCap === null ? searchGather : (allGather ??= gatherer(cellPair.all()));
-    const { objects, y, starts, ends } = gather(p, liberal);
-    // The allocation's own alignment rule (shared stars allowed; boxes clear of each other along y).
-    const alignmentMax = liberal ? 0 : alignmentCapacity(ctx, p).compatibleMax;
-    // The liberal set's interval index is built exactly (sorted by end), not from the packed keys.
-    return { set: liberal ? maskCandidateSet(objects, starts, ends) : equalLengthCandidateSet(objects, starts, ends, identity), y, alignmentMax };
-  };
-}
-
-/** The weight of every tracer, in the order of ctx.tracerIndices. */
-function tracerWeightsOf(ctx: AllocationContext): Float64Array {
-  const out = new Float64Array(ctx.tracerIndices.length);
-  for (let k = 0; k < out.length; k++) out[k] = ctx.weights[ctx.tracerIndices[k]];
-  return out;
-}
-
-/** Reusable buffers of orderByKeyInto for up to out.length keys (start: length + 1). */
-interface SortWork { out: Int32Array; start: Int32Array; fill: Int32Array }
-
-/**
- * Positions 0..n-1 of `keys` ordered by (key, position) ascending, the order of a stable sort: a counting sort into
- * n equal-width buckets over [min, max] key (monotone in the key), then insertion sort inside each bucket.
- */
-export function orderByKey(keys: Float64Array): Int32Array {
-  const n = keys.length;
-  return orderByKeyInto(keys, n, { out: new Int32Array(n), start: new Int32Array(n + 1), fill: new Int32Array(n) }).slice(0, n);
-}
-
-/** orderByKey of the first n keys, in `work`'s buffers (no allocation): the result is work.out's first n entries. */
-function orderByKeyInto(keys: Float64Array, n: number, work: SortWork): Int32Array {
-  const { out, start, fill } = work;
-  if (n === 0) return out;
-  let lo = Infinity, hi = -Infinity;
-  for (let k = 0; k < n; k++) { if (keys[k] < lo) lo = keys[k]; if (keys[k] > hi) hi = keys[k]; }
-  const scale = hi > lo ? (n - 1) / (hi - lo) : 0;
-  const bucketOf = (k: number) => Math.min(n - 1, Math.floor((keys[k] - lo) * scale));
-  start.fill(0, 0, n + 1);
-  for (let k = 0; k < n; k++) start[bucketOf(k) + 1]++;
-  for (let b = 0; b < n; b++) start[b + 1] += start[b];
-  fill.set(start.subarray(0, n));
-  // Positions enter their bucket in increasing order, so equal keys keep position order (a stable insertion sort).
-  for (let k = 0; k < n; k++) out[fill[bucketOf(k)]++] = k;
-  for (let b = 0; b < n; b++) {
-    for (let i = start[b] + 1; i < start[b + 1]; i++) {
-      const v = out[i], kv = keys[v];
-      let j = i - 1;
-      while (j >= start[b] && keys[out[j]] > kv) { out[j + 1] = out[j]; j--; }
-      out[j + 1] = v;
-    }
-  }
-  return out;
 }
 
 /** The search's working state: plane pointings, proxy masks, joint selection over the proxies, per-mask tallies. */

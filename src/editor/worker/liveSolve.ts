@@ -22,7 +22,7 @@ import { allocateForPointings, allocationContext, reallocateOneMask, type Alloca
 import { lineWindowSettings } from '../../core/profile/wavelength';
 import { coverageReport } from '../../core/coverage/coverage';
 import { objectiveContext } from '../../core/solver/objective';
-import { starlightTrade } from '../../core/solver/pointingSearch';
+import { starlightTrade } from '../../core/solver/searchEnv';
 import { placeStarlightOnMask, starlightStage, starlightTaken, type StarlightStage, type StarlightTaken } from '../../core/solver/starlight';
 import type { MaskPointing, MaskSolution } from '../../core/geometry/maskSolution';
 import type { SolveResult } from './protocol';

@@ -1,0 +1,75 @@
+/**
+ * The search's evaluation environment: every target's position in the galaxy's tangent plane (xi East, eta North,
+ * arcsec), its circularised radius R/Re and (lazily) its azimuth from the major axis, with the objective, starlight and
+ * refraction settings of the plan. Built once per plan; shared by the pointing search, its proxy model, the pipeline
+ * report and the benchmarks.
+ */
+import type { PlanFile } from '../plan/schema';
+import type { StarlightRules } from '../plan/starlightSection';
+import type { SearchRules } from '../plan/searchSection';
+import { galaxyTurn } from '../sky/frames';
+import { skyToTangentArcsec, tangentCentre } from '../sky/tangentPlane';
+import { sersicBn } from '../sky/sersic';
+import { tangentAzimuthDeg, tangentRadiusRe } from '../sky/galaxyRadius';
+import type { AllocationContext } from './allocateMasks';
+import { starlightSettings, type StarlightSettings, type StarlightTrade } from './starlight';
+import { objectiveContext, type ObjectiveContext } from './objective';
+import { refractionLossModel, type RefractionLoss } from './refractionTerm';
+
+/** Objective evaluation shared by the search, the pipeline report and the benchmark. */
+export interface SearchEnv {
+  ctx: AllocationContext;
+  objective: ObjectiveContext;
+  starlight: StarlightSettings;
+  plan: PlanFile;
+  /** R/Re of every target (index as ctx.targets). */
+  radiusRe: Float64Array;
+  /** Azimuth (degrees) of every target, NaN until first needed: read it through targetAzimuthDeg. */
+  azimuthDeg: Float64Array;
+  /** Galaxy tangent-plane position of every target (arcsec). */
+  xi: Float64Array;
+  eta: Float64Array;
+  bn: number;
+  /** Fraction of a mask's tracer light lost to refraction across its slits (solver/refractionTerm.ts); null when search.objective.aRefraction is 0. */
+  refractionLoss: RefractionLoss | null;
+}
+
+/** Build the evaluation environment (cached target positions) for a plan and an allocation context. */
+export function searchEnv(plan: PlanFile, ctx: AllocationContext): SearchEnv {
+  const g = ctx.galaxy, n = ctx.table.length;
+  const radiusRe = new Float64Array(n), azimuthDeg = new Float64Array(n).fill(NaN), xi = new Float64Array(n), eta = new Float64Array(n);
+  const c = tangentCentre(g.raDeg, g.decDeg), turn = galaxyTurn(g.paDeg);
+  for (let i = 0; i < n; i++) {
+    const t = skyToTangentArcsec(c, ctx.raDeg[i], ctx.decDeg[i]);
+    xi[i] = t ? t.xiArcsec : NaN;
+    eta[i] = t ? t.etaArcsec : NaN;
+    // galaxyRadiusAndAzimuth's R/Re from the projection just made (the same bits, one projection instead of two).
+    radiusRe[i] = t ? tangentRadiusRe(g, t.xiArcsec, t.etaArcsec, turn) : Infinity;
+  }
+  const tracerWeights = tracerWeightsOf(ctx);
+  const objective = objectiveContext(plan.goals, plan.search as SearchRules | undefined, tracerWeights);
+  return {
+    ctx, plan, radiusRe, azimuthDeg, xi, eta, bn: sersicBn(g.sersicN), objective,
+    refractionLoss: refractionLossModel(plan, ctx.profile, objective.weights.aRefraction),
+    starlight: starlightSettings(plan.starlight as StarlightRules | undefined, ctx.profile, plan),
+  };
+}
+
+/** Azimuth of target i about the galaxy (degrees from the major axis, as galaxyRadiusAndAzimuth), computed once when first asked. */
+export function targetAzimuthDeg(env: SearchEnv, i: number): number {
+  const a = env.azimuthDeg[i];
+  if (a === a) return a;
+  return (env.azimuthDeg[i] = Number.isNaN(env.xi[i]) ? 0 : tangentAzimuthDeg(env.xi[i], env.eta[i], galaxyTurn(env.ctx.galaxy.paDeg)));
+}
+
+/** The weight of every tracer, in the order of ctx.tracerIndices. */
+export function tracerWeightsOf(ctx: AllocationContext): Float64Array {
+  const out = new Float64Array(ctx.tracerIndices.length);
+  for (let k = 0; k < out.length; k++) out[k] = ctx.weights[ctx.tracerIndices[k]];
+  return out;
+}
+
+/** The objective's price of a starlight slit in tracer weight (for the starlight stage's trades). */
+export function starlightTrade(o: ObjectiveContext): StarlightTrade {
+  return { unitWeight: o.unitWeight, aStarlightBin: o.weights.aStarlightBin, aStarlightReach: o.weights.aStarlightReach, aStarlightSector: o.weights.aStarlightSector };
+}
