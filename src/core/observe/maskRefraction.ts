@@ -188,7 +188,7 @@ export function maskRefractionContext(input: MaskRefractionInput): MaskRefractio
     return skyToMaskArcsec(t.xiArcsec, t.etaArcsec, input.mask.paDeg);
   };
   const eps = 1;
-  const c0 = centreLift(ctx, input.designHourAngleH) ?? { xArcsec: 0, yArcsec: 0 };
+  const c0 = designCentreLift(ctx, input.designHourAngleH);
   for (const slit of input.slits) {
     if (slit.role === 'sky') continue;
     const at = tangentCentre(slit.raDeg, slit.decDeg);
@@ -203,11 +203,32 @@ export function maskRefractionContext(input: MaskRefractionInput): MaskRefractio
       jye: (pe.yArcsec - me.yArcsec) / (2 * eps), jyn: (pn.yArcsec - mn.yArcsec) / (2 * eps),
       design: { xArcsec: 0, yArcsec: 0 },
     };
-    const u = liftPerUnitRefractivity(ctx, input.designHourAngleH * 15 - g.dRaDeg, g.sinDec, g.cosDec);
-    if (u) g.design = slitLift(g, u, ctx.kArcsec.design, c0);
+    g.design = designImage(ctx, g, input.designHourAngleH, c0);
     ctx.slits.push(g);
   }
   return ctx;
+}
+
+/** The guided centre's lift at the design hour angle designH (zero when the centre is below the horizon then). */
+function designCentreLift(ctx: MaskRefractionContext, designH: number): { xArcsec: number; yArcsec: number } {
+  return centreLift(ctx, designH) ?? { xArcsec: 0, yArcsec: 0 };
+}
+
+/** Where a slit is cut for design hour angle designH: its target's design-wavelength image (mask frame) relative to the guided centre's lift c0; zero below the horizon. */
+function designImage(ctx: MaskRefractionContext, g: SlitGeometry, designH: number, c0: { xArcsec: number; yArcsec: number }): { xArcsec: number; yArcsec: number } {
+  const u = liftPerUnitRefractivity(ctx, designH * 15 - g.dRaDeg, g.sinDec, g.cosDec);
+  return u ? slitLift(g, u, ctx.kArcsec.design, c0) : { xArcsec: 0, yArcsec: 0 };
+}
+
+/**
+ * The context of the same mask, slits, site and settings designed for hour angle designH: the slit geometry of ctx
+ * reused, only the design positions made anew (the same bits as maskRefractionContext with that design hour angle).
+ */
+export function contextForDesignHourAngle(ctx: MaskRefractionContext, designH: number): MaskRefractionContext {
+  const out: MaskRefractionContext = { ...ctx, input: { ...ctx.input, designHourAngleH: designH }, slits: [] };
+  const c0 = designCentreLift(out, designH);
+  for (const g of ctx.slits) out.slits.push({ ...g, design: designImage(out, g, designH, c0) });
+  return out;
 }
 
 /** Every slit's (a), (b) and (c) at mask-centre hour angle haH (empty when the mask centre is below the horizon). */
@@ -281,12 +302,11 @@ export function windowAcrossAt(ctx: MaskRefractionContext, haH: number): Float64
  * wavelength's image relative to the guided centre, as maskRefractionContext sets it), and each such slit's width.
  */
 export function windowDesignAcross(ctx: MaskRefractionContext, designH: number): { xArcsec: Float64Array; widthArcsec: Float64Array } {
-  const c0 = centreLift(ctx, designH) ?? { xArcsec: 0, yArcsec: 0 };
+  const c0 = designCentreLift(ctx, designH);
   const win = ctx.slits.filter((g) => g.windowRole);
   const xArcsec = new Float64Array(win.length), widthArcsec = new Float64Array(win.length);
   win.forEach((g, i) => {
-    const u = liftPerUnitRefractivity(ctx, designH * 15 - g.dRaDeg, g.sinDec, g.cosDec);
-    xArcsec[i] = u ? slitLift(g, u, ctx.kArcsec.design, c0).xArcsec : 0;
+    xArcsec[i] = designImage(ctx, g, designH, c0).xArcsec;
     widthArcsec[i] = g.widthArcsec;
   });
   return { xArcsec, widthArcsec };
@@ -360,7 +380,12 @@ export function hourAngleGridH(rangeH: [number, number], stepH: number): number[
 
 /** Per-mask report: rows over the hour-angle grid and the recommended window (ends refined by bisection). */
 export function maskRefractionReport(input: MaskRefractionInput): MaskRefractionReport {
-  const ctx = maskRefractionContext(input);
+  return maskRefractionReportOf(maskRefractionContext(input));
+}
+
+/** maskRefractionReport of a prepared context (its input's design hour angle), e.g. one from contextForDesignHourAngle. */
+export function maskRefractionReportOf(ctx: MaskRefractionContext): MaskRefractionReport {
+  const { input } = ctx;
   const grid = hourAngleGridH(input.settings.hourAngleRangeH, input.settings.hourAngleStepH);
   const rows = grid.map((h) => maskRowAt(ctx, h));
   const passes = (h: number) => maskRowAt(ctx, h, true).passes;
