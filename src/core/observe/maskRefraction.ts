@@ -130,6 +130,11 @@ export interface MaskRefractionContext {
   centreSinDec: number;
   centreCosDec: number;
   slits: SlitGeometry[];
+  /**
+   * Window-role slits' image x at hour angles already asked for (windowImagesAt), shared by the contexts of one slit
+   * geometry (they do not depend on the design hour angle).
+   */
+  imagesByHour: Map<number, Float64Array | null>;
 }
 
 /**
@@ -180,7 +185,7 @@ export function maskRefractionContext(input: MaskRefractionInput): MaskRefractio
     kArcsec: { guide: k(s.guideWavelengthA), design: k(s.designWavelengthA ?? s.guideWavelengthA), blue: k(s.scienceRangeA[0]), red: k(s.scienceRangeA[1]) },
     sinLat: PMath.sin(input.latDeg * RAD_PER_DEG), cosLat: PMath.cos(input.latDeg * RAD_PER_DEG),
     centreSinDec: PMath.sin(input.mask.decDeg * RAD_PER_DEG), centreCosDec: PMath.cos(input.mask.decDeg * RAD_PER_DEG),
-    slits: [],
+    slits: [], imagesByHour: new Map(),
   };
   const maskCentre = tangentCentre(input.mask.raDeg, input.mask.decDeg);
   const toMask = (p: { raDeg: number; decDeg: number }) => {
@@ -284,16 +289,42 @@ function acrossAt(ctx: MaskRefractionContext, g: SlitGeometry, haH: number, c: {
  * of a design hour angle (observe/designHourAngle.ts), which compares these with windowDesignAcross.
  */
 export function windowAcrossAt(ctx: MaskRefractionContext, haH: number): Float64Array | null {
+  const images = windowImagesAt(ctx, haH);
+  if (!images) return null;
+  const out = new Float64Array((2 * images.length) / 3);
+  for (let i = 0; 3 * i < images.length; i++) {
+    out[2 * i] = images[3 * i + 1];
+    out[2 * i + 1] = images[3 * i + 2];
+  }
+  return out;
+}
+
+/**
+ * acrossAt of every window-role slit at mask-centre hour angle haH, in the order of ctx.slits' window slits:
+ * [guide_0, blue_0, red_0, guide_1, ...], NaN for a target below the horizon; null when the mask centre is. Computed
+ * once per hour angle for every context of the slit geometry (maskRowAt and the design hour angle's scorer share it).
+ */
+function windowImagesAt(ctx: MaskRefractionContext, haH: number): Float64Array | null {
+  const known = ctx.imagesByHour.get(haH);
+  if (known !== undefined) return known;
   const c = centreLift(ctx, haH);
-  if (!c) return null;
-  const win = ctx.slits.filter((g) => g.windowRole);
-  const out = new Float64Array(2 * win.length);
-  const x = new Float64Array(3);
-  win.forEach((g, i) => {
-    const ok = acrossAt(ctx, g, haH, c, x);
-    out[2 * i] = ok ? x[1] : NaN;
-    out[2 * i + 1] = ok ? x[2] : NaN;
-  });
+  let out: Float64Array | null = null;
+  if (c) {
+    let n = 0;
+    for (const g of ctx.slits) if (g.windowRole) n++;
+    out = new Float64Array(3 * n);
+    const x = new Float64Array(3);
+    let i = 0;
+    for (const g of ctx.slits) {
+      if (!g.windowRole) continue;
+      const ok = acrossAt(ctx, g, haH, c, x);
+      out[3 * i] = ok ? x[0] : NaN;
+      out[3 * i + 1] = ok ? x[1] : NaN;
+      out[3 * i + 2] = ok ? x[2] : NaN;
+      i++;
+    }
+  }
+  ctx.imagesByHour.set(haH, out);
   return out;
 }
 
@@ -336,15 +367,24 @@ export function maskRowAt(ctx: MaskRefractionContext, haH: number, stopAtFirstFa
   };
   if (airmass === null) return row;
   let maxD = 0, maxS = 0, maxL = 0;
-  const lift = centreLift(ctx, haH);
+  // Every slit's images from the shared ones when known or when every slit is looked at anyway; a row that stops at
+  // its first failing slit computes them slit by slit.
+  const images = !stopAtFirstFailure || ctx.imagesByHour.has(haH) ? windowImagesAt(ctx, haH) : undefined;
+  const lift = images === undefined ? centreLift(ctx, haH) : images;
   const { seeingFwhmArcsec, maxLossFraction } = input.settings;
   const x = new Float64Array(3);
   if (lift && !(stopAtFirstFailure && airmass > input.settings.maxAirmass)) {
     // The loss grows with |offset|: per slit width, only the largest offset's loss is computed (the error function is
     // the costly part), and the count over the limit compares offsets with the width's offset at the loss limit.
     const widest = new Map<number, { offset: number; g: SlitGeometry }>();
+    let k = -1;
     for (const g of ctx.slits) {
-      if (!g.windowRole || !acrossAt(ctx, g, haH, lift, x)) continue;
+      if (!g.windowRole) continue;
+      k++;
+      if (images) {
+        if (Number.isNaN(images[3 * k])) continue;
+        x[0] = images[3 * k]; x[1] = images[3 * k + 1]; x[2] = images[3 * k + 2];
+      } else if (!acrossAt(ctx, g, haH, lift as { xArcsec: number; yArcsec: number }, x)) continue;
       const totalBlue = x[1] - g.design.xArcsec, totalRed = x[2] - g.design.xArcsec;
       const worst = Math.max(Math.abs(totalBlue), Math.abs(totalRed));
       maxD = Math.max(maxD, Math.abs(x[1] - x[0]), Math.abs(x[2] - x[0]));
