@@ -33,7 +33,7 @@ export function checkProfileFiles(manifest: Manifest, profilePaths: ReadonlyMap<
   for (const [id, path] of profilePaths) {
     let sha: string | null = null;
     try {
-      sha = profileDigest(JSON.parse(readFileSync(path, 'utf8')));
+      sha = profileDigest(JSON.parse(readFileSync(path, 'utf8')), sha256Hex);
     } catch {
       sha = null;
     }

@@ -177,7 +177,7 @@ export class OutputFolder {
     const where = `--out ${this.shown}`;
     const bytes = new Map<string, Uint8Array>();
     for (const [name, content] of Object.entries(files)) bytes.set(name, typeof content === 'string' ? Buffer.from(content, 'utf8') : content);
-    const profiles: ManifestProfile[] = (this.opts.profiles ?? []).map((p) => ({ id: p.id, sha256: profileDigest(JSON.parse(readFileSync(p.path, 'utf8'))) }));
+    const profiles: ManifestProfile[] = (this.opts.profiles ?? []).map((p) => ({ id: p.id, sha256: profileDigest(JSON.parse(readFileSync(p.path, 'utf8')), sha256Hex) }));
     const manifest = buildManifest(bytes, sha256Hex, { writtenBy: 'haloweave 0.1.0', writtenUtc: new Date().toISOString(), profiles });
     withFsProblems(where, 'cannot write the output files', () => {
       for (const [name, b] of bytes) writeFileSync(join(this.tmp, name), b);

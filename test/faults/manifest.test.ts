@@ -4,6 +4,7 @@ import { readFileSync, readdirSync } from 'node:fs';
 import { join } from 'node:path';
 import { canonicalJson, profileDigest } from '../../src/core/check/manifest';
 import { parseProfile } from '../../src/core/profile/load';
+import { sha256Hex } from '../../src/cli/outputFolder';
 
 const DIR = join(__dirname, '../../instrument-profiles');
 
@@ -13,6 +14,8 @@ describe('profileDigest', () => {
     expect(profileDigest(parseProfile(json, f))).toBe(profileDigest(json));
     // Any changed value changes it (the gap the slits keep between them here).
     expect(profileDigest({ ...json, slits: { ...json.slits, gapArcsec: json.slits.gapArcsec + 0.1 } })).not.toBe(profileDigest(json));
+    // The command line's node:crypto hash gives the built-in hash's digest.
+    expect(profileDigest(json, sha256Hex)).toBe(profileDigest(json));
   });
 
   it('ignores key order and layout, not values', () => {

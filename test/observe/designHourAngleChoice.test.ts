@@ -8,7 +8,7 @@
  * and the exposure fits in both or in neither.
  */
 import { describe, expect, it } from 'vitest';
-import { maskRefractionReport, type MaskRefractionInput, type RefractionSettings } from '../../src/core/observe/maskRefraction';
+import { contextForDesignHourAngle, maskRefractionContext, maskRefractionReport, maskRefractionReportOf, type MaskRefractionInput, type RefractionSettings } from '../../src/core/observe/maskRefraction';
 import { chooseDesignHourAngle, designHourAngleCandidatesH, designWindowScorer, windowLengthH } from '../../src/core/observe/designHourAngle';
 import { maskToSkyArcsec } from '../../src/core/sky/frames';
 import { tangentCentre, tangentToSkyDeg } from '../../src/core/sky/tangentPlane';
@@ -133,5 +133,30 @@ describe('candidates that cannot beat a window as long as the searched range are
     const fast = chooseDesignHourAngle(input, candidates, c.exposureS);
     expect(fast.designHourAngleH).toBe(everyCandidate(input, candidates, c.exposureS));
     if (i >= CASES.length) expect(fast.hourAngleWindowH).toEqual([-5, 5]);
+  });
+
+  // The candidate nearest transit is scored first; candidates on one side of transit (nearest at an end) and with
+  // transit (nearest in the middle) give the same choice as scoring every candidate, window as long as the range or not.
+  it.each(open.map((c, i) => [c.name, i] as const))('%s: candidates after, before and around transit, the same choice as scoring every candidate', (_name, i) => {
+    const c = open[i];
+    const input = maskCase(c, 300 + i);
+    for (const range of [[0.5, 5], [-5, -0.5], [-2.5, 5]] as [number, number][]) {
+      const candidates = designHourAngleCandidatesH(range, 0.25);
+      expect(chooseDesignHourAngle(input, candidates, c.exposureS).designHourAngleH).toBe(everyCandidate(input, candidates, c.exposureS));
+    }
+  });
+});
+
+describe('a context moved to another design hour angle', () => {
+  it('equals the context made for that design hour angle (the slit geometry reused)', () => {
+    const input = maskCase(CASES[5], 7);
+    const at0 = maskRefractionContext({ ...input, designHourAngleH: 0 });
+    for (const d of [-2.25, 0, 1.5]) {
+      const moved = contextForDesignHourAngle(at0, d);
+      // The images per hour angle are shared between the two (filled by the reports before): compared apart.
+      expect({ ...moved, imagesByHour: null }).toEqual({ ...maskRefractionContext({ ...input, designHourAngleH: d }), imagesByHour: null });
+      expect(moved.imagesByHour).toBe(at0.imagesByHour);
+      expect(maskRefractionReportOf(moved)).toEqual(maskRefractionReport({ ...input, designHourAngleH: d }));
+    }
   });
 });

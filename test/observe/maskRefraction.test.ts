@@ -199,10 +199,15 @@ describe('the summary row of a mask', () => {
     const mask: MaskPointing = { id: 'm1', raDeg: 150.2, decDeg: 12.5, paDeg: 35, locked: false };
     const slits: Slit[] = [];
     for (let i = 0; i < 24; i++) slits.push(slitAt(mask, `s${i}`, -250 + 21 * i, -120 + 11 * i, i % 7 === 3 ? 'starlight' : 'tracer'));
-    const ctx = maskRefractionContext({ mask, slits, designHourAngleH: -1.5, latDeg: LAT, air: AIR, settings: { ...SETTINGS, maxLossFraction: 0.05 } });
+    const input = { mask, slits, designHourAngleH: -1.5, latDeg: LAT, air: AIR, settings: { ...SETTINGS, maxLossFraction: 0.05 } };
+    const ctx = maskRefractionContext(input);
+    // A context whose rows stop at the first failing slit before any full row (no images shared yet).
+    const stopFirst = maskRefractionContext(input);
     let passed = 0, failed = 0;
     for (let h = -5; h <= 5; h += 0.35) {
+      const early = maskRowAt(stopFirst, h, true);
       const row = maskRowAt(ctx, h);
+      expect(early.passes).toBe(row.passes);
       const tracers = slitsAtHourAngle(ctx, h).filter((s) => s.role === 'tracer');
       if (row.airmass === null) continue;
       expect(row.maxLossFraction).toBe(Math.max(0, ...tracers.map((s) => s.lossFraction)));

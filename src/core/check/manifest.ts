@@ -37,9 +37,12 @@ export function canonicalJson(v: unknown): string {
   return JSON.stringify(v) ?? 'null';
 }
 
-/** SHA-256 of a profile's canonical JSON (a file's layout and key order do not count, every value does). */
-export function profileDigest(profileJson: unknown): string {
-  return sha256HexOf(new TextEncoder().encode(canonicalJson(profileJson)));
+/**
+ * SHA-256 of a profile's canonical JSON (a file's layout and key order do not count, every value does); `sha256Hex`
+ * may be the platform's own hash (the command line passes node:crypto's), the same digest as the built-in one.
+ */
+export function profileDigest(profileJson: unknown, sha256Hex: (b: Uint8Array) => string = sha256HexOf): string {
+  return sha256Hex(new TextEncoder().encode(canonicalJson(profileJson)));
 }
 
 /** The manifest of `files` (name -> bytes), each hashed with `sha256Hex`, in name order. */

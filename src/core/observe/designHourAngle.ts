@@ -3,7 +3,7 @@
  * hour-angle window. The design hour angle is where the slits are cut for; the window is where every tracer slit
  * keeps its light loss under the limit (observe/maskRefraction.ts).
  */
-import { hourAngleGridH, maskRefractionContext, maskRefractionReport, windowAcrossAt, windowDesignAcross, type MaskRefractionInput, type MaskRefractionReport } from './maskRefraction';
+import { contextForDesignHourAngle, hourAngleGridH, maskRefractionContext, maskRefractionReportOf, windowAcrossAt, windowDesignAcross, type MaskRefractionContext, type MaskRefractionInput, type MaskRefractionReport } from './maskRefraction';
 import { altitudeDeg } from './horizon';
 import { hardieAirmass } from './airmass';
 import { offsetAtLoss } from './slitLoss';
@@ -17,18 +17,31 @@ export function windowLengthH(window: [number, number] | null): number {
  * The design hour angle among candidatesH whose window (the passing stretch of hour angles that contains it) is the
  * longest (ties: the candidate nearest transit), then refined by a pattern search of half, quarter and eighth steps
  * about the best; returns the full report at that hour angle. A window that holds exposureS beats one that does not,
- * however long. Candidates are scored by designWindowScorer (no report rows built); the report is built once.
+ * however long. Candidates are scored by designWindowScorer (no report rows built); the report is built once, on the
+ * scorer's slit geometry.
  */
 export function chooseDesignHourAngle(input: Omit<MaskRefractionInput, 'designHourAngleH'>, candidatesH: readonly number[], exposureS: number): MaskRefractionReport {
-  const score = designWindowScorer(input);
+  const ctx = maskRefractionContext({ ...input, designHourAngleH: 0 });
+  const scorer = designScorerOf(ctx);
+  const scored = new Map<number, number>();
+  const score = (h: number) => {
+    let s = scored.get(h);
+    if (s === undefined) scored.set(h, (s = scorer(h)));
+    return s;
+  };
   // No window is longer than the searched range (scores are rounded window ends, and rounding keeps order): once
   // the best holds that (and fits the exposure when the range does), a candidate no nearer transit cannot replace it.
   const grid = hourAngleGridH(input.settings.hourAngleRangeH, input.settings.hourAngleStepH);
   const maxScore = Math.round(grid[grid.length - 1] * 1e4) / 1e4 - Math.round(grid[0] * 1e4) / 1e4;
   const maxFits = maxScore * 3600 >= exposureS;
+  const unbeatable = (s: number) => s >= maxScore - 1e-6 && (s * 3600 >= exposureS || !maxFits);
   let best: { h: number; s: number } | null = null;
+  // The candidate nearest transit first: when it is unbeatable, the walk below would end on it too (every other
+  // candidate and every refinement is farther from transit or outside the range), so it is taken without scoring them.
+  const nearest = nearestTransitCandidate(candidatesH);
+  if (nearest !== null && unbeatable(score(nearest))) best = { h: nearest, s: score(nearest) };
   const consider = (h: number) => {
-    if (best && best.s >= maxScore - 1e-6 && (best.s * 3600 >= exposureS || !maxFits) && Math.abs(h) >= Math.abs(best.h)) return;
+    if (best && unbeatable(best.s) && Math.abs(h) >= Math.abs(best.h)) return;
     const s = score(h);
     if (!best) { best = { h, s }; return; }
     const fits = s * 3600 >= exposureS, bestFits = best.s * 3600 >= exposureS;
@@ -42,7 +55,22 @@ export function chooseDesignHourAngle(input: Omit<MaskRefractionInput, 'designHo
       for (const h of [b - step, b + step]) if (h >= lo && h <= hi) consider(h);
     }
   }
-  return maskRefractionReport({ ...input, designHourAngleH: best ? (best as { h: number }).h : 0 });
+  return maskRefractionReportOf(contextForDesignHourAngle(ctx, best ? (best as { h: number }).h : 0));
+}
+
+/**
+ * The candidate nearest transit when seeding the choice with it cannot change the choice: the only one at its |h|,
+ * and transit itself or with every candidate on its side of transit (so no refinement step about it comes nearer
+ * transit inside the candidates' range); else null. Candidates in increasing order.
+ */
+function nearestTransitCandidate(candidatesH: readonly number[]): number | null {
+  if (candidatesH.length === 0) return null;
+  let k = 0;
+  for (let i = 1; i < candidatesH.length; i++) if (Math.abs(candidatesH[i]) < Math.abs(candidatesH[k])) k = i;
+  const h = candidatesH[k];
+  if (candidatesH.some((c, i) => i !== k && Math.abs(c) === Math.abs(h))) return null;
+  const oneSide = candidatesH.every((c) => Math.sign(c) === Math.sign(h)) && (h > 0 ? h === candidatesH[0] : h === candidatesH[candidatesH.length - 1]);
+  return h === 0 || oneSide ? h : null;
 }
 
 /**
@@ -55,7 +83,12 @@ export function chooseDesignHourAngle(input: Omit<MaskRefractionInput, 'designHo
  * report built for the chosen d refines its window exactly; the two agree to better than 0.01 h, test/observe).
  */
 export function designWindowScorer(input: Omit<MaskRefractionInput, 'designHourAngleH'>): (designH: number) => number {
-  const ctx = maskRefractionContext({ ...input, designHourAngleH: 0 });
+  return designScorerOf(maskRefractionContext({ ...input, designHourAngleH: 0 }));
+}
+
+/** designWindowScorer on a prepared context of the mask (any design hour angle: only its slit geometry is used). */
+function designScorerOf(ctx: MaskRefractionContext): (designH: number) => number {
+  const input = ctx.input;
   const s = input.settings;
   const grid = hourAngleGridH(s.hourAngleRangeH, s.hourAngleStepH);
   const limits = new Map<number, number>();

@@ -130,6 +130,11 @@ export interface MaskRefractionContext {
   centreSinDec: number;
   centreCosDec: number;
   slits: SlitGeometry[];
+  /**
+   * Window-role slits' image x at hour angles already asked for (windowImagesAt), shared by the contexts of one slit
+   * geometry (they do not depend on the design hour angle).
+   */
+  imagesByHour: Map<number, Float64Array | null>;
 }
 
 /**
@@ -180,7 +185,7 @@ export function maskRefractionContext(input: MaskRefractionInput): MaskRefractio
     kArcsec: { guide: k(s.guideWavelengthA), design: k(s.designWavelengthA ?? s.guideWavelengthA), blue: k(s.scienceRangeA[0]), red: k(s.scienceRangeA[1]) },
     sinLat: PMath.sin(input.latDeg * RAD_PER_DEG), cosLat: PMath.cos(input.latDeg * RAD_PER_DEG),
     centreSinDec: PMath.sin(input.mask.decDeg * RAD_PER_DEG), centreCosDec: PMath.cos(input.mask.decDeg * RAD_PER_DEG),
-    slits: [],
+    slits: [], imagesByHour: new Map(),
   };
   const maskCentre = tangentCentre(input.mask.raDeg, input.mask.decDeg);
   const toMask = (p: { raDeg: number; decDeg: number }) => {
@@ -188,7 +193,7 @@ export function maskRefractionContext(input: MaskRefractionInput): MaskRefractio
     return skyToMaskArcsec(t.xiArcsec, t.etaArcsec, input.mask.paDeg);
   };
   const eps = 1;
-  const c0 = centreLift(ctx, input.designHourAngleH) ?? { xArcsec: 0, yArcsec: 0 };
+  const c0 = designCentreLift(ctx, input.designHourAngleH);
   for (const slit of input.slits) {
     if (slit.role === 'sky') continue;
     const at = tangentCentre(slit.raDeg, slit.decDeg);
@@ -203,11 +208,32 @@ export function maskRefractionContext(input: MaskRefractionInput): MaskRefractio
       jye: (pe.yArcsec - me.yArcsec) / (2 * eps), jyn: (pn.yArcsec - mn.yArcsec) / (2 * eps),
       design: { xArcsec: 0, yArcsec: 0 },
     };
-    const u = liftPerUnitRefractivity(ctx, input.designHourAngleH * 15 - g.dRaDeg, g.sinDec, g.cosDec);
-    if (u) g.design = slitLift(g, u, ctx.kArcsec.design, c0);
+    g.design = designImage(ctx, g, input.designHourAngleH, c0);
     ctx.slits.push(g);
   }
   return ctx;
+}
+
+/** The guided centre's lift at the design hour angle designH (zero when the centre is below the horizon then). */
+function designCentreLift(ctx: MaskRefractionContext, designH: number): { xArcsec: number; yArcsec: number } {
+  return centreLift(ctx, designH) ?? { xArcsec: 0, yArcsec: 0 };
+}
+
+/** Where a slit is cut for design hour angle designH: its target's design-wavelength image (mask frame) relative to the guided centre's lift c0; zero below the horizon. */
+function designImage(ctx: MaskRefractionContext, g: SlitGeometry, designH: number, c0: { xArcsec: number; yArcsec: number }): { xArcsec: number; yArcsec: number } {
+  const u = liftPerUnitRefractivity(ctx, designH * 15 - g.dRaDeg, g.sinDec, g.cosDec);
+  return u ? slitLift(g, u, ctx.kArcsec.design, c0) : { xArcsec: 0, yArcsec: 0 };
+}
+
+/**
+ * The context of the same mask, slits, site and settings designed for hour angle designH: the slit geometry of ctx
+ * reused, only the design positions made anew (the same bits as maskRefractionContext with that design hour angle).
+ */
+export function contextForDesignHourAngle(ctx: MaskRefractionContext, designH: number): MaskRefractionContext {
+  const out: MaskRefractionContext = { ...ctx, input: { ...ctx.input, designHourAngleH: designH }, slits: [] };
+  const c0 = designCentreLift(out, designH);
+  for (const g of ctx.slits) out.slits.push({ ...g, design: designImage(out, g, designH, c0) });
+  return out;
 }
 
 /** Every slit's (a), (b) and (c) at mask-centre hour angle haH (empty when the mask centre is below the horizon). */
@@ -263,16 +289,42 @@ function acrossAt(ctx: MaskRefractionContext, g: SlitGeometry, haH: number, c: {
  * of a design hour angle (observe/designHourAngle.ts), which compares these with windowDesignAcross.
  */
 export function windowAcrossAt(ctx: MaskRefractionContext, haH: number): Float64Array | null {
+  const images = windowImagesAt(ctx, haH);
+  if (!images) return null;
+  const out = new Float64Array((2 * images.length) / 3);
+  for (let i = 0; 3 * i < images.length; i++) {
+    out[2 * i] = images[3 * i + 1];
+    out[2 * i + 1] = images[3 * i + 2];
+  }
+  return out;
+}
+
+/**
+ * acrossAt of every window-role slit at mask-centre hour angle haH, in the order of ctx.slits' window slits:
+ * [guide_0, blue_0, red_0, guide_1, ...], NaN for a target below the horizon; null when the mask centre is. Computed
+ * once per hour angle for every context of the slit geometry (maskRowAt and the design hour angle's scorer share it).
+ */
+function windowImagesAt(ctx: MaskRefractionContext, haH: number): Float64Array | null {
+  const known = ctx.imagesByHour.get(haH);
+  if (known !== undefined) return known;
   const c = centreLift(ctx, haH);
-  if (!c) return null;
-  const win = ctx.slits.filter((g) => g.windowRole);
-  const out = new Float64Array(2 * win.length);
-  const x = new Float64Array(3);
-  win.forEach((g, i) => {
-    const ok = acrossAt(ctx, g, haH, c, x);
-    out[2 * i] = ok ? x[1] : NaN;
-    out[2 * i + 1] = ok ? x[2] : NaN;
-  });
+  let out: Float64Array | null = null;
+  if (c) {
+    let n = 0;
+    for (const g of ctx.slits) if (g.windowRole) n++;
+    out = new Float64Array(3 * n);
+    const x = new Float64Array(3);
+    let i = 0;
+    for (const g of ctx.slits) {
+      if (!g.windowRole) continue;
+      const ok = acrossAt(ctx, g, haH, c, x);
+      out[3 * i] = ok ? x[0] : NaN;
+      out[3 * i + 1] = ok ? x[1] : NaN;
+      out[3 * i + 2] = ok ? x[2] : NaN;
+      i++;
+    }
+  }
+  ctx.imagesByHour.set(haH, out);
   return out;
 }
 
@@ -281,12 +333,11 @@ export function windowAcrossAt(ctx: MaskRefractionContext, haH: number): Float64
  * wavelength's image relative to the guided centre, as maskRefractionContext sets it), and each such slit's width.
  */
 export function windowDesignAcross(ctx: MaskRefractionContext, designH: number): { xArcsec: Float64Array; widthArcsec: Float64Array } {
-  const c0 = centreLift(ctx, designH) ?? { xArcsec: 0, yArcsec: 0 };
+  const c0 = designCentreLift(ctx, designH);
   const win = ctx.slits.filter((g) => g.windowRole);
   const xArcsec = new Float64Array(win.length), widthArcsec = new Float64Array(win.length);
   win.forEach((g, i) => {
-    const u = liftPerUnitRefractivity(ctx, designH * 15 - g.dRaDeg, g.sinDec, g.cosDec);
-    xArcsec[i] = u ? slitLift(g, u, ctx.kArcsec.design, c0).xArcsec : 0;
+    xArcsec[i] = designImage(ctx, g, designH, c0).xArcsec;
     widthArcsec[i] = g.widthArcsec;
   });
   return { xArcsec, widthArcsec };
@@ -316,15 +367,24 @@ export function maskRowAt(ctx: MaskRefractionContext, haH: number, stopAtFirstFa
   };
   if (airmass === null) return row;
   let maxD = 0, maxS = 0, maxL = 0;
-  const lift = centreLift(ctx, haH);
+  // Every slit's images from the shared ones when known or when every slit is looked at anyway; a row that stops at
+  // its first failing slit computes them slit by slit.
+  const images = !stopAtFirstFailure || ctx.imagesByHour.has(haH) ? windowImagesAt(ctx, haH) : undefined;
+  const lift = images === undefined ? centreLift(ctx, haH) : images;
   const { seeingFwhmArcsec, maxLossFraction } = input.settings;
   const x = new Float64Array(3);
   if (lift && !(stopAtFirstFailure && airmass > input.settings.maxAirmass)) {
     // The loss grows with |offset|: per slit width, only the largest offset's loss is computed (the error function is
     // the costly part), and the count over the limit compares offsets with the width's offset at the loss limit.
     const widest = new Map<number, { offset: number; g: SlitGeometry }>();
+    let k = -1;
     for (const g of ctx.slits) {
-      if (!g.windowRole || !acrossAt(ctx, g, haH, lift, x)) continue;
+      if (!g.windowRole) continue;
+      k++;
+      if (images) {
+        if (Number.isNaN(images[3 * k])) continue;
+        x[0] = images[3 * k]; x[1] = images[3 * k + 1]; x[2] = images[3 * k + 2];
+      } else if (!acrossAt(ctx, g, haH, lift as { xArcsec: number; yArcsec: number }, x)) continue;
       const totalBlue = x[1] - g.design.xArcsec, totalRed = x[2] - g.design.xArcsec;
       const worst = Math.max(Math.abs(totalBlue), Math.abs(totalRed));
       maxD = Math.max(maxD, Math.abs(x[1] - x[0]), Math.abs(x[2] - x[0]));
@@ -360,7 +420,12 @@ export function hourAngleGridH(rangeH: [number, number], stepH: number): number[
 
 /** Per-mask report: rows over the hour-angle grid and the recommended window (ends refined by bisection). */
 export function maskRefractionReport(input: MaskRefractionInput): MaskRefractionReport {
-  const ctx = maskRefractionContext(input);
+  return maskRefractionReportOf(maskRefractionContext(input));
+}
+
+/** maskRefractionReport of a prepared context (its input's design hour angle), e.g. one from contextForDesignHourAngle. */
+export function maskRefractionReportOf(ctx: MaskRefractionContext): MaskRefractionReport {
+  const { input } = ctx;
   const grid = hourAngleGridH(input.settings.hourAngleRangeH, input.settings.hourAngleStepH);
   const rows = grid.map((h) => maskRowAt(ctx, h));
   const passes = (h: number) => maskRowAt(ctx, h, true).passes;

@@ -19,7 +19,7 @@ import { planGoals, type GoalStatus, type StarlightBinsResult } from '../coverag
 import { coaddStarlightBins, planStarlightModels } from '../solver/starlightCoadd';
 import { starlightBins, starlightBinsForFile } from '../solver/starlightBins';
 import type { MaskPointing, MaskSolution } from '../geometry/maskSolution';
-import { keptColumnsOf, weighTargets, type WeightingResult } from '../solver/weighting';
+import { keptColumnsOf, weighTargets, weightingPositions, type GalaxyPositions, type WeightingResult } from '../solver/weighting';
 import { type WeightingRules } from '../plan/weightingSection';
 import { starlightSettings } from '../solver/starlight';
 import { startLayouts, searchPointings, type SearchReport } from '../solver/pointingSearch';
@@ -167,7 +167,7 @@ export function planFullyPlaced(plan: PlanFile): boolean {
  * from the naive cross layout (or the plan's own positions) and never ends worse than it on the objective.
  * Returns the pointings, the search report, and the full allocation of the result for stage 3 to reuse.
  */
-export function placeMasks(plan: PlanFile, galaxy: GalaxyModel, profile: InstrumentProfile, ctx: AllocationContext, onProgress?: (fraction: number, message: string) => void): { pointings: MaskPointing[]; search: SearchReport; allocation: PointingsAllocation; withStarlight: MaskSolution[]; starlightWarnings: string[] } {
+export function placeMasks(plan: PlanFile, galaxy: GalaxyModel, profile: InstrumentProfile, ctx: AllocationContext, onProgress?: (fraction: number, message: string) => void, positions?: GalaxyPositions | null): { pointings: MaskPointing[]; search: SearchReport; allocation: PointingsAllocation; withStarlight: MaskSolution[]; starlightWarnings: string[] } {
   const starts = startLayouts(plan, galaxy, profile);
   if (ctx.byInstrument) {
     // Several spectrographs: each start carries every mask's own instrument, and the profile-by-profile cross comes first.
@@ -175,7 +175,7 @@ export function placeMasks(plan: PlanFile, galaxy: GalaxyModel, profile: Instrum
     for (const s of starts) s.pointings = s.pointings.map((p) => (own.get(p.id) !== undefined ? { ...p, instrument: own.get(p.id) } : p));
     starts.unshift({ name: 'cross by instrument', pointings: instrumentsCrossLayout(plan, galaxy, ctx) });
   }
-  const r = searchPointings(searchEnv(plan, ctx), starts[0].pointings, onProgress, starts);
+  const r = searchPointings(searchEnv(plan, ctx, positions), starts[0].pointings, onProgress, starts);
   return { pointings: r.pointings, search: r.report, allocation: r.allocation, withStarlight: r.masks, starlightWarnings: r.starlightWarnings };
 }
 
@@ -262,7 +262,9 @@ export function solvePlan(inputs: PlanInputs, opts: SolveOptions = {}): PlanSolu
     : allocationContext(profile, galaxy, plan.goals.linesA, table, weights, lineWindowSettings(plan.goals));
 
   progress(0.1, 'placing masks');
-  const placed = placeMasks(plan, galaxy, profile, ctx, (f, message) => progress(0.1 + 0.6 * f, message));
+  // The weighting's projection of every target about the galaxy, reused by the search and the reach below.
+  const positions = weightingPositions(weighting);
+  const placed = placeMasks(plan, galaxy, profile, ctx, (f, message) => progress(0.1 + 0.6 * f, message), positions);
   const pointings = placed.pointings;
 
   const alloc: PointingsAllocation = placed.allocation;
@@ -282,7 +284,8 @@ export function solvePlan(inputs: PlanInputs, opts: SolveOptions = {}): PlanSolu
   const coverage = coverageReport(galaxy, plan.goals, allSlits);
   const starlightBinsResult = measureStarlightBins(plan, ctx, galaxy, masks, coverage);
   let candidateReachRe = 0;
-  for (const i of ctx.tracerIndices) candidateReachRe = Math.max(candidateReachRe, galaxyRadiusAndAzimuth(galaxy, ctx.raDeg[i], ctx.decDeg[i]).rRe);
+  const reachOf = positions && positions.table === ctx.table ? (i: number) => positions.radiusRe[i] : (i: number) => galaxyRadiusAndAzimuth(galaxy, ctx.raDeg[i], ctx.decDeg[i]).rRe;
+  for (const i of ctx.tracerIndices) candidateReachRe = Math.max(candidateReachRe, reachOf(i));
   const goals = planGoals(plan, galaxy, profile, masks, coverage, candidateReachRe, starlightSettings(plan.starlight, profile, plan).maxSlitLengthArcsec, starlightBinsResult);
 
   const stats = {

@@ -8,6 +8,7 @@ import type { PlanFile } from '../plan/schema';
 import type { StarlightRules } from '../plan/starlightSection';
 import type { SearchRules } from '../plan/searchSection';
 import { galaxyTurn } from '../sky/frames';
+import { wrap360Deg } from '../sky/angles';
 import { skyToTangentArcsec, tangentCentre } from '../sky/tangentPlane';
 import { sersicBn } from '../sky/sersic';
 import { tangentAzimuthDeg, tangentRadiusRe } from '../sky/galaxyRadius';
@@ -15,6 +16,7 @@ import type { AllocationContext } from './allocateMasks';
 import { starlightSettings, type StarlightSettings, type StarlightTrade } from './starlight';
 import { objectiveContext, type ObjectiveContext } from './objective';
 import { refractionLossModel, type RefractionLoss } from './refractionTerm';
+import type { GalaxyPositions } from './weighting';
 
 /** Objective evaluation shared by the search, the pipeline report and the benchmark. */
 export interface SearchEnv {
@@ -24,7 +26,7 @@ export interface SearchEnv {
   plan: PlanFile;
   /** R/Re of every target (index as ctx.targets). */
   radiusRe: Float64Array;
-  /** Azimuth (degrees) of every target, NaN until first needed: read it through targetAzimuthDeg. */
+  /** Azimuth (degrees, [0, 360)) of every target, NaN until first needed: read it through targetAzimuthDeg. */
   azimuthDeg: Float64Array;
   /** Galaxy tangent-plane position of every target (arcsec). */
   xi: Float64Array;
@@ -34,10 +36,36 @@ export interface SearchEnv {
   refractionLoss: RefractionLoss | null;
 }
 
-/** Build the evaluation environment (cached target positions) for a plan and an allocation context. */
-export function searchEnv(plan: PlanFile, ctx: AllocationContext): SearchEnv {
+/**
+ * Build the evaluation environment (cached target positions) for a plan and an allocation context; `positions`, the
+ * weighting's own projection of the same targets about the same galaxy (solver/weighting.ts), is reused instead of
+ * projecting every target again (the same bits: one projection and one R/Re formula).
+ */
+export function searchEnv(plan: PlanFile, ctx: AllocationContext, positions?: GalaxyPositions | null): SearchEnv {
   const g = ctx.galaxy, n = ctx.table.length;
-  const radiusRe = new Float64Array(n), azimuthDeg = new Float64Array(n).fill(NaN), xi = new Float64Array(n), eta = new Float64Array(n);
+  const reuse = positions && samePositions(positions, ctx);
+  const { xi, eta, radiusRe } = reuse ? { xi: positions.xiArcsec, eta: positions.etaArcsec, radiusRe: positions.radiusRe } : projectTargets(ctx);
+  // targetAzimuthDeg's value (wrapped to [0, 360)) from the weighting's azimuth, else NaN until first asked.
+  const azimuthDeg = reuse ? Float64Array.from(positions.azimuthDeg, wrap360Deg) : new Float64Array(n).fill(NaN);
+  const tracerWeights = tracerWeightsOf(ctx);
+  const objective = objectiveContext(plan.goals, plan.search as SearchRules | undefined, tracerWeights);
+  return {
+    ctx, plan, radiusRe, azimuthDeg, xi, eta, bn: sersicBn(g.sersicN), objective,
+    refractionLoss: refractionLossModel(plan, ctx.profile, objective.weights.aRefraction),
+    starlight: starlightSettings(plan.starlight as StarlightRules | undefined, ctx.profile, plan),
+  };
+}
+
+/** Whether positions were computed for the context's targets about the context's galaxy. */
+function samePositions(p: GalaxyPositions, ctx: AllocationContext): boolean {
+  const a = p.galaxy, b = ctx.galaxy;
+  return p.table === ctx.table && a.raDeg === b.raDeg && a.decDeg === b.decDeg && a.paDeg === b.paDeg && a.axisRatio === b.axisRatio && a.reArcsec === b.reArcsec;
+}
+
+/** Every target's galaxy tangent-plane offset (arcsec; NaN without a gnomonic image) and circularised R/Re (Infinity then). */
+function projectTargets(ctx: AllocationContext): { xi: Float64Array; eta: Float64Array; radiusRe: Float64Array } {
+  const g = ctx.galaxy, n = ctx.table.length;
+  const radiusRe = new Float64Array(n), xi = new Float64Array(n), eta = new Float64Array(n);
   const c = tangentCentre(g.raDeg, g.decDeg), turn = galaxyTurn(g.paDeg);
   for (let i = 0; i < n; i++) {
     const t = skyToTangentArcsec(c, ctx.raDeg[i], ctx.decDeg[i]);
@@ -46,13 +74,7 @@ export function searchEnv(plan: PlanFile, ctx: AllocationContext): SearchEnv {
     // galaxyRadiusAndAzimuth's R/Re from the projection just made (the same bits, one projection instead of two).
     radiusRe[i] = t ? tangentRadiusRe(g, t.xiArcsec, t.etaArcsec, turn) : Infinity;
   }
-  const tracerWeights = tracerWeightsOf(ctx);
-  const objective = objectiveContext(plan.goals, plan.search as SearchRules | undefined, tracerWeights);
-  return {
-    ctx, plan, radiusRe, azimuthDeg, xi, eta, bn: sersicBn(g.sersicN), objective,
-    refractionLoss: refractionLossModel(plan, ctx.profile, objective.weights.aRefraction),
-    starlight: starlightSettings(plan.starlight as StarlightRules | undefined, ctx.profile, plan),
-  };
+  return { xi, eta, radiusRe };
 }
 
 /** Azimuth of target i about the galaxy (degrees from the major axis, as galaxyRadiusAndAzimuth), computed once when first asked. */

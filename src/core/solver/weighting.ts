@@ -93,6 +93,22 @@ export interface WeightingResult {
   formula: { magPivot: number; magSlope: number; colorPeaks: number[]; colorSigma: number; colorFloor: number; radiusExponent: number };
 }
 
+/**
+ * Every target's place about the galaxy as the weighting computed it, index as the target list given to weighTargets:
+ * the galaxy tangent-plane offset (xi East, eta North, arcsec; NaN without a gnomonic image) and the circularised
+ * R/Re (Infinity then) and azimuth, for the galaxy placement `galaxy`. The search reuses it (solver/searchEnv.ts).
+ */
+export interface GalaxyPositions {
+  /** The targets' rows as columns (the table weighTargets read). */
+  table: TargetColumns;
+  galaxy: Pick<GalaxyModel, 'raDeg' | 'decDeg' | 'paDeg' | 'axisRatio' | 'reArcsec'>;
+  xiArcsec: Float64Array;
+  etaArcsec: Float64Array;
+  radiusRe: Float64Array;
+  /** Azimuth from the major axis (degrees, (-180, 180]; 0 without a gnomonic image). */
+  azimuthDeg: Float64Array;
+}
+
 /** Region centre as an offset from the galaxy centre in the sky frame (xi East, eta North, arcsec). */
 function regionCentreSkyArcsec(r: ExclusionRegion, galaxy: GalaxyModel): { xi: number; eta: number } {
   if (r.ra !== undefined && r.dec !== undefined) {
@@ -174,6 +190,7 @@ export function weighTargets(targets: readonly Target[] | TargetColumns, galaxy:
   const regions = (rules.exclusions ?? []).map((r) => ({ r, c: regionCentreSkyArcsec(r, galaxy) }));
   const keptIndex = new Int32Array(n), keptWeight = new Float64Array(n), keptSource = new Uint8Array(n), keptForced = new Uint8Array(n);
   const keptRadius = new Float64Array(n), keptAzimuth = new Float64Array(n);
+  const posXi = new Float64Array(n), posEta = new Float64Array(n), posRadius = new Float64Array(n), posAzimuth = new Float64Array(n);
   let nKept = 0;
   const keep = (i: number, weight: number, source: WeightSource, forced: boolean, radiusRe: number, azimuthDeg: number) => {
     keptIndex[nKept] = i; keptWeight[nKept] = weight; keptSource[nKept] = WEIGHT_SOURCES.indexOf(source); keptForced[nKept] = forced ? 1 : 0;
@@ -192,6 +209,7 @@ export function weighTargets(targets: readonly Target[] | TargetColumns, galaxy:
     const u = xi * s0 + eta * c0, v = xi * c0 - eta * s0;
     const radiusRe = p ? circularisedRadiusArcsec(u, v, galaxy.axisRatio) / galaxy.reArcsec : Infinity;
     const azimuthDeg = p ? galaxyAzimuthDeg(u, v) : 0;
+    posXi[ti] = p ? xi : NaN; posEta[ti] = p ? eta : NaN; posRadius[ti] = radiusRe; posAzimuth[ti] = azimuthDeg;
     const o = hasOverrides ? ov[ids[ti]] : undefined;
     const mag = magCol[ti], c = colorCol[ti], color = c === c ? c : null;
     let code = -1, value = 0;
@@ -231,6 +249,8 @@ export function weighTargets(targets: readonly Target[] | TargetColumns, galaxy:
   const excludedColumns: ExcludedColumns = { index: Int32Array.from(exIndex), code: Uint8Array.from(exCode), value: Float64Array.from(exValue) };
   const result = { kept, excludedColumns, rulesText: describeRules(rules, formula, ov), formula } as WeightingResult;
   weighedFrom.set(kept, targets);
+  const { raDeg: gRa, decDeg: gDec, paDeg, axisRatio, reArcsec } = galaxy;
+  positionsOf.set(result, { table, galaxy: { raDeg: gRa, decDeg: gDec, paDeg, axisRatio, reArcsec }, xiArcsec: posXi, etaArcsec: posEta, radiusRe: posRadius, azimuthDeg: posAzimuth });
   excludedFrom.set(excludedColumns, { table, rules });
   // The objects only when someone reads them (the editor's panels, exports): own enumerable properties, so a
   // structured clone or a spread of the result still carries them.
@@ -258,6 +278,14 @@ function lazyProperty<T extends object, K extends keyof T>(obj: T, key: K, make:
 const weighedFrom = new WeakMap<KeptColumns, readonly Target[] | TargetColumns>();
 /** The rows and rules each ExcludedColumns was computed with (for the rule names and reasons). */
 const excludedFrom = new WeakMap<ExcludedColumns, { table: TargetColumns; rules: WeightingRules }>();
+
+/** The positions each weighting computed (kept apart from the result, so that a copy of it sent to a worker stays small). */
+const positionsOf = new WeakMap<WeightingResult, GalaxyPositions>();
+
+/** Every target's galaxy tangent-plane offset and R/Re as weighTargets computed them for this result, or null (e.g. a copy of it). */
+export function weightingPositions(weighting: WeightingResult): GalaxyPositions | null {
+  return positionsOf.get(weighting) ?? null;
+}
 
 /** The kept columns of a weighting when it was computed from exactly this target list, else null. */
 export function keptColumnsOf(weighting: WeightingResult, targets: readonly Target[] | TargetColumns): KeptColumns | null {
