@@ -2,7 +2,8 @@
 // compiled with vm.Script and the `cachedData` written beside it at build time (NAME.cjs.cache), so a command starts
 // with the bytecode of its functions instead of parsing and compiling them as they first run (docs/startup.md).
 // A cache that is missing, damaged, made for other source bytes, or refused by V8 (another Node version or other V8
-// flags) is ignored: the file is then compiled from its source as usual, with the same results.
+// flags) is ignored: the file is then compiled from its source as usual, with the same results. HALOWEAVE_CODE_CACHE=off
+// in the environment ignores every cache (to measure what it saves: bench/startup.bench.ts).
 // Plain JavaScript and Node built-ins only: the launcher loads this before anything else.
 import { existsSync, readFileSync, renameSync, writeFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
@@ -48,7 +49,7 @@ export function cacheFileBytes(source, data) {
 
 /**
  * A loader of the bundled files in `dir`. `load(name)` runs NAME once and returns its exports; `report` says per file
- * whether its cache was 'used', 'absent', 'damaged', made for 'other source' bytes, or 'rejected' by V8;
+ * whether its cache was 'used', 'absent', 'damaged', made for 'other source' bytes, 'rejected' by V8, or 'off';
  * `writeCaches()` writes each loaded file's cache as V8 has it now (after a run: with every function compiled so far).
  * The files are named as if in `nameDir` (stack traces, __filename): the build makes the cache before moving its
  * folder into place, and V8 keeps the file name it compiled a cache with.
@@ -56,16 +57,19 @@ export function cacheFileBytes(source, data) {
 export function bundleLoader(dir, nameDir = dir) {
   const loaded = new Map();
   const report = {};
+  const cacheOff = process.env.HALOWEAVE_CODE_CACHE === 'off';
   function load(name) {
     const done = loaded.get(name);
     if (done) return done.module.exports;
     const filename = join(nameDir, name);
     const source = readFileSync(join(dir, name));
-    let cached;
-    try {
-      cached = cacheData(readFileSync(join(dir, name + CACHE_SUFFIX)), source);
-    } catch {
-      cached = 'absent';
+    let cached = 'off';
+    if (!cacheOff) {
+      try {
+        cached = cacheData(readFileSync(join(dir, name + CACHE_SUFFIX)), source);
+      } catch {
+        cached = 'absent';
+      }
     }
     // Plain ASCII (most of a bundle) decodes as Latin-1 several times faster than as UTF-8, to the same text.
     const text = isAscii(source) ? source.latin1Slice() : source.toString('utf8');
