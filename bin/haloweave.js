@@ -1,7 +1,8 @@
 #!/usr/bin/env node
-// Launcher for the `haloweave` command. Runs the prebuilt bundle dist/cli/main.js (made by bin/build-cli.js, which
-// `npm ci` runs as the "prepare" script) while every source file it was built from is unchanged; otherwise, or with
-// HALOWEAVE_CLI=sources in the environment, runs the TypeScript sources through tsx (slower to start, never stale).
+// Launcher for the `haloweave` command. Runs the prebuilt bundle dist/cli/ (made by bin/build-cli.js, which `npm ci`
+// runs as the "prepare" script) from its V8 code cache (bin/cli-loader.js) while every source file it was built from
+// is unchanged; otherwise, or with HALOWEAVE_CLI=sources in the environment, runs the TypeScript sources through tsx
+// (slower to start, never stale).
 // `haloweave --version` says which one ran. See docs/startup.md.
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
