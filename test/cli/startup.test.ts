@@ -12,6 +12,7 @@ import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { BIN, ROOT } from './runCli';
 import { bundleStaleReason } from '../../bin/cli-bundle.js';
+import { SURVEY_FILE, surveyScenario } from '../../src/core/survey/exampleSurvey';
 
 const BUILD = `dist/test-cli-${process.pid}`;
 const work = mkdtempSync(join(tmpdir(), 'haloweave-startup-'));
@@ -24,14 +25,17 @@ const DEMO_PLAN = join(ROOT, 'examples/demo/halo-demo.plan.json');
  * with the code cache; `cache` says per bundled file whether its cache was used (bundleLoader's report).
  */
 function runBundle(args: string[], cwd: string, dir = join(ROOT, BUILD)) {
-  const reportFile = join(work, `cache-report-${Math.random().toString(36).slice(2)}.json`);
-  const code = [
+  const tag = Math.random().toString(36).slice(2);
+  const reportFile = join(work, `cache-report-${tag}.json`);
+  // A script file, not `node -e`: the survey's worker threads inherit node's options, and --input-type fails them.
+  const script = join(work, `run-bundle-${tag}.mjs`);
+  writeFileSync(script, [
     `const { bundleFileFor, bundleLoader } = await import(${JSON.stringify(LOADER)});`,
-    `const dir = ${JSON.stringify(dir)}, argv = process.argv.slice(1), loader = bundleLoader(dir);`,
+    `const dir = ${JSON.stringify(dir)}, argv = process.argv.slice(2), loader = bundleLoader(dir);`,
     'process.exitCode = await loader.load(bundleFileFor(dir, argv)).main(argv);',
     `(await import('node:fs')).writeFileSync(${JSON.stringify(reportFile)}, JSON.stringify(loader.report));`,
-  ].join('\n');
-  const r = spawnSync(process.execPath, ['--input-type=module', '-e', code, ...args], { cwd, encoding: 'utf8', env: ENV, maxBuffer: 64 << 20 });
+  ].join('\n'));
+  const r = spawnSync(process.execPath, [script, ...args], { cwd, encoding: 'utf8', env: ENV, maxBuffer: 64 << 20 });
   const cache = JSON.parse(readFileSync(reportFile, 'utf8')) as Record<string, string>;
   return { code: r.status, out: r.stdout, err: r.stderr, cache };
 }
@@ -101,6 +105,19 @@ describe('the bundle behaves as the sources', () => {
     // Formats that load dependencies of their own (FITS, VOTable) run from the bundle too.
     expect(runBundle(['export', 'bundle', '--format', 'votable', '--out', 'slits.vot'], work).code).toBe(0);
     expect(runBundle(['export', 'bundle', '--format', 'fits', '--out', 'slits.fits'], work).code).toBe(0);
+  }, 120_000);
+
+  it('a survey: its planning worker threads run from the bundle too, with the galaxy folders of the sources', () => {
+    const files = surveyScenario({ galaxies: 2, candidates: 300, seed: 11, from: '2027-03-01', to: '2027-03-06', surveyKeys: { hoursPerMask: 1.5 } });
+    for (const [n, t] of Object.entries(files)) writeFileSync(join(work, n), t);
+    const a = runBundle(['survey', SURVEY_FILE, '--out', 'survey-bundle', '--jobs', '2', '--quiet'], work);
+    const b = runSources(['survey', SURVEY_FILE, '--out', 'survey-sources', '--jobs', '2', '--quiet'], work);
+    expect(a.err).not.toMatch(/FAILED|internal error/);
+    expect(a.code).toBe(0);
+    expect(b.code).toBe(0);
+    const galaxies = readdirSync(join(work, 'survey-sources')).filter((f) => statSync(join(work, 'survey-sources', f)).isDirectory()).sort();
+    expect(galaxies).toHaveLength(2);
+    for (const g of galaxies) expect(folderTexts(join('survey-bundle', g)), g).toEqual(folderTexts(join('survey-sources', g)));
   }, 120_000);
 
   it('the dispatcher alone (main.cjs) hands a command to its file, with the same errors', () => {
