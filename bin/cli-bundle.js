@@ -7,6 +7,8 @@ import { join } from 'node:path';
 
 /** Folder of the bundle below the package root. */
 export const BUNDLE_DIR = 'dist/cli';
+/** The bundle's dispatcher, in BUNDLE_DIR; it exports main(argv). */
+export const BUNDLE_ENTRY = 'main.cjs';
 
 /** Why the bundle under `root` cannot be used (missing, or a source changed since it was built), or null when current. */
 export function bundleStaleReason(root) {

@@ -1,19 +1,20 @@
 #!/usr/bin/env node
-// Launcher for the `haloweave` command. Runs the prebuilt bundle dist/cli/main.js (made by bin/build-cli.js, which
-// `npm ci` runs as the "prepare" script) while every source file it was built from is unchanged; otherwise, or with
-// HALOWEAVE_CLI=sources in the environment, runs the TypeScript sources through tsx (slower to start, never stale).
+// Launcher for the `haloweave` command. Runs the prebuilt bundle dist/cli/ (made by bin/build-cli.js, which `npm ci`
+// runs as the "prepare" script) from its V8 code cache (bin/cli-loader.js) while every source file it was built from
+// is unchanged; otherwise, or with HALOWEAVE_CLI=sources in the environment, runs the TypeScript sources through tsx
+// (slower to start, never stale).
 // `haloweave --version` says which one ran. See docs/startup.md.
 import { dirname, join } from 'node:path';
-import { fileURLToPath, pathToFileURL } from 'node:url';
+import { fileURLToPath } from 'node:url';
 import { BUNDLE_DIR, bundleStaleReason } from './cli-bundle.js';
+import { runBundle } from './cli-loader.js';
 
 const root = join(dirname(fileURLToPath(import.meta.url)), '..');
 const wantSources = process.env.HALOWEAVE_CLI === 'sources';
 const stale = wantSources ? 'HALOWEAVE_CLI=sources' : bundleStaleReason(root);
-let main;
 if (stale === null) {
   process.env.HALOWEAVE_RUNNING_FROM = 'prebuilt bundle';
-  ({ main } = await import(pathToFileURL(join(root, BUNDLE_DIR, 'main.js')).href));
+  process.exitCode = await runBundle(join(root, BUNDLE_DIR), process.argv.slice(2));
 } else {
   process.env.HALOWEAVE_RUNNING_FROM = `sources (${stale})`;
   // A developer at a terminal learns why this start is slow; scripts and tests see the same output either way.
@@ -22,6 +23,6 @@ if (stale === null) {
   }
   const { register } = await import('tsx/esm/api');
   register();
-  ({ main } = await import('../src/cli/main.ts'));
+  const { main } = await import('../src/cli/main.ts');
+  process.exitCode = await main(process.argv.slice(2));
 }
-process.exitCode = await main(process.argv.slice(2));

@@ -1,5 +1,6 @@
 /**
  * The prebuilt command line (bin/build-cli.js, docs/startup.md): the bundle gives the very outputs of the sources,
+ * also when it starts from its V8 code cache and when that cache is damaged, made for other bytes or refused by V8;
  * and the launcher runs it only while no bundled source has changed; otherwise it falls back to the sources.
  * Start-up time is measured in bench/startup.bench.ts, not here.
  */
@@ -11,17 +12,40 @@ import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { BIN, ROOT } from './runCli';
 import { bundleStaleReason } from '../../bin/cli-bundle.js';
+import { SURVEY_FILE, surveyScenario } from '../../src/core/survey/exampleSurvey';
 
 const BUILD = `dist/test-cli-${process.pid}`;
 const work = mkdtempSync(join(tmpdir(), 'haloweave-startup-'));
 const ENV = { ...process.env, HALOWEAVE_CLI: '' };
+const LOADER = pathToFileURL(join(ROOT, 'bin/cli-loader.js')).href;
+const DEMO_PLAN = join(ROOT, 'examples/demo/halo-demo.plan.json');
 
-/** Run the bundle's main() directly (not through the launcher) with argv, from `cwd`. */
-function runBundle(args: string[], cwd: string) {
-  const url = pathToFileURL(join(ROOT, BUILD, 'main.js')).href;
-  const code = `const { main } = await import(${JSON.stringify(url)}); process.exitCode = await main(process.argv.slice(1));`;
-  const r = spawnSync(process.execPath, ['--input-type=module', '-e', code, ...args], { cwd, encoding: 'utf8', env: ENV, maxBuffer: 64 << 20 });
-  return { code: r.status, out: r.stdout, err: r.stderr };
+/**
+ * Run the bundle in `dir` (default the test build) on argv from `cwd` as the launcher does, through bin/cli-loader.js
+ * with the code cache; `cache` says per bundled file whether its cache was used (bundleLoader's report).
+ */
+function runBundle(args: string[], cwd: string, dir = join(ROOT, BUILD)) {
+  const tag = Math.random().toString(36).slice(2);
+  const reportFile = join(work, `cache-report-${tag}.json`);
+  // A script file, not `node -e`: the survey's worker threads inherit node's options, and --input-type fails them.
+  const script = join(work, `run-bundle-${tag}.mjs`);
+  writeFileSync(script, [
+    `const { bundleFileFor, bundleLoader } = await import(${JSON.stringify(LOADER)});`,
+    `const dir = ${JSON.stringify(dir)}, argv = process.argv.slice(2), loader = bundleLoader(dir);`,
+    'process.exitCode = await loader.load(bundleFileFor(dir, argv)).main(argv);',
+    `(await import('node:fs')).writeFileSync(${JSON.stringify(reportFile)}, JSON.stringify(loader.report));`,
+  ].join('\n'));
+  const r = spawnSync(process.execPath, [script, ...args], { cwd, encoding: 'utf8', env: ENV, maxBuffer: 64 << 20 });
+  const cache = JSON.parse(readFileSync(reportFile, 'utf8')) as Record<string, string>;
+  return { code: r.status, out: r.stdout, err: r.stderr, cache };
+}
+
+/** The files of output folder `dir` under `work`, by name; the manifest without the time it was written. */
+function folderTexts(dir: string): Record<string, string> {
+  return Object.fromEntries(readdirSync(join(work, dir)).sort().map((f) => {
+    const t = readFileSync(join(work, dir, f), 'utf8');
+    return [f, f === 'manifest.json' ? t.replace(/"writtenUtc": "[^"]*"/, '"writtenUtc": ""') : t];
+  }));
 }
 
 /** Run the launcher on the sources. */
@@ -50,39 +74,93 @@ describe('the bundle behaves as the sources', () => {
     expect(paths.some((p: string) => p.includes('node_modules'))).toBe(false);
   });
 
-  it('one chunk per command: main.js itself holds no solver code', () => {
+  it('one file per command, each with its code cache; main.cjs itself holds no solver code', () => {
     const files = readdirSync(join(ROOT, BUILD));
-    for (const c of ['plan', 'check', 'export', 'sky', 'demo']) expect(files.some((f) => f.startsWith(`${c}-`))).toBe(true);
-    const mainJs = readFileSync(join(ROOT, BUILD, 'main.js'), 'utf8');
+    for (const c of ['main', 'plan', 'check', 'export', 'sky', 'demo', 'draft', 'profile', 'forecast', 'survey']) {
+      expect(files).toContain(`${c}.cjs`);
+      expect(files).toContain(`${c}.cjs.cache`);
+    }
+    const mainJs = readFileSync(join(ROOT, BUILD, 'main.cjs'), 'utf8');
     expect(mainJs).not.toMatch(/solvePlan|zod/);
   });
 
-  it('a missing plan file: same exit status and message', () => {
-    const a = runBundle(['plan', 'missing.plan.json', '--out', 'o'], work);
+  it('a missing plan file: same exit status and message, from the code cache', () => {
+    const { cache, ...a } = runBundle(['plan', 'missing.plan.json', '--out', 'o'], work);
     const b = runSources(['plan', 'missing.plan.json', '--out', 'o'], work);
     expect(a.code).toBe(2);
     expect(a).toEqual(b);
     expect(a.err).toMatch(/plan file not found/);
+    expect(cache).toEqual({ 'plan.cjs': 'used' });
   });
 
-  it('the demo: byte-identical output folders, and the bundled check passes the folder', () => {
+  it('the demo: byte-identical output folders from the code cache, and the bundled check passes the folder', () => {
     const a = runBundle(['demo', '--out', 'bundle', '--quiet'], work);
     const b = runSources(['demo', '--out', 'sources', '--quiet'], work);
     expect(a.code).toBe(0);
     expect(b.code).toBe(0);
-    const files = readdirSync(join(work, 'sources')).sort();
-    expect(readdirSync(join(work, 'bundle')).sort()).toEqual(files);
-    // The manifest differs only in when the folder was written; every other file byte for byte.
-    const text = (dir: string, f: string) => {
-      const t = readFileSync(join(work, dir, f), 'utf8');
-      return f === 'manifest.json' ? t.replace(/"writtenUtc": "[^"]*"/, '"writtenUtc": ""') : t;
-    };
-    for (const f of files) expect(text('bundle', f), f).toBe(text('sources', f));
+    expect(a.cache).toEqual({ 'demo.cjs': 'used' });
+    expect(folderTexts('bundle')).toEqual(folderTexts('sources'));
     const c = runBundle(['check', 'bundle'], work);
     expect(c.code).toBe(0);
     // Formats that load dependencies of their own (FITS, VOTable) run from the bundle too.
     expect(runBundle(['export', 'bundle', '--format', 'votable', '--out', 'slits.vot'], work).code).toBe(0);
     expect(runBundle(['export', 'bundle', '--format', 'fits', '--out', 'slits.fits'], work).code).toBe(0);
+  }, 120_000);
+
+  it('a survey: its planning worker threads run from the bundle too, with the galaxy folders of the sources', () => {
+    const files = surveyScenario({ galaxies: 2, candidates: 300, seed: 11, from: '2027-03-01', to: '2027-03-06', surveyKeys: { hoursPerMask: 1.5 } });
+    for (const [n, t] of Object.entries(files)) writeFileSync(join(work, n), t);
+    const a = runBundle(['survey', SURVEY_FILE, '--out', 'survey-bundle', '--jobs', '2', '--quiet'], work);
+    const b = runSources(['survey', SURVEY_FILE, '--out', 'survey-sources', '--jobs', '2', '--quiet'], work);
+    expect(a.err).not.toMatch(/FAILED|internal error/);
+    expect(a.code).toBe(0);
+    expect(b.code).toBe(0);
+    const galaxies = readdirSync(join(work, 'survey-sources')).filter((f) => statSync(join(work, 'survey-sources', f)).isDirectory()).sort();
+    expect(galaxies).toHaveLength(2);
+    for (const g of galaxies) expect(folderTexts(join('survey-bundle', g)), g).toEqual(folderTexts(join('survey-sources', g)));
+  }, 120_000);
+
+  it('the dispatcher alone (main.cjs) hands a command to its file, with the same errors', () => {
+    const url = pathToFileURL(join(ROOT, BUILD, 'main.cjs')).href;
+    const code = `const { main } = await import(${JSON.stringify(url)}); process.exitCode = await main(process.argv.slice(1));`;
+    const r = spawnSync(process.execPath, ['--input-type=module', '-e', code, 'plan', 'missing.plan.json', '--out', 'o'], { cwd: work, encoding: 'utf8', env: ENV });
+    expect({ code: r.status, out: r.stdout, err: r.stderr }).toEqual(runSources(['plan', 'missing.plan.json', '--out', 'o'], work));
+  });
+});
+
+describe('the code cache: a bad one is ignored', () => {
+  it('damaged, made for another file, refused by V8 (other flags) or missing: the same plan folder each time', () => {
+    const dir = join(ROOT, `${BUILD}-cache`);
+    cpSync(join(ROOT, BUILD), dir, { recursive: true });
+    try {
+      const plan = (out: string) => runBundle(['plan', DEMO_PLAN, '--out', out, '--quiet'], work, dir);
+      const good = plan('cached');
+      expect(good.code).toBe(0);
+      expect(good.cache).toEqual({ 'plan.cjs': 'used' });
+      const expected = folderTexts('cached');
+      const cacheFile = join(dir, 'plan.cjs.cache');
+      const bytes = readFileSync(cacheFile);
+      const cases: [string, () => void, string][] = [
+        ['a flipped byte', () => { const b = Buffer.from(bytes); b[b.length >> 1] ^= 0x5a; writeFileSync(cacheFile, b); }, 'damaged'],
+        ['cut short', () => writeFileSync(cacheFile, bytes.subarray(0, bytes.length - 100)), 'damaged'],
+        ['the cache of another file', () => cpSync(join(dir, 'check.cjs.cache'), cacheFile), 'other source'],
+        ['made with other V8 flags', () => {
+          const r = spawnSync(process.execPath, ['--no-opt', join(ROOT, 'bin/cli-cache-run.js'), dir, dir, '--load', 'plan.cjs'], { encoding: 'utf8', env: ENV });
+          expect(r.status, r.stderr).toBe(0);
+        }, 'rejected'],
+        ['missing', () => rmSync(cacheFile), 'absent'],
+      ];
+      for (const [what, spoil, report] of cases) {
+        spoil();
+        const r = plan(what.replace(/ /g, '-'));
+        expect(r.code, what).toBe(0);
+        expect(r.err, what).toBe(good.err);
+        expect(r.cache, what).toEqual({ 'plan.cjs': report });
+        expect(folderTexts(what.replace(/ /g, '-')), what).toEqual(expected);
+      }
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
   }, 120_000);
 });
 
