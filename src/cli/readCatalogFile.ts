@@ -1,6 +1,7 @@
 /**
  * Read and validate a catalog file from disk. CSV, TSV and ECSV are streamed: the file is read in chunks and
- * validated row by row, so only the usable targets stay in memory; VOTable and FITS files are read whole.
+ * validated row by row, so only the usable targets stay in memory. FITS binary tables are read a block of rows at a
+ * time through a file handle (header first); VOTable files are read whole.
  * The result is the same as `readCatalog` on the whole file's bytes.
  */
 import { Buffer, isAscii } from 'node:buffer';
@@ -11,6 +12,8 @@ import { assertSupportedContent, detectFormat, textEncodingOf, type TextEncoding
 import { delimitedRawTable, sniffCsvDialect, type TextSource } from '../core/catalog/csvReader';
 import { ecsvRawTable } from '../core/catalog/ecsvReader';
 import { readCatalog } from '../core/catalog/read';
+import { readFitsTableFrom } from '../core/catalog/fitsTable';
+import { withFileByteSource } from './fileByteSource';
 import { validateTable } from '../core/catalog/validate';
 
 const HEAD_BYTES = 1 << 20;
@@ -112,7 +115,8 @@ export function readCatalogFile(path: string, mapping?: ColumnMapping, opts: { c
   const headBytes = readHead(path, HEAD_BYTES);
   assertSupportedContent(headBytes, name);
   const format = detectFormat(headBytes);
-  if (format === 'fits' || format === 'votable') return readCatalog(new Uint8Array(readFileSync(path)), name, mapping);
+  if (format === 'fits') return withFileByteSource(path, (source) => validateTable(readFitsTableFrom(source), name, mapping), opts.chunkBytes);
+  if (format === 'votable') return readCatalog(new Uint8Array(readFileSync(path)), name, mapping);
   // The shared rule: a UTF-16 byte-order mark, else UTF-8 when the whole file is valid UTF-8, else Latin-1.
   const bom = textEncodingOf(headBytes);
   const encoding: TextEncodingName = bom !== 'utf-8' || fileIsValidUtf8(path) ? bom : 'latin1';
