@@ -10,7 +10,8 @@ import { describe, expect, it, beforeAll } from 'vitest';
 import { readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { astropyVersion, runPython, tempDir } from './astropy';
-import { readVoTable } from '../../src/core/catalog/votable';
+import { readVoTable, readVoTableFrom, voTableEncoding } from '../../src/core/catalog/votable';
+import { fileTextSource } from '../../src/cli/readCatalogFile';
 import { readFitsTable, readFitsTableFrom } from '../../src/core/catalog/fitsTable';
 import { withFileByteSource } from '../../src/cli/fileByteSource';
 import { writeVoTable } from '../../src/core/export/votableWriter';
@@ -166,6 +167,21 @@ describe('astropy 5.2.1 (Debian python3-astropy) cross-checks of VOTable and FIT
           expect(streamed.meta, file).toEqual(whole.meta);
           expect(rowsOf(streamed), file).toEqual(rowsOf(whole));
         }, chunk);
+      }
+    }
+  });
+
+  it("reads astropy's VOTables (TABLEDATA, BINARY2) the same from a file in chunks (of 5 bytes and of 64 kB)", () => {
+    for (const file of ['td.xml', 'b2.xml']) {
+      const path = join(dir, file);
+      const bytes = new Uint8Array(readFileSync(path));
+      const whole = readVoTable(bytes);
+      for (const chunk of [5, 1 << 16]) {
+        const streamed = readVoTableFrom(fileTextSource(path, chunk, voTableEncoding(bytes), path, false));
+        expect(streamed.columns, file).toEqual(whole.columns);
+        expect(streamed.meta, file).toEqual(whole.meta);
+        expect(rowsOf(streamed), file).toEqual(rowsOf(whole));
+        expect(streamed.structuralRejects, file).toEqual(whole.structuralRejects);
       }
     }
   });
