@@ -4,17 +4,21 @@
  * (process.resourceUsage().maxRSS) is reported. Goals (issue 3): under 5 s and under 1 GB for the streaming read.
  * The same catalog with every id in quotes shows the cost of quoted fields (simple ones such as "c12" are split by
  * the reader's own fast path; lines with `""`, line ends in quotes or stray quotes go to papaparse).
+ * The same rows written as a FITS binary table and as a VOTable (TABLEDATA) by the project's writers are read the
+ * same two ways: streamed from the file (FITS a block of rows at a time, VOTable in chunks) and whole in memory.
  */
 import { spawnSync } from 'node:child_process';
-import { mkdtempSync, openSync, readFileSync, rmSync, writeSync, closeSync } from 'node:fs';
+import { mkdtempSync, openSync, readFileSync, rmSync, statSync, writeSync, closeSync } from 'node:fs';
 import { cpus, loadavg, tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { performance } from 'node:perf_hooks';
 import { setFlagsFromString } from 'node:v8';
 import { runInNewContext } from 'node:vm';
 import { printTable, type BenchRow } from './harness';
+import type { OutputTable } from '../src/core/export/outputTable';
 
 const CHILD_FLAG = '--catalog-bench-child';
+const TABLES_FLAG = '--catalog-bench-write-tables';
 const ROWS = 1_000_000;
 
 /** Write an invented catalog of `rows` rows (LCG with a fixed seed), about 60 bytes a row; ids in quotes if `quoteIds`. */
@@ -39,6 +43,40 @@ function writeCatalog(path: string, rows: number, quoteIds = false): void {
   }
   if (buf.length > 0) writeSync(fd, buf.join('\n') + '\n');
   closeSync(fd);
+}
+
+/**
+ * The same invented rows as an OutputTable (id, ra, dec, mag, color, priority with nulls, role), for the FITS and VOTable
+ * writers of the project.
+ */
+function inventedTable(rows: number): OutputTable {
+  let seed = 20261202;
+  const rnd = () => (seed = (Math.imul(seed, 1664525) + 1013904223) >>> 0) / 4294967296;
+  const out: OutputTable['rows'] = new Array(rows);
+  for (let i = 0; i < rows; i++) {
+    out[i] = [`c${i}`, 187.5 + (rnd() - 0.5) * 0.8, -5.2 + (rnd() - 0.5) * 0.8, 19 + rnd() * 5, 0.6 + rnd() * 0.8,
+      i % 10 === 0 ? 1 + rnd() * 4 : null, i % 500 === 0 ? 'alignment' : 'tracer'];
+  }
+  return {
+    name: 'bench',
+    columns: [
+      { name: 'id', datatype: 'string' }, { name: 'ra', datatype: 'float64', unit: 'deg' }, { name: 'dec', datatype: 'float64', unit: 'deg' },
+      { name: 'mag', datatype: 'float64', unit: 'mag' }, { name: 'color', datatype: 'float64', unit: 'mag' },
+      { name: 'priority', datatype: 'float64' }, { name: 'role', datatype: 'string' },
+    ],
+    rows: out,
+    meta: [],
+  };
+}
+
+/** Write the invented rows as a FITS binary table and a VOTable TABLEDATA document with the project's writers. */
+async function writeTableFiles(fitsPath: string, votablePath: string, rows: number): Promise<void> {
+  const { writeFitsTable } = await import('../src/core/export/fitsWriter');
+  const { writeVoTable } = await import('../src/core/export/votableWriter');
+  const { writeFileSync } = await import('node:fs');
+  const table = inventedTable(rows);
+  writeFileSync(fitsPath, writeFitsTable(table));
+  writeFileSync(votablePath, writeVoTable(table));
 }
 
 /** Child mode: read the file one way and print time, peak RSS and counts as JSON. */
@@ -95,10 +133,18 @@ export default async function bench(): Promise<void> {
     writeCatalog(path, ROWS);
     const genMs = performance.now() - g0;
     writeCatalog(quotedPath, ROWS, true);
+    const fitsPath = join(dir, 'catalog-1m.fits');
+    const votablePath = join(dir, 'catalog-1m.vot');
+    const w = spawnSync(process.execPath, [resolve('bin/run-ts.js'), resolve('bench/catalog.bench.ts'), TABLES_FLAG, fitsPath, votablePath, String(ROWS)], { encoding: 'utf8' });
+    if (w.status !== 0) throw new Error(`writing the FITS and VOTable files failed: ${w.stderr}`);
     const stream = runChild('stream', path);
     const memory = runChild('memory', path);
     const quoted = runChild('stream', quotedPath);
-    for (const r of [stream, memory, quoted]) {
+    const tables = [
+      { label: 'FITS', path: fitsPath, stream: runChild('stream', fitsPath), memory: runChild('memory', fitsPath) },
+      { label: 'VOTable', path: votablePath, stream: runChild('stream', votablePath), memory: runChild('memory', votablePath) },
+    ];
+    for (const r of [stream, memory, quoted, ...tables.flatMap((t) => [t.stream, t.memory])]) {
       if (r.rowsRead !== ROWS || r.used !== ROWS) throw new Error(`the reader read ${r.rowsRead} rows, used ${r.used}`);
     }
     const rows: BenchRow[] = [
@@ -116,13 +162,24 @@ export default async function bench(): Promise<void> {
       { name: 'stream read peak RSS, every id quoted', value: quoted.maxRssMB, unit: 'MB' },
       { name: 'rows used (stream)', value: stream.used, unit: 'rows' },
     ];
+    for (const t of tables) {
+      const mb = (statSync(t.path).size / 1e6).toFixed(0);
+      rows.push(
+        { name: `${t.label} (${mb} MB) streamed read+validate CPU time`, value: t.stream.cpuMs, unit: 'ms', note: 'user+system' },
+        { name: `${t.label} streamed read peak RSS`, value: t.stream.maxRssMB, unit: 'MB', note: 'whole child process' },
+        { name: `${t.label} in-memory readCatalog CPU time`, value: t.memory.cpuMs, unit: 'ms', note: 'file read whole (the editor\'s path)' },
+        { name: `${t.label} in-memory readCatalog peak RSS`, value: t.memory.maxRssMB, unit: 'MB' },
+      );
+    }
     rows.push({ name: 'machine load average (1 min) at the start', value: loadAtStart, unit: `on ${cpus().length} cores` });
     rows.push({ name: 'machine load average (1 min) at the end', value: loadavg()[0], unit: `on ${cpus().length} cores` });
-    await printTable('catalog: 1 000 000-row CSV, read and validated', rows);
+    await printTable('catalog: 1 000 000 rows as CSV, FITS and VOTable, read and validated', rows);
   } finally {
     rmSync(dir, { recursive: true, force: true });
   }
 }
 
+const tablesFlag = process.argv.indexOf(TABLES_FLAG);
+if (tablesFlag >= 0) await writeTableFiles(process.argv[tablesFlag + 1], process.argv[tablesFlag + 2], Number(process.argv[tablesFlag + 3] ?? ROWS));
 const flag = process.argv.indexOf(CHILD_FLAG);
 if (flag >= 0) await child(process.argv[flag + 1], process.argv[flag + 2]);

@@ -1,16 +1,20 @@
 /**
  * Read and validate a catalog file from disk. CSV, TSV and ECSV are streamed: the file is read in chunks and
- * validated row by row, so only the usable targets stay in memory; VOTable and FITS files are read whole.
+ * validated row by row, so only the usable targets stay in memory. FITS binary tables are read a block of rows at a
+ * time through a file handle (header first); VOTable files are read in chunks too: once to check and parse the XML
+ * around the rows, once more for the rows (TABLEDATA, or a BINARY/BINARY2 base64 stream decoded as it comes).
  * The result is the same as `readCatalog` on the whole file's bytes.
  */
 import { Buffer, isAscii } from 'node:buffer';
-import { closeSync, openSync, readFileSync, readSync, statSync } from 'node:fs';
+import { closeSync, openSync, readSync, statSync } from 'node:fs';
 import { InputError } from '../core/result';
 import type { CatalogReadResult, ColumnMapping } from '../core/catalog/types';
 import { assertSupportedContent, detectFormat, textEncodingOf, type TextEncodingName } from '../core/catalog/detect';
 import { delimitedRawTable, sniffCsvDialect, type TextSource } from '../core/catalog/csvReader';
 import { ecsvRawTable } from '../core/catalog/ecsvReader';
-import { readCatalog } from '../core/catalog/read';
+import { readFitsTableFrom } from '../core/catalog/fitsTable';
+import { readVoTableFrom, voTableEncoding } from '../core/catalog/votable';
+import { withFileByteSource } from './fileByteSource';
 import { validateTable } from '../core/catalog/validate';
 
 const HEAD_BYTES = 1 << 20;
@@ -20,15 +24,15 @@ const HEAD_BYTES = 1 << 20;
  * start. Invalid UTF-8 is an InputError naming the byte offset (never replaced silently). A UTF-8 chunk of ASCII bytes
  * only is copied as Latin-1 (the same characters, without the decoder's validation work) when the decoder holds no
  * partial character, i.e. when the chunk before it ended with an ASCII byte; the first chunk always goes through the
- * decoder, which drops the byte-order mark.
+ * decoder, which drops the byte-order mark. With `fatal` false, invalid UTF-8 is read as U+FFFD (as an XML document is).
  */
-export function fileTextSource(path: string, chunkBytes = 1 << 16, encoding: TextEncodingName = 'utf-8', name = path): TextSource {
+export function fileTextSource(path: string, chunkBytes = 1 << 16, encoding: TextEncodingName = 'utf-8', name = path, fatal = true): TextSource {
   return (onChunk) => {
     const fd = openSync(path, 'r');
     let offset = 0;
     try {
       const buf = new Uint8Array(chunkBytes);
-      const decoder = new TextDecoder(encoding, { fatal: true });
+      const decoder = new TextDecoder(encoding, { fatal });
       const decode = (bytes?: Uint8Array) => {
         try {
           return bytes ? decoder.decode(bytes, { stream: true }) : decoder.decode();
@@ -112,7 +116,10 @@ export function readCatalogFile(path: string, mapping?: ColumnMapping, opts: { c
   const headBytes = readHead(path, HEAD_BYTES);
   assertSupportedContent(headBytes, name);
   const format = detectFormat(headBytes);
-  if (format === 'fits' || format === 'votable') return readCatalog(new Uint8Array(readFileSync(path)), name, mapping);
+  if (format === 'fits') return withFileByteSource(path, (source) => validateTable(readFitsTableFrom(source), name, mapping), opts.chunkBytes);
+  if (format === 'votable') {
+    return validateTable(readVoTableFrom(fileTextSource(path, opts.chunkBytes, voTableEncoding(headBytes), name, false)), name, mapping);
+  }
   // The shared rule: a UTF-16 byte-order mark, else UTF-8 when the whole file is valid UTF-8, else Latin-1.
   const bom = textEncodingOf(headBytes);
   const encoding: TextEncodingName = bom !== 'utf-8' || fileIsValidUtf8(path) ? bom : 'latin1';

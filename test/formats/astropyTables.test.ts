@@ -10,8 +10,10 @@ import { describe, expect, it, beforeAll } from 'vitest';
 import { readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { astropyVersion, runPython, tempDir } from './astropy';
-import { readVoTable } from '../../src/core/catalog/votable';
-import { readFitsTable } from '../../src/core/catalog/fitsTable';
+import { readVoTable, readVoTableFrom, voTableEncoding } from '../../src/core/catalog/votable';
+import { fileTextSource } from '../../src/cli/readCatalogFile';
+import { readFitsTable, readFitsTableFrom } from '../../src/core/catalog/fitsTable';
+import { withFileByteSource } from '../../src/cli/fileByteSource';
 import { writeVoTable } from '../../src/core/export/votableWriter';
 import { writeFitsTable } from '../../src/core/export/fitsWriter';
 import type { OutputTable } from '../../src/core/export/outputTable';
@@ -154,6 +156,35 @@ describe('astropy 5.2.1 (Debian python3-astropy) cross-checks of VOTable and FIT
       expect(table.columns.find((c) => c.name === 'mag')?.datatype).toBe('float32');
     });
   }
+
+  it("reads astropy's FITS files the same from a file, a block of rows at a time (reads of 5 bytes and of 1 MB)", () => {
+    for (const file of ['t.fits', 'scaled.fits', 'unsigned.fits']) {
+      const whole = readFitsTable(new Uint8Array(readFileSync(join(dir, file))));
+      for (const chunk of [5, 1 << 20]) {
+        withFileByteSource(join(dir, file), (source) => {
+          const streamed = readFitsTableFrom(source);
+          expect(streamed.columns, file).toEqual(whole.columns);
+          expect(streamed.meta, file).toEqual(whole.meta);
+          expect(rowsOf(streamed), file).toEqual(rowsOf(whole));
+        }, chunk);
+      }
+    }
+  });
+
+  it("reads astropy's VOTables (TABLEDATA, BINARY2) the same from a file in chunks (of 5 bytes and of 64 kB)", () => {
+    for (const file of ['td.xml', 'b2.xml']) {
+      const path = join(dir, file);
+      const bytes = new Uint8Array(readFileSync(path));
+      const whole = readVoTable(bytes);
+      for (const chunk of [5, 1 << 16]) {
+        const streamed = readVoTableFrom(fileTextSource(path, chunk, voTableEncoding(bytes), path, false));
+        expect(streamed.columns, file).toEqual(whole.columns);
+        expect(streamed.meta, file).toEqual(whole.meta);
+        expect(rowsOf(streamed), file).toEqual(rowsOf(whole));
+        expect(streamed.structuralRejects, file).toEqual(whole.structuralRejects);
+      }
+    }
+  });
 
   // Haloweave's writers -> astropy readers
   const ours: OutputTable = {

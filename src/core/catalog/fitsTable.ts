@@ -5,9 +5,13 @@
  * logical 0 and empty text. Text is cut at the first NUL, trailing blanks removed (as astropy does) and decoded as
  * UTF-8 (Haloweave writes non-ASCII text as UTF-8 bytes). Columns with repeat > 1 give the values as one
  * space-separated text. 64-bit integers beyond 2^53 are kept exact as decimal text.
+ * The rows are read a block at a time from a ByteSource (the whole file in memory, or a file read in chunks by the
+ * command line) and handed out as RowCells views of the block, without one array of cells per row.
  */
 import { InputError } from '../result';
 import type { Cell, ColumnInfo } from './types';
+import { type CellWhy, type RowCells, type RowCellsTable, cellNumber, cellText } from './validate';
+import { type ByteSource, bytesSource } from '../formats/byteSource';
 import type { RawTableWithMeta, TableMetaItem } from './tableMeta';
 import {
   type ElementCode, type TForm, decodeTextBytes, int64ToCell, parseTform, readInt64, readNumeric,
@@ -15,13 +19,28 @@ import {
 import {
   type FitsHeader, HEADER_ESCAPE_KEYWORD, STRUCTURAL_KEYWORD, headerNumber, headerString, headerValue, unescapeHeaderText,
 } from '../formats/fits/header';
-import { type FitsHdu, axisLengths, walkHdus } from '../formats/fits/hdu';
+import { type FitsHdu, axisLengths, walkHdusFrom } from '../formats/fits/hdu';
 
+/** A cell of one column, read from the row that starts at byte `rowOffset` of `view` (a block of rows). */
 type CellReader = (view: DataView, rowOffset: number) => Cell;
 
+/** The heap of variable-length arrays: element `off` of a descriptor is at byte `base + off` of `view`. */
+interface Heap {
+  view: DataView;
+  base: number;
+}
+
+/** A BINTABLE read as RowCells views of its row blocks (and as cell arrays), with its name and header metadata. */
+export type FitsRawTable = RawTableWithMeta & RowCellsTable;
+
 /** Read the first BINTABLE extension of a FITS file as a RawTable (throws InputError naming the HDU and column). */
-export function readFitsTable(bytes: Uint8Array): RawTableWithMeta {
-  const hdus = walkHdus(bytes);
+export function readFitsTable(bytes: Uint8Array): FitsRawTable {
+  return readFitsTableFrom(bytesSource(bytes));
+}
+
+/** `readFitsTable` on a ByteSource: the headers are read first, then the rows a block of `source.chunkBytes` at a time. */
+export function readFitsTableFrom(source: ByteSource): FitsRawTable {
+  const hdus = walkHdusFrom(source);
   const hdu = hdus.find((h) => h.kind === 'BINTABLE');
   if (!hdu) {
     const kinds = hdus.map((h) => `${h.index}:${h.kind}`).join(', ');
@@ -32,11 +51,16 @@ export function readFitsTable(bytes: Uint8Array): RawTableWithMeta {
       fix: ascii ? 'ASCII TABLE extensions are not read; save the table as a FITS binary table' : 'save the catalog as a FITS binary table',
     }]);
   }
-  return bintableFromHdu(bytes, hdu);
+  return bintableFrom(source, hdu);
 }
 
-/** The RawTable of one BINTABLE HDU. */
-export function bintableFromHdu(bytes: Uint8Array, hdu: FitsHdu): RawTableWithMeta {
+/** The RawTable of one BINTABLE HDU of a FITS file held in memory. */
+export function bintableFromHdu(bytes: Uint8Array, hdu: FitsHdu): FitsRawTable {
+  return bintableFrom(bytesSource(bytes), hdu);
+}
+
+/** The RawTable of one BINTABLE HDU of a ByteSource; the heap (variable-length arrays) is read when first needed. */
+export function bintableFrom(source: ByteSource, hdu: FitsHdu): FitsRawTable {
   const h = hdu.header;
   const where = `FITS HDU ${hdu.index} (BINTABLE)`;
   const axes = axisLengths(h, where);
@@ -45,12 +69,23 @@ export function bintableFromHdu(bytes: Uint8Array, hdu: FitsHdu): RawTableWithMe
   const nFields = headerNumber(h, 'TFIELDS') ?? 0;
   const escaped = headerValue(h, HEADER_ESCAPE_KEYWORD) === true;
   const text = (s: string | undefined) => (s === undefined ? undefined : escaped ? unescapeHeaderText(s) : s);
-  const view = new DataView(bytes.buffer, bytes.byteOffset + hdu.dataOffset, hdu.dataBytes);
   const heapStart = headerNumber(h, 'THEAP') ?? rowBytes * rowCount;
+  let heapRead: Heap | null = null;
+  const heap = (): Heap => {
+    if (heapRead) return heapRead;
+    const whole = source.whole;
+    if (whole) heapRead = { view: new DataView(whole.buffer, whole.byteOffset + hdu.dataOffset, hdu.dataBytes), base: heapStart };
+    else {
+      const bytes = source.read(hdu.dataOffset + heapStart, Math.max(0, hdu.dataBytes - heapStart)).slice();
+      heapRead = { view: new DataView(bytes.buffer), base: 0 };
+    }
+    return heapRead;
+  };
 
   const columns: ColumnInfo[] = [];
   const readers: CellReader[] = [];
   let offset = 0;
+  let heapColumns = false;
   for (let n = 1; n <= nFields; n++) {
     const tformText = headerString(h, `TFORM${n}`);
     const tform = tformText === undefined ? null : parseTform(tformText);
@@ -66,10 +101,11 @@ export function bintableFromHdu(bytes: Uint8Array, hdu: FitsHdu): RawTableWithMe
     const ucd = text(headerString(h, `TUCD${n}`))?.trim() || undefined;
     const ttypeCard = h.cards.find((c) => c.keyword === `TTYPE${n}`);
     const description = ttypeCard?.comment ? text(ttypeCard.comment) : undefined;
-    const { reader, datatype } = columnReader(h, n, tform, offset, view, heapStart, `${where}, column ${n} '${name}'`);
+    const { reader, datatype } = columnReader(h, n, tform, offset, heap, `${where}, column ${n} '${name}'`);
     columns.push({ name, datatype, ...(unit ? { unit } : {}), ...(ucd ? { ucd } : {}), ...(description ? { description } : {}) });
     readers.push(reader);
     offset += tform.bytes;
+    heapColumns ||= tform.code === 'P' || tform.code === 'Q';
   }
   if (offset !== rowBytes) {
     throw new InputError([{ where, what: `the columns take ${offset} bytes per row but NAXIS1 = ${rowBytes}`, fix: 'the table header is damaged' }]);
@@ -77,6 +113,16 @@ export function bintableFromHdu(bytes: Uint8Array, hdu: FitsHdu): RawTableWithMe
 
   const meta = headerMeta(h, text);
   const name = text(headerString(h, 'EXTNAME')) || undefined;
+  const rowsPerBlock = rowBytes === 0 ? rowCount : Math.max(1, Math.floor(source.chunkBytes / rowBytes));
+  /** Visit each block of rows: a view of its bytes, its first row (0-based) and its row count. */
+  const forEachBlock = (visit: (view: DataView, firstRow: number, rows: number) => void) => {
+    if (heapColumns) heap(); // read before the rows: a file source reuses its buffer for every read
+    for (let r0 = 0; r0 < rowCount; r0 += rowsPerBlock) {
+      const rows = Math.min(rowsPerBlock, rowCount - r0);
+      const bytes = source.read(hdu.dataOffset + r0 * rowBytes, rows * rowBytes);
+      visit(new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength), r0, rows);
+    }
+  };
   return {
     format: 'fits',
     columns,
@@ -84,14 +130,46 @@ export function bintableFromHdu(bytes: Uint8Array, hdu: FitsHdu): RawTableWithMe
     name,
     meta,
     forEachRow(visit) {
-      for (let r = 0; r < rowCount; r++) {
-        const base = r * rowBytes;
-        const cells: Cell[] = new Array(readers.length);
-        for (let c = 0; c < readers.length; c++) cells[c] = readers[c](view, base);
-        visit(cells, r + 1);
-      }
+      forEachBlock((view, r0, rows) => {
+        for (let r = 0; r < rows; r++) {
+          const base = r * rowBytes;
+          const cells: Cell[] = new Array(readers.length);
+          for (let c = 0; c < readers.length; c++) cells[c] = readers[c](view, base);
+          visit(cells, r0 + r + 1);
+        }
+      });
+    },
+    forEachRowCells(visit) {
+      const row = new BintableRow(readers);
+      forEachBlock((view, r0, rows) => {
+        row.view = view;
+        for (let r = 0; r < rows; r++) {
+          row.rowOffset = r * rowBytes;
+          visit(row, r0 + r + 1);
+        }
+      });
     },
   };
+}
+
+/** RowCells of one row of a block, read from its bytes on demand (the same values as the row's cell array). */
+class BintableRow implements RowCells {
+  view: DataView<ArrayBufferLike> = new DataView(new ArrayBuffer(0));
+  rowOffset = 0;
+
+  constructor(private readonly readers: readonly CellReader[]) {}
+
+  number(k: number, why: CellWhy): number {
+    return cellNumber(this.readers[k](this.view, this.rowOffset), why);
+  }
+
+  text(k: number): string {
+    return cellText(this.readers[k](this.view, this.rowOffset));
+  }
+
+  isText(k: number): boolean {
+    return typeof this.readers[k](this.view, this.rowOffset) === 'string';
+  }
 }
 
 /** Header keywords that are not table structure, as metadata; a comment "[unit] text" gives unit and description. */
@@ -112,7 +190,7 @@ const TWO_63 = 2n ** 63n;
 
 /** The reader of one column and its datatype name (ECSV names: bool, uint8, int16, int32, int64, float32, float64, string). */
 function columnReader(
-  h: FitsHeader, n: number, tform: TForm, fieldOffset: number, view: DataView, heapStart: number, where: string,
+  h: FitsHeader, n: number, tform: TForm, fieldOffset: number, heap: () => Heap, where: string,
 ): { reader: CellReader; datatype: string } {
   const tscal = headerNumber(h, `TSCAL${n}`) ?? 1;
   const tzeroValue = headerValue(h, `TZERO${n}`);
@@ -123,14 +201,16 @@ function columnReader(
 
   if (code === 'P' || code === 'Q') {
     const heapCode = tform.heapCode!;
-    const one = elementReader(heapCode, tscal, tzero, tzeroValue, tnullValue, where);
+    // (text arrays are read as text: no element reader for them)
+    const one = heapCode === 'A' ? null : elementReader(heapCode, tscal, tzero, tzeroValue, tnullValue, where);
     const reader: CellReader = (v, row) => {
       const at = row + fieldOffset;
       const count = code === 'P' ? v.getInt32(at, false) : Number(readInt64(v, at));
       const off = code === 'P' ? v.getInt32(at + 4, false) : Number(readInt64(v, at + 8));
-      const start = heapStart + off;
-      if (heapCode === 'A') return emptyToNull(decodeTextBytes(bytesOf(v, start, count)));
-      return joinElements(v, start, count, heapCode, one.read);
+      const { view: hv, base } = heap();
+      const start = base + off;
+      if (heapCode === 'A') return emptyToNull(decodeTextBytes(bytesOf(hv, start, count)));
+      return joinElements(hv, start, count, heapCode, one!.read);
     };
     return { reader, datatype: 'string' };
   }

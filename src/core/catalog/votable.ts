@@ -5,17 +5,20 @@
  * Row numbers (`line`) are 1-based. Cells: numbers, booleans, text; null for empty TD, the VALUES null value, NaN,
  * the BINARY2 null flag and boolean '?'. Arrays (arraysize other than 1, except char) come as space-separated text;
  * 64-bit integers beyond 2^53 as exact decimal text. Datatype names are ECSV's (bool, uint8, int16, ... string).
+ * The document is read from a TextSource (votableDocument.ts): the XML around the row data is checked and parsed as a
+ * whole, and the rows (TABLEDATA, or a BINARY/BINARY2 base64 STREAM) are read again a piece at a time when visited.
  */
 import { XMLParser, XMLValidator } from 'fast-xml-parser';
 import { InputError } from '../result';
 import type { Cell, ColumnInfo, RowReject } from './types';
 import type { RawTableWithMeta, TableMetaItem } from './tableMeta';
-import { decodeBase64 } from '../formats/base64';
+import { Base64Decoder, decodeBase64 } from '../formats/base64';
 import { decodeTextBytes, int64ToCell, readInt64, readNumeric } from '../formats/fits/binary';
 import { walkHdus } from '../formats/fits/hdu';
 import { bintableFromHdu } from './fitsTable';
-import { scanTabledata } from './votableTabledata';
-import { WHOLE_ROW } from './csvReader';
+import { TabledataScanner } from './votableTabledata';
+import { WHOLE_ROW, type TextSource, stringSource } from './csvReader';
+import { type BulkSpan, forEachPieceOf, lineInSpan, sliceOf, splitVoTable, withoutLeadingBom } from './votableDocument';
 
 type XmlNode = Record<string, unknown>;
 
@@ -36,28 +39,6 @@ const parser = new XMLParser({
   stopNodes: ['*.TABLEDATA', '*.STREAM'],
 });
 
-const BULK_OPEN = /<((?:[A-Za-z_][\w.-]*:)?(?:TABLEDATA|STREAM))\b[^>]*>/g;
-
-/** The document with the content of TABLEDATA and STREAM elements reduced to its newlines (for the validator). */
-function withoutBulkContent(text: string): string {
-  const parts: string[] = [];
-  let last = 0;
-  BULK_OPEN.lastIndex = 0;
-  for (let m = BULK_OPEN.exec(text); m; m = BULK_OPEN.exec(text)) {
-    if (m[0].endsWith('/>')) continue;
-    const bodyStart = m.index + m[0].length;
-    const close = text.indexOf(`</${m[1]}`, bodyStart);
-    if (close < 0) break; // unclosed: the validator reports it
-    let newlines = 0;
-    for (let i = text.indexOf('\n', bodyStart); i >= 0 && i < close; i = text.indexOf('\n', i + 1)) newlines++;
-    parts.push(text.slice(last, bodyStart), '\n'.repeat(newlines));
-    last = close;
-    BULK_OPEN.lastIndex = close;
-  }
-  parts.push(text.slice(last));
-  return parts.join('');
-}
-
 /** A FIELD's description and how its values are stored. */
 interface FieldSpec {
   name: string;
@@ -76,19 +57,33 @@ const WHERE = 'VOTable';
 
 /** Read the first TABLE of a VOTable document as a RawTable with its PARAMs and INFOs as metadata. */
 export function readVoTable(bytes: Uint8Array): RawTableWithMeta {
-  const text = decodeXmlText(bytes);
+  return readVoTableFrom(stringSource(new TextDecoder(voTableEncoding(bytes)).decode(bytes)));
+}
+
+/**
+ * `readVoTable` on a TextSource (the document's text read in chunks, each call from the start): the same table, rows
+ * and errors. The source is read once to split the document and once more each time the rows are visited.
+ */
+export function readVoTableFrom(textSource: TextSource): RawTableWithMeta {
+  const source = withoutLeadingBom(textSource);
+  const { validatorText, parserText, spans } = splitVoTable(source);
   // Well-formedness of everything but the bulk row data (which the TABLEDATA scanner and base64 decoder check);
   // newlines are kept so the validator's line numbers are the file's.
-  const valid = XMLValidator.validate(withoutBulkContent(text));
+  const valid = XMLValidator.validate(validatorText);
   if (valid !== true) {
     throw new InputError([{ where: `${WHERE}, line ${valid.err.line}, column ${valid.err.col}`, what: `not well-formed XML: ${valid.err.msg}`, fix: 'repair or re-export the file' }]);
   }
   let doc: XmlNode;
   try {
-    doc = parser.parse(text) as XmlNode;
+    doc = parser.parse(parserText) as XmlNode;
   } catch (e) {
     throw new InputError([{ where: WHERE, what: `cannot be parsed as XML (${e instanceof Error ? e.message : String(e)})`, fix: 'check that every element, CDATA section and comment is closed' }]);
   }
+  /** The bulk content span a TABLEDATA or STREAM node of the parsed skeleton stands for (null when it is empty). */
+  const spanOf = (node: unknown): BulkSpan | null => {
+    const k = textOf(node);
+    return /^\d+$/.test(k) ? spans[Number(k)] ?? null : null;
+  };
   const root = doc.VOTABLE as XmlNode | undefined;
   if (!root || typeof root !== 'object') {
     throw new InputError([{ where: WHERE, what: 'no VOTABLE root element', fix: 'the file is XML but not a VOTable' }]);
@@ -116,22 +111,39 @@ export function readVoTable(bytes: Uint8Array): RawTableWithMeta {
 
   if (!data || typeof data !== 'object') return { ...base, structuralRejects: [], forEachRow() {} };
   if (data.TABLEDATA !== undefined) {
-    const content = textOf(data.TABLEDATA);
-    const lineOf = (offset: number) => { // only called for an error message
-      const at = content === '' ? -1 : text.indexOf(content);
-      return at < 0 ? 0 : text.slice(0, at + offset).split('\n').length;
-    };
-    return tabledataRows(base, content, fields, lineOf);
+    const span = spanOf(data.TABLEDATA);
+    const pieces = (onPiece: (text: string) => void) => { if (span) forEachPieceOf(source, span.start, span.end, onPiece); };
+    const lineOf = (offset: number) => (span ? lineInSpan(source, span, offset) : 0); // only called for an error message
+    return tabledataRows(base, pieces, fields, lineOf);
   }
   for (const kind of ['BINARY2', 'BINARY'] as const) {
     if (data[kind] !== undefined) {
-      const bytes = streamBytes(data[kind] as XmlNode, kind);
-      return { ...base, structuralRejects: [], forEachRow: (visit) => binaryRows(bytes, fields, kind === 'BINARY2', visit) };
+      const span = streamSpan(data[kind] as XmlNode, kind, spanOf);
+      const where = `${WHERE} ${kind}`;
+      return {
+        ...base,
+        structuralRejects: [],
+        forEachRow: (visit) => {
+          const rows = new BinaryRowReader(fields, kind === 'BINARY2', visit);
+          const decoder = new Base64Decoder();
+          if (span) {
+            forEachPieceOf(source, span.start, span.end, (text) => {
+              const bytes = decoder.push(text);
+              if (decoder.badAt >= 0) throw notBase64(where, decoder.badAt);
+              rows.push(bytes);
+            });
+          }
+          rows.finish();
+        },
+      };
     }
   }
   if (data.FITS !== undefined) {
     const fitsNode = data.FITS as XmlNode;
-    const fitsBytes = streamBytes(fitsNode, 'FITS');
+    const span = streamSpan(fitsNode, 'FITS', spanOf);
+    const decoded = decodeBase64(span ? sliceOf(source, span.start, span.end) : '');
+    if ('badAt' in decoded) throw notBase64(`${WHERE} FITS`, decoded.badAt);
+    const fitsBytes = decoded.bytes;
     const hdus = walkHdus(fitsBytes, `${WHERE} FITS stream`);
     const extnum = Number(attr(fitsNode, 'extnum') ?? NaN);
     const hdu = Number.isInteger(extnum) ? hdus[extnum] : hdus.find((h) => h.kind === 'BINTABLE');
@@ -145,12 +157,10 @@ export function readVoTable(bytes: Uint8Array): RawTableWithMeta {
   throw new InputError([{ where: `${WHERE} TABLE ${name ?? ''}`.trim(), what: 'DATA holds no TABLEDATA, BINARY2, BINARY or FITS element' }]);
 }
 
-/** Document text: UTF-8 (BOM removed) unless the XML declaration names ISO-8859-1 / Latin-1. */
-function decodeXmlText(bytes: Uint8Array): string {
-  const head = String.fromCharCode(...bytes.subarray(0, 200));
-  const latin1 = /encoding=["'](ISO-8859-1|latin-?1)["']/i.test(head);
-  const text = new TextDecoder(latin1 ? 'latin1' : 'utf-8').decode(bytes);
-  return text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
+/** The text encoding of a VOTable document from its first bytes: Latin-1 when the XML declaration names ISO-8859-1 / Latin-1, else UTF-8. */
+export function voTableEncoding(head: Uint8Array): 'latin1' | 'utf-8' {
+  const text = String.fromCharCode(...head.subarray(0, 200));
+  return /encoding=["'](ISO-8859-1|latin-?1)["']/i.test(text) ? 'latin1' : 'utf-8';
 }
 
 function arrayOf(v: unknown): XmlNode[] {
@@ -277,39 +287,45 @@ function parseText(raw: string, f: FieldSpec): Cell {
 }
 
 /**
- * TABLEDATA rows; a TR whose TD count differs from the FIELD count is a structural reject (column `(row)`), found
- * while the rows are visited (or by a counting scan when the rejects are read first).
+ * TABLEDATA rows, scanned from the content's pieces; a TR whose TD count differs from the FIELD count is a structural
+ * reject (column `(row)`), found while the rows are visited (or by a counting scan when the rejects are read first).
  */
 function tabledataRows(
-  base: Omit<RawTableWithMeta, 'forEachRow' | 'structuralRejects'>, content: string, fields: FieldSpec[], lineOf: (offset: number) => number,
+  base: Omit<RawTableWithMeta, 'forEachRow' | 'structuralRejects'>, pieces: (onPiece: (text: string) => void) => void,
+  fields: FieldSpec[], lineOf: (offset: number) => number,
 ): RawTableWithMeta {
   let rejects: RowReject[] | null = null;
   const reject = (row: number, n: number): RowReject => ({ line: row, column: WHOLE_ROW, reason: `row has ${n} TD cells but the table has ${fields.length} FIELDs` });
+  const scan = (visit: (tds: string[], row: number) => void) => {
+    const scanner = new TabledataScanner(visit, lineOf);
+    pieces((text) => scanner.push(text));
+    scanner.finish();
+  };
   return {
     ...base, // (a literal, not a spread of this object: spreading would run the getter and scan twice)
     get structuralRejects(): RowReject[] {
       if (rejects === null) {
         const found: RowReject[] = [];
-        scanTabledata(content, (tds, row) => { if (tds.length !== fields.length) found.push(reject(row, tds.length)); }, lineOf);
+        scan((tds, row) => { if (tds.length !== fields.length) found.push(reject(row, tds.length)); });
         rejects = found;
       }
       return rejects;
     },
     forEachRow(visit) {
       const found: RowReject[] | null = rejects === null ? [] : null;
-      scanTabledata(content, (tds, row) => {
+      scan((tds, row) => {
         if (tds.length !== fields.length) { found?.push(reject(row, tds.length)); return; }
         const cells: Cell[] = new Array(tds.length);
         for (let c = 0; c < tds.length; c++) cells[c] = parseText(tds[c], fields[c]);
         visit(cells, row);
-      }, lineOf);
+      });
       if (found) rejects = found;
     },
   };
 }
 
-/** Bytes of a base64 STREAM (external href streams are not fetched). */
-function streamBytes(node: XmlNode, kind: string): Uint8Array {
+/** The content span of a base64 STREAM (null when empty); external href streams are not fetched. */
+function streamSpan(node: XmlNode, kind: string, spanOf: (node: unknown) => BulkSpan | null): BulkSpan | null {
   const stream = node.STREAM as XmlNode | string | undefined;
   const where = `${WHERE} ${kind}`;
   if (stream === undefined) throw new InputError([{ where, what: 'no STREAM element' }]);
@@ -317,39 +333,87 @@ function streamBytes(node: XmlNode, kind: string): Uint8Array {
   if (attr(s, 'href')) throw new InputError([{ where, what: `STREAM points to external data (${attr(s, 'href')})`, fix: 'download it and save the table with inline data' }]);
   const enc = attr(s, 'encoding') ?? 'base64';
   if (enc !== 'base64') throw new InputError([{ where, what: `STREAM encoding '${enc}' is not read`, fix: 'use base64 encoding' }]);
-  const decoded = decodeBase64(textOf(s));
-  if ('badAt' in decoded) throw new InputError([{ where, what: `STREAM has a character that is not base64 at position ${decoded.badAt}` }]);
-  return decoded.bytes;
+  return spanOf(s);
 }
 
-/** Visit the rows of a BINARY (v1) or BINARY2 stream; big-endian, variable sizes prefixed by a 4-byte count. */
-function binaryRows(bytes: Uint8Array, fields: FieldSpec[], withNullFlags: boolean, visit: (cells: Cell[], line: number) => void): void {
-  const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
-  const flagBytes = withNullFlags ? Math.ceil(fields.length / 8) : 0;
-  let p = 0;
-  let row = 0;
-  const need = (n: number) => {
-    if (p + n > bytes.length) {
-      throw new InputError([{ where: `${WHERE} ${withNullFlags ? 'BINARY2' : 'BINARY'} row ${row + 1}`, what: 'the stream ends inside this row', fix: 'the file is truncated or its FIELDs do not match the data' }]);
+function notBase64(where: string, badAt: number): InputError {
+  return new InputError([{ where, what: `STREAM has a character that is not base64 at position ${badAt}` }]);
+}
+
+/**
+ * The rows of a BINARY (v1) or BINARY2 stream, fed its decoded bytes a piece at a time (`push`, then `finish`);
+ * big-endian, variable sizes prefixed by a 4-byte count. A row is visited once all its bytes have arrived; bytes
+ * left over at the end are a row the stream ends inside (an error naming it).
+ */
+class BinaryRowReader {
+  private buf = new Uint8Array(1 << 16);
+  private start = 0;
+  private end = 0;
+  private row = 0;
+  private readonly flagBytes: number;
+
+  constructor(
+    private readonly fields: FieldSpec[],
+    private readonly withNullFlags: boolean,
+    private readonly visit: (cells: Cell[], line: number) => void,
+  ) {
+    this.flagBytes = withNullFlags ? Math.ceil(fields.length / 8) : 0;
+  }
+
+  /** Add decoded bytes and visit the rows they complete. */
+  push(bytes: Uint8Array): void {
+    if (this.end + bytes.length > this.buf.length) {
+      const keep = this.end - this.start;
+      const next = keep + bytes.length > this.buf.length ? new Uint8Array(2 * (keep + bytes.length)) : this.buf;
+      next.set(this.buf.subarray(this.start, this.end), 0);
+      this.buf = next;
+      this.start = 0;
+      this.end = keep;
     }
-  };
-  while (p < bytes.length) {
-    need(flagBytes);
-    const flagsAt = p;
-    p += flagBytes;
-    const cells: Cell[] = new Array(fields.length);
-    for (let c = 0; c < fields.length; c++) {
-      const f = fields[c];
-      let count = f.count;
-      if (count === null) { need(4); count = view.getUint32(p, false); p += 4; }
-      const size = f.datatype === 'bit' ? Math.ceil(count / 8) : ELEMENT_SIZE[f.datatype] * count;
-      need(size);
-      const isNull = withNullFlags && (bytes[flagsAt + (c >> 3)] & (0x80 >> (c & 7))) !== 0;
-      cells[c] = isNull ? null : binaryCell(view, bytes, p, count, f);
-      p += size;
+    this.buf.set(bytes, this.end);
+    this.end += bytes.length;
+    this.rows(false);
+  }
+
+  /** Visit the last rows; bytes that do not make a whole row are an error. */
+  finish(): void {
+    this.rows(true);
+  }
+
+  private rows(final: boolean): void {
+    const { fields, withNullFlags, flagBytes, buf } = this;
+    const view = new DataView(buf.buffer, buf.byteOffset, buf.byteLength);
+    const end = this.end;
+    let p = this.start;
+    const need = (n: number): boolean => {
+      if (p + n <= end) return true;
+      if (!final) return false;
+      throw new InputError([{ where: `${WHERE} ${withNullFlags ? 'BINARY2' : 'BINARY'} row ${this.row + 1}`, what: 'the stream ends inside this row', fix: 'the file is truncated or its FIELDs do not match the data' }]);
+    };
+    rows: while (p < end) {
+      const rowStart = p;
+      if (!need(flagBytes)) break;
+      const flagsAt = p;
+      p += flagBytes;
+      const cells: Cell[] = new Array(fields.length);
+      for (let c = 0; c < fields.length; c++) {
+        const f = fields[c];
+        let count = f.count;
+        if (count === null) {
+          if (!need(4)) { p = rowStart; break rows; }
+          count = view.getUint32(p, false);
+          p += 4;
+        }
+        const size = f.datatype === 'bit' ? Math.ceil(count / 8) : ELEMENT_SIZE[f.datatype] * count;
+        if (!need(size)) { p = rowStart; break rows; }
+        const isNull = withNullFlags && (buf[flagsAt + (c >> 3)] & (0x80 >> (c & 7))) !== 0;
+        cells[c] = isNull ? null : binaryCell(view, buf, p, count, f);
+        p += size;
+      }
+      this.row++;
+      this.visit(cells, this.row);
     }
-    row++;
-    visit(cells, row);
+    this.start = p;
   }
 }
 

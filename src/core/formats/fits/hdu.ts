@@ -3,7 +3,8 @@
  * data size = |BITPIX|/8 * GCOUNT * (PCOUNT + NAXIS1 * ... * NAXISn), padded to 2880-byte blocks.
  */
 import { InputError } from '../../result';
-import { FITS_BLOCK_BYTES, type FitsHeader, headerNumber, headerString, headerValue, readHeaderAt } from './header';
+import { FITS_BLOCK_BYTES, type FitsHeader, headerNumber, headerString, headerValue, readHeaderFrom } from './header';
+import { type ByteSource, bytesSource } from '../byteSource';
 
 /** One HDU: its header, where its data starts and how many data bytes it holds (before padding). */
 export interface FitsHdu {
@@ -36,22 +37,27 @@ export function axisLengths(header: FitsHeader, where: string): number[] {
 
 /** Every HDU of a FITS file, in order. Throws InputError (with the HDU and byte offset) when the structure is broken. */
 export function walkHdus(bytes: Uint8Array, where = 'FITS file'): FitsHdu[] {
-  const first = String.fromCharCode(...bytes.subarray(0, 30));
+  return walkHdusFrom(bytesSource(bytes), where);
+}
+
+/** `walkHdus` on a ByteSource (a file read a block at a time): only the headers are read. */
+export function walkHdusFrom(source: ByteSource, where = 'FITS file'): FitsHdu[] {
+  const first = String.fromCharCode(...source.read(0, 30));
   if (!/^SIMPLE  =\s+T/.test(first)) {
     throw new InputError([{ where, what: 'does not start with the card SIMPLE = T', fix: 'this is not a FITS file' }]);
   }
   const hdus: FitsHdu[] = [];
   let offset = 0;
-  while (offset < bytes.length) {
+  while (offset < source.length) {
     const index = hdus.length;
     const hduWhere = `${where}, HDU ${index}`;
-    if (offset + FITS_BLOCK_BYTES > bytes.length) {
-      if (String.fromCharCode(...bytes.subarray(offset, offset + 8)) === 'XTENSION') {
+    if (offset + FITS_BLOCK_BYTES > source.length) {
+      if (String.fromCharCode(...source.read(offset, 8)) === 'XTENSION') {
         throw new InputError([{ where: `${hduWhere}, header at byte ${offset}`, what: 'no END card before the end of the file (file truncated)', fix: 'check that the whole file was copied; FITS files are a multiple of 2880 bytes' }]);
       }
       break; // short trailing bytes that start no extension: ignored like padding
     }
-    const { header, dataOffset } = readHeaderAt(bytes, offset, hduWhere);
+    const { header, dataOffset } = readHeaderFrom(source, offset, hduWhere);
     const kind = index === 0 ? 'PRIMARY' : headerString(header, 'XTENSION')?.trim();
     if (kind === undefined) {
       if (index > 0) break; // trailing blocks that are not an extension (allowed "special records")
@@ -68,10 +74,10 @@ export function walkHdus(bytes: Uint8Array, where = 'FITS file'): FitsHdu[] {
     const gcount = headerNumber(header, 'GCOUNT') ?? 1;
     const elements = axes.length === 0 ? 0 : counted.reduce((a, b) => a * b, 1);
     const dataBytes = axes.length === 0 && pcount === 0 ? 0 : (Math.abs(bitpix) / 8) * gcount * (pcount + elements);
-    if (dataOffset + dataBytes > bytes.length) {
+    if (dataOffset + dataBytes > source.length) {
       throw new InputError([{
         where: hduWhere,
-        what: `header announces ${dataBytes} data bytes from byte ${dataOffset}, but the file has only ${bytes.length} bytes`,
+        what: `header announces ${dataBytes} data bytes from byte ${dataOffset}, but the file has only ${source.length} bytes`,
         fix: 'the file is truncated; copy it again',
       }]);
     }

@@ -4,6 +4,7 @@
  * Writing: fixed-format cards; text outside printable ASCII escaped as `\uXXXX` (see `escapeHeaderText`).
  */
 import { InputError } from '../../result';
+import { type ByteSource, bytesSource } from '../byteSource';
 
 export const FITS_BLOCK_BYTES = 2880;
 export const FITS_CARD_BYTES = 80;
@@ -114,10 +115,15 @@ export function bytesToLatin1(bytes: Uint8Array, start: number, end: number): st
  * its data (the block after END). Throws InputError when the header has no END card.
  */
 export function readHeaderAt(bytes: Uint8Array, offset: number, where: string): { header: FitsHeader; dataOffset: number } {
+  return readHeaderFrom(bytesSource(bytes), offset, where);
+}
+
+/** `readHeaderAt` on a ByteSource (a file read a block at a time): the same header, data offset and errors. */
+export function readHeaderFrom(source: ByteSource, offset: number, where: string): { header: FitsHeader; dataOffset: number } {
   const cards: FitsCard[] = [];
   const values = new Map<string, FitsValue>();
-  for (let block = offset; block + FITS_BLOCK_BYTES <= bytes.length; block += FITS_BLOCK_BYTES) {
-    const text = bytesToLatin1(bytes, block, block + FITS_BLOCK_BYTES);
+  for (let block = offset; block + FITS_BLOCK_BYTES <= source.length; block += FITS_BLOCK_BYTES) {
+    const text = bytesToLatin1(source.read(block, FITS_BLOCK_BYTES), 0, FITS_BLOCK_BYTES);
     for (let c = 0; c < CARDS_PER_BLOCK; c++) {
       const raw = text.slice(c * FITS_CARD_BYTES, (c + 1) * FITS_CARD_BYTES);
       if (raw.startsWith('END') && raw.slice(3).trim() === '') {
