@@ -11,7 +11,7 @@
  */
 import type { MaskPointing, Slit, SlitRole } from '../geometry/maskSolution';
 import { skyToTangentArcsec, tangentCentre, tangentToSkyDeg } from '../sky/tangentPlane';
-import { skyToMaskArcsec } from '../sky/frames';
+import { maskTurn, skyToMaskTurned, type MaskTurn } from '../sky/frames';
 import { altitudeDeg } from './horizon';
 import { parallacticAngleDeg } from './parallactic';
 import { hardieAirmass } from './airmass';
@@ -129,6 +129,8 @@ export interface MaskRefractionContext {
   cosLat: number;
   centreSinDec: number;
   centreCosDec: number;
+  /** Sine and cosine of the mask PA (sky to mask frame). */
+  turn: MaskTurn;
   slits: SlitGeometry[];
   /**
    * Window-role slits' image x at hour angles already asked for (windowImagesAt), shared by the contexts of one slit
@@ -154,7 +156,7 @@ function liftPerUnitRefractivity(ctx: MaskRefractionContext, haDeg: number, sinD
 function centreLift(ctx: MaskRefractionContext, haH: number): { xArcsec: number; yArcsec: number } | null {
   const u = liftPerUnitRefractivity(ctx, haH * 15, ctx.centreSinDec, ctx.centreCosDec);
   if (!u) return null;
-  return skyToMaskArcsec(ctx.kArcsec.guide * u[0], ctx.kArcsec.guide * u[1], ctx.input.mask.paDeg);
+  return skyToMaskTurned(ctx.kArcsec.guide * u[0], ctx.kArcsec.guide * u[1], ctx.turn);
 }
 
 /** Image displacement (mask frame, arcsec) of a slit's target at refraction constant k, relative to the guided centre. */
@@ -185,12 +187,13 @@ export function maskRefractionContext(input: MaskRefractionInput): MaskRefractio
     kArcsec: { guide: k(s.guideWavelengthA), design: k(s.designWavelengthA ?? s.guideWavelengthA), blue: k(s.scienceRangeA[0]), red: k(s.scienceRangeA[1]) },
     sinLat: PMath.sin(input.latDeg * RAD_PER_DEG), cosLat: PMath.cos(input.latDeg * RAD_PER_DEG),
     centreSinDec: PMath.sin(input.mask.decDeg * RAD_PER_DEG), centreCosDec: PMath.cos(input.mask.decDeg * RAD_PER_DEG),
+    turn: maskTurn(input.mask.paDeg),
     slits: [], imagesByHour: new Map(),
   };
   const maskCentre = tangentCentre(input.mask.raDeg, input.mask.decDeg);
   const toMask = (p: { raDeg: number; decDeg: number }) => {
     const t = skyToTangentArcsec(maskCentre, p.raDeg, p.decDeg)!;
-    return skyToMaskArcsec(t.xiArcsec, t.etaArcsec, input.mask.paDeg);
+    return skyToMaskTurned(t.xiArcsec, t.etaArcsec, ctx.turn);
   };
   const eps = 1;
   const c0 = designCentreLift(ctx, input.designHourAngleH);

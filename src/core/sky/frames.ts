@@ -19,7 +19,20 @@ export interface GalaxyPointArcsec {
 
 /** Sky (xi East, eta North) to mask frame at paDeg: y = xi sinPA + eta cosPA, x = xi cosPA - eta sinPA (arcsec). */
 export function skyToMaskArcsec(xiArcsec: number, etaArcsec: number, paDeg: number): MaskPointArcsec {
-  const s = PMath.sin(paDeg * RAD_PER_DEG), c = PMath.cos(paDeg * RAD_PER_DEG);
+  return skyToMaskTurned(xiArcsec, etaArcsec, maskTurn(paDeg));
+}
+
+/** Sine and cosine of a mask PA (degrees East of North), made once for many skyToMaskTurned calls. */
+export interface MaskTurn { sinPa: number; cosPa: number }
+
+/** The turn of skyToMaskArcsec for mask PA paDeg. */
+export function maskTurn(paDeg: number): MaskTurn {
+  return { sinPa: PMath.sin(paDeg * RAD_PER_DEG), cosPa: PMath.cos(paDeg * RAD_PER_DEG) };
+}
+
+/** skyToMaskArcsec with the PA's sine and cosine made once (the same bits). */
+export function skyToMaskTurned(xiArcsec: number, etaArcsec: number, turn: MaskTurn): MaskPointArcsec {
+  const s = turn.sinPa, c = turn.cosPa;
   return { xArcsec: xiArcsec * c - etaArcsec * s, yArcsec: xiArcsec * s + etaArcsec * c };
 }
 

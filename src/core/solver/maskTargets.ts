@@ -2,7 +2,7 @@
  * Targets projected into a mask's frame: gnomonic projection about the mask centre (xi East, eta North, arcsec),
  * then rotated by the mask PA into (x along dispersion, y along slits) exactly as the contract's mask frame.
  */
-import { skyToMaskArcsec, maskToSkyArcsec } from '../sky/frames';
+import { maskToSkyArcsec, maskTurn, skyToMaskTurned } from '../sky/frames';
 import { skyToTangentArcsec, tangentCentre, tangentToSkyDeg } from '../sky/tangentPlane';
 import type { MaskPointing } from '../geometry/maskSolution';
 import { ARCSEC_PER_RAD, RAD_PER_DEG } from '../sky/angles';
@@ -16,11 +16,11 @@ export function projectToMaskArcsec(
 ): { xArcsec: Float64Array; yArcsec: Float64Array } {
   const n = raDeg.length;
   const xArcsec = new Float64Array(n), yArcsec = new Float64Array(n);
-  const centre = tangentCentre(mask.raDeg, mask.decDeg);
+  const centre = tangentCentre(mask.raDeg, mask.decDeg), turn = maskTurn(mask.paDeg);
   for (let i = 0; i < n; i++) {
     const t = skyToTangentArcsec(centre, raDeg[i], decDeg[i]);
     if (!t) { xArcsec[i] = NaN; yArcsec[i] = NaN; continue; }
-    const m = skyToMaskArcsec(t.xiArcsec, t.etaArcsec, mask.paDeg);
+    const m = skyToMaskTurned(t.xiArcsec, t.etaArcsec, turn);
     xArcsec[i] = m.xArcsec;
     yArcsec[i] = m.yArcsec;
   }
