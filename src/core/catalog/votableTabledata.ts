@@ -69,8 +69,23 @@ export class TabledataScanner {
       return fail(offset, what);
     };
     let pos = 0;
+    // The tags most rows are made of, read without scanning for '>' (what readTag gives for them).
+    const OPEN_TR = { name: 'TR', closing: false, selfClosing: false, end: 0 };
+    const OPEN_TD = { name: 'TD', closing: false, selfClosing: false, end: 0 };
+    const CLOSE_TR = { name: 'TR', closing: true, selfClosing: false, end: 0 };
+    const CLOSE_TD = { name: 'TD', closing: true, selfClosing: false, end: 0 };
     /** Read the tag at `lt` (content[lt] === '<'): local name, closing or self-closing, and the offset after '>'. */
     const readTag = (lt: number) => {
+      if (content.charCodeAt(lt + 1) === 0x2f) {
+        if (content.startsWith('</TD>', lt)) { CLOSE_TD.end = lt + 5; return CLOSE_TD; }
+        if (content.startsWith('</TR>', lt)) { CLOSE_TR.end = lt + 5; return CLOSE_TR; }
+      } else {
+        if (content.startsWith('<TD>', lt)) { OPEN_TD.end = lt + 4; return OPEN_TD; }
+        if (content.startsWith('<TR>', lt)) { OPEN_TR.end = lt + 4; return OPEN_TR; }
+      }
+      return readAnyTag(lt);
+    };
+    const readAnyTag = (lt: number) => {
       const gt = content.indexOf('>', lt);
       if (gt < 0) failOrMore(Infinity, lt, 'a tag is not closed with >');
       const closing = content.charCodeAt(lt + 1) === 0x2f;
