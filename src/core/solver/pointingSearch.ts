@@ -276,8 +276,8 @@ export function searchPointings(env: SearchEnv, start: readonly MaskPointing[], 
   const copy = (st: SearchState): SearchState => ({ ...st, plane: st.plane.slice(), pointings: st.pointings.slice(), proxies: st.proxies.slice(), chosen: st.chosen.slice(), tallies: st.tallies.slice() });
   /**
    * Evaluate moving mask m to pp: the moved mask re-solved exactly with the others fixed (null when off the field).
-   * With `onlyIfBetter`, null also when the move cannot be better than st even with every starlight bin the mask can
-   * reach and every sector held (starlightCeiling): the mask's starlight estimate, the costly part of its tally, is then
+   * With `onlyIfBetter`, null also when the move cannot be better than st even with the most starlight the mask could
+   * add (proxyStarlightCeiling, starlightCeiling): the mask's starlight estimate, the costly part of its tally, is then
    * not made.
    */
   const trial = (st: SearchState, m: number, pp: PlanePointing, onlyIfBetter = false): MoveTrial | null => {
