@@ -7,10 +7,10 @@
  * the mask centre (positive West), angles in degrees. Meant for the pointing search of free masks: it weighs a PA
  * against the light it loses, so the result is small where the PA follows the parallactic angle through the window.
  */
-import { differentialRefractionArcsec } from './refraction';
+import { refractionArcsec } from './refraction';
 import { parallacticAngleDeg } from './parallactic';
 import { altitudeDeg } from './horizon';
-import type { AirConditions } from './refractiveIndex';
+import { edlenRefractivity, type AirConditions } from './refractiveIndex';
 import { PMath } from '../numeric/portableMath';
 
 export interface PaRefractionInput {
@@ -55,11 +55,13 @@ function windowSamples(input: PaRefractionInput): WindowSamples | null {
   const hit = sampleCache.get(key);
   if (hit !== undefined) return hit;
   let out: WindowSamples | null = { spreadArcsec: new Float64Array(n), qDeg: new Float64Array(n) };
+  // differentialRefractionArcsec at each sample, its refractivity difference (independent of the zenith distance) made once.
+  const dRefractivity = edlenRefractivity(input.scienceRangeA[0], input.air) - edlenRefractivity(input.scienceRangeA[1], input.air);
   for (let i = 0; i < n; i++) {
     const haDeg = (h0 + ((h1 - h0) * i) / (n - 1)) * 15;
     const alt = altitudeDeg(haDeg, input.decDeg, input.latDeg);
     if (!(alt > 0)) { out = null; break; }
-    out.spreadArcsec[i] = Math.abs(differentialRefractionArcsec(90 - alt, input.scienceRangeA[0], input.scienceRangeA[1], input.air));
+    out.spreadArcsec[i] = Math.abs(refractionArcsec(90 - alt, dRefractivity));
     out.qDeg[i] = parallacticAngleDeg(haDeg, input.decDeg, input.latDeg);
   }
   if (sampleCache.size >= 512) sampleCache.clear();

@@ -111,6 +111,19 @@ export function mergeTallies(ctx: ObjectiveContext, tallies: readonly Tally[]): 
   return out;
 }
 
+/**
+ * A copy of tally t with up to maxSlits starlight slits of R/Re <= maxRe added where they count most: each in an empty
+ * starlight bin (up to maxRe) and an empty sector, the reach raised to maxRe. J of it bounds J of t with any maxSlits
+ * such slits added (the starlight terms count held bins and sectors and cap the reach; coefficients >= 0).
+ */
+export function starlightCeiling(t: Tally, maxRe: number, maxSlits: number): Tally {
+  const bins = t.starlightBins.slice(), sectors = t.starlightSectors.slice();
+  if (maxSlits <= 0) return { ...t, starlightBins: bins, starlightSectors: sectors };
+  for (let b = 0, left = maxSlits; b < bins.length && b <= maxRe && left > 0; b++) if (bins[b] === 0) { bins[b] = 1; left--; }
+  for (let k = 0, left = maxSlits; k < sectors.length && left > 0; k++) if (sectors[k] === 0) { sectors[k] = 1; left--; }
+  return { ...t, starlightBins: bins, starlightSectors: sectors, starlightReachRe: Math.max(t.starlightReachRe, maxRe) };
+}
+
 /** The objective's terms and total for a merged tally. */
 export interface ObjectiveValue {
   total: number;

@@ -36,8 +36,8 @@ import { galaxyRadiusAndAzimuth } from '../sky/galaxyRadius';
 import { alignmentCapacity, allocateForPointings, type PointingsAllocation } from './allocateMasks';
 import { solveIntervalIndex } from './intervalScheduling';
 import { allocateGreedyMaskByMask, improveByBestResponse, resolveOneMask, type JointProblem, type MaskCandidateSet } from './jointAllocation';
-import { chooseSlots, freeSlots, galaxyOnMask, type RowSpan } from './starlight';
-import { addStarlight, addTracer, emptyTally, mergeTallies, objectiveValue, type ObjectiveValue, type Tally } from './objective';
+import { chooseSlots, freeSlots, galaxyOnMask, starlightRadiusCeilingRe, type GalaxyOnMask, type RowSpan, type Span } from './starlight';
+import { addStarlight, addTracer, emptyTally, mergeTallies, objectiveValue, starlightCeiling, type ObjectiveValue, type Tally } from './objective';
 import type { SearchRules } from '../plan/searchSection';
 import { makeRng } from '../numeric/random';
 import type { MaskPointing, MaskSolution } from '../geometry/maskSolution';
@@ -249,6 +249,9 @@ export function searchPointings(env: SearchEnv, start: readonly MaskPointing[], 
   // Keep the mask over the galaxy's field: its centre within tracerReachRe (semi-major) + half the footprint's diagonal.
   const maxCentreArcsec = (env.objective.tracerReachRe * g.reArcsec) / Math.sqrt(g.axisRatio) + halfDiag;
   let evaluations = 0, accepted = 0;
+  // starlightCeiling bounds J only with non-negative coverage coefficients (the plan schema's rule).
+  const ow = env.objective.weights;
+  const ceilingBounds = env.objective.unitWeight >= 0 && ow.aStarlightBin >= 0 && ow.aStarlightSector >= 0 && ow.aStarlightReach >= 0;
 
   const toPointing = (m: number, pp: PlanePointing): MaskPointing => {
     const sky = tangentToSkyDeg(gc, pp.xi, pp.eta);
@@ -271,8 +274,13 @@ export function searchPointings(env: SearchEnv, start: readonly MaskPointing[], 
   // good on tracer weight and capped tracer reach (the final comparison with the fully allocated cross settles it).
   let floor: CrossFloor | null = null;
   const copy = (st: SearchState): SearchState => ({ ...st, plane: st.plane.slice(), pointings: st.pointings.slice(), proxies: st.proxies.slice(), chosen: st.chosen.slice(), tallies: st.tallies.slice() });
-  /** Evaluate moving mask m to pp: the moved mask re-solved exactly with the others fixed (null when off the field). */
-  const trial = (st: SearchState, m: number, pp: PlanePointing): MoveTrial | null => {
+  /**
+   * Evaluate moving mask m to pp: the moved mask re-solved exactly with the others fixed (null when off the field).
+   * With `onlyIfBetter`, null also when the move cannot be better than st even with the most starlight the mask could
+   * add (proxyStarlightCeiling, starlightCeiling): the mask's starlight estimate, the costly part of its tally, is then
+   * not made.
+   */
+  const trial = (st: SearchState, m: number, pp: PlanePointing, onlyIfBetter = false): MoveTrial | null => {
     if (PMath.hypot(pp.xi, pp.eta) > maxCentreArcsec) return null;
     evaluations++;
     const pointing = toPointing(m, pp);
@@ -282,9 +290,18 @@ export function searchPointings(env: SearchEnv, start: readonly MaskPointing[], 
     const short = st.short - shortOf(st.proxies[m]) + shortOf(prox);
     if (short > st.short) return { m, pp, pointing, prox, chosen: st.chosen, tally: st.tallies[m], value: -Infinity, short, deficit: Infinity };
     const chosen = resolveOneMask(problemOf(next), st.chosen.map((c, i) => (i === m ? [] : c)), m);
-    const tally = proxyTally(env, pointing, prox, chosen[m]);
+    const tally = proxyTracerTally(env, pointing, prox, chosen[m]);
     const tallies = st.tallies.slice();
     tallies[m] = tally;
+    const om = proxyStarlightGalaxy(env, pointing);
+    const slots = om ? proxyFreeSlots(env, pointing, prox, chosen[m]) : [];
+    if (om && onlyIfBetter && ceilingBounds) {
+      // The tracer terms, the deficit and the shortfall are final; the starlight terms can only rise to the ceiling.
+      const most = proxyStarlightCeiling(env, pointing, om, slots);
+      const ceiling = objectiveValue(env.objective, starlightCeiling(mergeTallies(env.objective, tallies), most.maxRe, most.slits));
+      if (!better({ short, value: ceiling.total, deficit: crossDeficit(floor, ceiling, env.objective.tracerReachRe) }, st)) return null;
+    }
+    if (om) addProxyStarlight(env, pointing, om, slots, tally);
     const v = objectiveValue(env.objective, mergeTallies(env.objective, tallies));
     return { m, pp, pointing, prox, chosen, tally, value: v.total, short, deficit: crossDeficit(floor, v, env.objective.tracerReachRe) };
   };
@@ -299,7 +316,7 @@ export function searchPointings(env: SearchEnv, start: readonly MaskPointing[], 
     accepted++;
   };
   const tryMove = (st: SearchState, m: number, pp: PlanePointing): boolean => {
-    const t = trial(st, m, pp);
+    const t = trial(st, m, pp, true);
     if (!t || !better(t, st)) return false;
     commit(st, t);
     return true;
@@ -494,6 +511,14 @@ export function dominatesCross(v: ObjectiveValue, cross: ObjectiveValue, goalRe:
 
 /** Tally of one proxy mask with a selection: its tracers, and its starlight slits estimated on the free space. */
 function proxyTally(planEnv: SearchEnv, pointing: MaskPointing, p: ProxyMask, chosenK: readonly number[]): Tally {
+  const t = proxyTracerTally(planEnv, pointing, p, chosenK);
+  const om = proxyStarlightGalaxy(planEnv, pointing);
+  if (om) addProxyStarlight(planEnv, pointing, om, proxyFreeSlots(planEnv, pointing, p, chosenK), t);
+  return t;
+}
+
+/** proxyTally without the starlight estimate: the selection's tracers and the mask's refraction loss. */
+function proxyTracerTally(planEnv: SearchEnv, pointing: MaskPointing, p: ProxyMask, chosenK: readonly number[]): Tally {
   const env = envFor(planEnv, pointing);
   const t = emptyTally(env.objective);
   const { ctx } = env;
@@ -502,17 +527,52 @@ function proxyTally(planEnv: SearchEnv, pointing: MaskPointing, p: ProxyMask, ch
     addTracer(t, p.set.values ? p.set.values[k] : ctx.weights[o], env.radiusRe[o], targetAzimuthDeg(env, o));
   }
   if (env.refractionLoss) t.refractionLossWeight = t.yieldWeight * env.refractionLoss(pointing);
-  if (env.starlight.reachRe <= 0) return t;
+  return t;
+}
+
+/** The galaxy on the mask when the proxy's starlight estimate can place a slit there; null when no starlight is possible. */
+function proxyStarlightGalaxy(planEnv: SearchEnv, pointing: MaskPointing): GalaxyOnMask | null {
+  const env = envFor(planEnv, pointing);
+  if (env.starlight.reachRe <= 0) return null;
+  const { ctx } = env;
   const g = ctx.galaxy;
   const om = galaxyOnMask(pointing, g, env.bn);
   const b = polygonBounds(ctx.profile.footprint);
   const halfDiag = PMath.hypot(Math.max(-b.minX, b.maxX), Math.max(-b.minY, b.maxY));
   // No starlight possible when even the nearest footprint point lies beyond the reach (R >= sqrt(q) x distance).
-  if (Math.sqrt(g.axisRatio) * (PMath.hypot(om.gxArcsec, om.gyArcsec) - halfDiag) > env.starlight.reachRe * g.reArcsec) return t;
+  if (Math.sqrt(g.axisRatio) * (PMath.hypot(om.gxArcsec, om.gyArcsec) - halfDiag) > env.starlight.reachRe * g.reArcsec) return null;
+  return om;
+}
+
+/** The proxy's starlight slots (mask y, arcsec): the free space between the selection's minimal tracer slits (freeSlots). */
+function proxyFreeSlots(planEnv: SearchEnv, pointing: MaskPointing, p: ProxyMask, chosenK: readonly number[]): Span[] {
+  const env = envFor(planEnv, pointing);
+  const { ctx } = env;
   const L = ctx.profile.slits.minLengthArcsec;
   const rows: RowSpan[] = chosenK.map((k) => ({ role: 'tracer' as const, yArcsec: p.y[k], lenBelowArcsec: L / 2, lenAboveArcsec: L / 2, widthArcsec: ctx.profile.slits.widthArcsec, tiltDeg: 0 }));
-  const slots = freeSlots(rows, ctx.rules, ctx.profile.slits.gapArcsec, env.starlight.slitLengthArcsec);
+  return freeSlots(rows, ctx.rules, ctx.profile.slits.gapArcsec, env.starlight.slitLengthArcsec);
+}
+
+/** Add to t the starlight slits the proxy estimate chooses in the slots (chooseSlots: one sample, a 25" x grid, no sky slits). */
+function addProxyStarlight(planEnv: SearchEnv, pointing: MaskPointing, om: GalaxyOnMask, slots: readonly Span[], t: Tally): void {
+  const env = envFor(planEnv, pointing);
+  const { ctx } = env;
   const { starlight } = chooseSlots(om, ctx.rules, slots, { ...env.starlight, skyPerMask: 0 }, new Set(), 1, 25, ctx.profile.slits.gapArcsec);
   for (const c of starlight) addStarlight(t, c.rRe, c.azimuthDeg);
-  return t;
+}
+
+/**
+ * The most starlight slits, and the largest R/Re (starlightRadiusCeilingRe), addProxyStarlight can add from the slots:
+ * a chosen slot or joined window reaches the galaxy (evaluateSlot: sqrt(q) |y - gy| <= maxRe x Re at its centre y), and
+ * each holds a slot of its own whose centre lies within half the longest window of its centre, so at most one slit per
+ * slot within that band, and at most maxPerMask.
+ */
+function proxyStarlightCeiling(planEnv: SearchEnv, pointing: MaskPointing, om: GalaxyOnMask, slots: readonly Span[]): { slits: number; maxRe: number } {
+  const env = envFor(planEnv, pointing);
+  const s = env.starlight, g = om.galaxy, sq = Math.sqrt(g.axisRatio);
+  const longest = Math.max(s.slitLengthArcsec, s.maxSlitLengthArcsec) + 1e-9;
+  const band = (s.maxRe * g.reArcsec + sq * longest / 2) * (1 + 1e-9) + 1e-9;
+  let slits = 0;
+  for (const sp of slots) if (sq * Math.abs(0.5 * (sp.lo + sp.hi) - om.gyArcsec) <= band) slits++;
+  return { slits: Math.min(slits, s.maxPerMask), maxRe: starlightRadiusCeilingRe(om, env.ctx.rules.widthArcsec, s) };
 }

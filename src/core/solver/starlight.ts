@@ -293,6 +293,19 @@ function snLimitRadiusArcsec(g: GalaxyOnMask, lengthArcsec: number, widthArcsec:
   return limit;
 }
 
+/**
+ * An upper bound of the R/Re of every starlight option evaluateSlot gives on any slot at most
+ * max(slitLength, maxSlitLength) long (the slots and joined windows of chooseSlots): its S/N limit radius test, at the
+ * longest length (the limit never falls as a slit lengthens), plus half that length's reach, and at most maxRe.
+ */
+export function starlightRadiusCeilingRe(g: GalaxyOnMask, widthArcsec: number, s: StarlightSettings): number {
+  const longest = Math.max(s.slitLengthArcsec, s.maxSlitLengthArcsec) + 1e-9;
+  const limit = snLimitRadiusArcsec(g, Math.ceil(longest / LIMIT_LENGTH_STEP_ARCSEC) * LIMIT_LENGTH_STEP_ARCSEC, widthArcsec, s);
+  const q = g.galaxy.axisRatio, slope = Math.max(Math.sqrt(q), 1 / Math.sqrt(q));
+  // evaluateSlot's own test with a further 0.1 % against the bisection's tolerance.
+  return Math.min(s.maxRe, ((limit * 1.001 + 1e-6) * 1.001 + 0.5 * longest * slope) / g.galaxy.reArcsec);
+}
+
 /** A position on a slot's line: mask x, circularised radius (Re and arcsec) and galaxy-frame offset (u, v) arcsec. */
 interface Spot { x: number; rRe: number; rArcsec: number; u: number; v: number }
 
