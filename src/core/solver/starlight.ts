@@ -410,28 +410,23 @@ export function starlightWindows(slots: readonly Span[], gapArcsec: number, maxL
 export function chooseSlots(g: GalaxyOnMask, rules: EligibilityRules, slots: readonly Span[], s: StarlightSettings, cellsTaken: Set<string>, samples = 3, stepArcsec = 6, gapArcsec = 0): { starlight: SlotChoice[]; sky: SlotChoice[] } {
   const evals = slots.map((slot) => evaluateSlot(g, rules, slot, s, samples, stepArcsec));
   const windows = s.maxSlitLengthArcsec > s.slitLengthArcsec && s.reachRe > 0 ? starlightWindows(slots, gapArcsec, s.maxSlitLengthArcsec) : slots.map((sp, i) => ({ span: sp, slots: [i] }));
-  const noSky = { ...s, skyPerMask: 0 };
-  const options = windows.map((w) => (w.slots.length === 1 ? evals[w.slots[0]].options : evaluateSlot(g, rules, w.span, noSky, samples, stepArcsec).options));
-  // Each option's coverage cell, made once rather than once per option per slit chosen.
-  const cells = options.map((list) => list.map((o) => starlightCell(o.rRe, o.azimuthDeg)));
+  const options = windows.map((w) => (w.slots.length === 1 ? evals[w.slots[0]].options : evaluateSlot(g, rules, w.span, { ...s, skyPerMask: 0 }, samples, stepArcsec).options));
   const used = new Set<number>();
   const starlight: SlotChoice[] = [];
   while (starlight.length < s.maxPerMask) {
-    let best = -1, bestScore = -Infinity, bestC: SlotChoice | null = null, bestCell = '';
-    for (let i = 0; i < windows.length; i++) {
-      const w = windows[i];
-      if (w.slots.some((k) => used.has(k))) continue;
-      const list = options[i];
-      for (let j = 0; j < list.length; j++) {
-        const o = list[j];
-        const score = (cellsTaken.has(cells[i][j]) ? 0 : 1000) + o.rRe - 0.25 * (w.slots.length - 1);
-        if (score > bestScore) { bestScore = score; best = i; bestC = o; bestCell = cells[i][j]; }
+    let best = -1, bestScore = -Infinity, bestC: SlotChoice | null = null;
+    windows.forEach((w, i) => {
+      if (w.slots.some((k) => used.has(k))) return;
+      for (const o of options[i]) {
+        const score = (cellsTaken.has(starlightCell(o.rRe, o.azimuthDeg)) ? 0 : 1000) + o.rRe - 0.25 * (w.slots.length - 1);
+        if (score > bestScore) { bestScore = score; best = i; bestC = o; }
       }
-    }
+    });
     if (best < 0 || !bestC) break;
     for (const k of windows[best].slots) used.add(k);
-    cellsTaken.add(bestCell);
-    starlight.push(bestC);
+    const c: SlotChoice = bestC;
+    cellsTaken.add(starlightCell(c.rRe, c.azimuthDeg));
+    starlight.push(c);
   }
   const skyOrder = evals.map((e, i) => ({ e, i })).filter(({ e, i }) => e.sky && !used.has(i)).sort((a, b) => b.e.sky!.rRe - a.e.sky!.rRe || a.i - b.i);
   const sky = skyOrder.slice(0, s.skyPerMask).map(({ e }) => e.sky!);
