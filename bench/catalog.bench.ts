@@ -69,14 +69,59 @@ function inventedTable(rows: number): OutputTable {
   };
 }
 
-/** Write the invented rows as a FITS binary table and a VOTable TABLEDATA document with the project's writers. */
-async function writeTableFiles(fitsPath: string, votablePath: string, rows: number): Promise<void> {
+/**
+ * The invented rows as a VOTable BINARY2 document (built here: the project writes TABLEDATA only): string columns as
+ * char arraysize="*", float64 columns as double, a null as the row's null flag.
+ */
+async function binary2Document(table: OutputTable): Promise<string> {
+  const { encodeBase64 } = await import('../src/core/formats/base64');
+  const flagBytes = Math.ceil(table.columns.length / 8);
+  let out = new Uint8Array(1 << 20);
+  let n = 0;
+  const room = (k: number) => {
+    if (n + k <= out.length) return;
+    const next = new Uint8Array(2 * (n + k));
+    next.set(out.subarray(0, n));
+    out = next;
+  };
+  const dv = new DataView(new ArrayBuffer(8));
+  for (const r of table.rows) {
+    room(flagBytes + 64);
+    const flagsAt = n;
+    out.fill(0, n, n + flagBytes);
+    n += flagBytes;
+    table.columns.forEach((c, j) => {
+      const cell = r[j];
+      if (cell === null) out[flagsAt + (j >> 3)] |= 0x80 >> (j & 7);
+      if (c.datatype === 'string') {
+        const s = cell === null ? '' : String(cell);
+        room(4 + s.length);
+        dv.setUint32(0, s.length);
+        out.set(new Uint8Array(dv.buffer, 0, 4), n);
+        n += 4;
+        for (let i = 0; i < s.length; i++) out[n++] = s.charCodeAt(i);
+      } else {
+        dv.setFloat64(0, cell === null ? NaN : Number(cell));
+        out.set(new Uint8Array(dv.buffer, 0, 8), n);
+        n += 8;
+      }
+    });
+  }
+  const fields = table.columns.map((c) => (c.datatype === 'string' ? `<FIELD name="${c.name}" datatype="char" arraysize="*"/>`
+    : `<FIELD name="${c.name}" datatype="double"${c.unit ? ` unit="${c.unit}"` : ''}/>`)).join('\n');
+  return `<?xml version="1.0" encoding="UTF-8"?>\n<VOTABLE version="1.4"><RESOURCE><TABLE name="${table.name}">\n${fields}\n`
+    + `<DATA><BINARY2><STREAM encoding="base64">\n${encodeBase64(out.subarray(0, n))}\n</STREAM></BINARY2></DATA></TABLE></RESOURCE></VOTABLE>\n`;
+}
+
+/** Write the invented rows as a FITS binary table and a VOTable TABLEDATA document (the project's writers), and as BINARY2. */
+async function writeTableFiles(fitsPath: string, votablePath: string, rows: number, binary2Path?: string): Promise<void> {
   const { writeFitsTable } = await import('../src/core/export/fitsWriter');
   const { writeVoTable } = await import('../src/core/export/votableWriter');
   const { writeFileSync } = await import('node:fs');
   const table = inventedTable(rows);
   writeFileSync(fitsPath, writeFitsTable(table));
   writeFileSync(votablePath, writeVoTable(table));
+  if (binary2Path) writeFileSync(binary2Path, await binary2Document(table));
 }
 
 /** Child mode: read the file one way and print time, peak RSS and counts as JSON. */
@@ -135,7 +180,8 @@ export default async function bench(): Promise<void> {
     writeCatalog(quotedPath, ROWS, true);
     const fitsPath = join(dir, 'catalog-1m.fits');
     const votablePath = join(dir, 'catalog-1m.vot');
-    const w = spawnSync(process.execPath, [resolve('bin/run-ts.js'), resolve('bench/catalog.bench.ts'), TABLES_FLAG, fitsPath, votablePath, String(ROWS)], { encoding: 'utf8' });
+    const binary2Path = join(dir, 'catalog-1m-binary2.vot');
+    const w = spawnSync(process.execPath, [resolve('bin/run-ts.js'), resolve('bench/catalog.bench.ts'), TABLES_FLAG, fitsPath, votablePath, String(ROWS), binary2Path], { encoding: 'utf8' });
     if (w.status !== 0) throw new Error(`writing the FITS and VOTable files failed: ${w.stderr}`);
     const stream = runChild('stream', path);
     const memory = runChild('memory', path);
@@ -143,6 +189,7 @@ export default async function bench(): Promise<void> {
     const tables = [
       { label: 'FITS', path: fitsPath, stream: runChild('stream', fitsPath), memory: runChild('memory', fitsPath) },
       { label: 'VOTable', path: votablePath, stream: runChild('stream', votablePath), memory: runChild('memory', votablePath) },
+      { label: 'VOTable BINARY2', path: binary2Path, stream: runChild('stream', binary2Path), memory: runChild('memory', binary2Path) },
     ];
     for (const r of [stream, memory, quoted, ...tables.flatMap((t) => [t.stream, t.memory])]) {
       if (r.rowsRead !== ROWS || r.used !== ROWS) throw new Error(`the reader read ${r.rowsRead} rows, used ${r.used}`);
@@ -180,6 +227,9 @@ export default async function bench(): Promise<void> {
 }
 
 const tablesFlag = process.argv.indexOf(TABLES_FLAG);
-if (tablesFlag >= 0) await writeTableFiles(process.argv[tablesFlag + 1], process.argv[tablesFlag + 2], Number(process.argv[tablesFlag + 3] ?? ROWS));
+if (tablesFlag >= 0) {
+  const [fitsPath, votablePath, rows, binary2Path] = process.argv.slice(tablesFlag + 1);
+  await writeTableFiles(fitsPath, votablePath, Number(rows ?? ROWS), binary2Path);
+}
 const flag = process.argv.indexOf(CHILD_FLAG);
 if (flag >= 0) await child(process.argv[flag + 1], process.argv[flag + 2]);
