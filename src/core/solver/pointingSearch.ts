@@ -36,7 +36,7 @@ import { galaxyRadiusAndAzimuth } from '../sky/galaxyRadius';
 import { alignmentCapacity, allocateForPointings, type PointingsAllocation } from './allocateMasks';
 import { solveIntervalIndex } from './intervalScheduling';
 import { allocateGreedyMaskByMask, improveByBestResponse, resolveOneMask, type JointProblem, type MaskCandidateSet } from './jointAllocation';
-import { chooseSlots, freeSlots, galaxyOnMask, starlightRadiusCeilingRe, type GalaxyOnMask, type RowSpan, type Span } from './starlight';
+import { chooseSlots, freeSlotsOfTracers, galaxyOnMask, starlightRadiusCeilingRe, type GalaxyOnMask, type Span } from './starlight';
 import { addStarlight, addTracer, emptyTally, mergeTallies, objectiveValue, starlightCeiling, type ObjectiveValue, type Tally } from './objective';
 import type { SearchRules } from '../plan/searchSection';
 import { makeRng } from '../numeric/random';
@@ -549,8 +549,7 @@ function proxyFreeSlots(planEnv: SearchEnv, pointing: MaskPointing, p: ProxyMask
   const env = envFor(planEnv, pointing);
   const { ctx } = env;
   const L = ctx.profile.slits.minLengthArcsec;
-  const rows: RowSpan[] = chosenK.map((k) => ({ role: 'tracer' as const, yArcsec: p.y[k], lenBelowArcsec: L / 2, lenAboveArcsec: L / 2, widthArcsec: ctx.profile.slits.widthArcsec, tiltDeg: 0 }));
-  return freeSlots(rows, ctx.rules, ctx.profile.slits.gapArcsec, env.starlight.slitLengthArcsec);
+  return freeSlotsOfTracers(p.y, chosenK, L / 2, ctx.profile.slits.widthArcsec, ctx.rules, ctx.profile.slits.gapArcsec, env.starlight.slitLengthArcsec);
 }
 
 /** Add to t the starlight slits the proxy estimate chooses in the slots (chooseSlots: one sample, a 25" x grid, no sky slits). */

@@ -138,10 +138,22 @@ export function galaxyOnMask(mask: { raDeg: number; decDeg: number; paDeg: numbe
   const t = skyToTangentArcsec(tangentCentre(mask.raDeg, mask.decDeg), galaxy.raDeg, galaxy.decDeg);
   const m = t ? skyToMaskArcsec(t.xiArcsec, t.etaArcsec, mask.paDeg) : { xArcsec: Infinity, yArcsec: Infinity };
   const rad = Math.PI / 180;
+  const gal = galaxyPaSinCos(galaxy);
   return {
     gxArcsec: m.xArcsec, gyArcsec: m.yArcsec, maskPaDeg: mask.paDeg, galaxy, bn,
-    sinMask: PMath.sin(mask.paDeg * rad), cosMask: PMath.cos(mask.paDeg * rad), sinGal: PMath.sin(galaxy.paDeg * rad), cosGal: PMath.cos(galaxy.paDeg * rad),
+    sinMask: PMath.sin(mask.paDeg * rad), cosMask: PMath.cos(mask.paDeg * rad), sinGal: gal.sin, cosGal: gal.cos,
   };
+}
+
+/** sin/cos of the galaxy PA, cached per galaxy model and PA (the search places thousands of trial masks on one galaxy). */
+const galaxyPaCache = new WeakMap<GalaxyModel, { paDeg: number; sin: number; cos: number }>();
+function galaxyPaSinCos(galaxy: GalaxyModel): { sin: number; cos: number } {
+  const hit = galaxyPaCache.get(galaxy);
+  if (hit && hit.paDeg === galaxy.paDeg) return hit;
+  const rad = Math.PI / 180;
+  const e = { paDeg: galaxy.paDeg, sin: PMath.sin(galaxy.paDeg * rad), cos: PMath.cos(galaxy.paDeg * rad) };
+  galaxyPaCache.set(galaxy, e);
+  return e;
 }
 
 /** Circularised radius (arcsec) and azimuth from the major axis (degrees) of a mask point (x, y) arcsec. */
@@ -196,14 +208,22 @@ export type RowSpan = Pick<Slit, 'role' | 'yArcsec' | 'lenBelowArcsec' | 'lenAbo
 
 /** The minimal y-span of an existing row: alignment boxes whole, slits shortened to minLength/2 each side. */
 function coreSpan(slit: RowSpan, minHalf: number): Span {
-  if (slit.role === 'alignment') return { lo: slit.yArcsec - slit.lenBelowArcsec, hi: slit.yArcsec + slit.lenAboveArcsec };
-  const below = slit.role === 'tracer' ? Math.min(slit.lenBelowArcsec, minHalf) : slit.lenBelowArcsec;
-  const above = slit.role === 'tracer' ? Math.min(slit.lenAboveArcsec, minHalf) : slit.lenAboveArcsec;
-  const t = Math.abs(slit.tiltDeg) * Math.PI / 180;
+  const out = new Float64Array(2);
+  coreBoundsInto(slit.role, slit.yArcsec, slit.lenBelowArcsec, slit.lenAboveArcsec, slit.widthArcsec, slit.tiltDeg, minHalf, out, 0);
+  return { lo: out[0], hi: out[1] };
+}
+
+/** coreSpan of a row given by its fields, written as lo, hi (arcsec) into out[2k], out[2k + 1] (no object per row). */
+function coreBoundsInto(role: Slit['role'], yArcsec: number, lenBelowArcsec: number, lenAboveArcsec: number, widthArcsec: number, tiltDeg: number, minHalf: number, out: Float64Array, k: number): void {
+  if (role === 'alignment') { out[2 * k] = yArcsec - lenBelowArcsec; out[2 * k + 1] = yArcsec + lenAboveArcsec; return; }
+  const below = role === 'tracer' ? Math.min(lenBelowArcsec, minHalf) : lenBelowArcsec;
+  const above = role === 'tracer' ? Math.min(lenAboveArcsec, minHalf) : lenAboveArcsec;
+  const t = Math.abs(tiltDeg) * Math.PI / 180;
   // An untilted slit (nearly every one) takes the sine and cosine of 0 computed once.
   const sinT = t === 0 ? SIN0 : PMath.sin(t), cosT = t === 0 ? COS0 : PMath.cos(t);
-  const halfW = (slit.widthArcsec / 2) * sinT;
-  return { lo: slit.yArcsec - below * cosT - halfW, hi: slit.yArcsec + above * cosT + halfW };
+  const halfW = (widthArcsec / 2) * sinT;
+  out[2 * k] = yArcsec - below * cosT - halfW;
+  out[2 * k + 1] = yArcsec + above * cosT + halfW;
 }
 const SIN0 = PMath.sin(0), COS0 = PMath.cos(0);
 
@@ -224,29 +244,48 @@ const MARGIN = 1e-6;
 /** Free y-slots (arcsec) between the minimal spans of a mask's rows, each at most slotLength long and at least minLength. */
 export function freeSlots(slits: readonly RowSpan[], rules: EligibilityRules, gapArcsec: number, slotLengthArcsec: number): Span[] {
   const minHalf = rules.minLengthArcsec / 2;
-  const cores = slits.map((s) => coreSpan(s, minHalf)).sort((a, b) => a.lo - b.lo);
-  const edges: Span[] = [];
-  let lo = rules.bounds.minY;
-  for (const c of cores) {
-    edges.push({ lo, hi: c.lo - gapArcsec - MARGIN });
-    lo = Math.max(lo, c.hi + gapArcsec + MARGIN);
-  }
-  edges.push({ lo, hi: rules.bounds.maxY });
+  const cores = new Float64Array(2 * slits.length);
+  slits.forEach((r, k) => coreBoundsInto(r.role, r.yArcsec, r.lenBelowArcsec, r.lenAboveArcsec, r.widthArcsec, r.tiltDeg, minHalf, cores, k));
+  return slotsBetweenCores(cores, slits.length, rules, gapArcsec, slotLengthArcsec);
+}
+
+/** freeSlots of untilted tracer slits of half-length halfLengthArcsec (arcsec) at yArcsec[k] for k in `rows`, no object per slit. */
+export function freeSlotsOfTracers(yArcsec: ArrayLike<number>, rows: readonly number[], halfLengthArcsec: number, widthArcsec: number, rules: EligibilityRules, gapArcsec: number, slotLengthArcsec: number): Span[] {
+  const minHalf = rules.minLengthArcsec / 2;
+  const cores = new Float64Array(2 * rows.length);
+  for (let k = 0; k < rows.length; k++) coreBoundsInto('tracer', yArcsec[rows[k]], halfLengthArcsec, halfLengthArcsec, widthArcsec, 0, minHalf, cores, k);
+  return slotsBetweenCores(cores, rows.length, rules, gapArcsec, slotLengthArcsec);
+}
+
+/** The slots of freeSlots between n minimal spans given as lo, hi pairs (arcsec) in `cores`, in any order. */
+function slotsBetweenCores(cores: Float64Array, n: number, rules: EligibilityRules, gapArcsec: number, slotLengthArcsec: number): Span[] {
+  // By lower edge; spans with equal lower edges give the same slots in either order (the stretch between them is empty).
+  const order = new Int32Array(n);
+  for (let k = 0; k < n; k++) order[k] = k;
+  order.sort((a, b) => cores[2 * a] - cores[2 * b] || a - b);
   const slots: Span[] = [];
-  for (const e of edges) {
-    const len = e.hi - e.lo;
-    if (len < rules.minLengthArcsec) continue;
-    const n = Math.max(1, Math.floor((len + gapArcsec) / (slotLengthArcsec + gapArcsec)));
-    const each = n === 1 ? Math.min(len, slotLengthArcsec) : slotLengthArcsec;
-    // Centre the n slots in the stretch.
-    const used = n * each + (n - 1) * (gapArcsec + 2 * MARGIN);
-    let y = e.lo + (len - used) / 2;
-    for (let i = 0; i < n; i++) {
-      slots.push({ lo: y, hi: y + each });
-      y += each + gapArcsec + 2 * MARGIN;
-    }
+  let lo = rules.bounds.minY;
+  for (let k = 0; k <= n; k++) {
+    const hi = k < n ? cores[2 * order[k]] - gapArcsec - MARGIN : rules.bounds.maxY;
+    pushStretchSlots(slots, lo, hi, rules, gapArcsec, slotLengthArcsec);
+    if (k < n) lo = Math.max(lo, cores[2 * order[k] + 1] + gapArcsec + MARGIN);
   }
   return slots;
+}
+
+/** Cut the free stretch [lo, hi] (arcsec) into centred slots of slotLength (or one shorter slot, at least minLength) pushed onto `slots`. */
+function pushStretchSlots(slots: Span[], lo: number, hi: number, rules: EligibilityRules, gapArcsec: number, slotLengthArcsec: number): void {
+  const len = hi - lo;
+  if (len < rules.minLengthArcsec) return;
+  const n = Math.max(1, Math.floor((len + gapArcsec) / (slotLengthArcsec + gapArcsec)));
+  const each = n === 1 ? Math.min(len, slotLengthArcsec) : slotLengthArcsec;
+  // Centre the n slots in the stretch.
+  const used = n * each + (n - 1) * (gapArcsec + 2 * MARGIN);
+  let y = lo + (len - used) / 2;
+  for (let i = 0; i < n; i++) {
+    slots.push({ lo: y, hi: y + each });
+    y += each + gapArcsec + 2 * MARGIN;
+  }
 }
 
 /** Candidate x positions (arcsec) for a slot: a grid over the footprint bounds that obey the wavelength rule (fit is checked later). */
