@@ -22,13 +22,17 @@ export function skyToMaskArcsec(xiArcsec: number, etaArcsec: number, paDeg: numb
   return skyToMaskTurned(xiArcsec, etaArcsec, maskTurn(paDeg));
 }
 
-/** Sine and cosine of a mask PA (degrees East of North), made once for many skyToMaskTurned calls. */
-export interface MaskTurn { sinPa: number; cosPa: number }
+/** Sine and cosine of a position angle (degrees East of North), made once for many turned projections (mask or galaxy). */
+export interface PaTurn { sinPa: number; cosPa: number }
 
-/** The turn of skyToMaskArcsec for mask PA paDeg. */
-export function maskTurn(paDeg: number): MaskTurn {
+/** The turn of skyToMaskArcsec (mask PA) or skyToGalaxyArcsec (major-axis PA) for paDeg. */
+export function paTurn(paDeg: number): PaTurn {
   return { sinPa: PMath.sin(paDeg * RAD_PER_DEG), cosPa: PMath.cos(paDeg * RAD_PER_DEG) };
 }
+
+/** A mask PA's turn (skyToMaskTurned). */
+export type MaskTurn = PaTurn;
+export const maskTurn = paTurn;
 
 /** skyToMaskArcsec with the PA's sine and cosine made once (the same bits). */
 export function skyToMaskTurned(xiArcsec: number, etaArcsec: number, turn: MaskTurn): MaskPointArcsec {
@@ -47,17 +51,13 @@ export function skyToGalaxyArcsec(xiArcsec: number, etaArcsec: number, thetaDeg:
   return skyToGalaxyTurned(xiArcsec, etaArcsec, galaxyTurn(thetaDeg));
 }
 
-/** Sine and cosine of a galaxy's major-axis PA (degrees East of North), made once for many skyToGalaxyTurned calls. */
-export interface GalaxyTurn { sinTheta: number; cosTheta: number }
-
-/** The turn of skyToGalaxyArcsec for major-axis PA thetaDeg. */
-export function galaxyTurn(thetaDeg: number): GalaxyTurn {
-  return { sinTheta: PMath.sin(thetaDeg * RAD_PER_DEG), cosTheta: PMath.cos(thetaDeg * RAD_PER_DEG) };
-}
+/** A galaxy's major-axis PA turn (skyToGalaxyTurned). */
+export type GalaxyTurn = PaTurn;
+export const galaxyTurn = paTurn;
 
 /** skyToGalaxyArcsec with the PA's sine and cosine made once (the same bits). */
 export function skyToGalaxyTurned(xiArcsec: number, etaArcsec: number, turn: GalaxyTurn): GalaxyPointArcsec {
-  const s = turn.sinTheta, c = turn.cosTheta;
+  const s = turn.sinPa, c = turn.cosPa;
   return { uArcsec: xiArcsec * s + etaArcsec * c, vArcsec: xiArcsec * c - etaArcsec * s };
 }
 

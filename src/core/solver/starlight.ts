@@ -23,7 +23,7 @@ import type { InstrumentProfile } from '../profile/schema';
 import type { GalaxyModel, PlanFile } from '../plan/schema';
 import type { MaskSolution, Slit } from '../geometry/maskSolution';
 import { centredRectFits, eligibilityRules, wavelengthOk, type EligibilityRules } from '../profile/eligibility';
-import { skyToMaskArcsec, circularisedRadiusArcsec, galaxyAzimuthDeg } from '../sky/frames';
+import { circularisedRadiusArcsec, galaxyAzimuthDeg, galaxyTurn, maskTurn, skyToMaskTurned, type GalaxyTurn } from '../sky/frames';
 import { skyToTangentArcsec, tangentCentre } from '../sky/tangentPlane';
 import { sersicBn, sersicMuMagPerArcsec2, sersicRadiusAtMuArcsec } from '../sky/sersic';
 import { electronsPerAFromSurfaceBrightness, signalToNoisePerA, type SpectroSetup } from '../spectro/signalToNoise';
@@ -136,24 +136,23 @@ export interface GalaxyOnMask {
 /** The galaxy centre in a mask's frame (gnomonic about the mask centre, rotated by the mask PA). */
 export function galaxyOnMask(mask: { raDeg: number; decDeg: number; paDeg: number }, galaxy: GalaxyModel, bn = sersicBn(galaxy.sersicN)): GalaxyOnMask {
   const t = skyToTangentArcsec(tangentCentre(mask.raDeg, mask.decDeg), galaxy.raDeg, galaxy.decDeg);
-  const m = t ? skyToMaskArcsec(t.xiArcsec, t.etaArcsec, mask.paDeg) : { xArcsec: Infinity, yArcsec: Infinity };
-  const rad = Math.PI / 180;
-  const gal = galaxyPaSinCos(galaxy);
+  const turn = maskTurn(mask.paDeg);
+  const m = t ? skyToMaskTurned(t.xiArcsec, t.etaArcsec, turn) : { xArcsec: Infinity, yArcsec: Infinity };
+  const gal = cachedGalaxyTurn(galaxy);
   return {
     gxArcsec: m.xArcsec, gyArcsec: m.yArcsec, maskPaDeg: mask.paDeg, galaxy, bn,
-    sinMask: PMath.sin(mask.paDeg * rad), cosMask: PMath.cos(mask.paDeg * rad), sinGal: gal.sin, cosGal: gal.cos,
+    sinMask: turn.sinPa, cosMask: turn.cosPa, sinGal: gal.sinPa, cosGal: gal.cosPa,
   };
 }
 
-/** sin/cos of the galaxy PA, cached per galaxy model and PA (the search places thousands of trial masks on one galaxy). */
-const galaxyPaCache = new WeakMap<GalaxyModel, { paDeg: number; sin: number; cos: number }>();
-function galaxyPaSinCos(galaxy: GalaxyModel): { sin: number; cos: number } {
-  const hit = galaxyPaCache.get(galaxy);
-  if (hit && hit.paDeg === galaxy.paDeg) return hit;
-  const rad = Math.PI / 180;
-  const e = { paDeg: galaxy.paDeg, sin: PMath.sin(galaxy.paDeg * rad), cos: PMath.cos(galaxy.paDeg * rad) };
-  galaxyPaCache.set(galaxy, e);
-  return e;
+/** The galaxy PA's turn (sky/frames.ts galaxyTurn), cached per galaxy model and PA (the search places thousands of trial masks on one galaxy). */
+const galaxyTurnCache = new WeakMap<GalaxyModel, { paDeg: number; turn: GalaxyTurn }>();
+function cachedGalaxyTurn(galaxy: GalaxyModel): GalaxyTurn {
+  const hit = galaxyTurnCache.get(galaxy);
+  if (hit && hit.paDeg === galaxy.paDeg) return hit.turn;
+  const turn = galaxyTurn(galaxy.paDeg);
+  galaxyTurnCache.set(galaxy, { paDeg: galaxy.paDeg, turn });
+  return turn;
 }
 
 /** Circularised radius (arcsec) and azimuth from the major axis (degrees) of a mask point (x, y) arcsec. */
