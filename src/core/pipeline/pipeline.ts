@@ -19,7 +19,7 @@ import { planGoals, type GoalStatus, type StarlightBinsResult } from '../coverag
 import { coaddStarlightBins, planStarlightModels } from '../solver/starlightCoadd';
 import { starlightBins, starlightBinsForFile } from '../solver/starlightBins';
 import type { MaskPointing, MaskSolution } from '../geometry/maskSolution';
-import { keptColumnsOf, weighTargets, weightingPositions, type GalaxyPositions, type WeightingResult } from '../solver/weighting';
+import { keptColumnsOf, positionsFor, weighTargets, weightingPositions, type GalaxyPositions, type WeightingResult } from '../solver/weighting';
 import { type WeightingRules } from '../plan/weightingSection';
 import { starlightSettings } from '../solver/starlight';
 import { startLayouts, searchPointings, type SearchReport } from '../solver/pointingSearch';
@@ -284,7 +284,8 @@ export function solvePlan(inputs: PlanInputs, opts: SolveOptions = {}): PlanSolu
   const coverage = coverageReport(galaxy, plan.goals, allSlits);
   const starlightBinsResult = measureStarlightBins(plan, ctx, galaxy, masks, coverage);
   let candidateReachRe = 0;
-  const reachOf = positions && positions.table === ctx.table ? (i: number) => positions.radiusRe[i] : (i: number) => galaxyRadiusAndAzimuth(galaxy, ctx.raDeg[i], ctx.decDeg[i]).rRe;
+  const known = positionsFor(positions, ctx.table, galaxy);
+  const reachOf = known ? (i: number) => known.radiusRe[i] : (i: number) => galaxyRadiusAndAzimuth(galaxy, ctx.raDeg[i], ctx.decDeg[i]).rRe;
   for (const i of ctx.tracerIndices) candidateReachRe = Math.max(candidateReachRe, reachOf(i));
   const goals = planGoals(plan, galaxy, profile, masks, coverage, candidateReachRe, starlightSettings(plan.starlight, profile, plan).maxSlitLengthArcsec, starlightBinsResult);
 

@@ -16,7 +16,7 @@ import type { AllocationContext } from './allocateMasks';
 import { starlightSettings, type StarlightSettings, type StarlightTrade } from './starlight';
 import { objectiveContext, type ObjectiveContext } from './objective';
 import { refractionLossModel, type RefractionLoss } from './refractionTerm';
-import type { GalaxyPositions } from './weighting';
+import { positionsFor, type GalaxyPositions } from './weighting';
 
 /** Objective evaluation shared by the search, the pipeline report and the benchmark. */
 export interface SearchEnv {
@@ -43,10 +43,10 @@ export interface SearchEnv {
  */
 export function searchEnv(plan: PlanFile, ctx: AllocationContext, positions?: GalaxyPositions | null): SearchEnv {
   const g = ctx.galaxy, n = ctx.table.length;
-  const reuse = positions && samePositions(positions, ctx);
-  const { xi, eta, radiusRe } = reuse ? { xi: positions.xiArcsec, eta: positions.etaArcsec, radiusRe: positions.radiusRe } : projectTargets(ctx);
+  const reuse = positionsFor(positions, ctx.table, g);
+  const { xi, eta, radiusRe } = reuse ? { xi: reuse.xiArcsec, eta: reuse.etaArcsec, radiusRe: reuse.radiusRe } : projectTargets(ctx);
   // targetAzimuthDeg's value (wrapped to [0, 360)) from the weighting's azimuth, else NaN until first asked.
-  const azimuthDeg = reuse ? Float64Array.from(positions.azimuthDeg, wrap360Deg) : new Float64Array(n).fill(NaN);
+  const azimuthDeg = reuse ? Float64Array.from(reuse.azimuthDeg, wrap360Deg) : new Float64Array(n).fill(NaN);
   const tracerWeights = tracerWeightsOf(ctx);
   const objective = objectiveContext(plan.goals, plan.search as SearchRules | undefined, tracerWeights);
   return {
@@ -54,12 +54,6 @@ export function searchEnv(plan: PlanFile, ctx: AllocationContext, positions?: Ga
     refractionLoss: refractionLossModel(plan, ctx.profile, objective.weights.aRefraction),
     starlight: starlightSettings(plan.starlight as StarlightRules | undefined, ctx.profile, plan),
   };
-}
-
-/** Whether positions were computed for the context's targets about the context's galaxy. */
-function samePositions(p: GalaxyPositions, ctx: AllocationContext): boolean {
-  const a = p.galaxy, b = ctx.galaxy;
-  return p.table === ctx.table && a.raDeg === b.raDeg && a.decDeg === b.decDeg && a.paDeg === b.paDeg && a.axisRatio === b.axisRatio && a.reArcsec === b.reArcsec;
 }
 
 /** Every target's galaxy tangent-plane offset (arcsec; NaN without a gnomonic image) and circularised R/Re (Infinity then). */

@@ -287,6 +287,13 @@ export function weightingPositions(weighting: WeightingResult): GalaxyPositions 
   return positionsOf.get(weighting) ?? null;
 }
 
+/** positions when they were computed for this table about this galaxy placement (the same bits to reuse), else null. */
+export function positionsFor(positions: GalaxyPositions | null | undefined, table: TargetColumns, galaxy: GalaxyPositions['galaxy']): GalaxyPositions | null {
+  if (!positions || positions.table !== table) return null;
+  const a = positions.galaxy;
+  return a.raDeg === galaxy.raDeg && a.decDeg === galaxy.decDeg && a.paDeg === galaxy.paDeg && a.axisRatio === galaxy.axisRatio && a.reArcsec === galaxy.reArcsec ? positions : null;
+}
+
 /** The kept columns of a weighting when it was computed from exactly this target list, else null. */
 export function keptColumnsOf(weighting: WeightingResult, targets: readonly Target[] | TargetColumns): KeptColumns | null {
   return weighting.kept && weighedFrom.get(weighting.kept) === targets ? weighting.kept : null;
