@@ -10,6 +10,7 @@ import { contextFor, withContextSections } from '../solver/maskContext';
 import type { MaskSolution } from '../geometry/maskSolution';
 import { observingReportForPlan, type ObservingReport } from './refractionReport';
 import type { ObservingSettings } from '../observe/observingSettings';
+import type { StarlightBinsResult } from '../coverage/goals';
 
 /** One spectrograph's part of a mixed plan's report: its profile id and label, its site, settings and masks. */
 export interface InstrumentObservingPart {
@@ -25,9 +26,12 @@ export interface InstrumentsObservingReport extends ObservingReport {
   instruments?: InstrumentObservingPart[];
 }
 
-/** The observing report of solved masks, each at its own profile's site (see the module comment). */
-export function observingReportForMasks(plan: PlanFile, ctx: AllocationContext, galaxy: GalaxyModel, masks: MaskSolution[]): InstrumentsObservingReport {
-  if (!ctx.byInstrument) return observingReportForPlan(plan, ctx.profile, galaxy, masks);
+/**
+ * The observing report of solved masks, each at its own profile's site (see the module comment); `measured`, the
+ * masks' co-added starlight bins from measureStarlightBins (pipeline.ts), is reused by a one-spectrograph report.
+ */
+export function observingReportForMasks(plan: PlanFile, ctx: AllocationContext, galaxy: GalaxyModel, masks: MaskSolution[], measured?: StarlightBinsResult): InstrumentsObservingReport {
+  if (!ctx.byInstrument) return observingReportForPlan(plan, ctx.profile, galaxy, masks, measured);
   const groups = new Map<string, { profile: InstrumentProfile; plan: PlanFile; masks: MaskSolution[] }>();
   for (const ms of masks) {
     const own = contextFor(ctx, ms.mask), profile = own.profile;

@@ -193,17 +193,20 @@ export function addStarlightAndSky(plan: PlanFile, ctx: AllocationContext, masks
   return r.masks;
 }
 
+/** The starlight stage and exposure model per profile of a plan (solver/starlightCoadd.ts), made once and shared by stages 4b and 6. */
+type StarlightModels = ReturnType<typeof planStarlightModels>;
+
 /** Stage 4b: starlight slits added to bins short of the co-added target, over every mask (solver/starlightCoadd.ts). */
-export function coaddStarlight(plan: PlanFile, ctx: AllocationContext, masks: MaskSolution[]): MaskSolution[] {
+export function coaddStarlight(plan: PlanFile, ctx: AllocationContext, masks: MaskSolution[], models?: StarlightModels): MaskSolution[] {
   if (plan.goals.starlightReachRe <= 0) return masks;
-  const m = planStarlightModels(plan, ctx);
+  const m = models ?? planStarlightModels(plan, ctx);
   return coaddStarlightBins(masks, m.stageOf, m.modelOf, m.settings).masks;
 }
 
 /** The co-added starlight bins of finished masks (solver/starlightBins.ts), also written into `coverage.starlightBins`. */
-export function measureStarlightBins(plan: PlanFile, ctx: AllocationContext, galaxy: GalaxyModel, masks: readonly MaskSolution[], coverage: CoverageReport): StarlightBinsResult | undefined {
+export function measureStarlightBins(plan: PlanFile, ctx: AllocationContext, galaxy: GalaxyModel, masks: readonly MaskSolution[], coverage: CoverageReport, models?: StarlightModels): StarlightBinsResult | undefined {
   if (plan.goals.starlightReachRe <= 0) return undefined;
-  const m = planStarlightModels(plan, ctx);
+  const m = models ?? planStarlightModels(plan, ctx);
   const r = { bins: starlightBins(masks, galaxy, m.modelOf, m.settings), ...m.settings };
   coverage.starlightBins = starlightBinsForFile(r);
   return r;
@@ -274,7 +277,9 @@ export function solvePlan(inputs: PlanInputs, opts: SolveOptions = {}): PlanSolu
   warnings.push(...placed.starlightWarnings);
 
   progress(0.76, 'co-adding starlight per bin');
-  masks = coaddStarlight(plan, ctx, masks);
+  // One starlight stage and exposure model per profile for the co-adding and the bins measured below.
+  const starlightModels = plan.goals.starlightReachRe > 0 ? planStarlightModels(plan, ctx) : undefined;
+  masks = coaddStarlight(plan, ctx, masks, starlightModels);
 
   progress(0.8, 'lengthening slits');
   masks = lengthenMasks(plan, profile, masks, ctx);
@@ -282,7 +287,7 @@ export function solvePlan(inputs: PlanInputs, opts: SolveOptions = {}): PlanSolu
   progress(0.9, 'measuring coverage');
   const allSlits = masks.flatMap((m) => m.slits);
   const coverage = coverageReport(galaxy, plan.goals, allSlits);
-  const starlightBinsResult = measureStarlightBins(plan, ctx, galaxy, masks, coverage);
+  const starlightBinsResult = measureStarlightBins(plan, ctx, galaxy, masks, coverage, starlightModels);
   let candidateReachRe = 0;
   const known = positionsFor(positions, ctx.table, galaxy);
   const reachOf = known ? (i: number) => known.radiusRe[i] : (i: number) => galaxyRadiusAndAzimuth(galaxy, ctx.raDeg[i], ctx.decDeg[i]).rRe;
@@ -307,7 +312,8 @@ export function solvePlan(inputs: PlanInputs, opts: SolveOptions = {}): PlanSolu
   let observingReport: ObservingReport | undefined;
   if (!opts.skipObservingReport) {
     progress(0.95, 'refraction and exposure report');
-    observingReport = observingReportForMasks(plan, ctx, galaxy, masks);
+    // The report's co-added bins are the ones just measured (same masks, models and settings): not measured again.
+    observingReport = observingReportForMasks(plan, ctx, galaxy, masks, starlightBinsResult);
     solved = withObservingReport(solved, observingReport);
   }
   const spectral = spectralReportForGroups(plan, maskGroupsByProfile(ctx, pointings), pointings.map((p) => p.id));

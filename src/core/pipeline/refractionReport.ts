@@ -17,6 +17,7 @@ import type { ObservingSection } from '../plan/observingSection';
 import { exposureModelOf, maskExposureReport, type MaskExposureReport } from '../solver/exposure';
 import { starlightSettings } from '../solver/starlight';
 import { type StarlightRules } from '../plan/starlightSection';
+import type { StarlightBinsResult } from '../coverage/goals';
 
 export interface RefractionReportInput {
   galaxy: GalaxyModel;
@@ -63,9 +64,11 @@ export function refractionReport(input: RefractionReportInput): ObservingReport 
 /**
  * The whole observing report of a solved plan: settings resolved from the plan's `observing` section (exposure
  * time and target S/N falling back to its `starlight` section), each mask's design hour angle from the plan,
- * refraction rows and window per mask, and exposure estimates per slit.
+ * refraction rows and window per mask, and exposure estimates per slit. `measured`: the co-added starlight bins of
+ * these masks as pipeline.ts measureStarlightBins made them for this plan and profile (the same model, target and
+ * floor: solver/starlightBins.ts starlightBinModel), reused instead of measured again.
  */
-export function observingReportForPlan(plan: PlanFile, profile: InstrumentProfile, galaxy: GalaxyModel, masks: MaskSolution[]): ObservingReport {
+export function observingReportForPlan(plan: PlanFile, profile: InstrumentProfile, galaxy: GalaxyModel, masks: MaskSolution[], measured?: StarlightBinsResult): ObservingReport {
   const starlight = starlightSettings(plan.starlight as StarlightRules | undefined, profile, plan);
   const settings = resolveObservingSettings(plan.observing as ObservingSection | undefined, profile, {
     exposureTimeS: starlight.exposureS,
@@ -75,7 +78,7 @@ export function observingReportForPlan(plan: PlanFile, profile: InstrumentProfil
   const model = exposureModelOf(starlight, settings);
   const skySystematicFraction = (plan.observing as ObservingSection | undefined)?.skySystematicFraction ?? DEFAULT_SKY_SYSTEMATIC_FRACTION;
   const bins = plan.goals.starlightReachRe > 0
-    ? { bins: starlightBins(masks, galaxy, model, { reachRe: plan.goals.starlightReachRe, targetSnPerA: starlight.targetSnPerA, skySystematicFraction }), targetSnPerA: starlight.targetSnPerA, skySystematicFraction }
+    ? { bins: measured?.bins ?? starlightBins(masks, galaxy, model, { reachRe: plan.goals.starlightReachRe, targetSnPerA: starlight.targetSnPerA, skySystematicFraction }), targetSnPerA: starlight.targetSnPerA, skySystematicFraction }
     : undefined;
   return { ...report, exposures: masks.map((m) => maskExposureReport(m, galaxy, model)), starlightBins: bins };
 }

@@ -61,8 +61,19 @@ export function sersicBnSeries(n: number): number {
   return 2 * n - 1 / 3 + 4 / (405 * n) + 46 / (25515 * n * n);
 }
 
+/** The last index sersicBn solved for and its b_n (a plan solves for one galaxy's n many times over). */
+let lastBn = { n: NaN, bn: NaN };
+
 /** Exact b_n for Sérsic index n > 0: the root of P(2n, b) = 1/2, by bracketing bisection polished with Newton. */
 export function sersicBn(n: number): number {
+  if (n === lastBn.n) return lastBn.bn;
+  const bn = solveSersicBn(n);
+  lastBn = { n, bn };
+  return bn;
+}
+
+/** sersicBn without the one-entry cache. */
+function solveSersicBn(n: number): number {
   if (!(n > 0)) throw new RangeError(`Sérsic index n must be positive, got ${n}`);
   const a = 2 * n;
   const f = (b: number) => regularisedLowerGamma(a, b) - 0.5;
