@@ -16,7 +16,7 @@ import { altitudeDeg } from './horizon';
 import { parallacticAngleDeg } from './parallactic';
 import { hardieAirmass } from './airmass';
 import { edlenRefractivity, type AirConditions } from './refractiveIndex';
-import { lossRelativeToCentred, offsetAtLoss, slitTransmission } from './slitLoss';
+import { centredSlitTransmission, lossRelativeToCentred, offsetAtLoss, slitTransmission } from './slitLoss';
 import { ARCSEC_PER_RAD, RAD_PER_DEG } from '../sky/angles';
 import { PMath } from '../numeric/portableMath';
 
@@ -204,7 +204,7 @@ export function maskRefractionContext(input: MaskRefractionInput): MaskRefractio
     const pn = toMask(tangentToSkyDeg(at, 0, eps)), mn = toMask(tangentToSkyDeg(at, 0, -eps));
     const g: SlitGeometry = {
       slit, widthArcsec: slit.widthArcsec, windowRole: WINDOW_ROLES.includes(slit.role),
-      centredTransmission: slitTransmission(0, slit.widthArcsec, s.seeingFwhmArcsec),
+      centredTransmission: centredSlitTransmission(slit.widthArcsec, s.seeingFwhmArcsec),
       dRaDeg: slit.raDeg - input.mask.raDeg,
       sinDec: PMath.sin(slit.decDeg * RAD_PER_DEG), cosDec: PMath.cos(slit.decDeg * RAD_PER_DEG),
       jxe: (pe.xArcsec - me.xArcsec) / (2 * eps), jxn: (pn.xArcsec - mn.xArcsec) / (2 * eps),
@@ -233,6 +233,7 @@ function designImage(ctx: MaskRefractionContext, g: SlitGeometry, designH: numbe
  * reused, only the design positions made anew (the same bits as maskRefractionContext with that design hour angle).
  */
 export function contextForDesignHourAngle(ctx: MaskRefractionContext, designH: number): MaskRefractionContext {
+  if (Object.is(designH, ctx.input.designHourAngleH)) return ctx;
   const out: MaskRefractionContext = { ...ctx, input: { ...ctx.input, designHourAngleH: designH }, slits: [] };
   const c0 = designCentreLift(out, designH);
   for (const g of ctx.slits) out.slits.push({ ...g, design: designImage(out, g, designH, c0) });
@@ -336,25 +337,21 @@ function windowImagesAt(ctx: MaskRefractionContext, haH: number): Float64Array |
  * wavelength's image relative to the guided centre, as maskRefractionContext sets it), and each such slit's width.
  */
 export function windowDesignAcross(ctx: MaskRefractionContext, designH: number): { xArcsec: Float64Array; widthArcsec: Float64Array } {
-  const c0 = designCentreLift(ctx, designH);
+  // The context's own design hour angle: its slits already hold these positions (the same computation).
+  const own = Object.is(designH, ctx.input.designHourAngleH);
+  const c0 = own ? null : designCentreLift(ctx, designH);
   const win = ctx.slits.filter((g) => g.windowRole);
   const xArcsec = new Float64Array(win.length), widthArcsec = new Float64Array(win.length);
   win.forEach((g, i) => {
-    xArcsec[i] = designImage(ctx, g, designH, c0).xArcsec;
+    xArcsec[i] = c0 ? designImage(ctx, g, designH, c0).xArcsec : g.design.xArcsec;
     widthArcsec[i] = g.widthArcsec;
   });
   return { xArcsec, widthArcsec };
 }
 
-const offsetLimits = new WeakMap<MaskRefractionContext, Map<number, number>>();
-
-/** Across-slit offset (arcsec) at which a slit of widthArcsec reaches the loss limit (offsetAtLoss), once per context and width. */
+/** Across-slit offset (arcsec) at which a slit of widthArcsec reaches the loss limit (offsetAtLoss, which keeps its last answer). */
 function offsetLimitOf(ctx: MaskRefractionContext, widthArcsec: number): number {
-  let byWidth = offsetLimits.get(ctx);
-  if (!byWidth) offsetLimits.set(ctx, (byWidth = new Map()));
-  let v = byWidth.get(widthArcsec);
-  if (v === undefined) byWidth.set(widthArcsec, (v = offsetAtLoss(widthArcsec, ctx.input.settings.seeingFwhmArcsec, ctx.input.settings.maxLossFraction)));
-  return v;
+  return offsetAtLoss(widthArcsec, ctx.input.settings.seeingFwhmArcsec, ctx.input.settings.maxLossFraction);
 }
 
 /** The summary row of the mask at hour angle haH (window-role slits only; no per-slit rows are built). */

@@ -35,6 +35,18 @@ export function slitTransmission(offsetArcsec: number, widthArcsec: number, seei
   return 0.5 * (erf((h - offsetArcsec) / s) + erf((h + offsetArcsec) / s));
 }
 
+/** The last slit width and seeing centredSlitTransmission was asked for, and its answer (every slit of a mask has one or two widths). */
+let lastCentred = { widthArcsec: NaN, seeingFwhmArcsec: NaN, transmission: NaN };
+
+/** slitTransmission of an image centred on the slit (offset 0), computed once for a run of the same width and seeing. */
+export function centredSlitTransmission(widthArcsec: number, seeingFwhmArcsec: number): number {
+  const c = lastCentred;
+  if (widthArcsec === c.widthArcsec && seeingFwhmArcsec === c.seeingFwhmArcsec) return c.transmission;
+  const transmission = slitTransmission(0, widthArcsec, seeingFwhmArcsec);
+  lastCentred = { widthArcsec, seeingFwhmArcsec, transmission };
+  return transmission;
+}
+
 /** Loss (0..1) relative to a centred image, from the transmission of the offset image and of the centred one. */
 export function lossRelativeToCentred(transmission: number, centredTransmission: number): number {
   return centredTransmission > 0 ? Math.max(0, 1 - transmission / centredTransmission) : 0;
@@ -42,12 +54,24 @@ export function lossRelativeToCentred(transmission: number, centredTransmission:
 
 /** Extra fraction of light lost (0..1) by an image offsetArcsec off the slit centre, relative to the same image centred. */
 export function relativeSlitLoss(offsetArcsec: number, widthArcsec: number, seeingFwhmArcsec: number): number {
-  return lossRelativeToCentred(slitTransmission(offsetArcsec, widthArcsec, seeingFwhmArcsec), slitTransmission(0, widthArcsec, seeingFwhmArcsec));
+  return lossRelativeToCentred(slitTransmission(offsetArcsec, widthArcsec, seeingFwhmArcsec), centredSlitTransmission(widthArcsec, seeingFwhmArcsec));
 }
+
+/** The last arguments offsetAtLoss solved for and its answer (each mask of a plan asks for the same slit width and limit). */
+let lastOffsetAtLoss = { widthArcsec: NaN, seeingFwhmArcsec: NaN, maxLoss: NaN, offsetArcsec: NaN };
 
 /** Smallest across-slit offset (arcsec) at which the loss relative to a centred image reaches maxLoss (Infinity if never). */
 export function offsetAtLoss(widthArcsec: number, seeingFwhmArcsec: number, maxLoss: number): number {
-  const centred = slitTransmission(0, widthArcsec, seeingFwhmArcsec);
+  const last = lastOffsetAtLoss;
+  if (widthArcsec === last.widthArcsec && seeingFwhmArcsec === last.seeingFwhmArcsec && maxLoss === last.maxLoss) return last.offsetArcsec;
+  const offsetArcsec = solveOffsetAtLoss(widthArcsec, seeingFwhmArcsec, maxLoss);
+  lastOffsetAtLoss = { widthArcsec, seeingFwhmArcsec, maxLoss, offsetArcsec };
+  return offsetArcsec;
+}
+
+/** offsetAtLoss by bisection, without the one-entry cache. */
+function solveOffsetAtLoss(widthArcsec: number, seeingFwhmArcsec: number, maxLoss: number): number {
+  const centred = centredSlitTransmission(widthArcsec, seeingFwhmArcsec);
   const loss = (x: number) => lossRelativeToCentred(slitTransmission(x, widthArcsec, seeingFwhmArcsec), centred);
   let hi = widthArcsec + 10 * seeingFwhmArcsec;
   if (!(loss(hi) >= maxLoss)) return Infinity;

@@ -77,10 +77,17 @@ export interface MaskExposureReport {
   medianTracerSnPerA: number | null;
 }
 
+/** The last arguments of pointSourceApertureFraction and its answer (every tracer slit of a mask asks the same). */
+let lastAperture = { widthArcsec: NaN, extractionArcsec: NaN, seeingFwhmArcsec: NaN, fraction: NaN };
+
 /** Fraction of a Gaussian point source (FWHM) through a slit of widthArcsec and inside an extraction of extractionArcsec along it. */
 export function pointSourceApertureFraction(widthArcsec: number, extractionArcsec: number, seeingFwhmArcsec: number): number {
+  const last = lastAperture;
+  if (widthArcsec === last.widthArcsec && extractionArcsec === last.extractionArcsec && seeingFwhmArcsec === last.seeingFwhmArcsec) return last.fraction;
   const sigmaRoot2 = (seeingFwhmArcsec / FWHM_PER_SIGMA) * Math.SQRT2;
-  return slitTransmission(0, widthArcsec, seeingFwhmArcsec) * erf(extractionArcsec / 2 / sigmaRoot2);
+  const fraction = slitTransmission(0, widthArcsec, seeingFwhmArcsec) * erf(extractionArcsec / 2 / sigmaRoot2);
+  lastAperture = { widthArcsec, extractionArcsec, seeingFwhmArcsec, fraction };
+  return fraction;
 }
 
 /** Estimate for one observation: S/N per A in the planned time and the time to the target S/N. */
