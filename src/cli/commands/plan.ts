@@ -96,8 +96,7 @@ function solveToFiles(loaded: LoadedPlan, out: string, io: CliIO, opts: SolveAnd
 
 /** A problem when the solve placed no tracer and no starlight slit on any mask: such masks observe nothing. */
 function noScienceSlitProblem(solution: PlanSolution, planSource: string): Problem | null {
-  const science = solution.masks.flatMap((m) => m.slits).filter((s) => s.role === 'tracer' || s.role === 'starlight').length;
-  if (science > 0) return null;
+  if (solution.masks.some((m) => m.slits.some((s) => s.role === 'tracer' || s.role === 'starlight'))) return null;
   const eligible = solution.stats.masks.map((m) => `${m.maskId}: ${m.eligibleTracers} eligible tracers`).join(', ');
   return {
     where: planSource,

@@ -286,17 +286,21 @@ export class CsvRecordSplitter {
   private linesBefore = 0;
   private first = true;
   private inPreamble = true;
+  /** True once `emit` returned false: no record is split or emitted after that. */
+  private stopped = false;
   /** The record objects handed to `emit`, one per path, reused for every record. */
   private readonly spanRecord = new SpanRecord();
   private readonly arrayRecord = new ArrayRecord();
 
   constructor(
     private readonly dialect: CsvDialect,
-    private readonly emit: (rec: CsvRecordView) => void,
+    /** Takes each record; returning false stops the splitter (e.g. once the header row is found). */
+    private readonly emit: (rec: CsvRecordView) => void | boolean,
   ) {}
 
   /** Add a chunk of text; emits every record known to be complete. */
   push(chunk: string): void {
+    if (this.stopped) return;
     if (this.first) {
       chunk = stripBom(chunk);
       this.first = false;
@@ -308,6 +312,7 @@ export class CsvRecordSplitter {
 
   /** Signal the end of the text; emits the remaining records. */
   end(): void {
+    if (this.stopped) return;
     if (this.inPreamble) this.skipPreamble(true);
     this.parse(true);
     this.carry = '';
@@ -381,7 +386,10 @@ export class CsvRecordSplitter {
       const simple = rec.nextLine(pos, end, this.linesBefore + 1);
       if (!simple) return pos;
       this.linesBefore++;
-      this.emit(simple);
+      if (this.emit(simple) === false) {
+        this.stopped = true;
+        return -1;
+      }
       pos = next;
     }
     this.carry = final ? '' : text.slice(cut);
@@ -395,14 +403,17 @@ export class CsvRecordSplitter {
     let linesToPrevEnd = this.linesBefore;
     let pending: { data: string[]; end: number; error?: string } | null = null;
     const flush = (row: { data: string[]; end: number; error?: string }) => {
+      if (this.stopped) return;
       const linesToEnd = linesToPrevEnd + countLineEnds(text, nl, prevEnd, row.end);
       const lastLine = endsWithLineEnd(text, row.end, nl) ? linesToEnd : linesToEnd + 1;
       let inner = 0;
       for (const c of row.data) if (c.length > 0) inner += countLineEnds(c, nl, 0, c.length);
       // A record that could not be split (a quote never closed) starts right after the previous one: the line
       // where the quote opens; the lines up to `lastLine` went into it.
-      if (row.error) this.emit(this.arrayRecord.of(row.data, linesToPrevEnd + 1, row.error, lastLine));
-      else this.emit(this.arrayRecord.of(row.data, lastLine - inner, row.error));
+      const go = row.error
+        ? this.emit(this.arrayRecord.of(row.data, linesToPrevEnd + 1, row.error, lastLine))
+        : this.emit(this.arrayRecord.of(row.data, lastLine - inner, row.error));
+      if (go === false) this.stopped = true;
       prevEnd = row.end;
       linesToPrevEnd = linesToEnd;
     };
@@ -488,7 +499,9 @@ function endsWithLineEnd(text: string, end: number, nl: string): boolean {
 /** Split a whole delimited text into records with file lines (dialect sniffed unless given). */
 export function parseCsvRecords(text: string, dialect: CsvDialect = sniffCsvDialect(text.slice(0, 65536))): CsvRecord[] {
   const out: CsvRecord[] = [];
-  const s = new CsvRecordSplitter(dialect, (r) => out.push(recordOf(r)));
+  const s = new CsvRecordSplitter(dialect, (r) => {
+    out.push(recordOf(r));
+  });
   s.push(text);
   s.end();
   return out;
@@ -520,8 +533,10 @@ export function stringSource(text: string, chunkChars = 1 << 16): TextSource {
 /** The first record that is not blank (the header row), reading only as far as needed. */
 function readHeaderRecord(source: TextSource, dialect: CsvDialect): CsvRecord | null {
   let header: CsvRecord | null = null;
+  // The splitter stops at the header: the rest of the chunk is not split for nothing.
   const s = new CsvRecordSplitter(dialect, (r) => {
     if (header === null && !isBlankRecord(r)) header = recordOf(r);
+    return header === null;
   });
   let exhausted = true;
   source((chunk) => {

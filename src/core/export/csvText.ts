@@ -52,12 +52,19 @@ function isPlainCell(s: string): boolean {
   return last !== 34 && last !== 44;
 }
 
+/** One CSV line of cells (csvCell each, comma-separated), without its line end. */
+export function csvLine(cells: readonly (Cell | undefined)[], opts: CsvWriteOptions = {}): string {
+  let line = cells.length > 0 ? csvCell(cells[0], opts) : '';
+  for (let k = 1; k < cells.length; k++) line += ',' + csvCell(cells[k], opts);
+  return line;
+}
+
 /** A whole CSV document: header row then data rows. */
 export function toCsv(header: readonly string[], rows: readonly (readonly Cell[])[], opts: CsvWriteOptions = {}): string {
   const eol = opts.eol ?? '\n';
-  const out: string[] = [header.map((h) => csvCell(h, opts)).join(',')];
-  for (const r of rows) out.push(r.map((c) => csvCell(c, opts)).join(','));
-  return out.join(eol) + eol;
+  let text = csvLine(header, opts) + eol;
+  for (let i = 0; i < rows.length; i++) text += csvLine(rows[i], opts) + eol;
+  return text;
 }
 
 /** Undo `neutraliseFormulas` on one text cell: drop one leading apostrophe if there is one. */
