@@ -206,7 +206,8 @@ export function maskRefractionContext(input: MaskRefractionInput): MaskRefractio
       slit, widthArcsec: slit.widthArcsec, windowRole: WINDOW_ROLES.includes(slit.role),
       centredTransmission: centredSlitTransmission(slit.widthArcsec, s.seeingFwhmArcsec),
       dRaDeg: slit.raDeg - input.mask.raDeg,
-      sinDec: PMath.sin(slit.decDeg * RAD_PER_DEG), cosDec: PMath.cos(slit.decDeg * RAD_PER_DEG),
+      // The slit's own projection centre holds its Dec's sine and cosine (the same expressions).
+      sinDec: at.sinDec0, cosDec: at.cosDec0,
       jxe: (pe.xArcsec - me.xArcsec) / (2 * eps), jxn: (pn.xArcsec - mn.xArcsec) / (2 * eps),
       jye: (pe.yArcsec - me.yArcsec) / (2 * eps), jyn: (pn.yArcsec - mn.yArcsec) / (2 * eps),
       design: { xArcsec: 0, yArcsec: 0 },
