@@ -330,18 +330,64 @@ export interface JointOptions {
 // runs hot, where one long function would wait for (and be re-optimised at) every branch it has not run yet.
 
 /**
- * One relaxed round: every mask solved exactly with its shared objects' weights reduced by their multipliers (in
- * `relaxed`'s buffers), each mask's pick pushed to `picks`; returns the Lagrangian value (the masks' optima, then
- * each shared object's multiplier, summed in that order).
+ * The relaxed problem's state between rounds: its weight buffers (ResponseWork), where each shared object sits in them
+ * (per object o, entries start[o]..start[o + 1]: mask, position in that mask's buffer, value there), and each mask's
+ * last exact solution with whether its weights changed since.
  */
-function relaxedRound(problem: JointProblem, relaxed: ResponseWork, lambda: Float64Array, shared: Int32Array, picks: number[][]): number {
+interface RelaxedState {
+  work: ResponseWork;
+  start: Int32Array;
+  mask: Int32Array;
+  position: Int32Array;
+  value: Float64Array;
+  picks: number[][];
+  totals: Float64Array;
+  dirty: Uint8Array;
+}
+
+/** The relaxed state of a problem with multipliers 0 (every mask to solve). O(total shared candidates). */
+function relaxedState(problem: JointProblem, work: ResponseWork): RelaxedState {
+  const nObj = problem.weights.length, M = problem.masks.length;
+  const start = new Int32Array(nObj + 1);
+  for (let m = 0; m < M; m++) { const objects = work.sharedObjects[m]; for (let q = 0; q < objects.length; q++) start[objects[q] + 1]++; }
+  for (let o = 0; o < nObj; o++) start[o + 1] += start[o];
+  const fill = start.slice(0, nObj);
+  const mask = new Int32Array(start[nObj]), position = new Int32Array(start[nObj]), value = new Float64Array(start[nObj]);
+  for (let m = 0; m < M; m++) {
+    const objects = work.sharedObjects[m], positions = work.sharedPositions[m], values = work.sharedValues[m];
+    for (let q = 0; q < objects.length; q++) { const e = fill[objects[q]]++; mask[e] = m; position[e] = positions[q]; value[e] = values[q]; }
+  }
+  return { work, start, mask, position, value, picks: problem.masks.map(() => []), totals: new Float64Array(M), dirty: new Uint8Array(M).fill(1) };
+}
+
+/**
+ * One relaxed round: every mask solved exactly with its shared objects' weights reduced by their multipliers (in
+ * `state`'s buffers), each mask's pick pushed to `picks`; returns the Lagrangian value (the masks' optima, then
+ * each shared object's multiplier, summed in that order). `changed` (null: all) lists the objects whose multiplier
+ * changed since the last round: only their weights are rewritten, and a mask none of them sits on keeps its solution.
+ */
+function relaxedRound(problem: JointProblem, state: RelaxedState, lambda: Float64Array, shared: Int32Array, picks: number[][], changed: Int32Array | null, nChanged: number): number {
+  const { buffers } = state.work, { start, mask, position, value, dirty } = state;
+  if (changed === null) {
+    for (let m = 0; m < problem.masks.length; m++) {
+      const w = buffers[m], positions = state.work.sharedPositions[m], objects = state.work.sharedObjects[m], values = state.work.sharedValues[m];
+      for (let q = 0; q < positions.length; q++) w[positions[q]] = values[q] - lambda[objects[q]];
+      dirty[m] = 1;
+    }
+  } else {
+    for (let c = 0; c < nChanged; c++) {
+      const o = changed[c];
+      for (let e = start[o]; e < start[o + 1]; e++) { buffers[mask[e]][position[e]] = value[e] - lambda[o]; dirty[mask[e]] = 1; }
+    }
+  }
   let L = 0;
   for (let m = 0; m < problem.masks.length; m++) {
-    const w = relaxed.buffers[m], positions = relaxed.sharedPositions[m], objects = relaxed.sharedObjects[m], values = relaxed.sharedValues[m];
-    for (let q = 0; q < positions.length; q++) w[positions[q]] = values[q] - lambda[objects[q]];
-    const r = solveSortedWeights(problem.masks[m].index, w);
-    picks.push(r.chosen);
-    L += r.total;
+    if (dirty[m]) {
+      const r = solveSortedWeights(problem.masks[m].index, buffers[m]);
+      state.picks[m] = r.chosen; state.totals[m] = r.total; dirty[m] = 0;
+    }
+    picks.push(state.picks[m]);
+    L += state.totals[m];
   }
   for (let q = 0; q < shared.length; q++) L += lambda[shared[q]];
   return L;
@@ -381,12 +427,16 @@ function subgradientNorm2(shared: Int32Array, use: Int32Array, lambda: Float64Ar
   return norm2;
 }
 
-/** Subgradient step on the coupling rows sum_m z_om <= 1: lambda = max(0, lambda - step (1 - use)). */
-function subgradientStep(shared: Int32Array, use: Int32Array, lambda: Float64Array, step: number): void {
+/** Subgradient step on the coupling rows sum_m z_om <= 1: lambda = max(0, lambda - step (1 - use)); lists the objects whose multiplier changed in `changed`, returns their number. */
+function subgradientStep(shared: Int32Array, use: Int32Array, lambda: Float64Array, step: number, changed: Int32Array): number {
+  let n = 0;
   for (let q = 0; q < shared.length; q++) {
     const o = shared[q], g = 1 - use[o];
-    lambda[o] = Math.max(0, lambda[o] - step * g);
+    const next = Math.max(0, lambda[o] - step * g);
+    if (next !== lambda[o]) changed[n++] = o;
+    lambda[o] = next;
   }
+  return n;
 }
 
 /** Joint allocation by Lagrangian relaxation with repair and best-response sweeps (the fast path). */
@@ -414,8 +464,11 @@ export function allocateJoint(problem: JointProblem, opts: JointOptions = {}): J
   const owner = new Int32Array(nObj);
   // Relaxed weights per mask (only shared objects carry a multiplier, so each round rewrites only their positions),
   // and separate buffers for the sweeps and steals of the repaired plans.
-  const relaxed = responseWork(problem, isShared);
-  const work = copyOfWork(relaxed);
+  const relaxed = relaxedState(problem, responseWork(problem, isShared));
+  const work = copyOfWork(relaxed.work);
+  // The objects whose multiplier the last step changed (the first round writes every weight).
+  const changed = new Int32Array(shared.length);
+  let nChanged = -1;
   // With whole-number weights the optimum is a whole number, so floor(upper bound) is a bound too.
   const integral = problem.weights.every((w) => Number.isInteger(w)) && problem.masks.every((set) => !set.values || set.values.every((v) => Number.isInteger(v)));
   const bound = (u: number) => (integral ? Math.floor(u + 1e-9) : u);
@@ -428,7 +481,7 @@ export function allocateJoint(problem: JointProblem, opts: JointOptions = {}): J
   for (; it < maxIt; it++) {
     // Relaxed problem: each mask exactly, weights reduced by the multipliers.
     const picks: number[][] = [];
-    const L = relaxedRound(problem, relaxed, lambda, shared, picks);
+    const L = relaxedRound(problem, relaxed, lambda, shared, picks, nChanged < 0 ? null : changed, nChanged);
     let improvedUpper = false;
     if (L < upper - 1e-12 * Math.abs(L)) { upper = L; sinceImproved = 0; improvedUpper = true; } else if (++sinceImproved >= 5) { theta /= 2; sinceImproved = 0; }
 
@@ -458,7 +511,7 @@ export function allocateJoint(problem: JointProblem, opts: JointOptions = {}): J
       if (v > bestValue) { bestValue = v; best = candidate; }
       break;
     }
-    subgradientStep(shared, use, lambda, (theta * (L - bestValue)) / norm2);
+    nChanged = subgradientStep(shared, use, lambda, (theta * (L - bestValue)) / norm2, changed);
     if (theta < 1e-4) break;
   }
   // Final polish of the best plan with steal moves, unless the bound already proves it within relGap.
