@@ -4,6 +4,7 @@
  * and end = y + minLength/2 + gap, which is exactly the contract's gap rule between minimal slits.
  * Building the index sorts once (O(n log n)); each solve for a new set of weights is O(n).
  */
+import { lowerBound, orderByValue } from '../numeric/orderByValue';
 
 /** Intervals sorted by end, with the predecessor count of each: pred[k] = number of sorted intervals ending at or before start of the k-th. */
 export interface IntervalIndex {
@@ -12,26 +13,10 @@ export interface IntervalIndex {
   pred: Int32Array;
 }
 
-/**
- * Positions 0..n-1 ordered by (value, position), the order of a sort by `values[a] - values[b] || a - b`: a native sort
- * of the values, then each position in turn takes the next free slot of its value's run (no comparator calls).
- */
-function orderByValue(values: ArrayLike<number>): Int32Array {
-  const n = values.length;
-  const sorted = Float64Array.from(values).sort();
-  if (n > 0 && Number.isNaN(sorted[n - 1])) return Int32Array.from({ length: n }, (_, i) => i).sort((a, b) => values[a] - values[b] || a - b);
-  const order = new Int32Array(n), taken = new Int32Array(n);
-  for (let i = 0; i < n; i++) {
-    const p = lowerBound(sorted, values[i]);
-    order[p + taken[p]++] = i;
-  }
-  return order;
-}
-
 /** Sort intervals by end and find each one's last compatible predecessor (binary search). */
 export function buildIntervalIndex(starts: ArrayLike<number>, ends: ArrayLike<number>): IntervalIndex {
   const n = starts.length;
-  const order = orderByValue(ends);
+  const order = orderByValue(ends) ?? Int32Array.from({ length: n }, (_, i) => i).sort((a, b) => ends[a] - ends[b] || a - b);
   const sortedEnds = new Float64Array(n);
   for (let k = 0; k < n; k++) sortedEnds[k] = ends[order[k]];
   const pred = new Int32Array(n);
@@ -130,26 +115,16 @@ interface StartView {
 
 const startViews = new WeakMap<IntervalIndex, StartView>();
 
-function lowerBound(a: Float64Array, v: number): number {
-  let lo = 0, hi = a.length;
-  while (lo < hi) {
-    const mid = (lo + hi) >> 1;
-    if (a[mid] < v) lo = mid + 1;
-    else hi = mid;
-  }
-  return lo;
-}
-
 /**
  * The intervals ordered by (start, index): the end order itself when it is already in that order (intervals of one
- * length, as a mask's minimal slits), checked in O(n); else sorted.
+ * length, as a mask's minimal slits), checked in O(n); else sorted (orderByValue).
  */
 function startOrder(index: IntervalIndex, starts: ArrayLike<number>): Int32Array {
   const e = index.order, n = e.length;
   let k = 1;
   while (k < n && (starts[e[k - 1]] < starts[e[k]] || (starts[e[k - 1]] === starts[e[k]] && e[k - 1] < e[k]))) k++;
   if (k >= n) return e;
-  return Int32Array.from({ length: n }, (_, i) => i).sort((a, b) => starts[a] - starts[b] || a - b);
+  return orderByValue(starts) ?? Int32Array.from({ length: n }, (_, i) => i).sort((a, b) => starts[a] - starts[b] || a - b);
 }
 
 function startView(index: IntervalIndex, starts: ArrayLike<number>, ends: ArrayLike<number>): StartView {
