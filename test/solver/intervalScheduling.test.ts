@@ -61,6 +61,28 @@ describe('weighted interval scheduling', () => {
     }
   });
 
+  it('orders by (end, index) and counts the ends at or before each start, with ties, signed zeros, infinities and mixed lengths', () => {
+    const rng = makeRng('wis-index-order');
+    for (let c = 0; c < 300; c++) {
+      const n = rng.int(30);
+      const starts: number[] = [], ends: number[] = [];
+      for (let i = 0; i < n; i++) {
+        const s = c % 5 === 0 && rng.int(4) === 0 ? -0 : rng.int(20) * 0.5 - 3;
+        starts.push(s);
+        ends.push(c % 7 === 0 && rng.int(9) === 0 ? Infinity : s + (c % 2 ? 3 : 0.5 + rng.int(8) * 0.5));
+      }
+      if (c % 5 === 0 && n > 0) ends[rng.int(n)] = 0;
+      const { order, pred } = buildIntervalIndex(starts, ends);
+      const expected = Array.from({ length: n }, (_, i) => i).sort((a, b) => ends[a] - ends[b] || a - b);
+      expect(Array.from(order)).toEqual(expected);
+      for (let k = 0; k < n; k++) {
+        let count = 0;
+        for (let j = 0; j < k; j++) if (ends[order[j]] <= starts[order[k]]) count++;
+        expect(pred[k]).toBe(count);
+      }
+    }
+  });
+
   it('takes the heavier of two overlapping slits and both of two that just touch', () => {
     expect(weightedIntervalScheduling([0, 3], [5, 8], [1, 2]).chosen).toEqual([1]);
     expect(weightedIntervalScheduling([0, 5], [5, 10], [1, 2]).chosen).toEqual([0, 1]);

@@ -136,17 +136,22 @@ export function prepareMask(planCtx: AllocationContext, mask: MaskPointing): Pre
   const tp = projectIndicesToMaskArcsec(mask, ctx.unit, near, ctx.footprintRadiusArcsec);
   const objects: number[] = [], xs: number[] = [], ys: number[] = [];
   const clearOfBox = L / 2 + box / 2 + g;
+  const boxY = boxes.map((b) => b.yArcsec);
   for (let k = 0; k < near.length; k++) {
     const x = tp.xArcsec[k], y = tp.yArcsec[k];
     if (!scienceSlitEligible(rules, x, y)) continue;
-    if (boxes.some((b) => Math.abs(b.yArcsec - y) < clearOfBox)) continue;
+    let clash = false;
+    for (let j = 0; j < boxY.length && !clash; j++) clash = Math.abs(boxY[j] - y) < clearOfBox;
+    if (clash) continue;
     objects.push(near[k]); xs.push(x); ys.push(y);
   }
+  const n = ys.length, starts = new Float64Array(n), ends = new Float64Array(n);
+  for (let k = 0; k < n; k++) { starts[k] = ys[k] - L / 2; ends[k] = ys[k] + L / 2 + g; }
   return {
     mask,
     boxes,
     alignmentShortfall: choice.ok ? undefined : { available: choice.available, compatibleMax: choice.compatibleMax },
-    candidates: { ...maskCandidateSet(objects, ys.map((y) => y - L / 2), ys.map((y) => y + L / 2 + g)), values: candidateValues(ctx, objects) },
+    candidates: { ...maskCandidateSet(objects, starts, ends), values: candidateValues(ctx, objects) },
     candidateX: Float64Array.from(xs),
     candidateY: Float64Array.from(ys),
   };

@@ -4,6 +4,7 @@
  * and end = y + minLength/2 + gap, which is exactly the contract's gap rule between minimal slits.
  * Building the index sorts once (O(n log n)); each solve for a new set of weights is O(n).
  */
+import { lowerBound, orderByValue } from '../numeric/orderByValue';
 
 /** Intervals sorted by end, with the predecessor count of each: pred[k] = number of sorted intervals ending at or before start of the k-th. */
 export interface IntervalIndex {
@@ -15,19 +16,24 @@ export interface IntervalIndex {
 /** Sort intervals by end and find each one's last compatible predecessor (binary search). */
 export function buildIntervalIndex(starts: ArrayLike<number>, ends: ArrayLike<number>): IntervalIndex {
   const n = starts.length;
-  const order = Int32Array.from({ length: n }, (_, i) => i).sort((a, b) => ends[a] - ends[b] || a - b);
+  const order = orderByValue(ends) ?? Int32Array.from({ length: n }, (_, i) => i).sort((a, b) => ends[a] - ends[b] || a - b);
   const sortedEnds = new Float64Array(n);
   for (let k = 0; k < n; k++) sortedEnds[k] = ends[order[k]];
   const pred = new Int32Array(n);
-  for (let k = 0; k < n; k++) {
+  for (let k = 0, prevS = Infinity, lo = 0; k < n; k++) {
     const s = starts[order[k]];
-    // Number of sorted ends <= s (upper bound).
-    let lo = 0, hi = k;
-    while (lo < hi) {
-      const mid = (lo + hi) >> 1;
-      if (sortedEnds[mid] <= s) lo = mid + 1;
-      else hi = mid;
+    // Number of sorted ends <= s (upper bound): scanning on from the previous one while the starts rise (they do for
+    // intervals of one length), else by binary search.
+    if (s >= prevS) { while (lo < k && sortedEnds[lo] <= s) lo++; } else {
+      let hi = k;
+      lo = 0;
+      while (lo < hi) {
+        const mid = (lo + hi) >> 1;
+        if (sortedEnds[mid] <= s) lo = mid + 1;
+        else hi = mid;
+      }
     }
+    prevS = s;
     pred[k] = lo;
   }
   return { order, pred };
@@ -100,39 +106,47 @@ interface StartView {
   order: Int32Array;
   sortedStarts: Float64Array;
   nextAfterEnd: Int32Array;
-  /** Position of each original interval in the end-sorted order. */
-  endPos: Int32Array;
+  /** Per original interval i: the end-sorted intervals ending at or before its start (index.pred at i's end position). */
+  predOf: Int32Array;
+  /** Per original interval i: the first start-sorted position starting at or after its end. */
+  nextAfterEndOf: Int32Array;
   maxLength: number;
 }
 
 const startViews = new WeakMap<IntervalIndex, StartView>();
 
-function lowerBound(a: Float64Array, v: number): number {
-  let lo = 0, hi = a.length;
-  while (lo < hi) {
-    const mid = (lo + hi) >> 1;
-    if (a[mid] < v) lo = mid + 1;
-    else hi = mid;
-  }
-  return lo;
+/**
+ * The intervals ordered by (start, index): the end order itself when it is already in that order (intervals of one
+ * length, as a mask's minimal slits), checked in O(n); else sorted (orderByValue).
+ */
+function startOrder(index: IntervalIndex, starts: ArrayLike<number>): Int32Array {
+  const e = index.order, n = e.length;
+  let k = 1;
+  while (k < n && (starts[e[k - 1]] < starts[e[k]] || (starts[e[k - 1]] === starts[e[k]] && e[k - 1] < e[k]))) k++;
+  if (k >= n) return e;
+  return orderByValue(starts) ?? Int32Array.from({ length: n }, (_, i) => i).sort((a, b) => starts[a] - starts[b] || a - b);
 }
 
 function startView(index: IntervalIndex, starts: ArrayLike<number>, ends: ArrayLike<number>): StartView {
   let v = startViews.get(index);
   if (v) return v;
   const n = starts.length;
-  const order = Int32Array.from({ length: n }, (_, i) => i).sort((a, b) => starts[a] - starts[b] || a - b);
+  const order = startOrder(index, starts);
   const sortedStarts = new Float64Array(n);
   for (let k = 0; k < n; k++) sortedStarts[k] = starts[order[k]];
-  const nextAfterEnd = new Int32Array(n);
+  const nextAfterEnd = new Int32Array(n), nextAfterEndOf = new Int32Array(n);
   let maxLength = 0;
-  for (let k = 0; k < n; k++) {
-    nextAfterEnd[k] = lowerBound(sortedStarts, ends[order[k]]);
-    maxLength = Math.max(maxLength, ends[order[k]] - starts[order[k]]);
+  // lowerBound of each end, scanning on from the previous answer while the ends rise (they do for one slit length).
+  for (let k = 0, p = 0, prev = -Infinity; k < n; k++) {
+    const i = order[k], e = ends[i];
+    if (e >= prev) { while (p < n && sortedStarts[p] < e) p++; } else p = lowerBound(sortedStarts, e);
+    prev = e;
+    nextAfterEnd[k] = p; nextAfterEndOf[i] = p;
+    maxLength = Math.max(maxLength, e - starts[i]);
   }
-  const endPos = new Int32Array(n);
-  for (let k = 0; k < n; k++) endPos[index.order[k]] = k;
-  v = { order, sortedStarts, nextAfterEnd, endPos, maxLength };
+  const predOf = new Int32Array(n);
+  for (let k = 0; k < n; k++) predOf[index.order[k]] = index.pred[k];
+  v = { order, sortedStarts, nextAfterEnd, predOf, nextAfterEndOf, maxLength };
   startViews.set(index, v);
   return v;
 }
@@ -159,21 +173,20 @@ export function optimumWithoutEach(index: IntervalIndex, starts: ArrayLike<numbe
     const take = w > 0 ? w + G[sv.nextAfterEnd[k]] : -Infinity;
     G[k] = take > G[k + 1] ? take : G[k + 1];
   }
-  // Per original interval: best before its start plus best after its end, and the best plan containing it.
-  const apart = new Float64Array(n), containing = new Float64Array(n);
-  for (let i = 0; i < n; i++) {
-    apart[i] = F[index.pred[sv.endPos[i]]] + G[lowerBound(sv.sortedStarts, ends[i])];
-    containing[i] = weights[i] > 0 ? apart[i] + weights[i] : -Infinity;
-  }
+  // Per original interval (only those asked for and their overlaps): best before its start plus best after its end,
+  // and the best plan containing it.
+  const { predOf, nextAfterEndOf } = sv;
   const out = new Float64Array(n).fill(NaN);
   const count = only ? only.length : n;
   for (let q = 0; q < count; q++) {
     const i = only ? only[q] : q;
-    let best = apart[i];
+    let best = F[predOf[i]] + G[nextAfterEndOf[i]];
     // Intervals overlapping i start in (s_i - maxLength, e_i).
     for (let k = lowerBound(sv.sortedStarts, starts[i] - sv.maxLength); k < n && sv.sortedStarts[k] < ends[i]; k++) {
       const j = sv.order[k];
-      if (j !== i && ends[j] > starts[i] && containing[j] > best) best = containing[j];
+      if (j === i || !(ends[j] > starts[i]) || !(weights[j] > 0)) continue;
+      const containing = F[predOf[j]] + G[nextAfterEndOf[j]] + weights[j];
+      if (containing > best) best = containing;
     }
     out[i] = best;
   }

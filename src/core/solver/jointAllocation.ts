@@ -76,10 +76,14 @@ function overMaskObjects(problem: JointProblem): JointProblem {
   return problem.weights.length > 2 * n + 1024 ? compactJointProblem(problem.weights, problem.masks) : problem;
 }
 
-/** Total weight of a joint selection. */
+/** Total weight of a joint selection (summed mask by mask, each mask's picks in their order). */
 export function jointObjective(problem: JointProblem, chosen: readonly (readonly number[])[]): number {
   let t = 0;
-  chosen.forEach((sel, m) => { for (const k of sel) t += candidateValue(problem, m, k); });
+  for (let m = 0; m < chosen.length; m++) {
+    const sel = chosen[m], set = problem.masks[m], values = set.values;
+    if (values) for (let q = 0; q < sel.length; q++) t += values[sel[q]];
+    else for (let q = 0; q < sel.length; q++) t += problem.weights[set.objects[sel[q]]];
+  }
   return t;
 }
 
@@ -100,11 +104,13 @@ export interface ResponseWork {
   sharedPositions: Int32Array[];
   sharedObjects: Int32Array[];
   sharedValues: Float64Array[];
+  /** The problem's sharedObjects, the lists above were built from. */
+  shared: Uint8Array;
 }
 
 /** Build the re-solve buffers of a problem (O(total candidates)); worth it when a problem is re-solved many times. */
 export function responseWork(problem: JointProblem, shared: Uint8Array = sharedObjects(problem)): ResponseWork {
-  const work: ResponseWork = { buffers: [], sharedPositions: [], sharedObjects: [], sharedValues: [] };
+  const work: ResponseWork = { buffers: [], sharedPositions: [], sharedObjects: [], sharedValues: [], shared };
   for (const set of problem.masks) {
     const { order } = set.index, n = order.length;
     const w = new Float64Array(n);
@@ -125,6 +131,11 @@ export function responseWork(problem: JointProblem, shared: Uint8Array = sharedO
   return work;
 }
 
+/** A second set of re-solve buffers for the same problem (its own weight buffers, the read-only shared lists of `work`). */
+function copyOfWork(work: ResponseWork): ResponseWork {
+  return { ...work, buffers: work.buffers.map((b) => b.slice()) };
+}
+
 let brBuf = new Float64Array(0);
 
 /** Weights of mask m's candidates (original order) with objects owned by another mask set to 0, in a scratch buffer reused by the next call. */
@@ -132,9 +143,10 @@ function availableWeights(problem: JointProblem, owner: Int32Array, m: number): 
   const set = problem.masks[m];
   const n = set.objects.length;
   if (brBuf.length < n) brBuf = new Float64Array(Math.max(n, brBuf.length * 2));
+  const { objects, values } = set, weights = problem.weights;
   for (let k = 0; k < n; k++) {
-    const o = set.objects[k];
-    brBuf[k] = owner[o] === -1 || owner[o] === m ? candidateValue(problem, m, k) : 0;
+    const o = objects[k], b = owner[o];
+    brBuf[k] = b === -1 || b === m ? (values ? values[k] : weights[o]) : 0;
   }
   return brBuf;
 }
@@ -181,8 +193,13 @@ export function resolveOneMask(problem: JointProblem, chosen: readonly (readonly
 
 /** Best-response sweeps over all masks until a sweep gains nothing (or maxSweeps); `work` only speeds it up. */
 export function improveByBestResponse(problem: JointProblem, chosen: number[][], maxSweeps = 10, work?: ResponseWork): number[][] {
-  problem = overMaskObjects(problem);
-  const owner = ownerOf(problem, chosen);
+  sweepBestResponses(overMaskObjects(problem), chosen, maxSweeps, work);
+  return chosen;
+}
+
+/** improveByBestResponse in place on a problem over its mask objects, returning jointObjective of the result (the same sum). */
+function sweepBestResponses(problem: JointProblem, chosen: number[][], maxSweeps: number, work?: ResponseWork, owner?: Int32Array): number {
+  owner = ownerOf(problem, chosen, owner);
   let value = jointObjective(problem, chosen);
   for (let sweep = 0; sweep < maxSweeps; sweep++) {
     for (let m = 0; m < problem.masks.length; m++) bestResponse(problem, owner, chosen, m, work);
@@ -190,7 +207,7 @@ export function improveByBestResponse(problem: JointProblem, chosen: number[][],
     if (v <= value * (1 + 1e-12)) { value = v; break; }
     value = v;
   }
-  return chosen;
+  return value;
 }
 
 function maskValue(problem: JointProblem, chosen: readonly (readonly number[])[], m: number): number {
@@ -211,8 +228,8 @@ export function sharedObjects(problem: JointProblem): Uint8Array {
  * What each held shared object is worth to its holder: the holder's value minus its exact optimum without that
  * object. Fills `loss` for the shared objects (`shared` from sharedObjects) held by any mask; others are untouched.
  */
-function holderLosses(problem: JointProblem, chosen: readonly (readonly number[])[], shared: Uint8Array, loss: Float64Array): void {
-  const owner = ownerOf(problem, chosen);
+function holderLosses(problem: JointProblem, chosen: readonly (readonly number[])[], shared: Uint8Array, loss: Float64Array, ownerBuf?: Int32Array): void {
+  const owner = ownerOf(problem, chosen, ownerBuf);
   for (let b = 0; b < problem.masks.length; b++) {
     const set = problem.masks[b];
     const held = chosen[b].filter((k) => shared[set.objects[k]] === 1);
@@ -230,13 +247,14 @@ function holderLosses(problem: JointProblem, chosen: readonly (readonly number[]
  * another mask holds. True when some held object is worth taking at that price.
  */
 function stealWeights(problem: JointProblem, a: number, owner: Int32Array, loss: Float64Array, w: Float64Array): boolean {
-  const setA = problem.masks[a];
+  const { objects, values } = problem.masks[a], weights = problem.weights;
   let anyPriced = false;
   for (let k = 0; k < w.length; k++) {
-    const o = setA.objects[k];
+    const o = objects[k];
     const b = owner[o];
-    if (b === -1 || b === a) { w[k] = candidateValue(problem, a, k); continue; }
-    w[k] = candidateValue(problem, a, k) - loss[o];
+    const v = values ? values[k] : weights[o];
+    if (b === -1 || b === a) { w[k] = v; continue; }
+    w[k] = v - loss[o];
     if (w[k] > 1e-12) anyPriced = true;
   }
   return anyPriced;
@@ -251,7 +269,7 @@ export function improveBySteals(problem: JointProblem, chosen: number[][], maxRo
   problem = overMaskObjects(problem);
   const M = problem.masks.length;
   let total = jointObjective(problem, chosen);
-  const shared = sharedObjects(problem);
+  const shared = work ? work.shared : sharedObjects(problem);
   work ??= responseWork(problem, shared);
   const loss = new Float64Array(problem.weights.length);
   const ownerBuf = new Int32Array(problem.weights.length), trialOwnerBuf = new Int32Array(problem.weights.length);
@@ -259,7 +277,7 @@ export function improveBySteals(problem: JointProblem, chosen: number[][], maxRo
     let accepted = false;
     // Holder's loss per held shared object (exact, one pass per mask), priced once per round: prices are a guide,
     // and every move is verified on the true total, so a price made stale by an earlier move of the round costs nothing.
-    holderLosses(problem, chosen, shared, loss);
+    holderLosses(problem, chosen, shared, loss, ownerBuf);
     for (let a = 0; a < M; a++) {
       const owner = ownerOf(problem, chosen, ownerBuf);
       const setA = problem.masks[a];
@@ -312,21 +330,76 @@ export interface JointOptions {
 // runs hot, where one long function would wait for (and be re-optimised at) every branch it has not run yet.
 
 /**
- * One relaxed round: every mask solved exactly with its shared objects' weights reduced by their multipliers (in
- * `relaxed`'s buffers), each mask's pick pushed to `picks`; returns the Lagrangian value (the masks' optima, then
- * each shared object's multiplier, summed in that order).
+ * The relaxed problem's state between rounds: its weight buffers (ResponseWork), where each shared object sits in them
+ * (per object o, entries start[o]..start[o + 1]: mask, position in that mask's buffer, value there), and each mask's
+ * last exact solution with whether its weights changed since.
  */
-function relaxedRound(problem: JointProblem, relaxed: ResponseWork, lambda: Float64Array, shared: Int32Array, picks: number[][]): number {
+interface RelaxedState {
+  work: ResponseWork;
+  start: Int32Array;
+  mask: Int32Array;
+  position: Int32Array;
+  value: Float64Array;
+  picks: number[][];
+  totals: Float64Array;
+  dirty: Uint8Array;
+}
+
+/** The relaxed state of a problem with multipliers 0 (every mask to solve). O(total shared candidates). */
+function relaxedState(problem: JointProblem, work: ResponseWork): RelaxedState {
+  const nObj = problem.weights.length, M = problem.masks.length;
+  const start = new Int32Array(nObj + 1);
+  for (let m = 0; m < M; m++) { const objects = work.sharedObjects[m]; for (let q = 0; q < objects.length; q++) start[objects[q] + 1]++; }
+  for (let o = 0; o < nObj; o++) start[o + 1] += start[o];
+  const fill = start.slice(0, nObj);
+  const mask = new Int32Array(start[nObj]), position = new Int32Array(start[nObj]), value = new Float64Array(start[nObj]);
+  for (let m = 0; m < M; m++) {
+    const objects = work.sharedObjects[m], positions = work.sharedPositions[m], values = work.sharedValues[m];
+    for (let q = 0; q < objects.length; q++) { const e = fill[objects[q]]++; mask[e] = m; position[e] = positions[q]; value[e] = values[q]; }
+  }
+  return { work, start, mask, position, value, picks: problem.masks.map(() => []), totals: new Float64Array(M), dirty: new Uint8Array(M).fill(1) };
+}
+
+/**
+ * One relaxed round: every mask solved exactly with its shared objects' weights reduced by their multipliers (in
+ * `state`'s buffers), each mask's pick pushed to `picks`; returns the Lagrangian value (the masks' optima, then
+ * each shared object's multiplier, summed in that order). `changed` (null: all) lists the objects whose multiplier
+ * changed since the last round: only their weights are rewritten, and a mask none of them sits on keeps its solution.
+ */
+function relaxedRound(problem: JointProblem, state: RelaxedState, lambda: Float64Array, shared: Int32Array, picks: number[][], changed: Int32Array | null, nChanged: number): number {
+  const { buffers } = state.work, { start, mask, position, value, dirty } = state;
+  if (changed === null) {
+    for (let m = 0; m < problem.masks.length; m++) {
+      const w = buffers[m], positions = state.work.sharedPositions[m], objects = state.work.sharedObjects[m], values = state.work.sharedValues[m];
+      for (let q = 0; q < positions.length; q++) w[positions[q]] = values[q] - lambda[objects[q]];
+      dirty[m] = 1;
+    }
+  } else {
+    for (let c = 0; c < nChanged; c++) {
+      const o = changed[c];
+      for (let e = start[o]; e < start[o + 1]; e++) { buffers[mask[e]][position[e]] = value[e] - lambda[o]; dirty[mask[e]] = 1; }
+    }
+  }
   let L = 0;
   for (let m = 0; m < problem.masks.length; m++) {
-    const w = relaxed.buffers[m], positions = relaxed.sharedPositions[m], objects = relaxed.sharedObjects[m], values = relaxed.sharedValues[m];
-    for (let q = 0; q < positions.length; q++) w[positions[q]] = values[q] - lambda[objects[q]];
-    const r = solveSortedWeights(problem.masks[m].index, w);
-    picks.push(r.chosen);
-    L += r.total;
+    if (dirty[m]) {
+      const r = solveSortedWeights(problem.masks[m].index, buffers[m]);
+      state.picks[m] = r.chosen; state.totals[m] = r.total; dirty[m] = 0;
+    }
+    picks.push(state.picks[m]);
+    L += state.totals[m];
   }
   for (let q = 0; q < shared.length; q++) L += lambda[shared[q]];
   return L;
+}
+
+/** Uses per object of the relaxed picks (into `use`), for the subgradient of a round whose repaired plan is not needed. */
+function countUses(problem: JointProblem, picks: readonly (readonly number[])[], use: Int32Array): void {
+  use.fill(0);
+  for (let m = 0; m < picks.length; m++) {
+    const objects = problem.masks[m].objects, pick = picks[m];
+    for (let q = 0; q < pick.length; q++) use[objects[pick[q]]]++;
+  }
 }
 
 /** Round `it`'s repair of relaxed picks: a duplicated object stays on the first mask (from mask it mod M on) that took it; counts uses per object. */
@@ -354,12 +427,16 @@ function subgradientNorm2(shared: Int32Array, use: Int32Array, lambda: Float64Ar
   return norm2;
 }
 
-/** Subgradient step on the coupling rows sum_m z_om <= 1: lambda = max(0, lambda - step (1 - use)). */
-function subgradientStep(shared: Int32Array, use: Int32Array, lambda: Float64Array, step: number): void {
+/** Subgradient step on the coupling rows sum_m z_om <= 1: lambda = max(0, lambda - step (1 - use)); lists the objects whose multiplier changed in `changed`, returns their number. */
+function subgradientStep(shared: Int32Array, use: Int32Array, lambda: Float64Array, step: number, changed: Int32Array): number {
+  let n = 0;
   for (let q = 0; q < shared.length; q++) {
     const o = shared[q], g = 1 - use[o];
-    lambda[o] = Math.max(0, lambda[o] - step * g);
+    const next = Math.max(0, lambda[o] - step * g);
+    if (next !== lambda[o]) changed[n++] = o;
+    lambda[o] = next;
   }
+  return n;
 }
 
 /** Joint allocation by Lagrangian relaxation with repair and best-response sweeps (the fast path). */
@@ -387,8 +464,11 @@ export function allocateJoint(problem: JointProblem, opts: JointOptions = {}): J
   const owner = new Int32Array(nObj);
   // Relaxed weights per mask (only shared objects carry a multiplier, so each round rewrites only their positions),
   // and separate buffers for the sweeps and steals of the repaired plans.
-  const relaxed = responseWork(problem, isShared);
-  const work = responseWork(problem, isShared);
+  const relaxed = relaxedState(problem, responseWork(problem, isShared));
+  const work = copyOfWork(relaxed.work);
+  // The objects whose multiplier the last step changed (the first round writes every weight).
+  const changed = new Int32Array(shared.length);
+  let nChanged = -1;
   // With whole-number weights the optimum is a whole number, so floor(upper bound) is a bound too.
   const integral = problem.weights.every((w) => Number.isInteger(w)) && problem.masks.every((set) => !set.values || set.values.every((v) => Number.isInteger(v)));
   const bound = (u: number) => (integral ? Math.floor(u + 1e-9) : u);
@@ -401,21 +481,23 @@ export function allocateJoint(problem: JointProblem, opts: JointOptions = {}): J
   for (; it < maxIt; it++) {
     // Relaxed problem: each mask exactly, weights reduced by the multipliers.
     const picks: number[][] = [];
-    const L = relaxedRound(problem, relaxed, lambda, shared, picks);
+    const L = relaxedRound(problem, relaxed, lambda, shared, picks, nChanged < 0 ? null : changed, nChanged);
     let improvedUpper = false;
     if (L < upper - 1e-12 * Math.abs(L)) { upper = L; sinceImproved = 0; improvedUpper = true; } else if (++sinceImproved >= 5) { theta /= 2; sinceImproved = 0; }
 
     // Repair: a duplicated object stays on the first mask (rotating the order) that took it; then sweeps.
-    const repaired = repairPicks(problem, picks, it, use, owner);
-    // The repair and sweeps cost more than the relaxed solve: run them when the bound improved, and every 8th round.
+    // The repair and sweeps cost more than the relaxed solve: run them when the bound improved, and every 8th round
+    // (other rounds only count the uses, for the subgradient).
+    let repaired: number[][] | null = null;
     if (improvedUpper || it % 8 === 0) {
-      let candidate = improveByBestResponse(problem, repaired, 2, work);
-      let v = jointObjective(problem, candidate);
+      repaired = repairPicks(problem, picks, it, use, owner);
+      let candidate = repaired;
+      let v = sweepBestResponses(problem, candidate, 2, work, owner);
       // Steal moves are dearer: only for the first plan that comes within 0.2 % of the best so far (and the final one).
       if (steals && stealBudget > 0 && v >= bestValue * (1 - 2e-3)) {
         stealBudget--; candidate = improveBySteals(problem, candidate, 1, work); v = jointObjective(problem, candidate); }
       if (v > bestValue) { bestValue = v; best = candidate; stall = 0; }
-    }
+    } else countUses(problem, picks, use);
     if (bound(upper) - bestValue <= relGap * Math.abs(upper)) break;
     // Long without a better plan while already within 0.1 % of the bound: stop (the steals below polish).
     if (++stall >= 30 && bound(upper) - bestValue <= 1e-3 * Math.abs(upper)) break;
@@ -424,12 +506,12 @@ export function allocateJoint(problem: JointProblem, opts: JointOptions = {}): J
     const norm2 = subgradientNorm2(shared, use, lambda);
     if (norm2 === 0) {
       // The relaxed picks are feasible and complementary, hence optimal: keep them (after sweeps, which cannot lose).
-      const candidate = improveByBestResponse(problem, repaired, 1, work);
-      const v = jointObjective(problem, candidate);
+      const candidate = repaired ?? repairPicks(problem, picks, it, use, owner);
+      const v = sweepBestResponses(problem, candidate, 1, work, owner);
       if (v > bestValue) { bestValue = v; best = candidate; }
       break;
     }
-    subgradientStep(shared, use, lambda, (theta * (L - bestValue)) / norm2);
+    nChanged = subgradientStep(shared, use, lambda, (theta * (L - bestValue)) / norm2, changed);
     if (theta < 1e-4) break;
   }
   // Final polish of the best plan with steal moves, unless the bound already proves it within relGap.

@@ -35,6 +35,7 @@ import { sectorOf } from './objective';
 import { skySlitMuThreshold } from './skySlitRule';
 import { parseDecDeg, parseRaDeg } from '../sky/sexagesimal';
 import { planSkyMagPerArcsec2 } from '../observe/planSky';
+import { orderByValue } from '../numeric/orderByValue';
 import type { ObservingSection } from '../plan/observingSection';
 
 /** Settings after defaults. */
@@ -642,7 +643,9 @@ export function starlightTaken(st: StarlightStage, masks: readonly MaskSolution[
  */
 export function spanOverlaps(spans: readonly Span[], gapArcsec: number): (lo: number, hi: number) => number[] {
   const n = spans.length;
-  const order = Array.from({ length: n }, (_, i) => i).sort((a, b) => spans[a].lo - spans[b].lo || a - b);
+  const los = new Float64Array(n);
+  for (let i = 0; i < n; i++) los[i] = spans[i].lo;
+  const order = orderByValue(los) ?? Array.from({ length: n }, (_, i) => i).sort((a, b) => spans[a].lo - spans[b].lo || a - b);
   const loR = new Float64Array(n), hiR = new Float64Array(n), maxHi = new Float64Array(n);
   order.forEach((i, k) => {
     loR[k] = spans[i].lo - gapArcsec - MARGIN;
