@@ -53,7 +53,8 @@ export function centredRectFits(rules: EligibilityRules, xArcsec: number, yArcse
 
 /** True when every required line of a slit at mask x (arcsec) is usable (wavelength rule). */
 export function wavelengthOk(rules: EligibilityRules, xArcsec: number): boolean {
-  for (const [a, b] of rules.usableXArcsec) if (xArcsec >= a && xArcsec <= b) return true;
+  const usable = rules.usableXArcsec;
+  for (let i = 0; i < usable.length; i++) if (xArcsec >= usable[i][0] && xArcsec <= usable[i][1]) return true;
   return false;
 }
 

@@ -36,7 +36,7 @@ import { galaxyRadiusAndAzimuth } from '../sky/galaxyRadius';
 import { alignmentCapacity, allocateForPointings, type PointingsAllocation } from './allocateMasks';
 import { solveIntervalIndex } from './intervalScheduling';
 import { allocateGreedyMaskByMask, improveByBestResponse, resolveOneMask, type JointProblem, type MaskCandidateSet } from './jointAllocation';
-import { chooseSlots, freeSlotsOfTracers, galaxyOnMask, starlightRadiusCeilingRe, type GalaxyOnMask, type Span } from './starlight';
+import { chooseSlots, freeSlotsOfTracers, galaxyOnMask, starlightRadiusCeilingRe, withoutSkySlits, type GalaxyOnMask, type Span } from './starlight';
 import { addStarlight, addTracer, emptyTally, mergeTallies, objectiveValue, starlightCeiling, type ObjectiveValue, type Tally } from './objective';
 import type { SearchRules } from '../plan/searchSection';
 import { makeRng } from '../numeric/random';
@@ -556,7 +556,7 @@ function proxyFreeSlots(planEnv: SearchEnv, pointing: MaskPointing, p: ProxyMask
 function addProxyStarlight(planEnv: SearchEnv, pointing: MaskPointing, om: GalaxyOnMask, slots: readonly Span[], t: Tally): void {
   const env = envFor(planEnv, pointing);
   const { ctx } = env;
-  const { starlight } = chooseSlots(om, ctx.rules, slots, { ...env.starlight, skyPerMask: 0 }, new Set(), 1, 25, ctx.profile.slits.gapArcsec);
+  const { starlight } = chooseSlots(om, ctx.rules, slots, withoutSkySlits(env.starlight), new Set(), 1, 25, ctx.profile.slits.gapArcsec);
   for (const c of starlight) addStarlight(t, c.rRe, c.azimuthDeg);
 }
 

@@ -7,14 +7,14 @@
  */
 import { polygonBounds } from '../geometry/polygon';
 import type { MaskPointing } from '../geometry/maskSolution';
-import { skyToTangentArcsec, tangentCentre } from '../sky/tangentPlane';
+import { skyToTangentArcsec, tangentCentre, type TangentCentre } from '../sky/tangentPlane';
 import { RAD_PER_DEG } from '../sky/angles';
 import { PMath } from '../numeric/portableMath';
-import { wavelengthOk } from '../profile/eligibility';
+import { wavelengthOk, type EligibilityRules } from '../profile/eligibility';
 import { alignmentCapacity } from './allocateMasks';
 import { maskCandidateSet, type MaskCandidateSet } from './jointAllocation';
-import { footprintRaster, rasterFits } from './footprintRaster';
-import { maskBasis, maskCosC, maskPointToSkyDeg, unitToMaskArcsec } from './maskTargets';
+import { footprintRaster, rasterFits, type FootprintRaster } from './footprintRaster';
+import { maskBasis, maskCosC, maskPointToSkyDeg, unitToMaskArcsec, type MaskBasis } from './maskTargets';
 import { candidateValues } from './maskContext';
 import { cellsInRectangle, PROXY_CELL_ARCSEC, PROXY_TRIAL_BUDGET, proxyCellPair, type ProxyCells } from './proxyCells';
 import { tracerWeightsOf, type SearchEnv } from './searchEnv';
@@ -57,7 +57,7 @@ export function proxyModel(env: SearchEnv, options: { thinning?: boolean } = {})
   const { ctx } = env;
   const profile = ctx.profile;
   const b = polygonBounds(profile.footprint);
-  const L = profile.slits.minLengthArcsec, gap = profile.slits.gapArcsec;
+  const L = profile.slits.minLengthArcsec, gap = profile.slits.gapArcsec, halfL = L / 2;
   const slitRaster = footprintRaster(profile.footprint, profile.slits.widthArcsec / 2, L / 2);
   const gc = tangentCentre(ctx.galaxy.raDeg, ctx.galaxy.decDeg);
   // The galaxy's and a mask's tangent planes differ by far less than this margin near the galaxy: the scales differ by
@@ -81,45 +81,20 @@ export function proxyModel(env: SearchEnv, options: { thinning?: boolean } = {})
   const identity = new Int32Array(searchCells.objects.length);
   for (let k = 0; k < identity.length; k++) identity[k] = k;
 
+  // What every gather of this model shares (bounds, grown bounds, rules, raster): one object, fixed for the model.
+  const limits: GatherLimits = {
+    minX: b.minX, maxX: b.maxX, minY: b.minY, maxY: b.maxY, loX, hiX, loY, hiY,
+    cellLoX: b.minX - grow, cellHiX: b.maxX + grow, cellLoY: b.minY - grow, cellHiY: b.maxY + grow,
+    rules: ctx.rules, slitRaster,
+  };
+
   /** Candidates of one index on a mask: object indices and mask y, in y order, no allocation per target. */
   function gatherer(cells: ProxyCells) {
     const size = cells.objects.length;
     const bufObj = new Int32Array(size), bufY = new Float64Array(size), keys = new Float64Array(size);
     const sortWork: SortWork = { out: new Int32Array(size), start: new Int32Array(size + 1), fill: new Int32Array(size) };
-    const { nCells, cellOnPlane, cellXiArcsec, cellEtaArcsec, cellStart, objects: pObj, ux: pX, uy: pY, uz: pZ, xiArcsec: pXi, etaArcsec: pEta } = cells;
-    return (p: MaskPointing, liberal: boolean): { objects: Int32Array; y: Float64Array; starts: Float64Array; ends: Float64Array } => {
-      const basis = maskBasis(p);
-      const at = { xArcsec: 0, yArcsec: 0 };
-      const pc = skyToTangentArcsec(gc, p.raDeg, p.decDeg);
-      // The mask's +y direction as seen in the galaxy's tangent plane (North turns between the two tangent points).
-      const up = maskPointToSkyDeg(p, 0, 60), pu = skyToTangentArcsec(gc, up.raDeg, up.decDeg);
-      const upA = pc && pu ? PMath.atan2(pu.xiArcsec - pc.xiArcsec, pu.etaArcsec - pc.etaArcsec) : p.paDeg * RAD_PER_DEG;
-      const gsp = PMath.sin(upA), gcp = PMath.cos(upA);
-      const pcXi = pc ? pc.xiArcsec : 0, pcEta = pc ? pc.etaArcsec : 0;
-      let n = 0;
-      for (let c = 0; c < nCells; c++) {
-        const culled = pc !== null && cellOnPlane[c] === 1;
-        if (culled) {
-          const dxi = cellXiArcsec[c] - pcXi, deta = cellEtaArcsec[c] - pcEta;
-          const mx = dxi * gcp - deta * gsp, my = dxi * gsp + deta * gcp;
-          if (mx < b.minX - grow || mx > b.maxX + grow || my < b.minY - grow || my > b.maxY + grow) continue;
-        }
-        for (let q = cellStart[c], qEnd = cellStart[c + 1]; q < qEnd; q++) {
-          if (culled) {
-            const dxi = pXi[q] - pcXi, deta = pEta[q] - pcEta;
-            const mx = dxi * gcp - deta * gsp, my = dxi * gsp + deta * gcp;
-            if (mx < loX || mx > hiX || my < loY || my > hiY) continue;
-          }
-          const px = pX[q], py = pY[q], pz = pZ[q];
-          const cosC = maskCosC(basis, px, py, pz);
-          if (cosC < 0.9) continue; // farther than ~25 degrees: never on a mask
-          unitToMaskArcsec(basis, px, py, pz, cosC, at);
-          const x = at.xArcsec, y = at.yArcsec;
-          if (x < b.minX || x > b.maxX || y < b.minY || y > b.maxY) continue;
-          if (!wavelengthOk(ctx.rules, x) || (!liberal && !rasterFits(slitRaster, x, y))) continue;
-          bufObj[n] = pObj[q]; bufY[n] = y; n++;
-        }
-      }
+    return (f: TrialFrame): { objects: Int32Array; y: Float64Array; starts: Float64Array; ends: Float64Array } => {
+      const n = gatherOnMask(cells, f, limits, bufObj, bufY);
       // Order by y quantised to 1e-4 arcsec (ordering only), ties by position: a bucket sort, O(n) for spread-out y.
       for (let k = 0; k < n; k++) keys[k] = Math.floor((bufY[k] + 1e4) * 1e4);
       const byY = orderByKeyInto(keys, n, sortWork);
@@ -127,7 +102,7 @@ export function proxyModel(env: SearchEnv, options: { thinning?: boolean } = {})
       for (let k = 0; k < n; k++) {
         const j = byY[k];
         objects[k] = bufObj[j]; y[k] = bufY[j];
-        starts[k] = y[k] - L / 2; ends[k] = y[k] + L / 2 + gap;
+        starts[k] = y[k] - halfL; ends[k] = y[k] + halfL + gap;
       }
       return { objects, y, starts, ends };
     };
@@ -136,12 +111,83 @@ export function proxyModel(env: SearchEnv, options: { thinning?: boolean } = {})
   return (p: MaskPointing, liberal = false): ProxyMask => {
     // The liberal superset feeds a proven bound: every tracer, never the thinned cells.
     const gather = !liberal || searchCells.perCellCap === null ? searchGather : (allGather ??= gatherer(cellPair.all()));
-    const { objects, y, starts, ends } = gather(p, liberal);
+    const { objects, y, starts, ends } = gather(trialFrame(gc, p.raDeg, p.decDeg, p.paDeg, liberal));
     // The allocation's own alignment rule (shared stars allowed; boxes clear of each other along y).
     const alignmentMax = liberal ? 0 : alignmentCapacity(ctx, p).compatibleMax;
     // The liberal set's interval index is built exactly (sorted by end), not from the packed keys.
     return { set: liberal ? maskCandidateSet(objects, starts, ends) : equalLengthCandidateSet(objects, starts, ends, identity), y, alignmentMax };
   };
+}
+
+/** What the gathers of one proxy model share: footprint bounds, bounds grown for tracers and for cell centres (arcsec), rules, raster. */
+interface GatherLimits {
+  minX: number; maxX: number; minY: number; maxY: number;
+  loX: number; hiX: number; loY: number; hiY: number;
+  cellLoX: number; cellHiX: number; cellLoY: number; cellHiY: number;
+  rules: EligibilityRules;
+  slitRaster: FootprintRaster;
+}
+
+/**
+ * One trial's constants: the mask's basis, its centre in the galaxy's tangent plane (arcsec; onPlane false when it has
+ * no image there: nothing culled), the sine and cosine of its +y direction there (East of North), and whether the set is liberal.
+ */
+interface TrialFrame { basis: MaskBasis; onPlane: boolean; pcXi: number; pcEta: number; gsp: number; gcp: number; liberal: boolean }
+
+/** The trial frame of the pointing (raDeg, decDeg, paDeg) about the galaxy's tangent centre gc (mask +y as seen in the galaxy's tangent plane). */
+function trialFrame(gc: TangentCentre, raDeg: number, decDeg: number, paDeg: number, liberal: boolean): TrialFrame {
+  // One object shape for every pointing, whatever fields the caller's pointing has.
+  const p = { raDeg, decDeg, paDeg };
+  const basis = maskBasis(p);
+  const pc = skyToTangentArcsec(gc, p.raDeg, p.decDeg);
+  // The mask's +y direction as seen in the galaxy's tangent plane (North turns between the two tangent points).
+  const up = maskPointToSkyDeg(p, 0, 60), pu = skyToTangentArcsec(gc, up.raDeg, up.decDeg);
+  const upA = pc && pu ? PMath.atan2(pu.xiArcsec - pc.xiArcsec, pu.etaArcsec - pc.etaArcsec) : p.paDeg * RAD_PER_DEG;
+  return { basis, onPlane: pc !== null, pcXi: pc ? pc.xiArcsec : 0, pcEta: pc ? pc.etaArcsec : 0, gsp: PMath.sin(upA), gcp: PMath.cos(upA), liberal };
+}
+
+/**
+ * The tracers of `cells` on one mask, in cell order, written as object index and mask y (arcsec) into bufObj and bufY;
+ * returns their count. A cell (and then a tracer) on the plane is skipped when its offset, turned into the mask's axes
+ * in the galaxy's tangent plane, lies outside the grown bounds (a cell well inside them has no per-tracer test); the
+ * others are projected exactly (maskCosC, unitToMaskArcsec) and kept inside the footprint bounds, by the wavelength
+ * rule and (unless liberal) the raster.
+ */
+function gatherOnMask(cells: ProxyCells, f: TrialFrame, lim: GatherLimits, bufObj: Int32Array, bufY: Float64Array): number {
+  const { nCells, cellOnPlane, cellXiArcsec, cellEtaArcsec, cellStart, objects: pObj, ux: pX, uy: pY, uz: pZ, xiArcsec: pXi, etaArcsec: pEta } = cells;
+  const { basis, onPlane, pcXi, pcEta, gsp, gcp, liberal } = f;
+  const { minX, maxX, minY, maxY, loX, hiX, loY, hiY, cellLoX, cellHiX, cellLoY, cellHiY, rules, slitRaster } = lim;
+  const at = { xArcsec: 0, yArcsec: 0 };
+  // A tracer lies within half a cell diagonal of its cell's centre (plus far more than the rounding): when the centre
+  // is that far inside the tracers' grown bounds, every tracer of the cell passes their test, which is then skipped.
+  const inset = cells.cellArcsec * Math.SQRT1_2 + 1e-6;
+  const inLoX = loX + inset, inHiX = hiX - inset, inLoY = loY + inset, inHiY = hiY - inset;
+  let n = 0;
+  for (let c = 0; c < nCells; c++) {
+    let culled = onPlane && cellOnPlane[c] === 1;
+    if (culled) {
+      const dxi = cellXiArcsec[c] - pcXi, deta = cellEtaArcsec[c] - pcEta;
+      const mx = dxi * gcp - deta * gsp, my = dxi * gsp + deta * gcp;
+      if (mx < cellLoX || mx > cellHiX || my < cellLoY || my > cellHiY) continue;
+      culled = !(mx >= inLoX && mx <= inHiX && my >= inLoY && my <= inHiY);
+    }
+    for (let q = cellStart[c], qEnd = cellStart[c + 1]; q < qEnd; q++) {
+      if (culled) {
+        const dxi = pXi[q] - pcXi, deta = pEta[q] - pcEta;
+        const mx = dxi * gcp - deta * gsp, my = dxi * gsp + deta * gcp;
+        if (mx < loX || mx > hiX || my < loY || my > hiY) continue;
+      }
+      const px = pX[q], py = pY[q], pz = pZ[q];
+      const cosC = maskCosC(basis, px, py, pz);
+      if (cosC < 0.9) continue; // farther than ~25 degrees: never on a mask
+      unitToMaskArcsec(basis, px, py, pz, cosC, at);
+      const x = at.xArcsec, y = at.yArcsec;
+      if (x < minX || x > maxX || y < minY || y > maxY) continue;
+      if (!wavelengthOk(rules, x) || (!liberal && !rasterFits(slitRaster, x, y))) continue;
+      bufObj[n] = pObj[q]; bufY[n] = y; n++;
+    }
+  }
+  return n;
 }
 
 /** Reusable buffers of orderByKeyInto for up to out.length keys (start: length + 1). */

@@ -360,6 +360,8 @@ export function evaluateSlot(g: GalaxyOnMask, rules: EligibilityRules, slot: Spa
   // R >= sqrt(q) x (distance to the galaxy centre) >= sqrt(q) |yc - gy|: slots whose line stays beyond the reach hold no starlight.
   const lineCanReach = s.reachRe > 0 && Math.sqrt(g.galaxy.axisRatio) * Math.abs(yc - g.gyArcsec) <= s.maxRe * re;
   const wantSky = s.skyPerMask > 0;
+  // Nothing to choose on a line beyond the reach when no sky slit is wanted (most slots of the search's estimate).
+  if (!lineCanReach && !wantSky) return { starlight: null, options: [], sky: null };
   // The centre surface brightness is needed for one-sample starlight and for the sky slot chosen; sky positions
   // are told by radius (skyRadiusTest), the surface brightness computed only where the radius cannot tell.
   const muAt = (rArcsec: number) => sersicMuMagPerArcsec2(rArcsec, re, n, g.galaxy.muE, g.bn);
@@ -435,7 +437,9 @@ export function starlightWindows(slots: readonly Span[], gapArcsec: number, maxL
       // Same stretch: the next slot starts one gap (plus the rounding margins) after the previous one ends.
       if (slots[j].lo - slots[j - 1].hi > gapArcsec + 4 * MARGIN + 1e-9) break;
       if (slots[j].hi - slots[i].lo > maxLengthArcsec + 1e-9) break;
-      out.push({ span: { lo: slots[i].lo, hi: slots[j].hi }, slots: Array.from({ length: j - i + 1 }, (_, k) => i + k) });
+      const run: number[] = [];
+      for (let k = i; k <= j; k++) run.push(k);
+      out.push({ span: { lo: slots[i].lo, hi: slots[j].hi }, slots: run });
     }
   }
   return out;
@@ -449,27 +453,41 @@ export function starlightWindows(slots: readonly Span[], gapArcsec: number, maxL
 export function chooseSlots(g: GalaxyOnMask, rules: EligibilityRules, slots: readonly Span[], s: StarlightSettings, cellsTaken: Set<string>, samples = 3, stepArcsec = 6, gapArcsec = 0): { starlight: SlotChoice[]; sky: SlotChoice[] } {
   const evals = slots.map((slot) => evaluateSlot(g, rules, slot, s, samples, stepArcsec));
   const windows = s.maxSlitLengthArcsec > s.slitLengthArcsec && s.reachRe > 0 ? starlightWindows(slots, gapArcsec, s.maxSlitLengthArcsec) : slots.map((sp, i) => ({ span: sp, slots: [i] }));
-  const options = windows.map((w) => (w.slots.length === 1 ? evals[w.slots[0]].options : evaluateSlot(g, rules, w.span, { ...s, skyPerMask: 0 }, samples, stepArcsec).options));
-  const used = new Set<number>();
+  const noSky = withoutSkySlits(s);
+  const options = windows.map((w) => (w.slots.length === 1 ? evals[w.slots[0]].options : evaluateSlot(g, rules, w.span, noSky, samples, stepArcsec).options));
+  const used = new Uint8Array(slots.length);
   const starlight: SlotChoice[] = [];
   while (starlight.length < s.maxPerMask) {
     let best = -1, bestScore = -Infinity, bestC: SlotChoice | null = null;
-    windows.forEach((w, i) => {
-      if (w.slots.some((k) => used.has(k))) return;
+    for (let i = 0; i < windows.length; i++) {
+      const w = windows[i];
+      let free = true;
+      for (const k of w.slots) if (used[k]) { free = false; break; }
+      if (!free) continue;
       for (const o of options[i]) {
         const score = (cellsTaken.has(starlightCell(o.rRe, o.azimuthDeg)) ? 0 : 1000) + o.rRe - 0.25 * (w.slots.length - 1);
         if (score > bestScore) { bestScore = score; best = i; bestC = o; }
       }
-    });
+    }
     if (best < 0 || !bestC) break;
-    for (const k of windows[best].slots) used.add(k);
+    for (const k of windows[best].slots) used[k] = 1;
     const c: SlotChoice = bestC;
     cellsTaken.add(starlightCell(c.rRe, c.azimuthDeg));
     starlight.push(c);
   }
-  const skyOrder = evals.map((e, i) => ({ e, i })).filter(({ e, i }) => e.sky && !used.has(i)).sort((a, b) => b.e.sky!.rRe - a.e.sky!.rRe || a.i - b.i);
+  if (s.skyPerMask === 0) return { starlight, sky: [] };
+  const skyOrder = evals.map((e, i) => ({ e, i })).filter(({ e, i }) => e.sky && !used[i]).sort((a, b) => b.e.sky!.rRe - a.e.sky!.rRe || a.i - b.i);
   const sky = skyOrder.slice(0, s.skyPerMask).map(({ e }) => e.sky!);
   return { starlight, sky };
+}
+
+const noSkyCache = new WeakMap<StarlightSettings, StarlightSettings>();
+/** The settings with skyPerMask 0 (no sky slit chosen; the S/N's sky estimate unchanged): s itself when it has none, else one copy per settings object. */
+export function withoutSkySlits(s: StarlightSettings): StarlightSettings {
+  if (s.skyPerMask === 0) return s;
+  let t = noSkyCache.get(s);
+  if (!t) noSkyCache.set(s, (t = { ...s, skyPerMask: 0 }));
+  return t;
 }
 
 /** Trim rows lengthened into the new slits' space (never below minLength/2 per side), keeping the gap rule. */
@@ -677,7 +695,7 @@ function displaceForStarlight(w: MaskWork, rules: EligibilityRules, s: Starlight
   }
   // Starlight options of each window (the galaxy model does not change while tracers are traded), computed when first needed.
   const options = new Map<number, SlotChoice[]>();
-  const noSky = { ...s, skyPerMask: 0 };
+  const noSky = withoutSkySlits(s);
   const nBins = Math.ceil(s.reachRe - 1e-12);
   while (w.starlight.length < s.maxPerMask) {
     // Nothing left to gain once every starlight bin is filled and the goal radius is reached.
