@@ -544,14 +544,15 @@ export function rankStarts(
 }
 
 /**
- * The first `count` of `items` (fewer than 64) in the order of their stable sort by betterStart on (st.short,
- * st.value), each finished (`finish` sets st.value to its exact value, at most `ceiling`). Items are finished in order
- * of (short, ceiling descending) until `count` finished ones clearly beat the next one's ceiling (beat it, and are not
+ * The first `count` of `items` in the order of their stable sort by betterStart on (st.short, st.value), each
+ * finished (`finish` sets st.value to its exact value, at most `ceiling`). Items are finished in order of (short,
+ * ceiling descending) until `count` finished ones clearly beat the next one's ceiling (beat it, and are not
  * beaten by it: betterStart is not antisymmetric below -1): that item, and every one after it, is then clearly beaten
  * by each of the first `count` finished ones. Those finished are sorted as the full list would be: an insertion sort
  * (the engine's below 64 items) never puts an item before one that clearly beats it, and orders a consistent set the
  * same way whatever else it holds. Finished values that betterStart does not order consistently (within its tolerance
- * of each other, or equal and each beating the other), or `prune: false`, finish every item and sort them all.
+ * of each other, or equal and each beating the other), 64 items or more, or `prune: false`, finish every item and
+ * sort them all.
  */
 export function leadingStarts<T extends { st: { short: number; value: number }; ceiling: number }>(items: readonly T[], count: number, finish: (item: T) => void, prune = true): T[] {
   const byIndex = new Map(items.map((it, i) => [it, i]));
@@ -559,7 +560,7 @@ export function leadingStarts<T extends { st: { short: number; value: number }; 
   const done: T[] = [];
   for (const it of order) {
     const most = { short: it.st.short, value: it.ceiling };
-    if (prune && done.filter((d) => betterStart(d.st, most) && !betterStart(most, d.st)).length >= count) break;
+    if (prune && items.length < 64 && done.filter((d) => betterStart(d.st, most) && !betterStart(most, d.st)).length >= count) break;
     finish(it);
     done.push(it);
   }
