@@ -37,7 +37,7 @@ import { alignmentCapacity, allocateForPointings, type PointingsAllocation } fro
 import { solveIntervalIndex } from './intervalScheduling';
 import { allocateGreedyMaskByMask, improveByBestResponse, resolveOneMask, type JointProblem, type MaskCandidateSet } from './jointAllocation';
 import { chooseSlots, freeSlotsOfTracers, galaxyOnMask, starlightRadiusCeilingRe, withoutSkySlits, type GalaxyOnMask, type Span } from './starlight';
-import { addStarlight, addTracer, emptyTally, mergeTallies, objectiveValue, starlightCeiling, type ObjectiveValue, type Tally } from './objective';
+import { addStarlight, addTracer, emptyTally, mergeTallies, objectiveValue, starlightCeiling, type ObjectiveContext, type ObjectiveValue, type Tally } from './objective';
 import type { SearchRules } from '../plan/searchSection';
 import { makeRng } from '../numeric/random';
 import type { MaskPointing, MaskSolution } from '../geometry/maskSolution';
@@ -244,34 +244,19 @@ export function searchPointings(env: SearchEnv, start: readonly MaskPointing[], 
   const { halfDiag, halfLong } = footprintScaleArcsec(ctx);
   const proxyMask = instrumentsProxyModel(env, proxyModel);
   const minAlign = profile.alignment.minCount;
-  const shortOf = (p: ProxyMask) => Math.max(0, (p.alignmentNeeded ?? minAlign) - p.alignmentMax);
+  const shortOf = (p: ProxyMask) => alignmentShortOf(p, minAlign);
   const problemOf = (ps: readonly ProxyMask[]): JointProblem => ({ weights: ctx.weights, masks: ps.map((p) => p.set) });
   // Keep the mask over the galaxy's field: its centre within tracerReachRe (semi-major) + half the footprint's diagonal.
   const maxCentreArcsec = (env.objective.tracerReachRe * g.reArcsec) / Math.sqrt(g.axisRatio) + halfDiag;
   let evaluations = 0, accepted = 0;
-  // starlightCeiling bounds J only with non-negative coverage coefficients (the plan schema's rule).
-  const ow = env.objective.weights;
-  const ceilingBounds = env.objective.unitWeight >= 0 && ow.aStarlightBin >= 0 && ow.aStarlightSector >= 0 && ow.aStarlightReach >= 0;
+  const ceilingBounds = ceilingBoundsObjective(env.objective);
 
   const toPointing = (m: number, pp: PlanePointing): MaskPointing => {
     const sky = tangentToSkyDeg(gc, pp.xi, pp.eta);
     return { id: start[m].id, raDeg: sky.raDeg, decDeg: sky.decDeg, paDeg: wrap360Deg(pp.paDeg), locked: start[m].locked, ...(start[m].instrument !== undefined ? { instrument: start[m].instrument } : {}) };
   };
-  const init = (ps: readonly MaskPointing[]): SearchState => {
-    const plane = ps.map((p) => {
-      const t = skyToTangentArcsec(gc, p.raDeg, p.decDeg)!;
-      return { xi: t.xiArcsec, eta: t.etaArcsec, paDeg: p.paDeg };
-    });
-    const pointings = ps.map((p) => ({ ...p }));
-    const proxies = pointings.map((p) => proxyMask(p));
-    const chosen = improveByBestResponse(problemOf(proxies), allocateGreedyMaskByMask(problemOf(proxies)).chosen, 3);
-    const tallies = proxies.map((p, m) => proxyTally(env, pointings[m], p, chosen[m]));
-    evaluations++;
-    const v = objectiveValue(env.objective, mergeTallies(env.objective, tallies));
-    return { plane, pointings, proxies, chosen, tallies, value: v.total, short: proxies.reduce((a, p) => a + shortOf(p), 0), deficit: crossDeficit(floor, v, env.objective.tracerReachRe) };
-  };
-  // The floor: the naive cross on the proxy model, when it is a valid layout. The search keeps to layouts at least as
-  // good on tracer weight and capped tracer reach (the final comparison with the fully allocated cross settles it).
+  // The floor: the naive cross on the proxy model, when it is a valid layout (rankStarts). The search keeps to layouts
+  // at least as good on tracer weight and capped tracer reach (the final comparison with the fully allocated cross settles it).
   let floor: CrossFloor | null = null;
   const copy = (st: SearchState): SearchState => ({ ...st, plane: st.plane.slice(), pointings: st.pointings.slice(), proxies: st.proxies.slice(), chosen: st.chosen.slice(), tallies: st.tallies.slice() });
   /**
@@ -308,8 +293,6 @@ export function searchPointings(env: SearchEnv, start: readonly MaskPointing[], 
   /** Alignment first (fewer boxes missing always wins), then the shortfall against the valid cross, then the objective. */
   const better = (t: { short: number; value: number; deficit: number }, st: { short: number; value: number; deficit: number }) =>
     t.short < st.short || (t.short === st.short && (t.deficit < st.deficit - 1e-12 || (t.deficit <= st.deficit + 1e-12 && t.value > st.value * (1 + 1e-9) + 1e-9)));
-  /** Ranking of the start layouts: alignment first, then the objective. */
-  const betterStart = (t: { short: number; value: number }, st: { short: number; value: number }) => t.short < st.short || (t.short === st.short && t.value > st.value * (1 + 1e-9) + 1e-9);
   const commit = (st: SearchState, t: MoveTrial) => {
     st.plane[t.m] = t.pp; st.pointings[t.m] = t.pointing; st.proxies[t.m] = t.prox; st.chosen = t.chosen; st.tallies[t.m] = t.tally;
     st.value = t.value; st.short = t.short; st.deficit = t.deficit;
@@ -389,14 +372,11 @@ export function searchPointings(env: SearchEnv, start: readonly MaskPointing[], 
   };
 
   // Starts: every layout evaluated on the proxy; the best few (fewest boxes missing, then the objective) searched.
-  const crossState = init(start);
-  if (crossState.short === 0) {
-    const v = objectiveValue(env.objective, mergeTallies(env.objective, crossState.tallies));
-    floor = { yieldWeight: v.yieldWeight, cappedReachRe: Math.min(v.tracerReachRe, env.objective.tracerReachRe) };
-  }
-  const ranked = starts.map((l) => ({ name: l.name, st: l.pointings === start ? crossState : init(l.pointings) })).sort((x, y) => (betterStart(x.st, y.st) ? -1 : betterStart(y.st, x.st) ? 1 : 0));
+  const setup = rankStarts(env, proxyMask, start, starts, Math.max(1, budget.starts));
+  evaluations += setup.evaluations;
+  floor = setup.floor;
   let best: { name: string; st: SearchState } | null = null;
-  for (const { name, st } of ranked.slice(0, Math.max(1, budget.starts))) {
+  for (const { name, st } of setup.ranked) {
     for (const m of free) repair(st, m);
     patternSearch(st, budget.levels, halfLong * 0.5, 24, free, `start "${name}"`);
     if (!best || better(st, best.st)) best = { name, st };
@@ -438,7 +418,7 @@ export function searchPointings(env: SearchEnv, start: readonly MaskPointing[], 
   // with no alignment problem left, beating the bound beats the start whatever its problems.
   const finalProblems = final.allocation.problems.length;
   // The search's alignment rule is the allocation's (alignmentCapacity), so a start short of boxes has problems in full.
-  const startShort = start.reduce((a, p) => a + shortOf(proxyMask(p)), 0);
+  const startShort = setup.crossShort;
   if (finalProblems === 0 && startShort > 0) return won({ startAlignmentShort: startShort });
   const goalRe = env.objective.tracerReachRe;
   if (finalProblems === 0) {
@@ -453,6 +433,142 @@ export function searchPointings(env: SearchEnv, start: readonly MaskPointing[], 
   // With as many problems as the cross, the result must dominate it: objective, tracer weight and capped reach.
   if (finalProblems < e.allocation.problems.length || (finalProblems === e.allocation.problems.length && dominatesCross(final.value, e.value, goalRe))) return won({ startObjective: e.value });
   return keep(evaluations, accepted);
+}
+
+/** Alignment boxes a proxy mask lacks: its profile's alignment need (minAlign, the plan's, when not given) less what it can hold, at least 0. */
+function alignmentShortOf(p: ProxyMask, minAlign: number): number {
+  return Math.max(0, (p.alignmentNeeded ?? minAlign) - p.alignmentMax);
+}
+
+/** Whether starlightCeiling bounds the objective: only with non-negative coverage coefficients (the plan schema's rule). */
+function ceilingBoundsObjective(o: ObjectiveContext): boolean {
+  const w = o.weights;
+  return o.unitWeight >= 0 && w.aStarlightBin >= 0 && w.aStarlightSector >= 0 && w.aStarlightReach >= 0;
+}
+
+/** Ranking of the start layouts: fewer alignment boxes missing first, then an objective higher by more than 1e-9 relative. */
+function betterStart(t: { short: number; value: number }, st: { short: number; value: number }): boolean {
+  return t.short < st.short || (t.short === st.short && t.value > st.value * (1 + 1e-9) + 1e-9);
+}
+
+/** Key of a pointing for the proxy model: centre, PA and instrument, exactly (bits; -0 apart from 0). */
+function pointingKey(p: MaskPointing): string {
+  const bits = (x: number) => (Object.is(x, -0) ? '-0' : String(x));
+  return `${bits(p.raDeg)} ${bits(p.decDeg)} ${bits(p.paDeg)} ${p.instrument === undefined ? '' : `@${p.instrument}`}`;
+}
+
+/** A start layout on the proxy model, its tallies still without starlight, and per mask what its starlight estimate needs (null: none possible). */
+interface StartDraft {
+  name: string;
+  st: SearchState;
+  starlight: ({ om: GalaxyOnMask; slots: Span[] } | null)[];
+  /** A proven upper bound of st.value once its starlight is estimated (Infinity when none is known). */
+  ceiling: number;
+}
+
+/**
+ * The search's set-up: every start layout on the proxy model (greedy allocation, 3 best-response sweeps, the
+ * starlight estimate per mask) and the first `count` of them in ranking order (betterStart; stable: earlier layouts
+ * first among ties), as the search state of each. `floor` is the naive cross's (start's) tracer weight and capped reach
+ * when it lacks no alignment box, `crossShort` the boxes it lacks, `evaluations` the layouts evaluated. Layouts share
+ * pointings (the ring is the cross with two masks swapped): each pointing's proxy is made once. A layout's starlight
+ * estimate, the costly part of its tally, is made only while its proven ceiling could still rank it among the first
+ * `count` (leadingStarts); `prune: false` makes every one, for comparison: the ranking is the same.
+ */
+export function rankStarts(
+  env: SearchEnv, proxyMask: (p: MaskPointing) => ProxyMask, start: readonly MaskPointing[],
+  starts: readonly { name: string; pointings: readonly MaskPointing[] }[], count: number, prune = true,
+): { ranked: { name: string; st: SearchState }[]; floor: CrossFloor | null; crossShort: number; evaluations: number } {
+  const { ctx } = env;
+  const gc = tangentCentre(ctx.galaxy.raDeg, ctx.galaxy.decDeg);
+  const minAlign = ctx.profile.alignment.minCount, goalRe = env.objective.tracerReachRe;
+  const ceilingBounds = ceilingBoundsObjective(env.objective);
+  const problemOf = (ps: readonly ProxyMask[]): JointProblem => ({ weights: ctx.weights, masks: ps.map((p) => p.set) });
+  const proxies = new Map<string, ProxyMask>();
+  const proxyOf = (p: MaskPointing): ProxyMask => {
+    const key = pointingKey(p);
+    let px = proxies.get(key);
+    if (!px) proxies.set(key, (px = proxyMask(p)));
+    return px;
+  };
+  let floor: CrossFloor | null = null, evaluations = 0;
+  const draft = (name: string, ps: readonly MaskPointing[]): StartDraft => {
+    const plane = ps.map((p) => {
+      const t = skyToTangentArcsec(gc, p.raDeg, p.decDeg)!;
+      return { xi: t.xiArcsec, eta: t.etaArcsec, paDeg: p.paDeg };
+    });
+    const pointings = ps.map((p) => ({ ...p }));
+    const px = pointings.map(proxyOf);
+    const chosen = improveByBestResponse(problemOf(px), allocateGreedyMaskByMask(problemOf(px)).chosen, 3);
+    const tallies = px.map((p, m) => proxyTracerTally(env, pointings[m], p, chosen[m]));
+    evaluations++;
+    // Starlight adds nothing to the tracer weight and reach that the deficit reads.
+    const v = objectiveValue(env.objective, mergeTallies(env.objective, tallies));
+    const st: SearchState = { plane, pointings, proxies: px, chosen, tallies, value: v.total, short: px.reduce((a, p) => a + alignmentShortOf(p, minAlign), 0), deficit: crossDeficit(floor, v, goalRe) };
+    const starlight = px.map((p, m) => {
+      const om = proxyStarlightGalaxy(env, pointings[m]);
+      return om ? { om, slots: proxyFreeSlots(env, pointings[m], p, chosen[m]) } : null;
+    });
+    return { name, st, starlight, ceiling: startCeiling(st, starlight) };
+  };
+  /** The most st.value can become with its starlight: exact without any, else starlightCeiling of every mask's most (proxyStarlightCeiling). */
+  const startCeiling = (st: SearchState, starlight: StartDraft['starlight']): number => {
+    if (starlight.every((s) => s === null)) return st.value;
+    if (!ceilingBounds) return Infinity;
+    let slits = 0, maxRe = 0;
+    starlight.forEach((s, m) => {
+      if (!s) return;
+      const most = proxyStarlightCeiling(env, st.pointings[m], s.om, s.slots);
+      slits += most.slits;
+      maxRe = Math.max(maxRe, most.maxRe);
+    });
+    const c = objectiveValue(env.objective, starlightCeiling(mergeTallies(env.objective, st.tallies), maxRe, slits)).total;
+    return Number.isNaN(c) ? Infinity : c;
+  };
+  const finished = new Set<SearchState>();
+  const finish = (d: StartDraft): void => {
+    if (finished.has(d.st)) return;
+    finished.add(d.st);
+    d.starlight.forEach((s, m) => { if (s) addProxyStarlight(env, d.st.pointings[m], s.om, s.slots, d.st.tallies[m]); });
+    d.st.value = objectiveValue(env.objective, mergeTallies(env.objective, d.st.tallies)).total;
+  };
+  const cross = draft('cross', start);
+  const crossShort = cross.st.short;
+  if (crossShort === 0) {
+    const v = objectiveValue(env.objective, mergeTallies(env.objective, cross.st.tallies));
+    floor = { yieldWeight: v.yieldWeight, cappedReachRe: Math.min(v.tracerReachRe, goalRe) };
+  }
+  const drafts = starts.map((l) => (l.pointings === start ? { ...cross, name: l.name } : draft(l.name, l.pointings)));
+  const ranked = leadingStarts(drafts, count, finish, prune);
+  return { ranked: ranked.map((d) => ({ name: d.name, st: d.st })), floor, crossShort, evaluations };
+}
+
+/**
+ * The first `count` of `items` in the order of their stable sort by betterStart on (st.short, st.value), each
+ * finished (`finish` sets st.value to its exact value, at most `ceiling`). Items are finished in order of (short,
+ * ceiling descending) until `count` finished ones clearly beat the next one's ceiling (beat it, and are not
+ * beaten by it: betterStart is not antisymmetric below -1): that item, and every one after it, is then clearly beaten
+ * by each of the first `count` finished ones. Those finished are sorted as the full list would be: an insertion sort
+ * (the engine's below 64 items) never puts an item before one that clearly beats it, and orders a consistent set the
+ * same way whatever else it holds. Finished values that betterStart does not order consistently (within its tolerance
+ * of each other, or equal and each beating the other), 64 items or more, or `prune: false`, finish every item and
+ * sort them all.
+ */
+export function leadingStarts<T extends { st: { short: number; value: number }; ceiling: number }>(items: readonly T[], count: number, finish: (item: T) => void, prune = true): T[] {
+  const byIndex = new Map(items.map((it, i) => [it, i]));
+  const order = items.slice().sort((x, y) => x.st.short - y.st.short || (x.ceiling > y.ceiling ? -1 : x.ceiling < y.ceiling ? 1 : 0));
+  const done: T[] = [];
+  for (const it of order) {
+    const most = { short: it.st.short, value: it.ceiling };
+    if (prune && items.length < 64 && done.filter((d) => betterStart(d.st, most) && !betterStart(most, d.st)).length >= count) break;
+    finish(it);
+    done.push(it);
+  }
+  // Consistent: of two finished items with the same short, exactly one beats the other unless their values are equal (then neither).
+  const consistent = done.every((a) => done.every((b) => a.st.short !== b.st.short || Number(betterStart(a.st, b.st)) + Number(betterStart(b.st, a.st)) === (a.st.value === b.st.value ? 0 : 1)));
+  if (!consistent) for (const it of items) if (!done.includes(it)) finish(it);
+  const sortable = consistent ? done.sort((x, y) => byIndex.get(x)! - byIndex.get(y)!) : items.slice();
+  return sortable.sort((x, y) => (betterStart(x.st, y.st) ? -1 : betterStart(y.st, x.st) ? 1 : 0)).slice(0, count);
 }
 
 /**
@@ -509,15 +625,7 @@ export function dominatesCross(v: ObjectiveValue, cross: ObjectiveValue, goalRe:
   return atLeast && (v.total > cross.total + tol(cross.total) || v.yieldWeight > cross.yieldWeight + tol(cross.yieldWeight) || r > rc + 1e-9);
 }
 
-/** Tally of one proxy mask with a selection: its tracers, and its starlight slits estimated on the free space. */
-function proxyTally(planEnv: SearchEnv, pointing: MaskPointing, p: ProxyMask, chosenK: readonly number[]): Tally {
-  const t = proxyTracerTally(planEnv, pointing, p, chosenK);
-  const om = proxyStarlightGalaxy(planEnv, pointing);
-  if (om) addProxyStarlight(planEnv, pointing, om, proxyFreeSlots(planEnv, pointing, p, chosenK), t);
-  return t;
-}
-
-/** proxyTally without the starlight estimate: the selection's tracers and the mask's refraction loss. */
+/** Tally of one proxy mask with a selection before its starlight estimate (addProxyStarlight): its tracers and refraction loss. */
 function proxyTracerTally(planEnv: SearchEnv, pointing: MaskPointing, p: ProxyMask, chosenK: readonly number[]): Tally {
   const env = envFor(planEnv, pointing);
   const t = emptyTally(env.objective);
