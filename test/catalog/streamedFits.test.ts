@@ -4,12 +4,10 @@
  * inside a row, and the same errors for damaged files.
  */
 import { describe, expect, it } from 'vitest';
-import { mkdtempSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
 import { readCatalogFile } from '../../src/cli/readCatalogFile';
 import { withFileByteSource } from '../../src/cli/fileByteSource';
 import { readCatalog } from '../../src/core/catalog/read';
+import { scratchFiles } from './scratchFiles';
 import { readFitsTable, readFitsTableFrom } from '../../src/core/catalog/fitsTable';
 import { CellArray } from '../../src/core/catalog/validate';
 import type { Cell, RawTable } from '../../src/core/catalog/types';
@@ -17,13 +15,7 @@ import type { RowCellsTable } from '../../src/core/catalog/validate';
 import { formatCard, headerBytes } from '../../src/core/formats/fits/header';
 import { paddingBytes } from '../../src/core/formats/fits/hdu';
 
-const dir = mkdtempSync(join(tmpdir(), 'haloweave-fits-stream-'));
-let fileNo = 0;
-const save = (bytes: Uint8Array) => {
-  const p = join(dir, `t${fileNo++}.fits`);
-  writeFileSync(p, bytes);
-  return p;
-};
+const save = scratchFiles('fits-stream', 'fits');
 
 /** A column of the hand-built table: its cards and how row i writes its field (and heap bytes). */
 interface Col { ttype: string; tform: string; bytes: number; cards?: [string, string | number | bigint | boolean][]; write(d: DataView, at: number, i: number, heap: HeapWriter): void }

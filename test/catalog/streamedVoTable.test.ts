@@ -6,23 +6,15 @@
  */
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { mkdtempSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
 import { fileTextSource, readCatalogFile } from '../../src/cli/readCatalogFile';
 import { readCatalog } from '../../src/core/catalog/read';
+import { scratchFiles } from './scratchFiles';
 import { readVoTable, readVoTableFrom, voTableEncoding } from '../../src/core/catalog/votable';
 import { encodeBase64 } from '../../src/core/formats/base64';
 import type { Cell } from '../../src/core/catalog/types';
 import type { RawTableWithMeta } from '../../src/core/catalog/tableMeta';
 
-const dir = mkdtempSync(join(tmpdir(), 'haloweave-votable-stream-'));
-let fileNo = 0;
-const save = (bytes: Uint8Array) => {
-  const p = join(dir, `t${fileNo++}.xml`);
-  writeFileSync(p, bytes);
-  return p;
-};
+const save = scratchFiles('votable-stream', 'xml');
 const enc = (s: string) => new TextEncoder().encode(s);
 
 /** Everything a table gives: columns, name, metadata, rows with their numbers, structural rejects, or the error. */

@@ -1,19 +1,14 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { mkdtempSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { readCatalogFile } from '../../src/cli/readCatalogFile';
 import { readCatalog } from '../../src/core/catalog/read';
 import { toCsv } from '../../src/core/export/csvText';
+import { scratchFiles } from './scratchFiles';
 
-const dir = mkdtempSync(join(tmpdir(), 'haloweave-stream-'));
-let n = 0;
-const write = (content: string) => {
-  const p = join(dir, `c${n++}.csv`);
-  writeFileSync(p, content);
-  return p;
-};
+const write = scratchFiles('stream', 'csv');
+const dir = write.dir;
 
 /** A catalog row: some good, some with awkward ids, blank lines, wrong field counts or bad numbers. */
 const rowArb = fc.oneof(
