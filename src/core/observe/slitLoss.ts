@@ -4,6 +4,7 @@
  */
 import { regularisedLowerGamma } from '../sky/sersic';
 import { PMath } from '../numeric/portableMath';
+import { rememberLast } from '../numeric/rememberLast';
 
 /** Gaussian sigma for a FWHM: FWHM = 2 sqrt(2 ln 2) sigma. */
 export const FWHM_PER_SIGMA = 2 * Math.sqrt(2 * Math.LN2);
@@ -35,16 +36,12 @@ export function slitTransmission(offsetArcsec: number, widthArcsec: number, seei
   return 0.5 * (erf((h - offsetArcsec) / s) + erf((h + offsetArcsec) / s));
 }
 
-/** The last slit width and seeing centredSlitTransmission was asked for, and its answer (every slit of a mask has one or two widths). */
-let lastCentred = { widthArcsec: NaN, seeingFwhmArcsec: NaN, transmission: NaN };
+// Every slit of a mask has one or two widths.
+const lastCentredTransmission = rememberLast((widthArcsec: number, seeingFwhmArcsec: number) => slitTransmission(0, widthArcsec, seeingFwhmArcsec));
 
 /** slitTransmission of an image centred on the slit (offset 0), computed once for a run of the same width and seeing. */
 export function centredSlitTransmission(widthArcsec: number, seeingFwhmArcsec: number): number {
-  const c = lastCentred;
-  if (widthArcsec === c.widthArcsec && seeingFwhmArcsec === c.seeingFwhmArcsec) return c.transmission;
-  const transmission = slitTransmission(0, widthArcsec, seeingFwhmArcsec);
-  lastCentred = { widthArcsec, seeingFwhmArcsec, transmission };
-  return transmission;
+  return lastCentredTransmission(widthArcsec, seeingFwhmArcsec);
 }
 
 /** Loss (0..1) relative to a centred image, from the transmission of the offset image and of the centred one. */
@@ -57,19 +54,15 @@ export function relativeSlitLoss(offsetArcsec: number, widthArcsec: number, seei
   return lossRelativeToCentred(slitTransmission(offsetArcsec, widthArcsec, seeingFwhmArcsec), centredSlitTransmission(widthArcsec, seeingFwhmArcsec));
 }
 
-/** The last arguments offsetAtLoss solved for and its answer (each mask of a plan asks for the same slit width and limit). */
-let lastOffsetAtLoss = { widthArcsec: NaN, seeingFwhmArcsec: NaN, maxLoss: NaN, offsetArcsec: NaN };
+// Each mask of a plan asks for the same slit width and limit.
+const lastOffsetAtLoss = rememberLast(solveOffsetAtLoss);
 
 /** Smallest across-slit offset (arcsec) at which the loss relative to a centred image reaches maxLoss (Infinity if never). */
 export function offsetAtLoss(widthArcsec: number, seeingFwhmArcsec: number, maxLoss: number): number {
-  const last = lastOffsetAtLoss;
-  if (widthArcsec === last.widthArcsec && seeingFwhmArcsec === last.seeingFwhmArcsec && maxLoss === last.maxLoss) return last.offsetArcsec;
-  const offsetArcsec = solveOffsetAtLoss(widthArcsec, seeingFwhmArcsec, maxLoss);
-  lastOffsetAtLoss = { widthArcsec, seeingFwhmArcsec, maxLoss, offsetArcsec };
-  return offsetArcsec;
+  return lastOffsetAtLoss(widthArcsec, seeingFwhmArcsec, maxLoss);
 }
 
-/** offsetAtLoss by bisection, without the one-entry cache. */
+/** offsetAtLoss by bisection, solved each time. */
 function solveOffsetAtLoss(widthArcsec: number, seeingFwhmArcsec: number, maxLoss: number): number {
   const centred = centredSlitTransmission(widthArcsec, seeingFwhmArcsec);
   const loss = (x: number) => lossRelativeToCentred(slitTransmission(x, widthArcsec, seeingFwhmArcsec), centred);

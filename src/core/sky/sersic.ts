@@ -4,6 +4,7 @@
  * regularised lower incomplete gamma function P.
  */
 import { PMath } from '../numeric/portableMath';
+import { rememberLast } from '../numeric/rememberLast';
 
 const LN10 = PMath.log(10);
 
@@ -61,18 +62,15 @@ export function sersicBnSeries(n: number): number {
   return 2 * n - 1 / 3 + 4 / (405 * n) + 46 / (25515 * n * n);
 }
 
-/** The last index sersicBn solved for and its b_n (a plan solves for one galaxy's n many times over). */
-let lastBn = { n: NaN, bn: NaN };
+// A plan asks for one galaxy's n many times over.
+const lastSersicBn = rememberLast(solveSersicBn);
 
 /** Exact b_n for Sérsic index n > 0: the root of P(2n, b) = 1/2, by bracketing bisection polished with Newton. */
 export function sersicBn(n: number): number {
-  if (n === lastBn.n) return lastBn.bn;
-  const bn = solveSersicBn(n);
-  lastBn = { n, bn };
-  return bn;
+  return lastSersicBn(n);
 }
 
-/** sersicBn without the one-entry cache. */
+/** sersicBn, solved each time. */
 function solveSersicBn(n: number): number {
   if (!(n > 0)) throw new RangeError(`Sérsic index n must be positive, got ${n}`);
   const a = 2 * n;

@@ -14,6 +14,7 @@ import { electronsPerAFromMag, electronsPerAFromSurfaceBrightness, exposureForSi
 import { galaxyOnMask, slitMeanMu } from './starlight';
 import { sersicBn } from '../sky/sersic';
 import { erf, FWHM_PER_SIGMA, slitTransmission } from '../observe/slitLoss';
+import { rememberLast } from '../numeric/rememberLast';
 
 /** Extraction length along the slit for a point source, in units of the seeing FWHM (common practice 1.5-2.5). */
 export const POINT_EXTRACTION_FWHM = 2;
@@ -77,17 +78,15 @@ export interface MaskExposureReport {
   medianTracerSnPerA: number | null;
 }
 
-/** The last arguments of pointSourceApertureFraction and its answer (every tracer slit of a mask asks the same). */
-let lastAperture = { widthArcsec: NaN, extractionArcsec: NaN, seeingFwhmArcsec: NaN, fraction: NaN };
+// Every tracer slit of a mask asks the same.
+const lastApertureFraction = rememberLast((widthArcsec: number, extractionArcsec: number, seeingFwhmArcsec: number) => {
+  const sigmaRoot2 = (seeingFwhmArcsec / FWHM_PER_SIGMA) * Math.SQRT2;
+  return slitTransmission(0, widthArcsec, seeingFwhmArcsec) * erf(extractionArcsec / 2 / sigmaRoot2);
+});
 
 /** Fraction of a Gaussian point source (FWHM) through a slit of widthArcsec and inside an extraction of extractionArcsec along it. */
 export function pointSourceApertureFraction(widthArcsec: number, extractionArcsec: number, seeingFwhmArcsec: number): number {
-  const last = lastAperture;
-  if (widthArcsec === last.widthArcsec && extractionArcsec === last.extractionArcsec && seeingFwhmArcsec === last.seeingFwhmArcsec) return last.fraction;
-  const sigmaRoot2 = (seeingFwhmArcsec / FWHM_PER_SIGMA) * Math.SQRT2;
-  const fraction = slitTransmission(0, widthArcsec, seeingFwhmArcsec) * erf(extractionArcsec / 2 / sigmaRoot2);
-  lastAperture = { widthArcsec, extractionArcsec, seeingFwhmArcsec, fraction };
-  return fraction;
+  return lastApertureFraction(widthArcsec, extractionArcsec, seeingFwhmArcsec);
 }
 
 /** Estimate for one observation: S/N per A in the planned time and the time to the target S/N. */
