@@ -38,7 +38,7 @@ function cacheData(buf, source) {
 }
 
 /** The cache file bytes for V8 cache `data` of `source` (header and data), as cacheData reads them. */
-export function cacheFileBytes(source, data) {
+function cacheFileBytes(source, data) {
   const header = Buffer.alloc(HEADER_BYTES);
   header.writeUInt32LE(MAGIC, 0);
   header.writeUInt32LE(crc32(source), 4);

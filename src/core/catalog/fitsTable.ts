@@ -60,7 +60,7 @@ export function bintableFromHdu(bytes: Uint8Array, hdu: FitsHdu): FitsRawTable {
 }
 
 /** The RawTable of one BINTABLE HDU of a ByteSource; the heap (variable-length arrays) is read when first needed. */
-export function bintableFrom(source: ByteSource, hdu: FitsHdu): FitsRawTable {
+function bintableFrom(source: ByteSource, hdu: FitsHdu): FitsRawTable {
   const h = hdu.header;
   const where = `FITS HDU ${hdu.index} (BINTABLE)`;
   const axes = axisLengths(h, where);

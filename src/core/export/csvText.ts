@@ -53,7 +53,7 @@ function isPlainCell(s: string): boolean {
 }
 
 /** One CSV line of cells (csvCell each, comma-separated), without its line end. */
-export function csvLine(cells: readonly (Cell | undefined)[], opts: CsvWriteOptions = {}): string {
+function csvLine(cells: readonly (Cell | undefined)[], opts: CsvWriteOptions = {}): string {
   let line = cells.length > 0 ? csvCell(cells[0], opts) : '';
   for (let k = 1; k < cells.length; k++) line += ',' + csvCell(cells[k], opts);
   return line;

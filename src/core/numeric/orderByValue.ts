@@ -29,3 +29,8 @@ export function orderByValue(values: ArrayLike<number>): Int32Array | null {
   }
   return order;
 }
+
+/** Positions 0..n-1 ordered by (value, position) ascending: orderByValue, or with a NaN a sort by `values[a] - values[b] || a - b`. */
+export function orderOf(values: ArrayLike<number>): Int32Array {
+  return orderByValue(values) ?? Int32Array.from({ length: values.length }, (_, i) => i).sort((a, b) => values[a] - values[b] || a - b);
+}

@@ -6,7 +6,6 @@
 import { contextForDesignHourAngle, hourAngleGridH, maskRefractionContext, maskRefractionReportOf, windowAcrossAt, windowDesignAcross, type MaskRefractionContext, type MaskRefractionInput, type MaskRefractionReport } from './maskRefraction';
 import { altitudeDeg } from './horizon';
 import { hardieAirmass } from './airmass';
-import { offsetAtLoss } from './slitLoss';
 
 /** Length in hours of a window [start, end], 0 without one. */
 export function windowLengthH(window: [number, number] | null): number {
@@ -78,7 +77,7 @@ function nearestTransitCandidate(candidatesH: readonly number[]): number | null 
  * the slits are cut for d (maskRefractionReport's rule: passing rows of the hour-angle grid joined into a stretch,
  * its ends refined by 12 bisections), 0 when d itself fails or no stretch holds it. Made cheap for ranking many d:
  * the slit geometry is built once; the images' across-slit positions are computed once per grid hour angle for all
- * d; a slit's loss limit becomes, once per slit width, an offset limit (the loss grows with |offset|); only the
+ * d; a slit's loss limit becomes an offset limit once, in the context (the loss grows with |offset|); only the
  * stretch about d is walked; and between grid hour angles the bisection interpolates the positions linearly (the
  * report built for the chosen d refines its window exactly; the two agree to better than 0.01 h, test/observe).
  */
@@ -91,12 +90,6 @@ function designScorerOf(ctx: MaskRefractionContext): (designH: number) => number
   const input = ctx.input;
   const s = input.settings;
   const grid = hourAngleGridH(s.hourAngleRangeH, s.hourAngleStepH);
-  const limits = new Map<number, number>();
-  const limitOf = (w: number) => {
-    let v = limits.get(w);
-    if (v === undefined) limits.set(w, (v = offsetAtLoss(w, s.seeingFwhmArcsec, s.maxLossFraction)));
-    return v;
-  };
   /** Whether the mask centre is up and within the airmass limit at hour angle h. */
   const centreOk = (h: number) => {
     const alt = altitudeDeg(h * 15, input.mask.decDeg, input.latDeg);
@@ -108,7 +101,7 @@ function designScorerOf(ctx: MaskRefractionContext): (designH: number) => number
   const onGrid = grid.map((h) => ({ ok: centreOk(h), across: windowAcrossAt(ctx, h) }));
   return (d: number) => {
     const design = windowDesignAcross(ctx, d);
-    const lim = Float64Array.from(design.widthArcsec, limitOf);
+    const lim = design.offsetLimitArcsec;
     /** Every window slit within its offset limit, its blue and red images at (1 - t) x0 + t x1. */
     const slitsPass = (x0: Float64Array, x1: Float64Array, t: number) => {
       for (let i = 0; i < lim.length; i++) {

@@ -107,6 +107,8 @@ interface SlitGeometry {
   widthArcsec: number;
   /** Transmission of the centred image, for the relative loss. */
   centredTransmission: number;
+  /** Across-slit offset (arcsec) at which the loss reaches the limit (offsetAtLoss; the loss grows with |offset|); window-role slits only, else Infinity. */
+  offsetLimitArcsec: number;
   /** RA offset from the mask centre (degrees) and the target's sin/cos Dec. */
   dRaDeg: number;
   sinDec: number;
@@ -202,9 +204,11 @@ export function maskRefractionContext(input: MaskRefractionInput): MaskRefractio
     const at = tangentCentre(slit.raDeg, slit.decDeg);
     const pe = toMask(tangentToSkyDeg(at, eps, 0)), me = toMask(tangentToSkyDeg(at, -eps, 0));
     const pn = toMask(tangentToSkyDeg(at, 0, eps)), mn = toMask(tangentToSkyDeg(at, 0, -eps));
+    const windowRole = WINDOW_ROLES.includes(slit.role);
     const g: SlitGeometry = {
-      slit, widthArcsec: slit.widthArcsec, windowRole: WINDOW_ROLES.includes(slit.role),
+      slit, widthArcsec: slit.widthArcsec, windowRole,
       centredTransmission: centredSlitTransmission(slit.widthArcsec, s.seeingFwhmArcsec),
+      offsetLimitArcsec: windowRole ? offsetAtLoss(slit.widthArcsec, s.seeingFwhmArcsec, s.maxLossFraction) : Infinity,
       dRaDeg: slit.raDeg - input.mask.raDeg,
       // The slit's own projection centre holds its Dec's sine and cosine (the same expressions).
       sinDec: at.sinDec0, cosDec: at.cosDec0,
@@ -335,24 +339,20 @@ function windowImagesAt(ctx: MaskRefractionContext, haH: number): Float64Array |
 
 /**
  * Mask x (arcsec) where every window-role slit is cut when the mask is designed for hour angle designH (the design
- * wavelength's image relative to the guided centre, as maskRefractionContext sets it), and each such slit's width.
+ * wavelength's image relative to the guided centre, as maskRefractionContext sets it), and each such slit's offset
+ * limit (arcsec, SlitGeometry.offsetLimitArcsec).
  */
-export function windowDesignAcross(ctx: MaskRefractionContext, designH: number): { xArcsec: Float64Array; widthArcsec: Float64Array } {
+export function windowDesignAcross(ctx: MaskRefractionContext, designH: number): { xArcsec: Float64Array; offsetLimitArcsec: Float64Array } {
   // The context's own design hour angle: its slits already hold these positions (the same computation).
   const own = Object.is(designH, ctx.input.designHourAngleH);
   const c0 = own ? null : designCentreLift(ctx, designH);
   const win = ctx.slits.filter((g) => g.windowRole);
-  const xArcsec = new Float64Array(win.length), widthArcsec = new Float64Array(win.length);
+  const xArcsec = new Float64Array(win.length), offsetLimitArcsec = new Float64Array(win.length);
   win.forEach((g, i) => {
     xArcsec[i] = c0 ? designImage(ctx, g, designH, c0).xArcsec : g.design.xArcsec;
-    widthArcsec[i] = g.widthArcsec;
+    offsetLimitArcsec[i] = g.offsetLimitArcsec;
   });
-  return { xArcsec, widthArcsec };
-}
-
-/** Across-slit offset (arcsec) at which a slit of widthArcsec reaches the loss limit (offsetAtLoss, which keeps its last answer). */
-function offsetLimitOf(ctx: MaskRefractionContext, widthArcsec: number): number {
-  return offsetAtLoss(widthArcsec, ctx.input.settings.seeingFwhmArcsec, ctx.input.settings.maxLossFraction);
+  return { xArcsec, offsetLimitArcsec };
 }
 
 /** The summary row of the mask at hour angle haH (window-role slits only; no per-slit rows are built). */
@@ -393,7 +393,7 @@ export function maskRowAt(ctx: MaskRefractionContext, haH: number, stopAtFirstFa
       const w = widest.get(g.widthArcsec);
       if (!w) widest.set(g.widthArcsec, { offset: worst, g });
       else if (worst >= w.offset) { w.offset = worst; w.g = g; }
-      if (worst >= offsetLimitOf(ctx, g.widthArcsec)) {
+      if (worst >= g.offsetLimitArcsec) {
         row.slitsOverLimit++;
         if (stopAtFirstFailure) break;
       }

@@ -4,7 +4,7 @@
  * and end = y + minLength/2 + gap, which is exactly the contract's gap rule between minimal slits.
  * Building the index sorts once (O(n log n)); each solve for a new set of weights is O(n).
  */
-import { lowerBound, orderByValue } from '../numeric/orderByValue';
+import { lowerBound, orderOf } from '../numeric/orderByValue';
 
 /** Intervals sorted by end, with the predecessor count of each: pred[k] = number of sorted intervals ending at or before start of the k-th. */
 export interface IntervalIndex {
@@ -16,7 +16,7 @@ export interface IntervalIndex {
 /** Sort intervals by end and find each one's last compatible predecessor (binary search). */
 export function buildIntervalIndex(starts: ArrayLike<number>, ends: ArrayLike<number>): IntervalIndex {
   const n = starts.length;
-  const order = orderByValue(ends) ?? Int32Array.from({ length: n }, (_, i) => i).sort((a, b) => ends[a] - ends[b] || a - b);
+  const order = orderOf(ends);
   const sortedEnds = new Float64Array(n);
   for (let k = 0; k < n; k++) sortedEnds[k] = ends[order[k]];
   const pred = new Int32Array(n);
@@ -117,14 +117,14 @@ const startViews = new WeakMap<IntervalIndex, StartView>();
 
 /**
  * The intervals ordered by (start, index): the end order itself when it is already in that order (intervals of one
- * length, as a mask's minimal slits), checked in O(n); else sorted (orderByValue).
+ * length, as a mask's minimal slits), checked in O(n); else sorted (orderOf).
  */
 function startOrder(index: IntervalIndex, starts: ArrayLike<number>): Int32Array {
   const e = index.order, n = e.length;
   let k = 1;
   while (k < n && (starts[e[k - 1]] < starts[e[k]] || (starts[e[k - 1]] === starts[e[k]] && e[k - 1] < e[k]))) k++;
   if (k >= n) return e;
-  return orderByValue(starts) ?? Int32Array.from({ length: n }, (_, i) => i).sort((a, b) => starts[a] - starts[b] || a - b);
+  return orderOf(starts);
 }
 
 function startView(index: IntervalIndex, starts: ArrayLike<number>, ends: ArrayLike<number>): StartView {

@@ -245,7 +245,6 @@ export function searchPointings(env: SearchEnv, start: readonly MaskPointing[], 
   const proxyMask = instrumentsProxyModel(env, proxyModel);
   const minAlign = profile.alignment.minCount;
   const shortOf = (p: ProxyMask) => alignmentShortOf(p, minAlign);
-  const problemOf = (ps: readonly ProxyMask[]): JointProblem => ({ weights: ctx.weights, masks: ps.map((p) => p.set) });
   // Keep the mask over the galaxy's field: its centre within tracerReachRe (semi-major) + half the footprint's diagonal.
   const maxCentreArcsec = (env.objective.tracerReachRe * g.reArcsec) / Math.sqrt(g.axisRatio) + halfDiag;
   let evaluations = 0, accepted = 0;
@@ -274,7 +273,7 @@ export function searchPointings(env: SearchEnv, start: readonly MaskPointing[], 
     next[m] = prox;
     const short = st.short - shortOf(st.proxies[m]) + shortOf(prox);
     if (short > st.short) return { m, pp, pointing, prox, chosen: st.chosen, tally: st.tallies[m], value: -Infinity, short, deficit: Infinity };
-    const chosen = resolveOneMask(problemOf(next), st.chosen.map((c, i) => (i === m ? [] : c)), m);
+    const chosen = resolveOneMask(proxyProblem(ctx, next), st.chosen.map((c, i) => (i === m ? [] : c)), m);
     const tally = proxyTracerTally(env, pointing, prox, chosen[m]);
     const tallies = st.tallies.slice();
     tallies[m] = tally;
@@ -283,7 +282,7 @@ export function searchPointings(env: SearchEnv, start: readonly MaskPointing[], 
     if (om && onlyIfBetter && ceilingBounds) {
       // The tracer terms, the deficit and the shortfall are final; the starlight terms can only rise to the ceiling.
       const most = proxyStarlightCeiling(env, pointing, om, slots);
-      const ceiling = objectiveValue(env.objective, starlightCeiling(mergeTallies(env.objective, tallies), most.maxRe, most.slits));
+      const ceiling = ceilingValue(env, tallies, most.maxRe, most.slits);
       if (!better({ short, value: ceiling.total, deficit: crossDeficit(floor, ceiling, env.objective.tracerReachRe) }, st)) return null;
     }
     if (om) addProxyStarlight(env, pointing, om, slots, tally);
@@ -446,6 +445,16 @@ function ceilingBoundsObjective(o: ObjectiveContext): boolean {
   return o.unitWeight >= 0 && w.aStarlightBin >= 0 && w.aStarlightSector >= 0 && w.aStarlightReach >= 0;
 }
 
+/** The objective of masks' tallies with the most starlight their free space allows (starlightCeiling: maxRe, slits): an upper bound when ceilingBoundsObjective. */
+function ceilingValue(env: SearchEnv, tallies: readonly Tally[], maxRe: number, slits: number): ObjectiveValue {
+  return objectiveValue(env.objective, starlightCeiling(mergeTallies(env.objective, tallies), maxRe, slits));
+}
+
+/** The joint allocation problem of proxy masks: the context's weights, each mask's candidate set. */
+function proxyProblem(ctx: SearchEnv['ctx'], ps: readonly ProxyMask[]): JointProblem {
+  return { weights: ctx.weights, masks: ps.map((p) => p.set) };
+}
+
 /** Ranking of the start layouts: fewer alignment boxes missing first, then an objective higher by more than 1e-9 relative. */
 function betterStart(t: { short: number; value: number }, st: { short: number; value: number }): boolean {
   return t.short < st.short || (t.short === st.short && t.value > st.value * (1 + 1e-9) + 1e-9);
@@ -483,7 +492,6 @@ export function rankStarts(
   const gc = tangentCentre(ctx.galaxy.raDeg, ctx.galaxy.decDeg);
   const minAlign = ctx.profile.alignment.minCount, goalRe = env.objective.tracerReachRe;
   const ceilingBounds = ceilingBoundsObjective(env.objective);
-  const problemOf = (ps: readonly ProxyMask[]): JointProblem => ({ weights: ctx.weights, masks: ps.map((p) => p.set) });
   const proxies = new Map<string, ProxyMask>();
   const proxyOf = (p: MaskPointing): ProxyMask => {
     const key = pointingKey(p);
@@ -499,7 +507,7 @@ export function rankStarts(
     });
     const pointings = ps.map((p) => ({ ...p }));
     const px = pointings.map(proxyOf);
-    const chosen = improveByBestResponse(problemOf(px), allocateGreedyMaskByMask(problemOf(px)).chosen, 3);
+    const chosen = improveByBestResponse(proxyProblem(ctx, px), allocateGreedyMaskByMask(proxyProblem(ctx, px)).chosen, 3);
     const tallies = px.map((p, m) => proxyTracerTally(env, pointings[m], p, chosen[m]));
     evaluations++;
     // Starlight adds nothing to the tracer weight and reach that the deficit reads.
@@ -522,7 +530,7 @@ export function rankStarts(
       slits += most.slits;
       maxRe = Math.max(maxRe, most.maxRe);
     });
-    const c = objectiveValue(env.objective, starlightCeiling(mergeTallies(env.objective, st.tallies), maxRe, slits)).total;
+    const c = ceilingValue(env, st.tallies, maxRe, slits).total;
     return Number.isNaN(c) ? Infinity : c;
   };
   const finished = new Set<SearchState>();

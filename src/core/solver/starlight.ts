@@ -35,7 +35,7 @@ import { sectorOf } from './objective';
 import { skySlitMuThreshold } from './skySlitRule';
 import { parseDecDeg, parseRaDeg } from '../sky/sexagesimal';
 import { planSkyMagPerArcsec2 } from '../observe/planSky';
-import { orderByValue } from '../numeric/orderByValue';
+import { orderOf } from '../numeric/orderByValue';
 import type { ObservingSection } from '../plan/observingSection';
 
 /** Settings after defaults. */
@@ -663,7 +663,7 @@ export function spanOverlaps(spans: readonly Span[], gapArcsec: number): (lo: nu
   const n = spans.length;
   const los = new Float64Array(n);
   for (let i = 0; i < n; i++) los[i] = spans[i].lo;
-  const order = orderByValue(los) ?? Array.from({ length: n }, (_, i) => i).sort((a, b) => spans[a].lo - spans[b].lo || a - b);
+  const order = orderOf(los);
   const loR = new Float64Array(n), hiR = new Float64Array(n), maxHi = new Float64Array(n);
   order.forEach((i, k) => {
     loR[k] = spans[i].lo - gapArcsec - MARGIN;
